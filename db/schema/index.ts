@@ -1,0 +1,3 @@
+// One file per feature; each is re-exported here so drizzle-kit and the app see one schema.
+export * from './accounts';
+export * from './mail';

@@ -1,0 +1,35 @@
+#!/usr/bin/env bash
+# One-time and every-time set-up shared by `npm start` and `npm test`:
+# Debian packages, node_modules, the private MariaDB, migrations.
+# Usage: scripts/setup.sh [--with-browser]
+set -euo pipefail
+cd "$(dirname "$0")/.."
+
+need_pkgs=()
+command -v mariadbd >/dev/null 2>&1 || need_pkgs+=(mariadb-server)
+if [ "${1:-}" = "--with-browser" ]; then
+  [ -x /usr/bin/chromium ] || need_pkgs+=(chromium)
+fi
+if [ ${#need_pkgs[@]} -gt 0 ]; then
+  echo "Installing Debian packages: ${need_pkgs[*]}"
+  if [ "$(id -u)" -ne 0 ]; then
+    echo "Installing ${need_pkgs[*]} needs root: run 'sudo apt-get install ${need_pkgs[*]}' once, then try again." >&2
+    exit 1
+  fi
+  export DEBIAN_FRONTEND=noninteractive
+  apt-get update -qq
+  apt-get install -y -qq --no-install-recommends "${need_pkgs[@]}" >/dev/null
+  # The Debian package starts a system server on 3306; ours runs privately, so stop that one.
+  (service mariadb stop >/dev/null 2>&1 || true)
+fi
+
+# npm ci when node_modules is missing or was installed from another lock file.
+lock_hash=$(sha256sum package-lock.json | cut -d' ' -f1)
+if [ ! -f node_modules/.ripplehall-lock ] || [ "$(cat node_modules/.ripplehall-lock)" != "$lock_hash" ]; then
+  echo "Installing npm packages (npm ci)..."
+  npm ci --no-audit --no-fund --loglevel=error
+  echo "$lock_hash" > node_modules/.ripplehall-lock
+fi
+
+bash scripts/db.sh ensure "${DB_NAME:-ripplehall}"
+npx tsx db/migrate.ts

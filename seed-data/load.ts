@@ -1,0 +1,16 @@
+// Loads the demo data idempotently: accounts first, then each demo scenario.
+import { pool } from '../server/db';
+import { config } from '../server/config';
+import { seedAccounts } from './accounts';
+
+try {
+  const accounts = await seedAccounts();
+  const rooms = await import('./rooms').catch(() => undefined);
+  if (rooms) await rooms.seedRooms(accounts.facilitatorId);
+  console.log(`Demo data is loaded in ${config.DB_NAME}.`);
+} catch (err) {
+  console.error(`Could not load the demo data: ${(err as Error).message}`);
+  process.exitCode = 1;
+} finally {
+  await pool.end();
+}

@@ -1,0 +1,79 @@
+import { randomBytes } from 'node:crypto';
+import { existsSync, readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import express, { type Express, type Request, type Response } from 'express';
+import cookieParser from 'cookie-parser';
+import helmet from 'helmet';
+import { config } from './config';
+import { apiRouter } from './api';
+import { currentUser } from './auth/current-user';
+import { csrfProtection } from './core/csrf';
+import { errorHandler } from './core/error-handler';
+import { requestLogger } from './core/logging';
+import { absoluteLifetime, sessionMiddleware } from './core/session';
+
+const browserDir = fileURLToPath(new URL('../dist/ripplehall/browser', import.meta.url));
+
+/** Builds the app (tests import this); server/main.ts only listens. */
+export function createApp(): Express {
+  const app = express();
+  const secure = (config.PUBLIC_URL ?? '').startsWith('https://');
+  app.disable('x-powered-by');
+  app.set('trust proxy', config.TRUST_PROXY);
+  app.set('query parser', 'simple');
+
+  app.use((_req, res, next) => {
+    res.locals['cspNonce'] = randomBytes(16).toString('base64');
+    next();
+  });
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: true,
+        directives: {
+          'default-src': ["'self'"],
+          'script-src': ["'self'"],
+          // Angular inserts component styles at run time; it stamps them with this nonce.
+          'style-src': ["'self'", (_req, res) => `'nonce-${(res as Response).locals['cspNonce']}'`],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'font-src': ["'self'"],
+          'connect-src': ["'self'"],
+          'object-src': ["'none'"],
+          'frame-ancestors': ["'none'"],
+          'form-action': ["'self'"],
+          'upgrade-insecure-requests': secure ? [] : null,
+        },
+      },
+      strictTransportSecurity: secure,
+    }),
+  );
+  app.use(requestLogger);
+  app.use(express.json({ limit: '2mb' }));
+  app.use(cookieParser());
+  app.use('/api', sessionMiddleware(secure), absoluteLifetime, currentUser, csrfProtection(config.SESSION_SECRET, secure));
+  app.use('/api', apiRouter());
+  serveClient(app);
+  app.use(errorHandler);
+  return app;
+}
+
+/** The built Angular app, with the CSP nonce written into index.html on every request. */
+function serveClient(app: Express) {
+  const indexFile = `${browserDir}/index.html`;
+  let template: string | undefined;
+  const index = (_req: Request, res: Response) => {
+    if (!existsSync(indexFile)) {
+      res.status(503).type('text').send('The client is not built yet: run `npm start` (or `npx ng build`).');
+      return;
+    }
+    template ??= readFileSync(indexFile, 'utf8');
+    const nonce = res.locals['cspNonce'] as string;
+    res
+      .type('html')
+      .set('Cache-Control', 'no-store')
+      .send(template.replace('<app-root', `<app-root ngCspNonce="${nonce}"`).replaceAll('<style', `<style nonce="${nonce}"`));
+  };
+  app.get('/', index);
+  app.use(express.static(browserDir, { index: false, maxAge: '1h' }));
+  app.get('/{*splat}', index);
+}

@@ -1,0 +1,18 @@
+import type { NextFunction, Request, Response } from 'express';
+import { findUserById } from './store';
+
+/**
+ * Loads the signed-in account on every request, so a deactivation or role change takes
+ * effect at once, even for sessions that are still open elsewhere.
+ */
+export async function currentUser(req: Request, _res: Response, next: NextFunction) {
+  const userId = req.session?.userId;
+  if (!userId) return next();
+  const row = await findUserById(userId);
+  if (!row || row.status !== 'active') {
+    await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
+    return next();
+  }
+  req.user = { id: row.id, email: row.email, name: row.name, role: row.role };
+  next();
+}

@@ -1,0 +1,46 @@
+import type { NextFunction, Request, Response } from 'express';
+import { HttpError } from './http-error';
+
+interface BodyParserError {
+  type?: string;
+  status?: number;
+  code?: string;
+  message?: string;
+}
+
+/** Maps library errors that are really the client's doing to clear messages. */
+function asOperational(err: unknown): HttpError | undefined {
+  if (err instanceof HttpError) return err;
+  const e = err as BodyParserError;
+  if (e?.type === 'entity.parse.failed') return new HttpError(400, 'bad_json', 'The request body is not valid JSON.');
+  if (e?.type === 'entity.too.large') return new HttpError(413, 'too_large', 'The request is too large.');
+  if (e?.type === 'encoding.unsupported' || e?.type === 'charset.unsupported') {
+    return new HttpError(415, 'bad_encoding', 'Send the request as UTF-8.');
+  }
+  if (e?.code === 'LIMIT_FILE_SIZE') return new HttpError(413, 'too_large', 'The file is larger than the upload limit.');
+  if (e?.code && String(e.code).startsWith('LIMIT_')) return new HttpError(400, 'bad_upload', e.message ?? 'The upload was refused.');
+  if (e?.code === 'ER_DUP_ENTRY') return new HttpError(409, 'duplicate', 'That already exists.');
+  if (e?.code === 'ECONNREFUSED' || e?.code === 'PROTOCOL_CONNECTION_LOST') {
+    return new HttpError(503, 'database_unavailable', 'The database is not reachable right now. Try again in a minute.');
+  }
+  return undefined;
+}
+
+/** The one error handler, registered after every route. */
+export function errorHandler(err: unknown, req: Request, res: Response, _next: NextFunction): void {
+  const known = asOperational(err);
+  if (res.headersSent) {
+    req.log?.error({ err }, 'error after headers were sent');
+    res.end();
+    return;
+  }
+  if (known) {
+    if (known.status >= 500) req.log?.warn({ err }, known.message);
+    res.status(known.status).json({ error: { code: known.code, message: known.message, details: known.details } });
+    return;
+  }
+  req.log?.error({ err }, 'unhandled error');
+  res.status(500).json({
+    error: { code: 'internal', message: `Something went wrong on our side. Quote request id ${String(req.id)} if you report it.` },
+  });
+}

@@ -1,0 +1,46 @@
+import session from 'express-session';
+import MySQLStoreFactory from 'express-mysql-session';
+import type { NextFunction, Request, Response } from 'express';
+import { config } from '../config';
+import { pool } from '../db';
+
+export const SESSION_COOKIE = 'rh.sid';
+
+const MySQLStore = MySQLStoreFactory(session as never);
+
+export function sessionMiddleware(secure: boolean) {
+  const store = new MySQLStore(
+    {
+      createDatabaseTable: false,
+      clearExpired: true,
+      checkExpirationInterval: 15 * 60 * 1000,
+      schema: { tableName: 'sessions', columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' } },
+    },
+    pool as never,
+  );
+  return session({
+    name: SESSION_COOKIE,
+    secret: config.SESSION_SECRET,
+    store,
+    resave: false,
+    saveUninitialized: false,
+    rolling: true, // each request pushes the idle deadline forward
+    proxy: config.TRUST_PROXY,
+    cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: config.SESSION_IDLE_MINUTES * 60 * 1000 },
+  });
+}
+
+/** Ends sessions older than the absolute lifetime, whatever their activity. */
+export function absoluteLifetime(req: Request, _res: Response, next: NextFunction): void {
+  const started = req.session?.signedInAt;
+  if (started && Date.now() - started > config.SESSION_MAX_HOURS * 3600 * 1000) {
+    req.session.destroy(() => next());
+    return;
+  }
+  next();
+}
+
+/** Removes every stored session of one account (deactivation, password reset). */
+export async function endSessionsOf(userId: number): Promise<void> {
+  await pool.query("DELETE FROM sessions WHERE JSON_VALUE(data, '$.userId') = ?", [String(userId)]);
+}

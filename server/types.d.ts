@@ -1,0 +1,26 @@
+import type { AccountRole } from '../db/schema/accounts';
+
+export interface SignedInUser {
+  id: number;
+  email: string;
+  name: string;
+  role: AccountRole;
+}
+
+declare global {
+  namespace Express {
+    interface Request {
+      /** The signed-in account, loaded fresh from the database on every request. */
+      user?: SignedInUser;
+      id: string | number | object;
+    }
+  }
+}
+
+declare module 'express-session' {
+  interface SessionData {
+    userId?: number;
+    /** Epoch ms of sign-in, for the absolute session lifetime. */
+    signedInAt?: number;
+  }
+}

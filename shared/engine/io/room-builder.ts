@@ -1,0 +1,210 @@
+/**
+ * The validation every room format shares: people ids, tie strengths, self-ties, duplicate ties
+ * (merged by summing, with a warning), empty rooms and size limits. Parsers feed it rows with their
+ * location; it reports issues through an IssueList and builds the RoomGraph.
+ */
+import type { RoomGraph, RoomTie } from '../graph';
+import { DEFAULT_LIMITS, type IssueList, type IssueWhere, type ParseOptions } from './issues';
+
+const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
+export interface StrengthReading {
+  readonly value?: number;
+  readonly problem?: string;
+}
+
+/** Reads a strength: a positive, finite decimal number not above maxStrength. Missing means 1. */
+export function readStrength(raw: unknown, maxStrength: number, decimalComma = false): StrengthReading {
+  if (raw === undefined || raw === null || (typeof raw === 'string' && raw.trim() === '')) {
+    return { value: 1 };
+  }
+  let value: number;
+  if (typeof raw === 'number') {
+    value = raw;
+  } else if (typeof raw === 'string') {
+    let text = raw.trim();
+    if (decimalComma && /^[+-]?\d+,\d+$/.test(text)) text = text.replace(',', '.');
+    if (!DECIMAL.test(text)) {
+      return { problem: `"${clip(raw)}" is not a number; write a positive number such as 1 or 2.5` };
+    }
+    value = Number(text);
+  } else {
+    return { problem: `${clip(JSON.stringify(raw))} is not a number; write a positive number such as 1 or 2.5` };
+  }
+  if (!Number.isFinite(value)) {
+    return { problem: `${clip(String(raw))} is not a finite number; write a positive number such as 1 or 2.5` };
+  }
+  if (value <= 0) {
+    return {
+      problem: `${value} is not positive; a tie needs a strength above 0 (leave the tie out if there is none)`,
+    };
+  }
+  if (value > maxStrength) {
+    return { problem: `${value} is too large (the limit is ${maxStrength}); check the unit or rescale the strengths` };
+  }
+  return { value };
+}
+
+export function clip(text: string, max = 40): string {
+  return text.length > max ? `${text.slice(0, max)}...` : text;
+}
+
+interface PendingTie {
+  source: number;
+  target: number;
+  strength: number;
+  where: IssueWhere;
+  merged: number;
+}
+
+export class RoomBuilder {
+  private readonly ids: string[] = [];
+  private readonly labels: string[] = [];
+  private readonly groups: (string | null)[] = [];
+  private readonly index = new Map<string, { i: number; where: IssueWhere }>();
+  private readonly ties = new Map<string, PendingTie>();
+  private hasLabels = false;
+  private hasGroups = false;
+  private tooManyPeople = false;
+  private tooManyTies = false;
+  readonly limits: Required<Omit<ParseOptions, 'directed'>>;
+
+  /** `trimIds`: CSV cells are trimmed; JSON and GraphML ids are kept exactly as written. */
+  constructor(
+    private readonly issues: IssueList,
+    options: ParseOptions = {},
+    private readonly trimIds = false,
+  ) {
+    this.limits = { ...DEFAULT_LIMITS, ...stripUndefined(options) };
+  }
+
+  get size(): number {
+    return this.ids.length;
+  }
+
+  has(id: string): boolean {
+    return this.index.has(id);
+  }
+
+  /** Declares a person; a repeated id is an error. Returns false when the person was not added. */
+  addPerson(rawId: unknown, label: string | undefined, group: string | undefined, where: IssueWhere): boolean {
+    const id = this.readId(rawId, where);
+    if (id === undefined) return false;
+    const seen = this.index.get(id);
+    if (seen) {
+      this.issues.error('duplicate-person', `person "${clip(id)}" is listed twice (first at ${placeOf(seen.where)}); keep one row per person`, where);
+      return false;
+    }
+    if (this.ids.length >= this.limits.maxPeople) {
+      if (!this.tooManyPeople) {
+        this.tooManyPeople = true;
+        this.issues.error('room-too-large', `the room has more than ${this.limits.maxPeople} people, the most allowed; split it into smaller rooms`, where);
+      }
+      return false;
+    }
+    this.index.set(id, { i: this.ids.length, where });
+    this.ids.push(id);
+    this.labels.push(label ?? id);
+    this.groups.push(group ?? null);
+    if (label !== undefined && label !== '') this.hasLabels = true;
+    if (group !== undefined && group !== '') this.hasGroups = true;
+    return true;
+  }
+
+  /** Adds a tie. With `implicitPeople` unknown ids become new people (CSV without a people file). */
+  addTie(
+    rawSource: unknown,
+    rawTarget: unknown,
+    rawStrength: unknown,
+    where: IssueWhere,
+    fields: { source: string; target: string; strength: string },
+    directed: boolean,
+    implicitPeople = false,
+    decimalComma = false,
+  ): void {
+    const s = this.resolve(rawSource, { ...where, field: fields.source }, implicitPeople);
+    const t = this.resolve(rawTarget, { ...where, field: fields.target }, implicitPeople);
+    const reading = readStrength(rawStrength, this.limits.maxStrength, decimalComma);
+    if (reading.problem) this.issues.error('bad-strength', reading.problem, { ...where, field: fields.strength });
+    if (s === undefined || t === undefined || reading.value === undefined) return;
+    if (s === t) {
+      this.issues.error('self-tie', `"${clip(this.ids[s])}" is tied to themself; remove this tie (use laziness to model staying put)`, where);
+      return;
+    }
+    const key = directed || s < t ? `${s} ${t}` : `${t} ${s}`;
+    const seen = this.ties.get(key);
+    if (seen) {
+      seen.strength += reading.value;
+      seen.merged++;
+      this.issues.warn(
+        'duplicate-tie',
+        `tie "${clip(this.ids[s])}" - "${clip(this.ids[t])}" repeats the one at ${placeOf(seen.where)}; strengths were added (now ${seen.strength})`,
+        where,
+      );
+      return;
+    }
+    if (this.ties.size >= this.limits.maxTies) {
+      if (!this.tooManyTies) {
+        this.tooManyTies = true;
+        this.issues.error('room-too-large', `the room has more than ${this.limits.maxTies} ties, the most allowed`, where);
+      }
+      return;
+    }
+    this.ties.set(key, { source: s, target: t, strength: reading.value, where, merged: 0 });
+  }
+
+  /** Checks the whole room (empty, no ties, isolated people) and returns the graph. */
+  finish(directed: boolean, file: string): RoomGraph {
+    if (this.ids.length === 0) {
+      this.issues.error('empty-room', 'the room has no people; add at least one person (and ties between people)', { file });
+    } else if (this.ties.size === 0) {
+      this.issues.warn('no-ties', 'the room has no ties; nobody can pass anything on', { file });
+    } else {
+      const touched = new Uint8Array(this.ids.length);
+      for (const t of this.ties.values()) {
+        touched[t.source] = 1;
+        touched[t.target] = 1;
+      }
+      for (let i = 0; i < this.ids.length; i++) {
+        if (!touched[i]) {
+          this.issues.warn('isolated-person', `"${clip(this.ids[i])}" has no ties; they hear only if briefed (or through background mixing)`, this.index.get(this.ids[i])!.where);
+        }
+      }
+    }
+    const ties: RoomTie[] = [...this.ties.values()].map((t) => ({ source: t.source, target: t.target, strength: t.strength }));
+    const graph: { -readonly [K in keyof RoomGraph]: RoomGraph[K] } = { ids: this.ids, directed, ties };
+    if (this.hasLabels) graph.labels = this.labels;
+    if (this.hasGroups) graph.groups = this.groups;
+    return graph;
+  }
+
+  private readId(raw: unknown, where: IssueWhere): string | undefined {
+    if (typeof raw === 'number' && Number.isFinite(raw)) return String(raw);
+    if (typeof raw === 'string' && raw.trim() !== '') return this.trimIds ? raw.trim() : raw;
+    const shown = raw === undefined ? 'missing' : raw === '' ? 'empty' : `${clip(JSON.stringify(raw) ?? String(raw))}, not a name or number`;
+    this.issues.error('bad-id', `the person id is ${shown}; every person needs an id`, { ...where, field: where.field ?? 'id' });
+    return undefined;
+  }
+
+  private resolve(raw: unknown, where: IssueWhere, implicitPeople: boolean): number | undefined {
+    const id = this.readId(raw, where);
+    if (id === undefined) return undefined;
+    const seen = this.index.get(id);
+    if (seen) return seen.i;
+    if (implicitPeople) {
+      return this.addPerson(id, undefined, undefined, where) ? this.ids.length - 1 : undefined;
+    }
+    this.issues.error('unknown-id', `"${clip(id)}" is not a person of this room; add them to the people list or correct the id`, where);
+    return undefined;
+  }
+}
+
+export function placeOf(where: IssueWhere): string {
+  if (where.line !== undefined) return `line ${where.line}`;
+  if (where.element !== undefined) return where.element;
+  return 'an earlier row';
+}
+
+function stripUndefined<T extends object>(o: T): Partial<T> {
+  return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as Partial<T>;
+}
