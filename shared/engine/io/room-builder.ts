@@ -156,7 +156,7 @@ export class RoomBuilder {
   /** Checks the whole room (empty, no ties, isolated people) and returns the graph. */
   finish(directed: boolean, file: string): RoomGraph {
     if (this.ids.length === 0) {
-      this.issues.error('empty-room', 'the room has no people; add at least one person (and ties between people)', { file });
+      if (!this.issues.hasErrors) this.issues.error('empty-room', 'the room has no people; add at least one person (and ties between people)', { file });
     } else if (this.ties.size === 0) {
       this.issues.warn('no-ties', 'the room has no ties; nobody can pass anything on', { file });
     } else {
@@ -167,7 +167,10 @@ export class RoomBuilder {
       }
       for (let i = 0; i < this.ids.length; i++) {
         if (!touched[i]) {
-          this.issues.warn('isolated-person', `"${clip(this.ids[i])}" has no ties; they hear only if briefed (or through background mixing)`, this.index.get(this.ids[i])!.where);
+          this.issues.warn('isolated-person', `"${clip(this.ids[i])}" has no ties; they hear only if briefed (or through background mixing)`, {
+            ...this.index.get(this.ids[i])!.where,
+            field: undefined,
+          });
         }
       }
     }
