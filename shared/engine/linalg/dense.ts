@@ -1,0 +1,169 @@
+/**
+ * Dense kernels over row-major Float64Array matrices: LU with partial pivoting
+ * (Golub & Van Loan, Matrix Computations, alg. 3.4.1; (2/3) n^3 flops), Cholesky
+ * (alg. 4.2.1; n^3 / 3 flops) and Gauss-Jordan inversion with partial pivoting (2 n^3 flops).
+ * Inner loops run along rows so they stay cache-friendly.
+ */
+import { EngineError } from '../errors';
+
+export interface LuFactors {
+  readonly n: number;
+  readonly lu: Float64Array;
+  readonly piv: Int32Array;
+}
+
+/** Factors a (overwritten) as P A = L U. Throws SOLVER_FAILED on a singular matrix. */
+export function luFactor(a: Float64Array, n: number): LuFactors {
+  const piv = new Int32Array(n);
+  for (let k = 0; k < n; k++) {
+    let p = k;
+    let best = Math.abs(a[k * n + k]);
+    for (let i = k + 1; i < n; i++) {
+      const v = Math.abs(a[i * n + k]);
+      if (v > best) { best = v; p = i; }
+    }
+    if (!(best > 0)) throw new EngineError('SOLVER_FAILED', 'The system is singular: some people cannot reach any starter.');
+    piv[k] = p;
+    if (p !== k) {
+      const rk = k * n;
+      const rp = p * n;
+      for (let j = 0; j < n; j++) { const t = a[rk + j]; a[rk + j] = a[rp + j]; a[rp + j] = t; }
+    }
+    const rk = k * n;
+    const inv = 1 / a[rk + k];
+    for (let i = k + 1; i < n; i++) {
+      const ri = i * n;
+      const l = a[ri + k] * inv;
+      a[ri + k] = l;
+      if (l === 0) continue;
+      for (let j = k + 1; j < n; j++) a[ri + j] -= l * a[rk + j];
+    }
+  }
+  return { n, lu: a, piv };
+}
+
+/** Solves A x = b in place of b using the factors. */
+export function luSolve(f: LuFactors, b: Float64Array): Float64Array {
+  const { n, lu, piv } = f;
+  for (let k = 0; k < n; k++) {
+    const p = piv[k];
+    if (p !== k) { const t = b[k]; b[k] = b[p]; b[p] = t; }
+  }
+  for (let i = 0; i < n; i++) {
+    let s = b[i];
+    const ri = i * n;
+    for (let j = 0; j < i; j++) s -= lu[ri + j] * b[j];
+    b[i] = s;
+  }
+  for (let i = n - 1; i >= 0; i--) {
+    let s = b[i];
+    const ri = i * n;
+    for (let j = i + 1; j < n; j++) s -= lu[ri + j] * b[j];
+    b[i] = s / lu[ri + i];
+  }
+  return b;
+}
+
+/** Solves A^T x = b in place of b using the factors of A. */
+export function luSolveTransposed(f: LuFactors, b: Float64Array): Float64Array {
+  const { n, lu, piv } = f;
+  // A^T = U^T L^T P, so solve U^T z = b, L^T y = z, x = P^T y.
+  for (let i = 0; i < n; i++) b[i] /= lu[i * n + i], subtractRow(lu, n, i, b, i + 1, n);
+  for (let i = n - 1; i >= 0; i--) subtractRowLower(lu, n, i, b);
+  for (let k = n - 1; k >= 0; k--) {
+    const p = piv[k];
+    if (p !== k) { const t = b[k]; b[k] = b[p]; b[p] = t; }
+  }
+  return b;
+}
+
+function subtractRow(lu: Float64Array, n: number, i: number, b: Float64Array, from: number, to: number): void {
+  const ri = i * n;
+  const bi = b[i];
+  if (bi === 0) return;
+  for (let j = from; j < to; j++) b[j] -= lu[ri + j] * bi;
+}
+
+function subtractRowLower(lu: Float64Array, n: number, i: number, b: Float64Array): void {
+  const ri = i * n;
+  const bi = b[i];
+  if (bi === 0) return;
+  for (let j = 0; j < i; j++) b[j] -= lu[ri + j] * bi;
+}
+
+/** Cholesky A = L L^T of a symmetric positive definite matrix (lower triangle used, overwritten). */
+export function choleskyFactor(a: Float64Array, n: number): Float64Array {
+  for (let j = 0; j < n; j++) {
+    const rj = j * n;
+    let d = a[rj + j];
+    for (let k = 0; k < j; k++) d -= a[rj + k] * a[rj + k];
+    if (!(d > 0)) throw new EngineError('SOLVER_FAILED', 'The system is not positive definite: some people cannot reach any starter.');
+    const ljj = Math.sqrt(d);
+    a[rj + j] = ljj;
+    const inv = 1 / ljj;
+    for (let i = j + 1; i < n; i++) {
+      const ri = i * n;
+      let s = a[ri + j];
+      for (let k = 0; k < j; k++) s -= a[ri + k] * a[rj + k];
+      a[ri + j] = s * inv;
+    }
+  }
+  return a;
+}
+
+export function choleskySolve(l: Float64Array, n: number, b: Float64Array): Float64Array {
+  for (let i = 0; i < n; i++) {
+    const ri = i * n;
+    let s = b[i];
+    for (let k = 0; k < i; k++) s -= l[ri + k] * b[k];
+    b[i] = s / l[ri + i];
+  }
+  for (let i = n - 1; i >= 0; i--) {
+    const bi = (b[i] /= l[i * n + i]);
+    const ri = i * n;
+    if (bi !== 0) for (let k = 0; k < i; k++) b[k] -= l[ri + k] * bi;
+  }
+  return b;
+}
+
+/** Inverts a (overwritten) by Gauss-Jordan elimination with partial pivoting. */
+export function invertInPlace(a: Float64Array, n: number): Float64Array {
+  const perm = new Int32Array(n);
+  const row = new Float64Array(n);
+  for (let i = 0; i < n; i++) perm[i] = i;
+  for (let k = 0; k < n; k++) {
+    let p = k;
+    let best = Math.abs(a[k * n + k]);
+    for (let i = k + 1; i < n; i++) {
+      const v = Math.abs(a[i * n + k]);
+      if (v > best) { best = v; p = i; }
+    }
+    if (!(best > 0)) throw new EngineError('SOLVER_FAILED', 'The matrix is singular: some people cannot reach any starter.');
+    const rk = k * n;
+    if (p !== k) {
+      const rp = p * n;
+      for (let j = 0; j < n; j++) { const t = a[rk + j]; a[rk + j] = a[rp + j]; a[rp + j] = t; }
+      const t = perm[k]; perm[k] = perm[p]; perm[p] = t;
+    }
+    const inv = 1 / a[rk + k];
+    a[rk + k] = 1;
+    for (let j = 0; j < n; j++) a[rk + j] *= inv;
+    for (let j = 0; j < n; j++) row[j] = a[rk + j];
+    for (let i = 0; i < n; i++) {
+      if (i === k) continue;
+      const ri = i * n;
+      const f = a[ri + k];
+      if (f === 0) continue;
+      a[ri + k] = 0;
+      for (let j = 0; j < n; j++) a[ri + j] -= f * row[j];
+    }
+  }
+  // Row swaps of A become column swaps of A^-1, undone in reverse order.
+  const tmp = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const ri = i * n;
+    for (let j = 0; j < n; j++) tmp[perm[j]] = a[ri + j];
+    a.set(tmp, ri);
+  }
+  return a;
+}

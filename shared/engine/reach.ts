@@ -1,0 +1,195 @@
+/**
+ * Exact reach for a starter set A (engine.md section 1): h = (I - Q)^-1 1 on T = V \ A.
+ * - dense, undirected, no mixing: Cholesky on the symmetric form (D - W)_T h = d_T (identity 5);
+ * - dense otherwise: LU with partial pivoting on I - Q;                      O(n^3)
+ * - sparse undirected, no mixing: Jacobi-preconditioned CG on L_T (identity 5);  O(m * iterations)
+ * - sparse otherwise: BiCGSTAB on I - Q with the mixing as a rank-one term.    O(m * iterations)
+ * People who cannot reach a starter are excluded from the solve (they never feed back into the
+ * finite part), get h = Infinity, and are listed with their reason.
+ */
+import { EngineError } from './errors';
+import type { WalkOptions } from './graph';
+import { bicgstab, pcg } from './linalg/iterative';
+import { choleskyFactor, choleskySolve, luFactor, luSolve } from './linalg/dense';
+import { unreachablePeople, type UnreachablePerson } from './reachability';
+import { checkPeople, prepareRoom, type PreparedRoom, type RoomInput } from './room';
+import { sparseWalk } from './walk';
+
+export type ReachSolver = 'auto' | 'dense' | 'sparse';
+
+export interface ReachOptions extends WalkOptions {
+  readonly solver?: ReachSolver;
+  /** Largest room solved densely by `auto` (default 2500). */
+  readonly denseLimit?: number;
+  /** Relative residual for the iterative solvers (default 1e-12). */
+  readonly tolerance?: number;
+}
+
+export interface ReachResult {
+  readonly n: number;
+  readonly starters: number[];
+  /** Expected hops to hear per person: 0 on starters, Infinity for the unreachable (listed below). */
+  readonly h: Float64Array;
+  /** Sum of h over non-starters; Infinity exactly when `unreachable` is not empty. */
+  readonly total: number;
+  /** total / (n - |A|); Infinity exactly when `unreachable` is not empty. */
+  readonly average: number;
+  /** Sum and mean over the people who can be reached (finite even when some cannot). */
+  readonly reachableTotal: number;
+  readonly reachableAverage: number;
+  readonly unreachable: UnreachablePerson[];
+  readonly solver: 'cholesky' | 'lu' | 'cg' | 'bicgstab' | 'none';
+  readonly iterations?: number;
+  readonly relativeResidual?: number;
+}
+
+export const DEFAULT_DENSE_LIMIT = 2500;
+
+function isSymmetricForm(room: PreparedRoom): boolean {
+  return !room.directed && room.mixing === 0;
+}
+
+/** Dense I - Q1 restricted to `idx` (row-major, size f x f); symmetric form (D - W) when asked. */
+export function denseSystem(room: PreparedRoom, idx: Int32Array, symmetric: boolean): Float64Array {
+  const { n, csr, mixing: b } = room;
+  const f = idx.length;
+  const pos = new Int32Array(n).fill(-1);
+  for (let k = 0; k < f; k++) pos[idx[k]] = k;
+  const m = new Float64Array(f * f);
+  if (!symmetric && b > 0) m.fill(-b / n);
+  for (let r = 0; r < f; r++) {
+    const i = idx[r];
+    const s = csr.outStrength[i];
+    const row = r * f;
+    if (symmetric) {
+      m[row + r] += s;
+      for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) { const c = pos[csr.col[e]]; if (c >= 0) m[row + c] -= csr.weight[e]; }
+      continue;
+    }
+    m[row + r] += 1;
+    if (s > 0) {
+      const g = (1 - b) / s;
+      for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) { const c = pos[csr.col[e]]; if (c >= 0) m[row + c] -= g * csr.weight[e]; }
+    } else m[row + r] -= 1 - b;
+  }
+  return m;
+}
+
+export function exactReach(input: RoomInput, starterList: readonly number[], options: ReachOptions = {}): ReachResult {
+  const room = prepareRoom(input, options);
+  const starters = checkPeople(room, starterList, 'Starters');
+  const n = room.n;
+  if (starters.length === 0) throw new EngineError('INVALID_STARTERS', 'Choose at least one starter.');
+  const unreachable = unreachablePeople(room, starters);
+  const h = new Float64Array(n);
+  const active = new Uint8Array(n).fill(1);
+  for (const s of starters) active[s] = 0;
+  for (const u of unreachable) { active[u.index] = 0; h[u.index] = Infinity; }
+  const idxList: number[] = [];
+  for (let i = 0; i < n; i++) if (active[i]) idxList.push(i);
+  const idx = Int32Array.from(idxList);
+  const f = idx.length;
+  const scale = 1 / (1 - room.laziness);
+  let solver: ReachResult['solver'] = 'none';
+  let iterations: number | undefined;
+  let relativeResidual: number | undefined;
+  const limit = options.denseLimit ?? DEFAULT_DENSE_LIMIT;
+  const dense = options.solver === 'dense' || (options.solver !== 'sparse' && f <= limit);
+  if (f > 0 && dense) {
+    const sym = isSymmetricForm(room);
+    const m = denseSystem(room, idx, sym);
+    const rhs = new Float64Array(f);
+    if (sym) {
+      for (let k = 0; k < f; k++) rhs[k] = room.csr.outStrength[idx[k]];
+      choleskySolve(choleskyFactor(m, f), f, rhs);
+      solver = 'cholesky';
+    } else {
+      rhs.fill(1);
+      luSolve(luFactor(m, f), rhs);
+      solver = 'lu';
+    }
+    for (let k = 0; k < f; k++) h[idx[k]] = rhs[k] * scale;
+  } else if (f > 0) {
+    const res = sparseSolve(room, starters, unreachable, active, options.tolerance ?? 1e-12);
+    solver = res.solver;
+    iterations = res.iterations;
+    relativeResidual = res.relativeResidual;
+    for (let k = 0; k < f; k++) h[idx[k]] = res.x[idx[k]] * scale;
+  }
+  let reachableTotal = 0;
+  for (let k = 0; k < f; k++) reachableTotal += h[idx[k]];
+  const others = n - starters.length;
+  const total = unreachable.length > 0 ? Infinity : reachableTotal;
+  return {
+    n,
+    starters,
+    h,
+    total,
+    average: others > 0 ? total / others : 0,
+    reachableTotal,
+    reachableAverage: f > 0 ? reachableTotal / f : 0,
+    unreachable,
+    solver,
+    iterations,
+    relativeResidual,
+  };
+}
+
+interface SparseSolveResult {
+  x: Float64Array;
+  solver: 'cg' | 'bicgstab';
+  iterations: number;
+  relativeResidual: number;
+}
+
+/** Iterative solve of (I - Q) x = 1 over the active people (laziness not applied). */
+export function sparseSolve(
+  room: PreparedRoom,
+  starters: readonly number[],
+  unreachable: readonly UnreachablePerson[],
+  active: Uint8Array,
+  tol: number,
+  rhsOverride?: Float64Array,
+): SparseSolveResult {
+  const n = room.n;
+  const { csr } = room;
+  if (isSymmetricForm(room)) {
+    const { rowStart, col, weight, outStrength } = csr;
+    const mul = (x: Float64Array, y: Float64Array) => {
+      for (let i = 0; i < n; i++) {
+        if (!active[i]) { y[i] = 0; continue; }
+        let acc = outStrength[i] * x[i];
+        for (let e = rowStart[i]; e < rowStart[i + 1]; e++) { const j = col[e]; if (active[j]) acc -= weight[e] * x[j]; }
+        y[i] = acc;
+      }
+    };
+    const b = new Float64Array(n);
+    const diag = new Float64Array(n);
+    for (let i = 0; i < n; i++) if (active[i]) { b[i] = rhsOverride ? rhsOverride[i] * outStrength[i] : outStrength[i]; diag[i] = outStrength[i]; }
+    for (let i = 0; i < n; i++) for (let e = rowStart[i]; e < rowStart[i + 1]; e++) if (col[e] === i) diag[i] -= weight[e];
+    const r = pcg(mul, b, diag, { tol });
+    if (!r.converged) throw new EngineError('SOLVER_FAILED', `Conjugate gradient did not converge (relative residual ${r.relativeResidual.toExponential(2)} after ${r.iterations} iterations).`);
+    return { x: r.x, solver: 'cg', iterations: r.iterations, relativeResidual: r.relativeResidual };
+  }
+  const excluded = [...starters, ...unreachable.map((u) => u.index)];
+  const walk = sparseWalk(room, excluded);
+  const t = new Float64Array(n);
+  const mul = (x: Float64Array, y: Float64Array) => {
+    walk.mulQ(x, t);
+    for (let i = 0; i < n; i++) y[i] = active[i] ? x[i] - t[i] : 0;
+  };
+  const b = new Float64Array(n);
+  const diag = new Float64Array(n);
+  const bm = room.mixing;
+  for (let i = 0; i < n; i++) {
+    if (!active[i]) continue;
+    b[i] = rhsOverride ? rhsOverride[i] : 1;
+    let self = bm / n;
+    if (walk.stay[i]) self += 1 - bm;
+    else for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) if (csr.col[e] === i) self += (1 - bm) * walk.prob[e];
+    diag[i] = 1 - self;
+  }
+  const r = bicgstab(mul, b, diag, { tol });
+  if (!r.converged) throw new EngineError('SOLVER_FAILED', `The iterative solver did not converge (relative residual ${r.relativeResidual.toExponential(2)} after ${r.iterations} iterations).`);
+  return { x: r.x, solver: 'bicgstab', iterations: r.iterations, relativeResidual: r.relativeResidual };
+}
