@@ -1,3 +1,16 @@
-import { Routes } from '@angular/router';
+import type { Routes } from '@angular/router';
+import { roleGuard, signedInGuard, signedOutGuard } from './core/auth-guard';
 
-export const routes: Routes = [];
+/** Pages load lazily; each feature keeps its own routes file. */
+export const routes: Routes = [
+  { path: '', pathMatch: 'full', redirectTo: 'rooms' },
+  { path: 'sign-in', canActivate: [signedOutGuard], title: 'Sign in · Ripplehall', loadComponent: () => import('./account/sign-in') },
+  { path: 'account', canActivate: [signedInGuard], title: 'Account · Ripplehall', loadComponent: () => import('./account/account-page') },
+  { path: 'rooms', canActivate: [signedInGuard], loadChildren: () => import('./rooms/rooms.routes') },
+  { path: 'rooms/:roomId/plans', canActivate: [signedInGuard], loadChildren: () => import('./plans/plans.routes') },
+  { path: 'workshops', canActivate: [signedInGuard], loadChildren: () => import('./workshops/workshops.routes') },
+  { path: 'admin', canActivate: [roleGuard('admin')], loadChildren: () => import('./admin/admin.routes') },
+  { path: 'p', loadChildren: () => import('./participant/participant.routes') },
+  { path: 'not-allowed', title: 'Not allowed · Ripplehall', loadComponent: () => import('./core/not-allowed') },
+  { path: '**', title: 'Not found · Ripplehall', loadComponent: () => import('./core/not-found') },
+];

@@ -1,12 +1,61 @@
-import { Component, signal } from '@angular/core';
-import { RouterOutlet } from '@angular/router';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatMenuModule } from '@angular/material/menu';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatToolbarModule } from '@angular/material/toolbar';
+import { ActivatedRoute, NavigationEnd, Router, RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
+import { filter, map } from 'rxjs';
+import { Auth } from './core/auth';
+import { Busy } from './core/busy-interceptor';
 
+interface NavLink {
+  path: string;
+  label: string;
+  icon: string;
+}
+
+/** The shell: toolbar with navigation by role. Participant pages and the replay hide it. */
 @Component({
   selector: 'app-root',
-  imports: [RouterOutlet],
+  imports: [RouterOutlet, RouterLink, RouterLinkActive, MatToolbarModule, MatButtonModule, MatIconModule, MatMenuModule, MatProgressBarModule],
   templateUrl: './app.html',
-  styleUrl: './app.scss'
+  styleUrl: './app.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class App {
-  protected readonly title = signal('ripplehall');
+  protected readonly auth = inject(Auth);
+  protected readonly busy = inject(Busy);
+  private readonly router = inject(Router);
+  private readonly route = inject(ActivatedRoute);
+
+  /** Routes with data.bare (participant pages, projector replay) show no shell. */
+  protected readonly bare = toSignal(
+    this.router.events.pipe(
+      filter((e) => e instanceof NavigationEnd),
+      map(() => {
+        let r = this.route.snapshot;
+        while (r.firstChild) r = r.firstChild;
+        return !!r.data['bare'];
+      }),
+    ),
+    { initialValue: true },
+  );
+
+  protected readonly links = computed<NavLink[]>(() => {
+    const user = this.auth.user();
+    if (!user) return [];
+    const links: NavLink[] = [
+      { path: '/rooms', label: 'Rooms', icon: 'hub' },
+      { path: '/workshops', label: 'Workshops', icon: 'groups' },
+    ];
+    if (user.role === 'admin') links.push({ path: '/admin', label: 'Admin', icon: 'admin_panel_settings' });
+    return links;
+  });
+
+  protected async signOut(): Promise<void> {
+    await this.auth.signOut();
+    await this.router.navigate(['/sign-in']);
+  }
 }

@@ -1,0 +1,49 @@
+import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { Router, RouterLink } from '@angular/router';
+import { toApiError } from '../core/api-error';
+import { Auth } from '../core/auth';
+
+@Component({
+  selector: 'app-sign-in',
+  imports: [ReactiveFormsModule, RouterLink, MatFormFieldModule, MatInputModule, MatButtonModule],
+  templateUrl: './sign-in.html',
+  styleUrl: './account-card.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export default class SignIn {
+  private readonly auth = inject(Auth);
+  private readonly router = inject(Router);
+  /** Where to go after signing in (from the guard). */
+  readonly next = input<string>();
+
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    email: ['', [Validators.required, Validators.email, Validators.maxLength(254)]],
+    password: ['', [Validators.required, Validators.maxLength(200)]],
+  });
+  protected readonly error = signal<string | null>(null);
+  protected readonly pending = signal(false);
+
+  protected async signIn(): Promise<void> {
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    this.pending.set(true);
+    this.error.set(null);
+    try {
+      const { email, password } = this.form.getRawValue();
+      const user = await this.auth.signIn(email, password);
+      const next = this.next();
+      const home = user.role === 'admin' ? '/admin' : '/rooms';
+      await this.router.navigateByUrl(next && next.startsWith('/') && !next.startsWith('//') ? next : home);
+    } catch (err) {
+      this.error.set(toApiError(err).message);
+    } finally {
+      this.pending.set(false);
+    }
+  }
+}

@@ -1,0 +1,26 @@
+import { HttpErrorResponse } from '@angular/common/http';
+
+export interface FieldError {
+  field: string;
+  message: string;
+}
+
+/** The server's error shape: { error: { code, message, details } }. */
+export interface ApiError {
+  status: number;
+  code: string;
+  message: string;
+  details?: { fields?: FieldError[] } & Record<string, unknown>;
+}
+
+export function toApiError(err: unknown): ApiError {
+  if (err instanceof HttpErrorResponse) {
+    const body = err.error?.error;
+    if (body?.message) return { status: err.status, code: body.code, message: body.message, details: body.details };
+    if (err.status === 0) {
+      return { status: 0, code: 'offline', message: 'The server cannot be reached. Check your connection and try again.' };
+    }
+    return { status: err.status, code: 'http', message: `The server answered ${err.status} ${err.statusText}.` };
+  }
+  return { status: 0, code: 'client', message: (err as Error)?.message ?? 'Something went wrong.' };
+}

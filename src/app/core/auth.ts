@@ -1,0 +1,47 @@
+import { HttpClient } from '@angular/common/http';
+import { computed, inject, Injectable, signal } from '@angular/core';
+import { firstValueFrom } from 'rxjs';
+
+export type AccountRole = 'admin' | 'facilitator';
+
+export interface Account {
+  id: number;
+  email: string;
+  name: string;
+  role: AccountRole;
+}
+
+/** Who is signed in. Loaded once at start-up and after sign-in / sign-out. */
+@Injectable({ providedIn: 'root' })
+export class Auth {
+  private readonly http = inject(HttpClient);
+  private readonly current = signal<Account | null | undefined>(undefined);
+
+  /** undefined while the first check is in flight, null when signed out. */
+  readonly user = this.current.asReadonly();
+  readonly signedIn = computed(() => !!this.current());
+  readonly isAdmin = computed(() => this.current()?.role === 'admin');
+
+  async load(): Promise<Account | null> {
+    if (this.current() !== undefined) return this.current() ?? null;
+    const res = await firstValueFrom(this.http.get<{ user: Account | null }>('/api/auth/me'));
+    this.current.set(res.user);
+    return res.user;
+  }
+
+  async signIn(email: string, password: string): Promise<Account> {
+    const res = await firstValueFrom(this.http.post<{ user: Account }>('/api/auth/sign-in', { email, password }));
+    this.current.set(res.user);
+    return res.user;
+  }
+
+  async signOut(): Promise<void> {
+    await firstValueFrom(this.http.post('/api/auth/sign-out', {}));
+    this.current.set(null);
+  }
+
+  /** Called when the server answers 401: the session ended elsewhere. */
+  markSignedOut(): void {
+    this.current.set(null);
+  }
+}

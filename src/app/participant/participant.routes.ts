@@ -1,0 +1,4 @@
+import type { Routes } from '@angular/router';
+
+// Filled in by the participant feature.
+export default [] satisfies Routes;
