@@ -1,0 +1,78 @@
+/** What every command shares: its flags, help text, and the room and starters it reads. */
+import type { RoomGraph } from '../graph';
+import { describeIssue } from '../io/index';
+import { CliError, idList, numberFlag, type FlagSpec, type Flags } from './args';
+
+export interface CliOutput {
+  /** The one JSON object printed on stdout. */
+  readonly result: Record<string, unknown>;
+  /** Notes for stderr (exit status stays 0). */
+  readonly notes: string[];
+}
+
+export interface Command {
+  readonly name: string;
+  readonly summary: string;
+  readonly help: string;
+  readonly flags: Record<string, FlagSpec>;
+  run(flags: Flags): Promise<CliOutput> | CliOutput;
+}
+
+export const ROOM_FLAGS: Record<string, FlagSpec> = {
+  graph: { required: true },
+  people: {},
+  directed: { boolean: true },
+};
+
+export const WALK_FLAGS: Record<string, FlagSpec> = { laziness: {}, mixing: {} };
+
+export const ROOM_HELP = `  --graph FILE        the room: .json (node-link), .csv (ties: source,target[,strength]) or .graphml
+  --people FILE       (CSV only) people file with header id,name[,group]
+  --directed          (CSV only) read each tie as "source asks target"; otherwise ties go both ways`;
+
+export const WALK_HELP = `  --laziness A        chance of staying put at each hop, 0 <= A < 1 (default 0)
+  --mixing B          chance of asking anyone in the room at random, 0 <= B < 1 (default 0)`;
+
+export function walkOptions(flags: Flags): { laziness?: number; mixing?: number } {
+  const out: { laziness?: number; mixing?: number } = {};
+  const a = numberFlag(flags, 'laziness', 0, 1);
+  const b = numberFlag(flags, 'mixing', 0, 1);
+  if (a !== undefined) out.laziness = a;
+  if (b !== undefined) out.mixing = b;
+  return out;
+}
+
+/** Maps --starters ids to person indices, naming any id not in the room. */
+export function starterIndices(graph: RoomGraph, flags: Flags, file: string): number[] {
+  const ids = idList(flags, 'starters');
+  if (ids.length === 0) throw new CliError('--starters needs at least one person id');
+  const index = new Map(graph.ids.map((id, i) => [id, i]));
+  const seen = new Set<number>();
+  const out: number[] = [];
+  for (const id of ids) {
+    const i = index.get(id);
+    if (i === undefined) throw new CliError(`--starters: "${id}" is not a person in ${file} (ids are matched exactly, as written in the file)`);
+    if (seen.has(i)) throw new CliError(`--starters: "${id}" is given twice`);
+    seen.add(i);
+    out.push(i);
+  }
+  return out;
+}
+
+export function warningNotes(warnings: readonly { message: string }[], file: string): string[] {
+  if (warnings.length === 0) return [];
+  const first = describeIssue(warnings[0] as Parameters<typeof describeIssue>[0]);
+  return [`note: ${file}: ${warnings.length} warning${warnings.length === 1 ? '' : 's'}; first: ${first}`];
+}
+
+/** Rounds to 0.1 ms for the elapsedMs field. */
+export function ms(start: number): number {
+  return Math.round((performance.now() - start) * 10) / 10;
+}
+
+/** The unreachable rule shared by reach and simulate: see the help texts. */
+export const UNREACHABLE_HELP = `When some people cannot reach any starter (a disconnected room, or a directed room
+where a group asks only itself), their expected hops are infinite: they are left out of
+"reach" and listed in "unreachable" (with the reason in "reasons"); "total" and "average"
+are then null (the true values are infinite), "reachableTotal" and "reachableAverage" give
+the sum and mean over the people who can be reached, and one note line goes to stderr.`;

@@ -1,0 +1,86 @@
+/** `plan`: choose k starters (shared/engine/plan.ts) with total, rank, proven bound and certification. */
+import type { PlanMethodChoice } from '../plan-types';
+import { CliError, idList, integerFlag, numberFlag, type Flags } from './args';
+import { ms, ROOM_FLAGS, ROOM_HELP, WALK_FLAGS, WALK_HELP, walkOptions, warningNotes, type Command } from './command';
+import { loadRoom } from './load-room';
+import type { RoomGraph } from '../graph';
+
+export const planCommand: Command = {
+  name: 'plan',
+  summary: 'choose k starters so that people hear as soon as possible',
+  flags: { ...ROOM_FLAGS, k: { required: true }, method: {}, nu: {}, 'time-limit': {}, include: {}, exclude: {}, ...WALK_FLAGS },
+  help: `Usage: npm run -s cli -- plan --graph FILE --k K --method greedy|widened|swap|exhaustive|auto
+                             [--nu X] [--time-limit SECONDS] [--laziness A] [--mixing B]
+                             [--include IDS] [--exclude IDS]
+
+Prints {"method", "k", "starters": [ids in the order chosen], "total", "average", "rank",
+"lowerBound", "certified", "elapsedMs", "gap", "coverSize", "notes", "warnings"}.
+"total" is the sum of expected hops to hear over the people who are not starters, "average"
+is total / (n - k), "rank" the quality rank (0 = as good as the worst single starter, 1 = the
+cover bound), "lowerBound" a proven lower bound on the best total of any plan of size k
+(under the same constraints), "certified" true when "total" is proven to be the best.
+
+${ROOM_HELP}
+  --k K               number of starters, 1 <= K < number of people
+  --method M          greedy, widened (widened greedy), swap (greedy then swap polish),
+                      exhaustive (branch and bound, certified or with a proven gap at the time
+                      limit), auto (chooses by size; the default), lazy-greedy (large rooms)
+  --nu X              widened: keep small sets of quality rank >= X, 0 <= X <= 1 (default 0.9)
+  --time-limit S      exhaustive and auto: time budget in seconds (default 10)
+  --include IDS       people who must be briefed (ids separated by commas)
+  --exclude IDS       people who cannot be briefed
+${WALK_HELP}
+
+Rooms where some people cannot reach any starter need at least one starter in each closed
+group; when K is too small for that, the command says so (exit status 2).`,
+  async run(argv: Flags) {
+    const start = performance.now();
+    // Loaded on use, so a problem in one engine module cannot break the other commands.
+    const { plan, PLAN_METHODS } = await import('../plan');
+    const { graph, warnings, file } = loadRoom(argv);
+    const k = integerFlag(argv, 'k', 1, 1e9)!;
+    const method = (argv.get('method') ?? 'auto') as PlanMethodChoice;
+    if (!(PLAN_METHODS as readonly string[]).includes(method)) {
+      throw new CliError(`--method must be one of ${PLAN_METHODS.join(', ')} (got "${method}")`);
+    }
+    const nu = numberFlag(argv, 'nu', 0, 1, true);
+    const seconds = numberFlag(argv, 'time-limit', 0.001, 1e6, true);
+    const r = plan(graph, {
+      k,
+      method,
+      ...walkOptions(argv),
+      ...(nu !== undefined ? { nu } : {}),
+      ...(seconds !== undefined ? { timeLimitMs: seconds * 1000 } : {}),
+      mustInclude: people(graph, argv, 'include', file),
+      exclude: people(graph, argv, 'exclude', file),
+    });
+    const finite = (v: number) => (Number.isFinite(v) ? v : null);
+    return {
+      result: {
+        method: r.method,
+        k: r.k,
+        starters: r.starters.map((i) => graph.ids[i]),
+        total: finite(r.total),
+        average: finite(r.average),
+        rank: finite(r.rank),
+        lowerBound: finite(r.lowerBound),
+        certified: r.certified,
+        elapsedMs: ms(start),
+        gap: finite(r.gap),
+        coverSize: r.coverSize,
+        notes: r.notes,
+        warnings: r.warnings,
+      },
+      notes: warningNotes(warnings, file),
+    };
+  },
+};
+
+function people(graph: RoomGraph, flags: Flags, name: string, file: string): number[] {
+  const index = new Map(graph.ids.map((id, i) => [id, i]));
+  return idList(flags, name).map((id) => {
+    const i = index.get(id);
+    if (i === undefined) throw new CliError(`--${name}: "${id}" is not a person in ${file}`);
+    return i;
+  });
+}

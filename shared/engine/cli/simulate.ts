@@ -1,0 +1,90 @@
+/** `simulate`: a seeded rehearsal of simulated cascades (shared/engine/simulate). */
+import { SIMULATE_DEFAULTS } from '../simulate/plan';
+import { simulate } from '../simulate/run-local';
+import type { SimulationSummary } from '../simulate/summary';
+import { CliError, integerFlag, type Flags } from './args';
+import { ms, ROOM_FLAGS, ROOM_HELP, starterIndices, UNREACHABLE_HELP, WALK_FLAGS, WALK_HELP, walkOptions, warningNotes, type Command } from './command';
+import { loadRoom } from './load-room';
+
+export const simulateCommand: Command = {
+  name: 'simulate',
+  summary: 'seeded simulated cascades: mean hops to hear per person, with standard errors',
+  flags: { ...ROOM_FLAGS, starters: { required: true }, runs: { required: true }, seed: { required: true }, workers: {}, 'hop-cap': {}, ...WALK_FLAGS },
+  help: `Usage: npm run -s cli -- simulate --graph FILE --starters IDS --runs R --seed S [--workers W]
+                                 [--laziness A] [--mixing B] [--hop-cap H]
+
+Runs R cascades: in each, every person who is not a starter passes the question along ties
+(in proportion to strength) until it reaches a starter; the hops taken are when they hear.
+Prints {"runs", "seed", "total", "average", "reach": {"<id>": mean}, "stderr": {"<id>": se},
+"capped", "elapsedMs", "n", "starters", "totalStderr", "averageStderr", "hopCap", "hops",
+"workers", "unreachable", "reasons", "reachableTotal", "reachableAverage"}.
+The same seed gives the same numbers, whatever the number of workers: run r draws from its
+own stream derived from (seed, r).
+
+${ROOM_HELP}
+  --starters IDS      the people briefed first, ids as in the file, separated by commas
+  --runs R            number of cascades, 1 to 10000000
+  --seed S            any text or number; printed back as given (a number when it is a whole number)
+  --workers W         worker threads, 1 to 16 (default 1: this thread)
+  --hop-cap H         longest walk before it is stopped (default ${SIMULATE_DEFAULTS.hopCap}); "capped"
+                      counts stopped walks, which enter the means at H (the mean is then a lower bound)
+${WALK_HELP}
+
+${UNREACHABLE_HELP}`,
+  async run(argv: Flags) {
+    const start = performance.now();
+    const { graph, warnings, file } = loadRoom(argv);
+    const starters = starterIndices(graph, argv, file);
+    const runs = integerFlag(argv, 'runs', 1, 10_000_000)!;
+    const seedText = argv.get('seed')!;
+    if (seedText.trim() === '') throw new CliError('--seed must not be empty');
+    const workers = integerFlag(argv, 'workers', 1, 16) ?? 1;
+    const hopCap = integerFlag(argv, 'hop-cap', 1, 2 ** 31 - 1);
+    const options = { ...walkOptions(argv), samples: 0, ...(hopCap !== undefined ? { hopCap } : {}) };
+    let s: SimulationSummary;
+    if (workers === 1) {
+      s = simulate(graph, starters, runs, seedText, options);
+    } else {
+      const { simulateInPool } = await import('../simulate/pool');
+      s = await simulateInPool(graph, starters, runs, seedText, options, workers);
+    }
+    const reach: Record<string, number> = {};
+    const stderr: Record<string, number> = {};
+    const lost = new Set(s.unreachable.map((u) => u.index));
+    for (let i = 0; i < s.n; i++) {
+      if (lost.has(i)) continue;
+      reach[graph.ids[i]] = s.mean[i];
+      stderr[graph.ids[i]] = s.stderr[i];
+    }
+    const reasons: Record<string, string> = {};
+    for (const u of s.unreachable) reasons[u.id] = u.message;
+    const complete = s.unreachable.length === 0;
+    const notes = warningNotes(warnings, file);
+    if (!complete) notes.push(`note: ${s.unreachable.length} of ${s.n} people cannot reach any starter; total and average are null (see "unreachable")`);
+    if (s.capped > 0) notes.push(`note: ${s.capped} walks reached the hop cap of ${s.hopCap} and were stopped; their means are lower bounds`);
+    return {
+      result: {
+        runs: s.runs,
+        seed: /^\d{1,15}$/.test(seedText) ? Number(seedText) : seedText,
+        total: complete ? s.total : null,
+        average: complete ? s.average : null,
+        reach,
+        stderr,
+        capped: s.capped,
+        elapsedMs: ms(start),
+        n: s.n,
+        starters: s.starters.map((i) => graph.ids[i]),
+        totalStderr: s.totalStderr,
+        averageStderr: s.averageStderr,
+        hopCap: s.hopCap,
+        hops: s.hops,
+        workers,
+        unreachable: s.unreachable.map((u) => u.id),
+        reasons,
+        reachableTotal: s.total,
+        reachableAverage: s.average,
+      },
+      notes,
+    };
+  },
+};
