@@ -49,12 +49,14 @@ export function parseGraphml(text: string, options: ParseOptions = {}): ParseRes
     parseAttributeValue: false,
     trimValues: false,
     processEntities: true,
-    htmlEntities: false,
+    // Also decodes numeric character references (&#10;); named HTML entities are harmless here.
+    htmlEntities: true,
     isArray: (name) => LISTS.has(name),
   });
   const doc = parser.parse(text) as XmlNode;
-  const root = doc['graphml'] as XmlNode | undefined;
-  if (!root || typeof root !== 'object') {
+  const rawRoot = doc['graphml'];
+  const root = (typeof rawRoot === 'object' && rawRoot !== null ? rawRoot : {}) as XmlNode;
+  if (rawRoot === undefined) {
     issues.error('syntax', 'the root element must be <graphml>', { element: '<graphml>' });
     return done();
   }
@@ -84,7 +86,7 @@ export function parseGraphml(text: string, options: ParseOptions = {}): ParseRes
     const d = attr(edge, 'directed');
     return d === undefined ? defaultDirected : d === 'true' || d === '1';
   });
-  directed = edgeDirected.some((d) => d);
+  directed = edges.length === 0 ? defaultDirected : edgeDirected.some((d) => d);
   if (directed && edgeDirected.some((d) => !d)) {
     issues.warn('mixed-direction', 'the file mixes directed and undirected edges; the room is read as directed and each undirected edge as two ties, one each way', { element: '<graph>' });
   }

@@ -6,6 +6,7 @@
 import type { RoomGraph } from '../graph';
 import { IssueList, type ParseOptions, type ParseResult } from './issues';
 import { clip, RoomBuilder } from './room-builder';
+import { locateJsonError } from './json-locate';
 import { checkTextSize } from './text-limits';
 
 type Json = null | boolean | number | string | Json[] | { [key: string]: Json };
@@ -24,7 +25,9 @@ export function parseNodeLink(text: string, options: ParseOptions = {}): ParseRe
   try {
     doc = JSON.parse(text.charCodeAt(0) === 0xfeff ? text.slice(1) : text) as Json;
   } catch (e) {
-    issues.error('syntax', `not valid JSON (${(e as Error).message.split('\n')[0]})`, { line: jsonErrorLine(text, e as Error) });
+    const where = locateJsonError(text.charCodeAt(0) === 0xfeff ? text.slice(1) : text);
+    const detail = where ? `${where.message} at column ${where.column}` : (e as Error).message.split('\n')[0];
+    issues.error('syntax', `not valid JSON: ${detail}`, where ? { line: where.line } : {});
     return done();
   }
   if (!isObject(doc)) {
@@ -91,15 +94,6 @@ function textOrUndefined(v: Json | undefined): string | undefined {
   if (typeof v === 'string') return v;
   if (typeof v === 'number') return String(v);
   return undefined;
-}
-
-function jsonErrorLine(text: string, e: Error): number | undefined {
-  const m = /position (\d+)/.exec(e.message);
-  if (!m) return undefined;
-  const pos = Number(m[1]);
-  let line = 1;
-  for (let i = 0; i < pos && i < text.length; i++) if (text.charCodeAt(i) === 10) line++;
-  return line;
 }
 
 export function writeNodeLink(graph: RoomGraph): string {
