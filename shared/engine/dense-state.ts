@@ -16,6 +16,8 @@ export const TIE_TOLERANCE = 1e-12;
 /** engine.md tie-break: the smaller total wins; within 1e-12 relative, the earlier person wins. */
 export function beats(total: number, index: number, bestTotal: number, bestIndex: number): boolean {
   if (bestIndex < 0) return true;
+  if (total === bestTotal) return index < bestIndex;
+  if (!Number.isFinite(total) || !Number.isFinite(bestTotal)) return total < bestTotal;
   const tol = TIE_TOLERANCE * Math.max(Math.abs(total), Math.abs(bestTotal));
   if (total < bestTotal - tol) return true;
   if (total > bestTotal + tol) return false;
