@@ -43,7 +43,7 @@ describe('command line: results', { concurrency: 2 }, () => {
     });
   }
 
-  it('reach on a path with both ends briefed gives h_i = i (n - i) (gambler\'s ruin; Levin, Peres, Wilmer 2009), ids as strings', async () => {
+  it("reach on a path with both ends briefed gives h_i = i (n - i) (gambler's ruin; Levin, Peres, Wilmer 2009), ids as strings", async () => {
     for (const file of [f['path.json'], f['path.graphml'], f['path.csv']]) {
       const r = await cli(['reach', '--graph', file, '--starters', `100,${100 + n}`]);
       assert.equal(r.code, 0, r.stderr);
@@ -94,7 +94,8 @@ describe('command line: results', { concurrency: 2 }, () => {
 
   it('plan prints the contract fields', async () => {
     const out = json((await cli(['plan', '--graph', f['path.json'], '--k', '2', '--method', 'exhaustive'])).stdout);
-    for (const key of ['method', 'k', 'starters', 'total', 'average', 'rank', 'lowerBound', 'certified', 'elapsedMs']) assert.ok(key in out, key);
+    for (const key of ['method', 'k', 'starters', 'total', 'average', 'rank', 'lowerBound', 'certified', 'elapsedMs'])
+      assert.ok(key in out, key);
     assert.equal(out['method'], 'exhaustive');
     assert.equal(out['certified'], true);
     assert.ok((out['starters'] as string[]).every((s) => typeof s === 'string'));

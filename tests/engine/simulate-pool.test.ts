@@ -10,11 +10,26 @@ describe('rehearsal pool', () => {
     const pool = new SimulationPool(2);
     try {
       const seen: number[] = [];
-      const s = await pool.simulate(complete(100), [0], 7000, 1, {}, { onProgress: (done, runs) => { assert.equal(runs, 7000); seen.push(done); } });
+      const s = await pool.simulate(
+        complete(100),
+        [0],
+        7000,
+        1,
+        {},
+        {
+          onProgress: (done, runs) => {
+            assert.equal(runs, 7000);
+            seen.push(done);
+          },
+        },
+      );
       assert.equal(s.runs, 7000);
       assert.equal(seen.length, chunkRanges(7000, 100).length);
       assert.ok(seen.length > 2);
-      assert.deepEqual([...seen].sort((a, b) => a - b), seen);
+      assert.deepEqual(
+        [...seen].sort((a, b) => a - b),
+        seen,
+      );
       assert.equal(seen.at(-1), 7000);
       const again = await pool.simulate(complete(100), [0], 10, 2);
       assert.equal(again.runs, 10);
@@ -47,7 +62,10 @@ describe('rehearsal pool', () => {
       await assert.rejects(pool.simulate(path(5), [], 10, 1), (e: unknown) => e instanceof EngineError && e.code === 'INVALID_STARTERS');
       await assert.rejects(pool.simulate(path(5), [9], 10, 1), (e: unknown) => e instanceof EngineError && e.code === 'UNKNOWN_PERSON');
       await assert.rejects(pool.simulate(path(5), [0], 0, 1), (e: unknown) => e instanceof EngineError && e.code === 'INVALID_OPTION');
-      await assert.rejects(pool.simulate(path(5), [0], 10, 1, { laziness: 1 }), (e: unknown) => e instanceof EngineError && e.code === 'INVALID_OPTION');
+      await assert.rejects(
+        pool.simulate(path(5), [0], 10, 1, { laziness: 1 }),
+        (e: unknown) => e instanceof EngineError && e.code === 'INVALID_OPTION',
+      );
     } finally {
       await pool.close();
     }

@@ -43,7 +43,7 @@ describe('rehearsals agree with closed forms', () => {
     });
   });
 
-  it('path 0..n with starters {0, n}: h_i = i (n - i) (gambler\'s ruin; Levin, Peres, Wilmer, Markov Chains and Mixing Times, 2009)', () => {
+  it("path 0..n with starters {0, n}: h_i = i (n - i) (gambler's ruin; Levin, Peres, Wilmer, Markov Chains and Mixing Times, 2009)", () => {
     const n = 12;
     const s = simulate(path(n), [0, n], 6000, 7);
     assert.ok(coverage(s, (i) => i * (n - i)) >= 0.9);
@@ -113,7 +113,15 @@ describe('rehearsals agree with the exact solver', () => {
 
   it('a person who asks nobody stays put; with mixing the question still gets out', () => {
     // directed: p0 -> p1 -> p2, p3 asks no one; with mixing every hitting time is finite
-    const g = { ids: ['p0', 'p1', 'p2', 'p3'], directed: true, ties: [{ source: 0, target: 1, strength: 1 }, { source: 1, target: 2, strength: 1 }, { source: 2, target: 0, strength: 2 }] };
+    const g = {
+      ids: ['p0', 'p1', 'p2', 'p3'],
+      directed: true,
+      ties: [
+        { source: 0, target: 1, strength: 1 },
+        { source: 1, target: 2, strength: 1 },
+        { source: 2, target: 0, strength: 2 },
+      ],
+    };
     const exact = exactReach(g, [0], { mixing: 0.2 });
     const s = simulate(g, [0], 20000, 'dangling', { mixing: 0.2 });
     assert.ok(coverage(s, (i) => exact.h[i]) >= 0.66);
@@ -125,7 +133,10 @@ describe('caps, unreachable people, sample cascades', () => {
   it('walks stopped at the hop cap are counted per person and overall', () => {
     const s = simulate(path(30), [0], 200, 1, { hopCap: 50 });
     assert.ok(s.capped > 0);
-    assert.equal(s.cappedByPerson.reduce((a, b) => a + b, 0), s.capped);
+    assert.equal(
+      s.cappedByPerson.reduce((a, b) => a + b, 0),
+      s.capped,
+    );
     // the far end can never arrive within 50 hops... it needs at least 30, and usually far more
     assert.ok(s.cappedByPerson[30] > 150);
     // capped walks enter at the cap, so no mean exceeds it
@@ -133,9 +144,19 @@ describe('caps, unreachable people, sample cascades', () => {
   });
 
   it('people who cannot reach any starter are listed and not walked', () => {
-    const g = { ids: ['a', 'b', 'c', 'd'], directed: false, ties: [{ source: 0, target: 1, strength: 1 }, { source: 2, target: 3, strength: 1 }] };
+    const g = {
+      ids: ['a', 'b', 'c', 'd'],
+      directed: false,
+      ties: [
+        { source: 0, target: 1, strength: 1 },
+        { source: 2, target: 3, strength: 1 },
+      ],
+    };
     const s = simulate(g, [0], 100, 1);
-    assert.deepEqual(s.unreachable.map((u) => u.id), ['c', 'd']);
+    assert.deepEqual(
+      s.unreachable.map((u) => u.id),
+      ['c', 'd'],
+    );
     assert.deepEqual(Array.from(s.walked), [0, 1, 0, 0]);
     assert.equal(s.total, 1);
     assert.equal(s.capped, 0);
@@ -145,7 +166,10 @@ describe('caps, unreachable people, sample cascades', () => {
     const g = lesMiserables();
     const tied = new Set(g.ties.flatMap((t) => [`${t.source},${t.target}`, `${t.target},${t.source}`]));
     const s = simulate(g, [11], 10, 's', { samples: 2 });
-    assert.deepEqual(s.samples.map((c) => c.run), [0, 1]);
+    assert.deepEqual(
+      s.samples.map((c) => c.run),
+      [0, 1],
+    );
     for (const c of s.samples) {
       for (let k = 0; k < c.people.length; k++) {
         const walk = c.path.subarray(c.pathStart[k], c.pathStart[k + 1]);

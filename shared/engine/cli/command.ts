@@ -51,7 +51,8 @@ export function starterIndices(graph: RoomGraph, flags: Flags, file: string): nu
   const out: number[] = [];
   for (const id of ids) {
     const i = index.get(id);
-    if (i === undefined) throw new CliError(`--starters: "${id}" is not a person in ${file} (ids are matched exactly, as written in the file)`);
+    if (i === undefined)
+      throw new CliError(`--starters: "${id}" is not a person in ${file} (ids are matched exactly, as written in the file)`);
     if (seen.has(i)) throw new CliError(`--starters: "${id}" is given twice`);
     seen.add(i);
     out.push(i);

@@ -19,7 +19,8 @@ export function loadRoom(flags: Flags): LoadedRoom {
   if (!format) throw new CliError(`--graph ${file}: unknown file type; use a .json, .csv or .graphml file`);
   const people = flags.get('people');
   if (people !== undefined && format !== 'csv') throw new CliError('--people goes with a .csv ties file only');
-  if (flags.has('directed') && format !== 'csv') throw new CliError('--directed goes with a .csv ties file only (JSON and GraphML say it in the file)');
+  if (flags.has('directed') && format !== 'csv')
+    throw new CliError('--directed goes with a .csv ties file only (JSON and GraphML say it in the file)');
   const text = readText(file, format === 'csv' ? 'ties' : format);
   const peopleText = people === undefined ? undefined : readText(people, 'people');
   const result = parseRoom(format, text, { directed: flags.has('directed') }, peopleText);
@@ -38,7 +39,14 @@ function readText(file: string, what: string): string {
   } catch (e) {
     if (e instanceof CliError) throw e;
     const code = (e as NodeJS.ErrnoException).code;
-    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a folder, not a file' : code === 'EACCES' ? 'permission denied' : (e as Error).message;
+    const why =
+      code === 'ENOENT'
+        ? 'no such file'
+        : code === 'EISDIR'
+          ? 'is a folder, not a file'
+          : code === 'EACCES'
+            ? 'permission denied'
+            : (e as Error).message;
     throw new CliError(`${file}: cannot read the file (${why})`);
   }
   const decoded = decodeUtf8(bytes, what);

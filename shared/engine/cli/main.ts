@@ -10,3 +10,5 @@ try {
   process.stderr.write(`internal error: ${message.replace(/\s*[\r\n]+\s*/g, ' ')}\n`);
   process.exitCode = 1;
 }
+
+export {};

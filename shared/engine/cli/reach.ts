@@ -1,5 +1,16 @@
 /** `reach`: exact expected hops to hear for a starter set (shared/engine/reach.ts). */
-import { ms, ROOM_FLAGS, ROOM_HELP, starterIndices, UNREACHABLE_HELP, WALK_FLAGS, WALK_HELP, walkOptions, warningNotes, type Command } from './command';
+import {
+  ms,
+  ROOM_FLAGS,
+  ROOM_HELP,
+  starterIndices,
+  UNREACHABLE_HELP,
+  WALK_FLAGS,
+  WALK_HELP,
+  walkOptions,
+  warningNotes,
+  type Command,
+} from './command';
 import { loadRoom } from './load-room';
 
 export const reachCommand: Command = {
@@ -31,7 +42,8 @@ ${UNREACHABLE_HELP}`,
     for (const u of r.unreachable) reasons[u.id] = u.message;
     const complete = r.unreachable.length === 0;
     const notes = warningNotes(warnings, file);
-    if (!complete) notes.push(`note: ${r.unreachable.length} of ${r.n} people cannot reach any starter; total and average are null (see "unreachable")`);
+    if (!complete)
+      notes.push(`note: ${r.unreachable.length} of ${r.n} people cannot reach any starter; total and average are null (see "unreachable")`);
     return {
       result: {
         n: r.n,

@@ -26,10 +26,15 @@ Person ids are printed as strings, exactly as in the file.`;
 export async function runCli(argv: readonly string[]): Promise<{ code: number; stdout: string; stderr: string }> {
   const [name, ...rest] = argv;
   if (name === undefined || name === '--help' || name === '-h' || name === 'help') {
-    return { code: name === undefined ? 2 : 0, stdout: name === undefined ? '' : USAGE + '\n', stderr: name === undefined ? 'no command given; use one of reach, plan, cover, simulate (see --help)\n' : '' };
+    return {
+      code: name === undefined ? 2 : 0,
+      stdout: name === undefined ? '' : USAGE + '\n',
+      stderr: name === undefined ? 'no command given; use one of reach, plan, cover, simulate (see --help)\n' : '',
+    };
   }
   const command = COMMANDS.find((c) => c.name === name);
-  if (!command) return { code: 2, stdout: '', stderr: `unknown command "${oneLine(name)}"; use one of reach, plan, cover, simulate (see --help)\n` };
+  if (!command)
+    return { code: 2, stdout: '', stderr: `unknown command "${oneLine(name)}"; use one of reach, plan, cover, simulate (see --help)\n` };
   if (rest.includes('--help') || rest.includes('-h')) return { code: 0, stdout: command.help + '\n', stderr: '' };
   try {
     const flags = parseFlags(rest, command.flags, command.name);
@@ -50,4 +55,3 @@ export async function runCli(argv: readonly string[]): Promise<{ code: number; s
 function oneLine(s: string): string {
   return s.replace(/\s*[\r\n]+\s*/g, ' ').trim();
 }
-

@@ -3,13 +3,32 @@ import { SIMULATE_DEFAULTS } from '../simulate/plan';
 import { simulate } from '../simulate/run-local';
 import type { SimulationSummary } from '../simulate/summary';
 import { CliError, integerFlag, type Flags } from './args';
-import { ms, ROOM_FLAGS, ROOM_HELP, starterIndices, UNREACHABLE_HELP, WALK_FLAGS, WALK_HELP, walkOptions, warningNotes, type Command } from './command';
+import {
+  ms,
+  ROOM_FLAGS,
+  ROOM_HELP,
+  starterIndices,
+  UNREACHABLE_HELP,
+  WALK_FLAGS,
+  WALK_HELP,
+  walkOptions,
+  warningNotes,
+  type Command,
+} from './command';
 import { loadRoom } from './load-room';
 
 export const simulateCommand: Command = {
   name: 'simulate',
   summary: 'seeded simulated cascades: mean hops to hear per person, with standard errors',
-  flags: { ...ROOM_FLAGS, starters: { required: true }, runs: { required: true }, seed: { required: true }, workers: {}, 'hop-cap': {}, ...WALK_FLAGS },
+  flags: {
+    ...ROOM_FLAGS,
+    starters: { required: true },
+    runs: { required: true },
+    seed: { required: true },
+    workers: {},
+    'hop-cap': {},
+    ...WALK_FLAGS,
+  },
   help: `Usage: npm run -s cli -- simulate --graph FILE --starters IDS --runs R --seed S [--workers W]
                                  [--laziness A] [--mixing B] [--hop-cap H]
 
@@ -60,8 +79,10 @@ ${UNREACHABLE_HELP}`,
     for (const u of s.unreachable) reasons[u.id] = u.message;
     const complete = s.unreachable.length === 0;
     const notes = warningNotes(warnings, file);
-    if (!complete) notes.push(`note: ${s.unreachable.length} of ${s.n} people cannot reach any starter; total and average are null (see "unreachable")`);
-    if (s.capped > 0) notes.push(`note: ${s.capped} walks reached the hop cap of ${s.hopCap} and were stopped; their means are lower bounds`);
+    if (!complete)
+      notes.push(`note: ${s.unreachable.length} of ${s.n} people cannot reach any starter; total and average are null (see "unreachable")`);
+    if (s.capped > 0)
+      notes.push(`note: ${s.capped} walks reached the hop cap of ${s.hopCap} and were stopped; their means are lower bounds`);
     return {
       result: {
         runs: s.runs,

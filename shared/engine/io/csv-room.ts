@@ -93,7 +93,11 @@ function readTable(
       position.set(key, at);
       names.set(key, cell);
     } else if (cell !== '') {
-      issues.warn('ignored-column', `column "${cell}" is not used (expected ${Object.keys(columns).join(', ')})`, { file, line: header.line, field: cell });
+      issues.warn('ignored-column', `column "${cell}" is not used (expected ${Object.keys(columns).join(', ')})`, {
+        file,
+        line: header.line,
+        field: cell,
+      });
     }
   });
   const missing = required.filter((k) => !position.has(k));
@@ -118,11 +122,15 @@ function readTable(
     for (const k of required) {
       const at = position.get(k)!;
       if (at >= cells.length) {
-        issues.error('missing-field', `this row has no ${names.get(k)} value (it has ${cells.length} cell${cells.length === 1 ? '' : 's'})`, {
-          file,
-          line: record.line,
-          field: names.get(k),
-        });
+        issues.error(
+          'missing-field',
+          `this row has no ${names.get(k)} value (it has ${cells.length} cell${cells.length === 1 ? '' : 's'})`,
+          {
+            file,
+            line: record.line,
+            field: names.get(k),
+          },
+        );
       }
     }
   }

@@ -30,10 +30,14 @@ export function parseGraphml(text: string, options: ParseOptions = {}): ParseRes
   if (!checkTextSize(text, { ...options, maxChars: options.maxChars ?? GRAPHML_DEFAULT_MAX_CHARS }, issues)) return done();
   const declaration = /<!\s*(DOCTYPE|ENTITY|ELEMENT|ATTLIST|NOTATION)/i.exec(text);
   if (declaration) {
-    issues.error('unsafe-markup', `the file contains a <!${declaration[1].toUpperCase()} declaration, which is not accepted (it can expand entities or load other files); remove it`, {
-      line: lineAt(text, declaration.index),
-      element: `<!${declaration[1].toUpperCase()}>`,
-    });
+    issues.error(
+      'unsafe-markup',
+      `the file contains a <!${declaration[1].toUpperCase()} declaration, which is not accepted (it can expand entities or load other files); remove it`,
+      {
+        line: lineAt(text, declaration.index),
+        element: `<!${declaration[1].toUpperCase()}>`,
+      },
+    );
     return done();
   }
   const valid = XMLValidator.validate(text);
@@ -65,12 +69,16 @@ export function parseGraphml(text: string, options: ParseOptions = {}): ParseRes
     issues.error('missing-field', 'there is no <graph> element inside <graphml>', { element: '<graph>' });
     return done();
   }
-  if (graphs.length > 1) issues.warn('ignored-column', `the file has ${graphs.length} <graph> elements; only the first was read`, { element: '<graph> #2' });
+  if (graphs.length > 1)
+    issues.warn('ignored-column', `the file has ${graphs.length} <graph> elements; only the first was read`, { element: '<graph> #2' });
   const g = graphs[0];
   const keys = readKeys((root['key'] as XmlNode[] | undefined) ?? []);
   const edgeDefault = attr(g, 'edgedefault');
   if (edgeDefault !== undefined && edgeDefault !== 'directed' && edgeDefault !== 'undirected') {
-    issues.error('syntax', `edgedefault must be "directed" or "undirected", not "${clip(edgeDefault)}"`, { element: '<graph>', field: 'edgedefault' });
+    issues.error('syntax', `edgedefault must be "directed" or "undirected", not "${clip(edgeDefault)}"`, {
+      element: '<graph>',
+      field: 'edgedefault',
+    });
   }
   const defaultDirected = edgeDefault === 'directed';
 
@@ -88,7 +96,11 @@ export function parseGraphml(text: string, options: ParseOptions = {}): ParseRes
   });
   directed = edges.length === 0 ? defaultDirected : edgeDirected.some((d) => d);
   if (directed && edgeDirected.some((d) => !d)) {
-    issues.warn('mixed-direction', 'the file mixes directed and undirected edges; the room is read as directed and each undirected edge as two ties, one each way', { element: '<graph>' });
+    issues.warn(
+      'mixed-direction',
+      'the file mixes directed and undirected edges; the room is read as directed and each undirected edge as two ties, one each way',
+      { element: '<graph>' },
+    );
   }
   const strengthField = keys.strengthName ?? 'strength';
   edges.forEach((edge, i) => {
@@ -164,7 +176,14 @@ function lineAt(text: string, pos: number): number {
 }
 
 function esc(s: string): string {
-  return s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/\r/g, '&#13;').replace(/\n/g, '&#10;').replace(/\t/g, '&#9;');
+  return s
+    .replace(/&/g, '&amp;')
+    .replace(/</g, '&lt;')
+    .replace(/>/g, '&gt;')
+    .replace(/"/g, '&quot;')
+    .replace(/\r/g, '&#13;')
+    .replace(/\n/g, '&#10;')
+    .replace(/\t/g, '&#9;');
 }
 
 /** Writes GraphML 1.0 with keys for label, group and weight (the name general tools read). */
@@ -186,7 +205,9 @@ export function writeGraphml(graph: RoomGraph): string {
     out.push(data ? `    <node id="${esc(id)}">${data}</node>` : `    <node id="${esc(id)}"/>`);
   });
   graph.ties.forEach((t, i) => {
-    out.push(`    <edge id="e${i}" source="${esc(graph.ids[t.source])}" target="${esc(graph.ids[t.target])}"><data key="weight">${t.strength}</data></edge>`);
+    out.push(
+      `    <edge id="e${i}" source="${esc(graph.ids[t.source])}" target="${esc(graph.ids[t.target])}"><data key="weight">${t.strength}</data></edge>`,
+    );
   });
   out.push('  </graph>', '</graphml>', '');
   return out.join('\n');

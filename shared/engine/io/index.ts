@@ -1,6 +1,16 @@
 export * from './issues';
 export { readStrength } from './room-builder';
-export { readCsv, detectDelimiter, stripBom, protectCell, unprotectCell, quoteCell, writeCsvRows, type Delimiter, type CsvRecord } from './csv-text';
+export {
+  readCsv,
+  detectDelimiter,
+  stripBom,
+  protectCell,
+  unprotectCell,
+  quoteCell,
+  writeCsvRows,
+  type Delimiter,
+  type CsvRecord,
+} from './csv-text';
 export { parseRoomCsv, writeRoomCsv, type RoomCsvFiles } from './csv-room';
 export { parseNodeLink, writeNodeLink } from './node-link';
 export { parseGraphml, writeGraphml, GRAPHML_DEFAULT_MAX_CHARS } from './graphml';

@@ -65,7 +65,9 @@ export function parseNodeLink(text: string, options: ParseOptions = {}): ParseRe
   links.forEach((link, i) => {
     const element = `${linkKey}[${i}]`;
     if (!isObject(link)) {
-      issues.error('syntax', `each tie must be an object such as {"source": "a", "target": "b"}, not ${clip(JSON.stringify(link))}`, { element });
+      issues.error('syntax', `each tie must be an object such as {"source": "a", "target": "b"}, not ${clip(JSON.stringify(link))}`, {
+        element,
+      });
       return;
     }
     for (const f of ['source', 'target']) {
@@ -76,7 +78,14 @@ export function parseNodeLink(text: string, options: ParseOptions = {}): ParseRe
     if (link['strength'] !== undefined && link['weight'] !== undefined) {
       issues.warn('ignored-column', '"strength" and "weight" are both given; "strength" was used', { element, field: 'weight' });
     }
-    builder.addTie(endpoint(link['source']), endpoint(link['target']), link[field], { element }, { source: 'source', target: 'target', strength: field }, directed);
+    builder.addTie(
+      endpoint(link['source']),
+      endpoint(link['target']),
+      link[field],
+      { element },
+      { source: 'source', target: 'target', strength: field },
+      directed,
+    );
   });
   return done();
 }

@@ -92,13 +92,21 @@ export class RoomBuilder {
     if (id === undefined) return false;
     const seen = this.index.get(id);
     if (seen) {
-      this.issues.error('duplicate-person', `person "${clip(id)}" is listed twice (first at ${placeOf(seen.where)}); keep one row per person`, where);
+      this.issues.error(
+        'duplicate-person',
+        `person "${clip(id)}" is listed twice (first at ${placeOf(seen.where)}); keep one row per person`,
+        where,
+      );
       return false;
     }
     if (this.ids.length >= this.limits.maxPeople) {
       if (!this.tooManyPeople) {
         this.tooManyPeople = true;
-        this.issues.error('room-too-large', `the room has more than ${this.limits.maxPeople} people, the most allowed; split it into smaller rooms`, where);
+        this.issues.error(
+          'room-too-large',
+          `the room has more than ${this.limits.maxPeople} people, the most allowed; split it into smaller rooms`,
+          where,
+        );
       }
       return false;
     }
@@ -128,7 +136,11 @@ export class RoomBuilder {
     if (reading.problem) this.issues.error('bad-strength', reading.problem, { ...where, field: fields.strength });
     if (s === undefined || t === undefined || reading.value === undefined) return;
     if (s === t) {
-      this.issues.error('self-tie', `"${clip(this.ids[s])}" is tied to themself; remove this tie (use laziness to model staying put)`, where);
+      this.issues.error(
+        'self-tie',
+        `"${clip(this.ids[s])}" is tied to themself; remove this tie (use laziness to model staying put)`,
+        where,
+      );
       return;
     }
     const key = directed || s < t ? `${s} ${t}` : `${t} ${s}`;
@@ -156,7 +168,8 @@ export class RoomBuilder {
   /** Checks the whole room (empty, no ties, isolated people) and returns the graph. */
   finish(directed: boolean, file: string): RoomGraph {
     if (this.ids.length === 0) {
-      if (!this.issues.hasErrors) this.issues.error('empty-room', 'the room has no people; add at least one person (and ties between people)', { file });
+      if (!this.issues.hasErrors)
+        this.issues.error('empty-room', 'the room has no people; add at least one person (and ties between people)', { file });
     } else if (this.ties.size === 0) {
       this.issues.warn('no-ties', 'the room has no ties; nobody can pass anything on', { file });
     } else {
@@ -167,10 +180,14 @@ export class RoomBuilder {
       }
       for (let i = 0; i < this.ids.length; i++) {
         if (!touched[i]) {
-          this.issues.warn('isolated-person', `"${clip(this.ids[i])}" has no ties; they hear only if briefed (or through background mixing)`, {
-            ...this.index.get(this.ids[i])!.where,
-            field: undefined,
-          });
+          this.issues.warn(
+            'isolated-person',
+            `"${clip(this.ids[i])}" has no ties; they hear only if briefed (or through background mixing)`,
+            {
+              ...this.index.get(this.ids[i])!.where,
+              field: undefined,
+            },
+          );
         }
       }
     }
@@ -184,7 +201,8 @@ export class RoomBuilder {
   private readId(raw: unknown, where: IssueWhere): string | undefined {
     if (typeof raw === 'number' && Number.isFinite(raw)) return String(raw);
     if (typeof raw === 'string' && raw.trim() !== '') return this.trimIds ? raw.trim() : raw;
-    const shown = raw === undefined ? 'missing' : raw === '' ? 'empty' : `${clip(JSON.stringify(raw) ?? String(raw))}, not a name or number`;
+    const shown =
+      raw === undefined ? 'missing' : raw === '' ? 'empty' : `${clip(JSON.stringify(raw) ?? String(raw))}, not a name or number`;
     this.issues.error('bad-id', `the person id is ${shown}; every person needs an id`, { ...where, field: where.field ?? 'id' });
     return undefined;
   }

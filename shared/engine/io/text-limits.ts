@@ -7,7 +7,9 @@ import { DEFAULT_LIMITS, IssueList, type Issue, type ParseOptions } from './issu
 export function checkTextSize(text: string, options: ParseOptions, issues: IssueList, file?: string): boolean {
   const max = options.maxChars ?? DEFAULT_LIMITS.maxChars;
   if (text.length <= max) return true;
-  issues.error('too-large', `the file has ${text.length} characters, more than the ${max} allowed; split the room or raise the limit`, { file });
+  issues.error('too-large', `the file has ${text.length} characters, more than the ${max} allowed; split the room or raise the limit`, {
+    file,
+  });
   return false;
 }
 

@@ -5,10 +5,10 @@
  * (O(degree) per hop instead of the alias table's O(1)). Node only (the two-worker row uses
  * the piscina pool).
  */
-import seedrandom from "seedrandom";
-import { toCsr, type RoomGraph, type RoomTie } from "../graph";
-import { SimulationPool } from "./pool";
-import { simulate } from "./run-local";
+import seedrandom from 'seedrandom';
+import { toCsr, type RoomGraph, type RoomTie } from '../graph';
+import { SimulationPool } from './pool';
+import { simulate } from './run-local';
 
 export interface HopsBenchRow {
   readonly case: string;
@@ -46,11 +46,7 @@ export function benchRoom(n: number, m: number, seed = 1): RoomGraph {
 }
 
 /** Plain walks: one seedrandom call per draw, linear scan for the weighted choice. Returns hops. */
-function referenceWalks(
-  graph: RoomGraph,
-  starters: readonly number[],
-  runs: number,
-): number {
+function referenceWalks(graph: RoomGraph, starters: readonly number[], runs: number): number {
   const csr = toCsr(graph);
   const isStarter = new Uint8Array(csr.n);
   for (const a of starters) isStarter[a] = 1;
@@ -89,30 +85,24 @@ export async function benchSimulatedHops(repeats = 3): Promise<HopsBenchRow[]> {
   const graph = benchRoom(n, 1500);
   const m = graph.ties.length;
   const runs = 10_000;
-  simulate(graph, [0], 200, "warm-up");
+  simulate(graph, [0], 200, 'warm-up');
   referenceWalks(graph, [0, 1, 2], 20);
   const rows: HopsBenchRow[] = [];
   const started = performance.now();
   const pool = new SimulationPool(2);
-  await pool.simulate(graph, [0], 2000, "warm-up");
+  await pool.simulate(graph, [0, 150], 20, 'warm-up');
   const startMs = performance.now() - started;
   try {
     for (const k of [5, 30]) {
-      const starters = Array.from({ length: k }, (_, q) =>
-        Math.floor((q * n) / k),
-      );
-      const local = Array.from({ length: repeats }, () =>
-        time(() => simulate(graph, starters, runs, "bench")),
-      );
+      const starters = Array.from({ length: k }, (_, q) => Math.floor((q * n) / k));
+      const local = Array.from({ length: repeats }, () => time(() => simulate(graph, starters, runs, 'bench')));
       const ms1 = median(local.map((x) => x.ms));
       const hops = local[0].value.hops;
-      const ref = Array.from({ length: repeats }, () =>
-        time(() => referenceWalks(graph, starters, Math.ceil(runs / 20))),
-      );
+      const ref = Array.from({ length: repeats }, () => time(() => referenceWalks(graph, starters, Math.ceil(runs / 20))));
       const refMsPerHop = median(ref.map((x) => x.ms / x.value));
       const detail = `${runs} cascades, ${(hops / 1e6).toFixed(1)} M hops; plain walker ${(1 / refMsPerHop / 1000).toFixed(1)} M hops/s`;
       rows.push({
-        case: "simulated cascades, 1 thread",
+        case: 'simulated cascades, 1 thread',
         n,
         m,
         k,
@@ -124,12 +114,12 @@ export async function benchSimulatedHops(repeats = 3): Promise<HopsBenchRow[]> {
       const pooled: number[] = [];
       for (let q = 0; q < repeats; q++) {
         const t = performance.now();
-        await pool.simulate(graph, starters, runs, "bench");
+        await pool.simulate(graph, starters, runs, 'bench');
         pooled.push(performance.now() - t);
       }
       const ms2 = median(pooled);
       rows.push({
-        case: "simulated cascades, 2 workers",
+        case: 'simulated cascades, 2 workers',
         n,
         m,
         k,

@@ -38,7 +38,14 @@ export interface SimPlan {
 const cache = new WeakMap<object, Map<string, SimPlan>>();
 
 export function planSimulation(input: RoomInput, starters: readonly number[], options: SimulateOptions = {}): SimPlan {
-  const key = JSON.stringify([starters, options.laziness ?? 0, options.mixing ?? 0, options.hopCap, options.samples, options.samplePathCap]);
+  const key = JSON.stringify([
+    starters,
+    options.laziness ?? 0,
+    options.mixing ?? 0,
+    options.hopCap,
+    options.samples,
+    options.samplePathCap,
+  ]);
   const hit = cache.get(input)?.get(key);
   if (hit) return hit;
   const room = prepareRoom(input, options);

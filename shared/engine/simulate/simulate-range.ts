@@ -65,7 +65,15 @@ function startSample(plan: SimPlan, run: number): SampleBuilder {
 }
 
 function finishSample(s: SampleBuilder): SampleCascade {
-  return { run: s.run, people: s.people, hops: s.hops, capped: s.capped, truncated: s.truncated, pathStart: s.pathStart, path: Int32Array.from(s.path) };
+  return {
+    run: s.run,
+    people: s.people,
+    hops: s.hops,
+    capped: s.capped,
+    truncated: s.truncated,
+    pathStart: s.pathStart,
+    path: Int32Array.from(s.path),
+  };
 }
 
 /** One cascade: every walker walks once. Updates the partial; returns the run's total hops. */
@@ -101,29 +109,54 @@ function runCascade(plan: SimPlan, st: Xor128State, part: SimPartial, k: number,
       if (h === hopCap) break;
       h++;
       if (a > 0) {
-        t = x ^ (x << 11); x = y; y = z; z = w; w = w ^ (w >>> 19) ^ t ^ (t >>> 8);
+        t = x ^ (x << 11);
+        x = y;
+        y = z;
+        z = w;
+        w = w ^ (w >>> 19) ^ t ^ (t >>> 8);
         if ((w >>> 0) * TO_UNIT < a) {
-          if (sample && stored < pathCap) { sample.path.push(v); stored++; }
+          if (sample && stored < pathCap) {
+            sample.path.push(v);
+            stored++;
+          }
           continue;
         }
       }
       if (b > 0) {
-        t = x ^ (x << 11); x = y; y = z; z = w; w = w ^ (w >>> 19) ^ t ^ (t >>> 8);
+        t = x ^ (x << 11);
+        x = y;
+        y = z;
+        z = w;
+        w = w ^ (w >>> 19) ^ t ^ (t >>> 8);
         if ((w >>> 0) * TO_UNIT < b) {
-          t = x ^ (x << 11); x = y; y = z; z = w; w = w ^ (w >>> 19) ^ t ^ (t >>> 8);
+          t = x ^ (x << 11);
+          x = y;
+          y = z;
+          z = w;
+          w = w ^ (w >>> 19) ^ t ^ (t >>> 8);
           v = ((w >>> 0) * TO_UNIT * n) | 0;
-          if (sample && stored < pathCap) { sample.path.push(v); stored++; }
+          if (sample && stored < pathCap) {
+            sample.path.push(v);
+            stored++;
+          }
           continue;
         }
       }
       if (stay[v] === 0) {
-        t = x ^ (x << 11); x = y; y = z; z = w; w = w ^ (w >>> 19) ^ t ^ (t >>> 8);
+        t = x ^ (x << 11);
+        x = y;
+        y = z;
+        z = w;
+        w = w ^ (w >>> 19) ^ t ^ (t >>> 8);
         const s = rowStart[v];
         const pick = (w >>> 0) * TO_UNIT * (rowStart[v + 1] - s);
         const e = s + (pick | 0);
         v = pick - (pick | 0) < keep[e] ? col[e] : alias[e];
       }
-      if (sample && stored < pathCap) { sample.path.push(v); stored++; }
+      if (sample && stored < pathCap) {
+        sample.path.push(v);
+        stored++;
+      }
     }
     const reached = isStarter[v] === 1;
     if (reached) {
