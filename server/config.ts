@@ -10,11 +10,17 @@ const schema = z.object({
   DB_PORT: z.coerce.number().int().min(1).max(65535).default(3407),
   DB_USER: z.string().default('ripplehall'),
   DB_PASSWORD: z.string().default('ripplehall'),
-  DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/).default('ripplehall'),
+  DB_NAME: z
+    .string()
+    .regex(/^[A-Za-z0-9_]+$/)
+    .default('ripplehall'),
   SESSION_SECRET: z.string().min(16).default('dev-only-session-secret-change-me'),
   SESSION_IDLE_MINUTES: z.coerce.number().positive().default(30),
   SESSION_MAX_HOURS: z.coerce.number().positive().default(8),
-  TRUST_PROXY: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
+  TRUST_PROXY: z
+    .enum(['true', 'false'])
+    .default('false')
+    .transform((v) => v === 'true'),
   /** 'fake' runs the local SMTP fake in-process and stores every message; 'smtp' sends for real. */
   MAIL_MODE: z.enum(['fake', 'smtp']).default('fake'),
   MAIL_FROM: z.string().default('Ripplehall <no-reply@ripplehall.local>'),
@@ -22,7 +28,10 @@ const schema = z.object({
   SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(0),
   SMTP_USER: z.string().optional(),
   SMTP_PASSWORD: z.string().optional(),
-  SMTP_SECURE: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
+  SMTP_SECURE: z
+    .enum(['true', 'false'])
+    .default('false')
+    .transform((v) => v === 'true'),
   ADMIN_EMAIL: z.string().email().default('admin@ripplehall.local'),
   ADMIN_PASSWORD: z.string().min(10).default('admin-demo-2026'),
   RATE_LIMIT_SIGNIN_PER_15MIN: z.coerce.number().int().positive().default(10),

@@ -41,7 +41,10 @@ export const signInPerIp = rateLimit({
 export const signInPerAccount = rateLimit({
   windowMs: 15 * 60 * 1000,
   limit: config.RATE_LIMIT_SIGNIN_PER_15MIN,
-  keyGenerator: (req) => `${String(req.body?.email ?? '').trim().toLowerCase()}|${ipKeyGenerator(req.ip ?? '')}`,
+  keyGenerator: (req) =>
+    `${String(req.body?.email ?? '')
+      .trim()
+      .toLowerCase()}|${ipKeyGenerator(req.ip ?? '')}`,
   ...tooMany('Too many sign-in attempts for this account. Wait 15 minutes and try again.'),
 });
 
@@ -81,7 +84,10 @@ authRouter.post('/password', signedIn(), async (req, res) => {
   if (!row || !(await verifyPassword(body.currentPassword, row.passwordHash))) {
     throw unauthorized('Your current password is not right.');
   }
-  await db.update(users).set({ passwordHash: await hashPassword(body.newPassword) }).where(eq(users.id, row.id));
+  await db
+    .update(users)
+    .set({ passwordHash: await hashPassword(body.newPassword) })
+    .where(eq(users.id, row.id));
   await audit(req, { action: 'account.password_changed', targetType: 'user', targetId: row.id });
   res.status(204).end();
 });

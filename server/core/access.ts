@@ -9,10 +9,7 @@ import type { AccountRole } from '../../db/schema/accounts';
  *   participantAccess - a participant link token in the URL; the route checks the token itself
  *   roles('admin') / roles('facilitator', 'admin') - a signed-in account with one of the roles
  */
-export type AccessPolicy =
-  | { kind: 'public' }
-  | { kind: 'participant' }
-  | { kind: 'roles'; roles: readonly AccountRole[] };
+export type AccessPolicy = { kind: 'public' } | { kind: 'participant' } | { kind: 'roles'; roles: readonly AccountRole[] };
 
 export const policyOf = Symbol('ripplehall.accessPolicy');
 export type PolicyHandler = RequestHandler & { [policyOf]: AccessPolicy };
@@ -26,12 +23,15 @@ export const publicAccess: PolicyHandler = tag((_req, _res, next) => next(), { k
 export const participantAccess: PolicyHandler = tag((_req, _res, next) => next(), { kind: 'participant' });
 
 export function roles(...allowed: AccountRole[]): PolicyHandler {
-  return tag((req: Request, _res: Response, next: NextFunction) => {
-    const user = req.user;
-    if (!user) return next(unauthorized());
-    if (!allowed.includes(user.role)) return next(forbidden());
-    next();
-  }, { kind: 'roles', roles: allowed });
+  return tag(
+    (req: Request, _res: Response, next: NextFunction) => {
+      const user = req.user;
+      if (!user) return next(unauthorized());
+      if (!allowed.includes(user.role)) return next(forbidden());
+      next();
+    },
+    { kind: 'roles', roles: allowed },
+  );
 }
 
 /** Signed-in facilitators and admins (admins can do everything a facilitator can). */

@@ -18,6 +18,8 @@ export function sessionMiddleware(secure: boolean) {
     },
     pool as never,
   );
+  // The periodic clean-up must not keep a finished process (tests, shutdown) alive.
+  (store as unknown as { _expirationInterval?: NodeJS.Timeout })._expirationInterval?.unref();
   return session({
     name: SESSION_COOKIE,
     secret: config.SESSION_SECRET,

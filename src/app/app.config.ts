@@ -11,7 +11,10 @@ export const appConfig: ApplicationConfig = {
     provideBrowserGlobalErrorListeners(),
     provideRouter(routes, withComponentInputBinding()),
     // The server sets XSRF-TOKEN; HttpClient echoes it as X-XSRF-TOKEN on writes.
-    provideHttpClient(withXsrfConfiguration({ cookieName: 'XSRF-TOKEN', headerName: 'X-XSRF-TOKEN' }), withInterceptors([busyInterceptor, errorInterceptor])),
+    provideHttpClient(
+      withXsrfConfiguration({ cookieName: 'XSRF-TOKEN', headerName: 'X-XSRF-TOKEN' }),
+      withInterceptors([busyInterceptor, errorInterceptor]),
+    ),
     provideCharts(withDefaultRegisterables()),
   ],
 };

@@ -23,6 +23,8 @@ export function roleGuard(...roles: AccountRole[]): CanActivateFn {
 
 /** Sends signed-in accounts from the sign-in page to their home. */
 export const signedOutGuard: CanActivateFn = async () => {
-  const user = await inject(Auth).load().catch(() => null);
+  const user = await inject(Auth)
+    .load()
+    .catch(() => null);
   return user ? inject(Router).createUrlTree(['/rooms']) : true;
 };

@@ -1,0 +1,47 @@
+import { mkdirSync } from 'node:fs';
+import { test as base, expect, type Page } from '@playwright/test';
+
+/**
+ * Every page in every test is watched: a Content-Security-Policy violation or a request to
+ * any host other than the app's fails the test (nothing may load from outside the machine).
+ */
+export const test = base.extend<{ guard: void }>({
+  guard: [
+    async ({ page, baseURL }, use) => {
+      const problems: string[] = [];
+      const origin = new URL(baseURL!).origin;
+      page.on('console', (msg) => {
+        const text = msg.text();
+        if (/Content Security Policy|Refused to (load|apply|execute|connect)/i.test(text)) problems.push(`CSP: ${text}`);
+      });
+      page.on('request', (req) => {
+        const url = req.url();
+        if (!url.startsWith(origin) && !url.startsWith('data:') && !url.startsWith('blob:')) problems.push(`external request: ${url}`);
+      });
+      await use();
+      expect(problems, problems.join('\n')).toEqual([]);
+    },
+    { auto: true },
+  ],
+});
+
+export { expect };
+
+export const DEMO = {
+  admin: { email: 'admin@ripplehall.local', password: 'admin-demo-2026' },
+  facilitator: { email: 'facilitator@ripplehall.local', password: 'facilitate-demo-2026' },
+};
+
+export async function signIn(page: Page, who: { email: string; password: string }) {
+  await page.goto('/sign-in');
+  await page.getByLabel('E-mail').fill(who.email);
+  await page.getByLabel('Password').fill(who.password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
+}
+
+/** Screenshots kept as test artifacts (e2e/artifacts/, git-ignored). */
+export async function keepScreenshot(page: Page, name: string) {
+  mkdirSync('e2e/artifacts', { recursive: true });
+  await page.screenshot({ path: `e2e/artifacts/${name}.png`, fullPage: true });
+}

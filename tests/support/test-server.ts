@@ -1,0 +1,69 @@
+import { randomUUID } from 'node:crypto';
+import { createServer, type Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { users, type AccountRole } from '../../db/schema/accounts';
+import { createApp } from '../../server/app';
+import { hashPassword } from '../../server/auth/passwords';
+import { db, pool } from '../../server/db';
+import { startMail, stopMail } from '../../server/mail/transport';
+import { TestClient } from './http-client';
+
+/**
+ * Starts the real app (real MariaDB, real mail fake over SMTP) on a loopback port.
+ * The database is the one named by DB_NAME, reset and migrated by scripts/test.sh.
+ */
+export interface TestServer {
+  url: string;
+  client(): TestClient;
+  stop(): Promise<void>;
+}
+
+export async function startTestServer(): Promise<TestServer> {
+  if (process.env['NODE_ENV'] !== 'test') throw new Error('Run server tests with NODE_ENV=test (npm run test:server does).');
+  await startMail();
+  const server: Server = createServer(createApp());
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', () => resolve()));
+  const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  return {
+    url,
+    client: () => new TestClient(url),
+    stop: async () => {
+      server.closeAllConnections();
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      await stopMail();
+      await pool.end();
+    },
+  };
+}
+
+export interface TestAccount {
+  id: number;
+  email: string;
+  password: string;
+  role: AccountRole;
+}
+
+/** Hashing at full strength is slow (~0.2 s): reuse one hash for every test account. */
+let sharedHash: Promise<string> | undefined;
+const TEST_PASSWORD = 'correct-horse-battery';
+
+export async function createAccount(
+  role: AccountRole = 'facilitator',
+  status: 'active' | 'invited' | 'deactivated' = 'active',
+): Promise<TestAccount> {
+  sharedHash ??= hashPassword(TEST_PASSWORD);
+  const email = `${role}-${randomUUID().slice(0, 8)}@test.ripplehall.local`;
+  const [{ id }] = await db
+    .insert(users)
+    .values({ email, name: `Test ${role}`, role, status, passwordHash: await sharedHash })
+    .$returningId();
+  return { id, email, password: TEST_PASSWORD, role };
+}
+
+/** A client already signed in as a fresh account of the given role. */
+export async function signedInClient(server: TestServer, role: AccountRole = 'facilitator') {
+  const account = await createAccount(role);
+  const client = server.client();
+  await client.signIn(account.email, account.password);
+  return { client, account };
+}
