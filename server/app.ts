@@ -12,7 +12,7 @@ import { errorHandler } from './core/error-handler';
 import { requestLogger } from './core/logging';
 import { absoluteLifetime, sessionMiddleware } from './core/session';
 
-const browserDir = fileURLToPath(new URL('../dist/ripplehall/browser', import.meta.url));
+const browserDir = config.CLIENT_DIR ?? fileURLToPath(new URL('../dist/ripplehall/browser', import.meta.url));
 
 /** Builds the app (tests import this); server/main.ts only listens. */
 export function createApp(): Express {

@@ -6,6 +6,8 @@ const schema = z.object({
   PORT: z.coerce.number().int().min(1).max(65535).default(4300),
   HOST: z.string().default('127.0.0.1'),
   PUBLIC_URL: z.string().url().optional(),
+  /** Folder of the built client (default dist/ripplehall/browser). */
+  CLIENT_DIR: z.string().optional(),
   DB_HOST: z.string().default('127.0.0.1'),
   DB_PORT: z.coerce.number().int().min(1).max(65535).default(3407),
   DB_USER: z.string().default('ripplehall'),
