@@ -38,60 +38,77 @@ export function detectDelimiter(text: string): Delimiter {
   return ',';
 }
 
-/** Splits CSV text into records; blank lines are skipped. */
+/** Splits CSV text into records; blank lines are skipped. Unquoted cells are sliced, not built char by char. */
 export function readCsv(input: string): CsvText {
   const text = stripBom(input);
   const delimiter = detectDelimiter(text);
+  const d = delimiter.charCodeAt(0);
   const records: CsvRecord[] = [];
+  const len = text.length;
   let cells: string[] = [];
-  let cell = '';
   let line = 1;
   let recordLine = 1;
-  let quoted = false;
-  let quoteLine = 0;
   let i = 0;
   const endRecord = () => {
-    cells.push(cell);
     if (!(cells.length === 1 && cells[0].trim() === '')) records.push({ line: recordLine, cells });
     cells = [];
-    cell = '';
   };
-  while (i < text.length) {
-    const c = text[i];
-    if (quoted) {
-      if (c === '"') {
-        if (text[i + 1] === '"') {
-          cell += '"';
-          i += 2;
+  while (i <= len) {
+    // start of a cell: skip leading blanks to see whether it is quoted
+    let j = i;
+    while (j < len && (text.charCodeAt(j) === 32 || (text.charCodeAt(j) === 9 && d !== 9))) j++;
+    let cell: string;
+    if (j < len && text.charCodeAt(j) === 34) {
+      const quoteLine = line;
+      let out = '';
+      let from = j + 1;
+      let k = from;
+      for (;;) {
+        const q = text.indexOf('"', k);
+        if (q < 0) return { delimiter, records, unclosedQuoteLine: quoteLine };
+        for (let p = k; p < q; p++) if (text.charCodeAt(p) === 10) line++;
+        if (text.charCodeAt(q + 1) === 34) {
+          out += text.slice(from, q + 1);
+          from = k = q + 2;
           continue;
         }
-        quoted = false;
-      } else {
-        if (c === '\n') line++;
-        cell += c;
+        out += text.slice(from, q);
+        i = q + 1;
+        break;
       }
+      // anything after the closing quote up to the delimiter is kept (lenient)
+      let e = i;
+      while (e < len && text.charCodeAt(e) !== d && text.charCodeAt(e) !== 10 && text.charCodeAt(e) !== 13) e++;
+      cell = out + text.slice(i, e);
+      i = e;
+    } else {
+      let e = i;
+      while (e < len) {
+        const c = text.charCodeAt(e);
+        if (c === d || c === 10 || c === 13) break;
+        e++;
+      }
+      cell = text.slice(i, e);
+      i = e;
+    }
+    cells.push(cell);
+    if (i >= len) {
+      endRecord();
+      break;
+    }
+    const c = text.charCodeAt(i);
+    if (c === d) {
       i++;
       continue;
     }
-    if (c === '"' && cell.trim() === '') {
-      quoted = true;
-      quoteLine = line;
-      cell = '';
-    } else if (c === delimiter) {
-      cells.push(cell);
-      cell = '';
-    } else if (c === '\r' || c === '\n') {
-      endRecord();
-      if (c === '\r' && text[i + 1] === '\n') i++;
-      line++;
-      recordLine = line;
-    } else {
-      cell += c;
-    }
+    // line end
+    endRecord();
+    if (c === 13 && text.charCodeAt(i + 1) === 10) i++;
     i++;
+    line++;
+    recordLine = line;
+    if (i >= len) break;
   }
-  if (quoted) return { delimiter, records, unclosedQuoteLine: quoteLine };
-  if (cell !== '' || cells.length > 0) endRecord();
   return { delimiter, records };
 }
 

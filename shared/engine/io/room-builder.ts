@@ -62,7 +62,7 @@ export class RoomBuilder {
   private readonly labels: string[] = [];
   private readonly groups: (string | null)[] = [];
   private readonly index = new Map<string, { i: number; where: IssueWhere }>();
-  private readonly ties = new Map<string, PendingTie>();
+  private readonly ties = new Map<number, PendingTie>();
   private hasLabels = false;
   private hasGroups = false;
   private tooManyPeople = false;
@@ -130,8 +130,8 @@ export class RoomBuilder {
     implicitPeople = false,
     decimalComma = false,
   ): void {
-    const s = this.resolve(rawSource, { ...where, field: fields.source }, implicitPeople);
-    const t = this.resolve(rawTarget, { ...where, field: fields.target }, implicitPeople);
+    const s = this.resolve(rawSource, where, fields.source, implicitPeople);
+    const t = this.resolve(rawTarget, where, fields.target, implicitPeople);
     const reading = readStrength(rawStrength, this.limits.maxStrength, decimalComma);
     if (reading.problem) this.issues.error('bad-strength', reading.problem, { ...where, field: fields.strength });
     if (s === undefined || t === undefined || reading.value === undefined) return;
@@ -143,7 +143,8 @@ export class RoomBuilder {
       );
       return;
     }
-    const key = directed || s < t ? `${s} ${t}` : `${t} ${s}`;
+    // Numeric keys (exact while there are fewer than 2^21 people) are much faster than strings.
+    const key = directed || s < t ? s * 4294967296 + t : t * 4294967296 + s;
     const seen = this.ties.get(key);
     if (seen) {
       seen.strength += reading.value;
@@ -207,11 +208,22 @@ export class RoomBuilder {
     return undefined;
   }
 
-  private resolve(raw: unknown, where: IssueWhere, implicitPeople: boolean): number | undefined {
-    const id = this.readId(raw, where);
-    if (id === undefined) return undefined;
+  private resolve(raw: unknown, at: IssueWhere, field: string, implicitPeople: boolean): number | undefined {
+    // Fast path without allocations: most ties name people already seen.
+    let id: string | undefined;
+    if (typeof raw === 'string') {
+      const text = this.trimIds ? raw.trim() : raw;
+      if (text.trim() !== '') id = text;
+    } else if (typeof raw === 'number' && Number.isFinite(raw)) {
+      id = String(raw);
+    }
+    if (id === undefined) {
+      this.readId(raw, { ...at, field });
+      return undefined;
+    }
     const seen = this.index.get(id);
     if (seen) return seen.i;
+    const where = { ...at, field };
     if (implicitPeople) {
       return this.addPerson(id, undefined, undefined, where) ? this.ids.length - 1 : undefined;
     }
