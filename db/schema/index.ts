@@ -1,3 +1,4 @@
 // One file per feature; each is re-exported here so drizzle-kit and the app see one schema.
 export * from './accounts';
 export * from './mail';
+export * from './rooms';
