@@ -1,0 +1,103 @@
+/**
+ * Who may do what with a room. Every rooms route (and the plans and rehearsals built on
+ * rooms) loads its room through `loadRoomFor`: a room the caller may not see answers 404,
+ * never 403, so room ids cannot be probed; a viewer asking to change something gets 403.
+ */
+import { and, asc, eq } from 'drizzle-orm';
+import type { RoomGraph } from '../../shared/engine/index';
+import type { RoomAccess, RoomSettings } from '../../shared/api/rooms';
+import { users } from '../../db/schema/accounts';
+import { people, roomShares, rooms, ties } from '../../db/schema/rooms';
+import { db, type Tx } from '../db';
+import { forbidden, notFound, unauthorized } from '../core/http-error';
+import type { SignedInUser } from '../types';
+
+export type RoomNeed = 'view' | 'edit' | 'own';
+export type RoomRow = typeof rooms.$inferSelect;
+
+export interface LoadedRoom {
+  room: RoomRow;
+  access: RoomAccess;
+  ownerName: string;
+}
+
+const ALLOWED: Record<RoomNeed, readonly RoomAccess[]> = {
+  view: ['owner', 'editor', 'viewer'],
+  edit: ['owner', 'editor'],
+  own: ['owner'],
+};
+
+/** Parses a room id from a URL; anything that is not a positive integer is simply not found. */
+export function roomIdOf(raw: unknown): number {
+  const id = typeof raw === 'number' ? raw : /^[1-9]\d{0,15}$/.test(String(raw)) ? Number(raw) : NaN;
+  if (!Number.isSafeInteger(id) || id <= 0) throw notFound('That room');
+  return id;
+}
+
+export async function loadRoomFor(
+  user: SignedInUser | undefined,
+  roomId: number | string,
+  need: RoomNeed,
+  tx: Tx | typeof db = db,
+): Promise<LoadedRoom> {
+  if (!user) throw unauthorized();
+  const id = roomIdOf(roomId);
+  const [row] = await tx
+    .select({ room: rooms, ownerName: users.name, shareRole: roomShares.role })
+    .from(rooms)
+    .innerJoin(users, eq(users.id, rooms.ownerId))
+    .leftJoin(roomShares, and(eq(roomShares.roomId, rooms.id), eq(roomShares.userId, user.id)))
+    .where(eq(rooms.id, id));
+  if (!row) throw notFound('That room');
+  const access: RoomAccess | undefined = row.room.ownerId === user.id ? 'owner' : (row.shareRole ?? undefined);
+  if (!access) throw notFound('That room');
+  if (!ALLOWED[need].includes(access)) {
+    throw forbidden(
+      need === 'edit'
+        ? 'You can view this room but not change it: ask its owner for editor access.'
+        : 'Only the owner of this room can do this.',
+    );
+  }
+  return { room: row.room, access, ownerName: row.ownerName };
+}
+
+export function settingsOf(room: RoomRow): RoomSettings {
+  return { directed: room.directed, minutesPerHop: room.minutesPerHop, laziness: room.laziness, mixing: room.mixing };
+}
+
+export interface LoadedRoomGraph {
+  /** People in the room's stable order (order index, then id); ids are the people keys. */
+  graph: RoomGraph;
+  /** Engine index -> person id. */
+  personIds: number[];
+  /** Engine index -> display name. */
+  names: string[];
+  settings: RoomSettings;
+  version: number;
+}
+
+/** The room as the engine sees it, for the summary, the planners and rehearsals. Throws notFound if gone. */
+export async function loadRoomGraph(roomId: number, tx: Tx | typeof db = db): Promise<LoadedRoomGraph> {
+  const [room] = await tx.select().from(rooms).where(eq(rooms.id, roomId));
+  if (!room) throw notFound('That room');
+  const folk = await tx
+    .select({ id: people.id, key: people.personKey, name: people.name, group: people.groupName })
+    .from(people)
+    .where(eq(people.roomId, roomId))
+    .orderBy(asc(people.orderIndex), asc(people.id));
+  const links = await tx
+    .select({ s: ties.sourceId, t: ties.targetId, w: ties.strength })
+    .from(ties)
+    .where(eq(ties.roomId, roomId))
+    .orderBy(asc(ties.id));
+  const indexOf = new Map<number, number>();
+  folk.forEach((p, i) => indexOf.set(p.id, i));
+  const graph: RoomGraph = {
+    ids: folk.map((p) => p.key),
+    labels: folk.map((p) => p.name),
+    groups: folk.map((p) => p.group),
+    directed: room.directed,
+    ties: links.map((l) => ({ source: indexOf.get(l.s)!, target: indexOf.get(l.t)!, strength: l.w })),
+  };
+  return { graph, personIds: folk.map((p) => p.id), names: folk.map((p) => p.name), settings: settingsOf(room), version: room.version };
+}
