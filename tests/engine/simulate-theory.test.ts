@@ -5,6 +5,7 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import { exactReach } from '../../shared/engine/reach';
+import { reachCurve } from '../../shared/engine/reach-time';
 import { simulate, Z99, type SimulationSummary } from '../../shared/engine/simulate/index';
 import { complete, directedCycle, karate, lesMiserables, path, randomDirected, star } from './simulate-fixtures';
 
@@ -181,5 +182,35 @@ describe('caps, unreachable people, sample cascades', () => {
         for (let q = 1; q < walk.length; q++) assert.ok(tied.has(`${walk[q - 1]},${walk[q]}`));
       }
     }
+  });
+});
+
+describe('the simulated reach curve agrees with the analytic one', () => {
+  it('karate club: share reached by hop t within 4 binomial standard errors of shareReached (reach-time.ts)', () => {
+    const graph = karate();
+    const starters = [0, 33];
+    const analytic = reachCurve(graph, starters, { maxHops: 60 });
+    const s = simulate(graph, starters, 4000, 'curve');
+    const walks = s.runs * (graph.ids.length - starters.length);
+    assert.ok(analytic.hops >= 30);
+    for (let t = 0; t <= analytic.hops; t++) {
+      const p = analytic.shareReached[t];
+      const sim = s.reachCurve[Math.min(t, s.reachCurve.length - 1)];
+      // walks are independent, so the variance is at most the binomial p (1 - p) / walks
+      assert.ok(Math.abs(sim - p) <= 4 * Math.sqrt((p * (1 - p)) / walks) + 1e-9, `hop ${t}: ${sim} vs ${p}`);
+    }
+  });
+
+  it('a split room: the unreachable part keeps the curve below 1', () => {
+    const g = {
+      ids: ['a', 'b', 'c', 'd'],
+      directed: false,
+      ties: [
+        { source: 0, target: 1, strength: 1 },
+        { source: 2, target: 3, strength: 1 },
+      ],
+    };
+    const s = simulate(g, [0], 10, 1);
+    assert.deepEqual(s.reachCurve, [0, 1 / 3]);
   });
 });

@@ -36,7 +36,10 @@ export interface SimulationSummary {
   readonly capped: number;
   readonly hopCap: number;
   readonly hops: number;
-  /** reachCurve[t]: share of the walkers who have heard by hop t, averaged over runs. */
+  /**
+   * reachCurve[t]: share of the non-starters who have heard by hop t, averaged over runs (as the
+   * analytic shareReached of reach-time.ts; people who cannot be reached never count as reached).
+   */
   readonly reachCurve: number[];
   readonly unreachable: readonly UnreachablePerson[];
   readonly samples: readonly SampleCascade[];
@@ -82,7 +85,7 @@ export function summarize(plan: SimPlan, merged: SimPartial, seed: string | numb
     capped: merged.cappedWalks,
     hopCap: plan.hopCap,
     hops: merged.hops,
-    reachCurve: reachCurve(merged.histogram, runs * w),
+    reachCurve: reachCurve(merged.histogram, runs * (n - plan.starters.length)),
     unreachable: plan.unreachable,
     samples: merged.samples,
   };
