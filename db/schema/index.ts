@@ -2,3 +2,4 @@
 export * from './accounts';
 export * from './mail';
 export * from './rooms';
+export * from './workshops';
