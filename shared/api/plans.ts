@@ -1,0 +1,459 @@
+/**
+ * Plans, rehearsals and background jobs: the API contract shared by the client and the server.
+ * No Node or DOM imports here. Person ids are the rooms API's `PersonDto.id` (numbers).
+ *
+ * Plans
+ *   POST   /api/rooms/:roomId/plans            CreatePlanRequest      -> 201 PlanDetail (computed at once)
+ *                                                                      -> 202 PlanStarted (background job: exhaustive,
+ *                                                                         auto, big rooms, or `background: true`)
+ *   GET    /api/rooms/:roomId/plans                                   -> PlanSummary[] (newest first)
+ *   POST   /api/rooms/:roomId/plans/sweep      KSweepRequest          -> KSweepResult
+ *   GET    /api/plans/:planId                                         -> PlanDetail (per person, reach curve, quantiles)
+ *   PATCH  /api/plans/:planId                  UpdatePlanRequest      -> PlanSummary (rename, mark chosen)
+ *   DELETE /api/plans/:planId                                         -> 204 (its rehearsals go with it)
+ *   GET    /api/plans/compare?a=ID&b=ID                               -> PlanComparison (one endpoint, side by side)
+ *   GET    /api/plans/:planId/briefing                                -> BriefingSheet (data of the printable sheet)
+ *   GET    /api/plans/:planId/briefing.csv                            -> text/csv download (formula-injection safe)
+ *   GET    /api/plans/:planId/briefing.pdf                            -> application/pdf download
+ *
+ * Jobs (plans computed in the background and rehearsals)
+ *   GET    /api/jobs/limits                                           -> ServerLimits
+ *   GET    /api/jobs/:jobId                                           -> JobDto
+ *   GET    /api/jobs/:jobId/events                                    -> text/event-stream (JobEvent, see below)
+ *   POST   /api/jobs/:jobId/cancel                                    -> JobDto
+ *
+ * Rehearsals
+ *   POST   /api/plans/:planId/rehearsals       StartRehearsalRequest  -> 202 RehearsalStarted (reused: true when the
+ *                                                                         same idempotency key, or the same plan + seed +
+ *                                                                         runs within IDEMPOTENCY_WINDOW_MS, already started one)
+ *   GET    /api/rooms/:roomId/rehearsals?planId&status&from&to        -> RehearsalSummary[] (newest first; from/to ISO dates)
+ *   GET    /api/rehearsals/:id                                        -> RehearsalDetail (results only when status 'done')
+ *   GET    /api/rehearsals/:id/events                                 -> text/event-stream (same events as the job's)
+ *   POST   /api/rehearsals/:id/cancel                                 -> RehearsalSummary
+ *   POST   /api/rehearsals/:id/rerun           { idempotencyKey? }    -> 202 RehearsalStarted (same plan, seed, runs)
+ *   DELETE /api/rehearsals/:id                                        -> 204
+ *   GET    /api/rehearsals/:id/samples                                -> ReplayIndex (starters, people, sample list)
+ *   GET    /api/rehearsals/:id/samples/:n                             -> ReplaySample (n = 0 .. count-1)
+ *
+ * Server-sent events (both streams): `event: queued` {position}, `event: started` {},
+ * `event: progress` {fraction, done, of}, `event: done` {job}, `event: failed` {job, message},
+ * `event: cancelled` {job}, `event: interrupted` {job}; every event's data is a JobEvent JSON.
+ * A comment line `: heartbeat` every 15 s; the server closes the stream after a final event.
+ * The first event always reports the current state (so a late subscriber sees `done` at once).
+ *
+ * Errors: 400 answers carry `error.code`; planner errors use the engine's EngineError codes
+ * (INVALID_K, K_BELOW_CLOSED_GROUPS, MUST_INCLUDE_TOO_MANY, CONFLICTING_CONSTRAINTS,
+ * NO_FEASIBLE_PLAN, EXHAUSTIVE_INFEASIBLE, UNKNOWN_PERSON, INVALID_OPTION, INVALID_STARTERS), plus
+ * UNREACHABLE_PEOPLE (a hand-made plan leaves people who can never hear; `details.people`),
+ * TOO_MANY_CASCADES, INVALID_SEED, ROOM_TOO_LARGE. `error.details.suggest` names another method when
+ * one would work. Rooms the caller cannot see answer 404; viewers get 403 on changes.
+ */
+
+export const PLAN_METHOD_CHOICES = ['auto', 'greedy', 'widened', 'swap', 'exhaustive'] as const;
+export type PlanMethodChoiceDto = (typeof PLAN_METHOD_CHOICES)[number];
+/** What was actually run ('auto' resolves to one of the engine's methods). */
+export type PlanMethodUsed = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy' | 'hand-made';
+
+export const PLAN_LIMITS = {
+  nameMax: 120,
+  /** Exhaustive search is offered up to this many people (above: a 400 suggesting auto). */
+  exhaustiveMaxPeople: 120,
+  /** Plans above this many people (or exhaustive / auto) run as background jobs. */
+  inlineMaxPeople: 400,
+  /** Time limit for exhaustive and auto, seconds. */
+  timeLimitSeconds: { min: 1, max: 300, default: 10 },
+  /** Widened greedy's near-optimal threshold. */
+  nu: { min: 0, max: 1, default: 0.9 },
+  /** Largest k of a k-sweep. */
+  sweepMaxK: 20,
+} as const;
+
+export const REHEARSAL_LIMITS = {
+  /** Default cascades; the server's cap (config MAX_CASCADES) is reported in `ServerLimits`. */
+  defaultRuns: 5000,
+  /** Seeds: 1-64 characters of letters, digits, '-' and '_'. */
+  seedPattern: '^[A-Za-z0-9_-]{1,64}$',
+  idempotencyKeyMax: 100,
+  /** Whole cascades kept for the replay. */
+  samples: 3,
+} as const;
+
+/** Same plan, seed and runs started again within this window reuse the first job. */
+export const IDEMPOTENCY_WINDOW_MS = 10_000;
+
+export interface CreatePlanRequest {
+  name?: string;
+  /** Budget: number of starters. Required unless `starters` is given. */
+  k?: number;
+  method?: PlanMethodChoiceDto;
+  /** Widened greedy threshold (0..1). */
+  nu?: number;
+  /** Exhaustive / auto time limit in seconds. */
+  timeLimitSeconds?: number;
+  /** Person ids who must be briefed. */
+  mustBrief?: number[];
+  /** Person ids who cannot be briefed. */
+  cannotBrief?: number[];
+  /** A hand-made plan: the facilitator's starters, in briefing order (k = its length). */
+  starters?: number[];
+  /** Force a background job even for a small room. */
+  background?: boolean;
+}
+
+export interface UpdatePlanRequest {
+  name?: string;
+  /** true marks this plan as the room's chosen one (unmarks the others); false unmarks it. */
+  chosen?: boolean;
+}
+
+export type JobStatus = 'queued' | 'running' | 'done' | 'failed' | 'cancelled' | 'interrupted';
+export const JOB_STATUSES: readonly JobStatus[] = ['queued', 'running', 'done', 'failed', 'cancelled', 'interrupted'];
+export type PlanStatus = 'computing' | 'ready' | 'failed' | 'cancelled' | 'interrupted';
+
+export interface PlanStarterDto {
+  personId: number;
+  name: string;
+  group: string | null;
+  /** 1-based briefing order. */
+  order: number;
+}
+
+export interface PlanSettingsSnapshot {
+  directed: boolean;
+  minutesPerHop: number;
+  laziness: number;
+  mixing: number;
+}
+
+export interface PlanSummary {
+  id: number;
+  roomId: number;
+  name: string;
+  kind: 'computed' | 'hand-made';
+  status: PlanStatus;
+  k: number;
+  methodRequested: PlanMethodChoiceDto | 'hand-made';
+  methodUsed: PlanMethodUsed | null;
+  nu: number | null;
+  timeLimitSeconds: number | null;
+  mustBrief: number[];
+  cannotBrief: number[];
+  starters: PlanStarterDto[];
+  /** Sum of expected hops to hear over the people not briefed. Null until computed. */
+  total: number | null;
+  /** Room average: total / (people - k). */
+  average: number | null;
+  /** Room average in minutes (average x minutesPerHop). */
+  averageMinutes: number | null;
+  qualityRank: number | null;
+  lowerBound: number | null;
+  /** total - lowerBound: how far this plan can at most be from the best plan of its size. */
+  gap: number | null;
+  /** gap / total (0..1), for "at most N% above the best". */
+  gapShare: number | null;
+  certified: boolean;
+  coverSize: number | null;
+  elapsedMs: number | null;
+  people: number;
+  roomVersion: number;
+  currentRoomVersion: number;
+  /** The room changed since this plan was computed: numbers are for the old version. */
+  stale: boolean;
+  settings: PlanSettingsSnapshot;
+  chosen: boolean;
+  notes: string[];
+  warnings: string[];
+  /** The background job computing it (null for plans computed at once). */
+  jobId: number | null;
+  error: string | null;
+  createdBy: string;
+  createdAt: string;
+}
+
+export interface PlanPersonDto {
+  personId: number;
+  name: string;
+  group: string | null;
+  starter: boolean;
+  /** 1-based briefing order for starters. */
+  order: number | null;
+  expectedHops: number;
+  expectedMinutes: number;
+}
+
+export interface ReachQuantileDto {
+  /** 0.5, 0.9, 0.99 or 1. */
+  share: number;
+  /** First hop by which that share of the people not briefed is expected to have heard; null: not guaranteed within the hops computed. */
+  hop: number | null;
+  minutes: number | null;
+}
+
+export interface ReachCurveDto {
+  /** byHop[t] = expected share of the people not briefed who have heard by hop t (t = 0..). */
+  byHop: number[];
+  /** The same over everyone in the room, starters included. */
+  roomByHop: number[];
+  /** byMinute[t] = { minutes: t x minutesPerHop, share: byHop[t] }. */
+  byMinute: { minutes: number; share: number }[];
+  minutesPerHop: number;
+  /** False when the curve stopped before 99.99% had heard (then the tail is cut). */
+  complete: boolean;
+  quantiles: ReachQuantileDto[];
+}
+
+export interface PlanDetail extends PlanSummary {
+  /** Everyone in the room's order (empty until the plan is ready). */
+  perPerson: PlanPersonDto[];
+  reach: ReachCurveDto | null;
+}
+
+export interface PlanStarted {
+  plan: PlanSummary;
+  job: JobDto;
+}
+
+export interface PlanComparison {
+  a: PlanSummary;
+  b: PlanSummary;
+  /** Per person, in room order: hops under a and b and b - a. Empty when the plans are of different room versions with different people. */
+  people: { personId: number; name: string; a: number | null; b: number | null; difference: number | null }[];
+  onlyInA: number[];
+  onlyInB: number[];
+  inBoth: number[];
+  /** b.average - a.average (negative: b is better). */
+  averageDifference: number | null;
+  sameRoomVersion: boolean;
+  line: string;
+}
+
+export interface KSweepRequest {
+  /** Largest k (1..min(people - 1, PLAN_LIMITS.sweepMaxK)). */
+  maxK: number;
+  /** Seed of the random baseline (default "sweep"). */
+  seed?: string;
+}
+
+export type SweepSeries = 'greedy' | 'widened' | 'swap' | 'mostTies' | 'random';
+export const SWEEP_SERIES: readonly SweepSeries[] = ['greedy', 'widened', 'swap', 'mostTies', 'random'];
+
+export interface KSweepPoint {
+  k: number;
+  /** Room average for each series (null where k is below the closed groups' need). */
+  greedy: number | null;
+  widened: number | null;
+  swap: number | null;
+  /** The k people with the most tie strength. */
+  mostTies: number | null;
+  /** k people drawn at random with the seed (the mean over 20 draws). */
+  random: number | null;
+  /** Proven lower bound on the best room average of size k. */
+  lowerBound: number | null;
+}
+
+export interface KSweepResult {
+  roomVersion: number;
+  people: number;
+  maxK: number;
+  seed: string;
+  minutesPerHop: number;
+  points: KSweepPoint[];
+  elapsedMs: number;
+  notes: string[];
+}
+
+// ---- briefing sheet ----
+
+export interface BriefingSheet {
+  planId: number;
+  planName: string;
+  roomName: string;
+  roomVersion: number;
+  stale: boolean;
+  /** ISO date the sheet was produced. */
+  generatedAt: string;
+  minutesPerHop: number;
+  starters: (PlanStarterDto & { personKey: string })[];
+  people: number;
+  average: number;
+  averageMinutes: number;
+  /** "50% will have heard within N minutes", for shares 0.5, 0.9 (and 0.99). */
+  expectations: { share: number; hop: number | null; minutes: number | null; line: string }[];
+  cautions: string[];
+}
+
+export const MODEL_CAUTIONS: readonly string[] = [
+  'The model is a simplification of real conversation; treat these numbers as a planning aid.',
+  "A person's score says where they sit in the map, not what they are worth: never use it to judge or rank people's performance.",
+  'Who-talks-to-whom data about employees is personal data: keep this sheet to the people who need it.',
+];
+
+// ---- jobs ----
+
+export type JobKind = 'plan' | 'rehearsal';
+
+export interface JobDto {
+  id: number;
+  kind: JobKind;
+  status: JobStatus;
+  /** 0..1. */
+  progress: number;
+  /** 1-based place in the caller's queue while queued (null otherwise). */
+  queuePosition: number | null;
+  message: string | null;
+  planId: number | null;
+  rehearsalId: number | null;
+  createdAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+}
+
+export type JobEventType = 'queued' | 'started' | 'progress' | 'done' | 'failed' | 'cancelled' | 'interrupted';
+
+export interface JobEvent {
+  type: JobEventType;
+  job: JobDto;
+  /** queued: position in the queue. */
+  position?: number;
+  /** progress: 0..1, with `done` of `of` units (cascades for rehearsals). */
+  fraction?: number;
+  done?: number;
+  of?: number;
+  message?: string;
+}
+
+// ---- rehearsals ----
+
+export interface StartRehearsalRequest {
+  /** Cascades (1..MAX_CASCADES). */
+  runs: number;
+  /** Default: a random seed, returned and stored. */
+  seed?: string;
+  /** A double click with the same key starts one job. */
+  idempotencyKey?: string;
+}
+
+export interface AgreementVerdict {
+  /** Share of people whose analytic expected hops lie inside the simulated 99% interval. */
+  shareInInterval99: number;
+  peopleChecked: number;
+  /** |simulated room average - analytic| <= 3 standard errors. */
+  averageWithin3se: boolean;
+  averageDifference: number;
+  averageStderr: number;
+  agrees: boolean;
+  line: string;
+}
+
+export interface RehearsalSummary {
+  id: number;
+  planId: number;
+  planName: string;
+  roomId: number;
+  status: JobStatus;
+  runs: number;
+  seed: string;
+  jobId: number;
+  progress: number;
+  queuePosition: number | null;
+  /** Simulated room average (null until done). */
+  average: number | null;
+  averageStderr: number | null;
+  analyticAverage: number | null;
+  capped: number | null;
+  elapsedMs: number | null;
+  verdict: AgreementVerdict | null;
+  rerunOf: number | null;
+  message: string | null;
+  createdBy: string;
+  createdAt: string;
+  finishedAt: string | null;
+}
+
+export interface RehearsalPersonDto {
+  personId: number;
+  name: string;
+  group: string | null;
+  starter: boolean;
+  /** False for starters (and people who cannot be reached). */
+  walked: boolean;
+  mean: number;
+  sd: number;
+  stderr: number;
+  low95: number;
+  high95: number;
+  low99: number;
+  high99: number;
+  analytic: number;
+  capped: number;
+  inInterval99: boolean;
+}
+
+export interface RehearsalDetail extends RehearsalSummary {
+  people: RehearsalPersonDto[];
+  reach: { simulated: number[]; analytic: number[] } | null;
+  hopCap: number | null;
+  hops: number | null;
+  samples: number;
+  minutesPerHop: number;
+}
+
+export interface RehearsalStarted {
+  rehearsal: RehearsalSummary;
+  job: JobDto;
+  /** True when an identical start (same key, or same plan + seed + runs just now) was reused. */
+  reused: boolean;
+}
+
+export interface ReplayPersonDto {
+  index: number;
+  personId: number;
+  name: string;
+  group: string | null;
+  x: number | null;
+  y: number | null;
+  starter: boolean;
+}
+
+export interface ReplayIndex {
+  rehearsalId: number;
+  seed: string;
+  runs: number;
+  minutesPerHop: number;
+  /** Person ids in briefing order. */
+  starters: number[];
+  people: ReplayPersonDto[];
+  ties: { source: number; target: number; strength: number }[];
+  directed: boolean;
+  samples: { n: number; run: number }[];
+}
+
+export interface ReplayChain {
+  /** The person whose question this is (index into ReplayIndex.people). */
+  person: number;
+  /** Indices visited, from the person to the starter reached. */
+  path: number[];
+  hops: number;
+  /** The stored path was cut (hops still counts the whole walk). */
+  truncated: boolean;
+  /** The walk hit the hop cap without reaching a starter. */
+  capped: boolean;
+}
+
+export interface ReplaySample {
+  rehearsalId: number;
+  n: number;
+  run: number;
+  seed: string;
+  /** heardAt[i] = hop at which person i heard (0 for starters; null: cannot be reached or capped). */
+  heardAt: (number | null)[];
+  chains: ReplayChain[];
+  lastHop: number;
+}
+
+/** The server's configured limits, for forms. GET /api/jobs/limits */
+export interface ServerLimits {
+  maxCascades: number;
+  maxJobsPerUser: number;
+  workers: number;
+}
