@@ -1,0 +1,44 @@
+import { reachChartData, reachedBy } from './reach-chart-data';
+
+describe('reachChartData', () => {
+  // Complete graph K_4 with one starter: each of the 3 others hears at each hop with probability 1/3
+  // (h = (n - 1)/a = 3, Lovász, Random walks on graphs: a survey, 1993), so the share reached by hop t
+  // is 1 - (2/3)^t.
+  const k4 = Array.from({ length: 8 }, (_, t) => 1 - Math.pow(2 / 3, t));
+
+  it('maps shares by hop to percentages on a hop axis', () => {
+    const data = reachChartData([{ label: 'Plan', share: k4 }], 'hop', 5);
+    const pts = data.datasets[0].data;
+    expect(pts.length).toBe(8);
+    expect(pts[0]).toEqual({ x: 0, y: 0 });
+    expect(pts[1].x).toBe(1);
+    expect(pts[1].y).toBeCloseTo(33.333, 2);
+    expect(pts[2].y).toBeCloseTo(55.556, 2);
+  });
+
+  it('turns hops into minutes with the room setting', () => {
+    const data = reachChartData([{ label: 'Plan', share: k4 }], 'minute', 2.5);
+    expect(data.datasets[0].data.map((p) => p.x).slice(0, 4)).toEqual([0, 2.5, 5, 7.5]);
+    expect(data.datasets[0].data[3].y).toBeCloseTo(100 * (1 - 8 / 27), 2);
+  });
+
+  it('pads a shorter curve with its final share and dashes the second series', () => {
+    const data = reachChartData(
+      [
+        { label: 'A', share: [0, 0.5, 1] },
+        { label: 'B', share: [0, 0.25, 0.5, 0.75, 0.9], dashed: true },
+      ],
+      'hop',
+      1,
+    );
+    expect(data.datasets[0].data.map((p) => p.y)).toEqual([0, 50, 100, 100, 100]);
+    expect(data.datasets[1].borderDash).toEqual([6, 4]);
+    expect(data.datasets[0].borderDash).toBeUndefined();
+  });
+
+  it('finds the hop and minute by which a share has heard', () => {
+    // 1 - (2/3)^t >= 0.9 first at t = 6 (0.912), not at t = 5 (0.868).
+    expect(reachedBy(k4, 0.9, 5)).toEqual({ hop: 6, minutes: 30 });
+    expect(reachedBy([0, 0.4, 0.6], 0.9, 5)).toEqual({ hop: null, minutes: null });
+  });
+});

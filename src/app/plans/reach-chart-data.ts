@@ -1,0 +1,64 @@
+import type { ChartData, ChartDataset } from 'chart.js';
+
+/** One reach curve as the charts need it: share of people reached (0..1) by hop t, t = 0, 1, 2, ... */
+export interface ReachSeries {
+  label: string;
+  /** share[t]: share of people who have heard by hop t. */
+  share: readonly number[];
+  /** Dashed line for a second curve (simulated, or the other plan of a comparison). */
+  dashed?: boolean;
+  colour?: string;
+}
+
+export type ReachAxis = 'hop' | 'minute';
+
+export const SERIES_COLOURS = ['#16324a', '#c2603a', '#5b7065', '#8a6d1f', '#6b4e8a', '#9aa5ad'];
+
+/**
+ * Line chart data of one or more reach curves against hops or minutes (minutes = hop x minutes
+ * per hop). Curves of different lengths are padded with their last value (a curve that stopped
+ * because everyone had heard stays at its final share). Shares become percentages.
+ */
+export function reachChartData(
+  series: readonly ReachSeries[],
+  axis: ReachAxis,
+  minutesPerHop: number,
+): ChartData<'line', { x: number; y: number }[]> {
+  const len = Math.max(0, ...series.map((s) => s.share.length));
+  const scale = axis === 'minute' ? minutesPerHop : 1;
+  const datasets: ChartDataset<'line', { x: number; y: number }[]>[] = series.map((s, i) => {
+    const colour = s.colour ?? SERIES_COLOURS[i % SERIES_COLOURS.length];
+    const data: { x: number; y: number }[] = [];
+    for (let t = 0; t < len; t++) {
+      const v = s.share.length === 0 ? 0 : s.share[Math.min(t, s.share.length - 1)];
+      data.push({ x: round(t * scale), y: round(100 * v) });
+    }
+    return {
+      label: s.label,
+      data,
+      borderColor: colour,
+      backgroundColor: colour,
+      borderDash: s.dashed ? [6, 4] : undefined,
+      pointRadius: 0,
+      borderWidth: 2,
+      tension: 0,
+      stepped: axis === 'hop' ? ('before' as const) : false,
+    };
+  });
+  return { datasets };
+}
+
+/**
+ * The first hop by which at least `share` of people have heard (null when the curve never gets there),
+ * and the same in minutes. Used for "90% will have heard within 40 minutes".
+ */
+export function reachedBy(curve: readonly number[], share: number, minutesPerHop: number): { hop: number | null; minutes: number | null } {
+  for (let t = 0; t < curve.length; t++) {
+    if (curve[t] >= share - 1e-12) return { hop: t, minutes: round(t * minutesPerHop) };
+  }
+  return { hop: null, minutes: null };
+}
+
+function round(v: number): number {
+  return Math.round(v * 1000) / 1000;
+}

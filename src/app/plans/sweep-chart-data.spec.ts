@@ -1,0 +1,46 @@
+import { sweepChartData } from './sweep-chart-data';
+
+describe('sweepChartData', () => {
+  it('lays every method on one ascending k axis with gaps where a method has no value', () => {
+    const data = sweepChartData([
+      {
+        method: 'greedy',
+        points: [
+          { k: 2, average: 3.5 },
+          { k: 1, average: 5.25 },
+          { k: 3, average: 2.1 },
+        ],
+      },
+      {
+        method: 'swap',
+        points: [
+          { k: 1, average: 5.25 },
+          { k: 3, average: 2.0 },
+        ],
+      },
+      {
+        method: 'random',
+        points: [
+          { k: 1, average: 9.1 },
+          { k: 2, average: Infinity },
+          { k: 3, average: null },
+        ],
+      },
+    ]);
+    expect(data.labels).toEqual([1, 2, 3]);
+    expect(data.datasets[0].data).toEqual([5.25, 3.5, 2.1]);
+    expect(data.datasets[1].data).toEqual([5.25, null, 2]);
+    // A baseline with an unreachable person has no finite average: a gap, not a made-up value.
+    expect(data.datasets[2].data).toEqual([9.1, null, null]);
+  });
+
+  it('labels methods plainly and dashes the baselines', () => {
+    const data = sweepChartData([
+      { method: 'widened', points: [{ k: 1, average: 1 }] },
+      { method: 'most-ties', points: [{ k: 1, average: 2 }] },
+    ]);
+    expect(data.datasets.map((d) => d.label)).toEqual(['Widened greedy', 'Most ties (baseline)']);
+    expect(data.datasets[0].borderDash).toBeUndefined();
+    expect(data.datasets[1].borderDash).toEqual([5, 4]);
+  });
+});

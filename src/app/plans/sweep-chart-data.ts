@@ -1,0 +1,51 @@
+import type { ChartData, ChartDataset } from 'chart.js';
+import { SERIES_COLOURS } from './reach-chart-data';
+
+/** One method's results across budgets: room average (expected hops) for each k. */
+export interface SweepSeries {
+  /** Method key, e.g. greedy, widened, swap, most-ties, random. */
+  method: string;
+  points: readonly { k: number; average: number | null }[];
+}
+
+/** Plain labels for the sweep's methods and baselines. */
+export const SWEEP_LABELS: Record<string, string> = {
+  greedy: 'Greedy',
+  widened: 'Widened greedy',
+  swap: 'Swap polish',
+  exhaustive: 'Exhaustive',
+  'most-ties': 'Most ties (baseline)',
+  mostTies: 'Most ties (baseline)',
+  random: 'Random (baseline)',
+};
+
+const BASELINES = new Set(['most-ties', 'mostTies', 'random']);
+
+/**
+ * Line chart data for the k-sweep: x = budget k, y = room average. Every series is laid on the same
+ * k axis (the union of all budgets, ascending); a method without a value at some k leaves a gap
+ * (null) rather than a made-up point. Baselines are dashed so the methods stand out.
+ */
+export function sweepChartData(series: readonly SweepSeries[]): ChartData<'line', (number | null)[], number> {
+  const ks = [...new Set(series.flatMap((s) => s.points.map((p) => p.k)))].sort((a, b) => a - b);
+  const datasets: ChartDataset<'line', (number | null)[]>[] = series.map((s, i) => {
+    const byK = new Map(s.points.map((p) => [p.k, p.average]));
+    const colour = SERIES_COLOURS[i % SERIES_COLOURS.length];
+    const baseline = BASELINES.has(s.method);
+    return {
+      label: SWEEP_LABELS[s.method] ?? s.method,
+      data: ks.map((k) => {
+        const v = byK.get(k);
+        return v === undefined || v === null || !Number.isFinite(v) ? null : Math.round(v * 1000) / 1000;
+      }),
+      borderColor: colour,
+      backgroundColor: colour,
+      borderDash: baseline ? [5, 4] : undefined,
+      pointRadius: 3,
+      pointStyle: baseline ? 'rect' : 'circle',
+      borderWidth: 2,
+      spanGaps: false,
+    };
+  });
+  return { labels: ks, datasets };
+}
