@@ -3,3 +3,4 @@ export * from './accounts';
 export * from './mail';
 export * from './rooms';
 export * from './workshops';
+export * from './plans';
