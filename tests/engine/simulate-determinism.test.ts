@@ -59,6 +59,54 @@ describe('random streams', () => {
       }
     }
   });
+  it('without laziness and mixing two walks advance side by side, in the documented order', () => {
+    const graph = randomDirected(20, 70, 5);
+    const starters = [4, 13];
+    const s = simulate(graph, starters, 3, 'pair', { samples: 3 });
+    const csr = toCsr(graph);
+    const alias = buildAliasRows(csr);
+    const hop = (v: number, u: number) => {
+      const start = csr.rowStart[v];
+      const x = u * (csr.rowStart[v + 1] - start);
+      const e = start + Math.floor(x);
+      return x - Math.floor(x) < alias.keep[e] ? alias.col[e] : alias.alias[e];
+    };
+    for (const cascade of s.samples) {
+      const rand = runGenerator('pair', cascade.run);
+      const walkers = Array.from(cascade.people);
+      const paths: number[][] = walkers.map((v) => [v]);
+      const done = (q: number) => starters.includes(paths[q][paths[q].length - 1]);
+      let next = 0;
+      let a: number | null = next++;
+      let b: number | null = next < walkers.length ? next++ : null;
+      while (a !== null && b !== null) {
+        if (done(a)) {
+          if (next >= walkers.length) {
+            a = b;
+            b = null;
+            break;
+          }
+          a = next++;
+        }
+        if (done(b)) {
+          if (next >= walkers.length) {
+            b = null;
+            break;
+          }
+          b = next++;
+        }
+        const ua = rand();
+        const ub = rand();
+        paths[a].push(hop(paths[a].at(-1)!, ua));
+        paths[b].push(hop(paths[b].at(-1)!, ub));
+      }
+      while (a !== null && !done(a)) paths[a].push(hop(paths[a].at(-1)!, rand()));
+      for (let q = 0; q < walkers.length; q++) {
+        assert.deepEqual(Array.from(cascade.path.subarray(cascade.pathStart[q], cascade.pathStart[q + 1])), paths[q]);
+        assert.equal(cascade.hops[q], paths[q].length - 1);
+      }
+    }
+  });
 });
 
 describe('the same seed gives the same rehearsal', () => {
@@ -69,6 +117,9 @@ describe('the same seed gives the same rehearsal', () => {
     const a = simulate(graph, starters, 1500, 9, { samples: 1 });
     const b = simulate(graph, starters, 1500, 9, { samples: 1 });
     assert.deepEqual(a, b);
+    // keeping sample cascades does not change the numbers
+    assert.deepEqual(simulate(graph, starters, 1500, 9, { samples: 0 }).mean, a.mean);
+    assert.deepEqual(simulate(graph, starters, 1500, 9, { samples: 0, laziness: 0.1 }).mean, simulate(graph, starters, 1500, 9, { samples: 5, laziness: 0.1 }).mean);
     assert.notDeepEqual(simulate(graph, starters, 1500, 10).mean, a.mean);
   });
 
