@@ -1,0 +1,78 @@
+import { Outbox } from './outbox';
+import type { PersonFields } from './room-model';
+
+const f = (name: string): PersonFields => ({ key: name, name, group: null, email: null, x: 1, y: 2, pinned: false });
+
+describe('autosave outbox', () => {
+  it('names people added in the same batch by tempId, and known people by server id', () => {
+    const box = new Outbox();
+    box.personIds.set('p7', 7);
+    box.push([
+      { op: 'addPerson', lid: 'n1', fields: f('Ana') },
+      { op: 'addTie', lid: 'm2', source: 'n1', target: 'p7', strength: 2 },
+      { op: 'move', moves: [{ lid: 'n1', x: 5, y: 6, pinned: false }] },
+      {
+        op: 'move',
+        moves: [
+          { lid: 'n1', x: 8, y: 9, pinned: true },
+          { lid: 'p7', x: 0, y: 0, pinned: false },
+        ],
+      },
+    ]);
+    const batch = box.next()!;
+    expect(batch.count).toBe(4);
+    expect(batch.layoutOnly).toBeFalse();
+    expect(batch.ops).toEqual([
+      { op: 'addPerson', tempId: 'n1', ...f('Ana') },
+      { op: 'addTie', tempId: 'm2', source: 'n1', target: 7, strength: 2 },
+      // Consecutive moves are merged; the last position of each person wins.
+      {
+        op: 'movePeople',
+        moves: [
+          { id: 'n1', x: 8, y: 9, pinned: true },
+          { id: 7, x: 0, y: 0, pinned: false },
+        ],
+      },
+    ]);
+    box.acknowledge(batch.count, { people: { n1: 31 }, ties: { m2: 90 } });
+    expect(box.pending).toBe(0);
+    expect(box.personIds.get('n1')).toBe(31);
+  });
+
+  it('starts a new batch when an op needs the server id of something added in this batch', () => {
+    const box = new Outbox();
+    box.push([
+      { op: 'addPerson', lid: 'n1', fields: f('Ana') },
+      { op: 'updatePerson', lid: 'n1', changes: { name: 'Ana L' } },
+    ]);
+    const first = box.next()!;
+    expect(first.count).toBe(1);
+    box.acknowledge(first.count, { people: { n1: 40 }, ties: {} });
+    const second = box.next()!;
+    expect(second.ops).toEqual([{ op: 'updatePerson', id: 40, name: 'Ana L' }]);
+  });
+
+  it('undo of a delete re-adds the person under the same local id and a new server id', () => {
+    const box = new Outbox();
+    box.personIds.set('p3', 3);
+    box.push([{ op: 'deletePerson', lid: 'p3' }]);
+    const del = box.next()!;
+    expect(del.ops).toEqual([{ op: 'deletePerson', id: 3 }]);
+    box.acknowledge(del.count, { people: {}, ties: {} });
+    expect(box.personIds.has('p3')).toBeFalse();
+    box.push([{ op: 'addPerson', lid: 'p3', fields: f('Cy') }]);
+    const add = box.next()!;
+    expect(add.ops[0]).toEqual({ op: 'addPerson', tempId: 'p3', ...f('Cy') });
+    box.acknowledge(add.count, { people: { p3: 12 }, ties: {} });
+    expect(box.personIds.get('p3')).toBe(12);
+  });
+
+  it('a batch of only moves is layout-only; nothing is left after discard', () => {
+    const box = new Outbox();
+    box.personIds.set('p1', 1);
+    box.push([{ op: 'move', moves: [{ lid: 'p1', x: 1, y: 1, pinned: false }] }]);
+    expect(box.next()!.layoutOnly).toBeTrue();
+    box.discard();
+    expect(box.next()).toBeNull();
+  });
+});

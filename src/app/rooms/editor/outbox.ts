@@ -1,0 +1,115 @@
+import type { RoomEditOp } from '../../../../shared/api/rooms';
+import type { EditorOp, Move } from './room-model';
+
+/**
+ * Changes waiting to be saved, and the translation of local ids into the server's. A person
+ * added in this batch is named by its tempId (the local id); an op that needs the server id
+ * of something added in the same batch (update, delete) starts the next batch instead, so
+ * every batch is valid on its own and batches go out one after another.
+ */
+export class Outbox {
+  private queue: EditorOp[] = [];
+  /** Local id -> server id, for people and ties that exist on the server. */
+  readonly personIds = new Map<string, number>();
+  readonly tieIds = new Map<string, number>();
+
+  get pending(): number {
+    return this.queue.length;
+  }
+
+  push(ops: readonly EditorOp[]): void {
+    this.queue.push(...ops);
+  }
+
+  /** Forgets unsaved changes (after the user chose to reload). */
+  discard(): void {
+    this.queue = [];
+  }
+
+  /** The next batch to send (without its version) and how many queued ops it covers. */
+  next(): { ops: RoomEditOp[]; count: number; layoutOnly: boolean } | null {
+    if (!this.queue.length) return null;
+    const ops: RoomEditOp[] = [];
+    const addedPeople = new Set<string>();
+    const addedTies = new Set<string>();
+    let moves: Map<string, Move> | null = null;
+    let count = 0;
+    const personRef = (lid: string, allowTemp: boolean): number | string | undefined => {
+      if (addedPeople.has(lid)) return allowTemp ? lid : undefined;
+      return this.personIds.get(lid);
+    };
+    const flushMoves = () => {
+      if (moves?.size)
+        ops.push({
+          op: 'movePeople',
+          moves: [...moves.values()].map((m) => ({ id: personRef(m.lid, true)!, x: m.x, y: m.y, pinned: m.pinned })),
+        });
+      moves = null;
+    };
+    for (const op of this.queue) {
+      if (op.op === 'move') {
+        moves ??= new Map();
+        // A person that never reached the server (added and deleted before a save) has nothing to move.
+        for (const m of op.moves) if (personRef(m.lid, true) !== undefined) moves.set(m.lid, m);
+        count++;
+        continue;
+      }
+      const out = this.translate(op, addedPeople, addedTies, personRef);
+      if (out === 'cut') break;
+      flushMoves();
+      if (out) ops.push(out);
+      count++;
+    }
+    flushMoves();
+    if (count === 0) return null;
+    return { ops, count, layoutOnly: ops.every((o) => o.op === 'movePeople') };
+  }
+
+  private translate(
+    op: Exclude<EditorOp, { op: 'move' }>,
+    addedPeople: Set<string>,
+    addedTies: Set<string>,
+    personRef: (lid: string, allowTemp: boolean) => number | string | undefined,
+  ): RoomEditOp | 'cut' | null {
+    switch (op.op) {
+      case 'addPerson': {
+        if (addedPeople.has(op.lid)) return 'cut';
+        addedPeople.add(op.lid);
+        return { op: 'addPerson', tempId: op.lid, ...op.fields };
+      }
+      case 'updatePerson':
+      case 'deletePerson': {
+        if (addedPeople.has(op.lid)) return 'cut';
+        const id = this.personIds.get(op.lid);
+        if (id === undefined) return null; // never reached the server: nothing to change there
+        return op.op === 'updatePerson' ? { op: 'updatePerson', id, ...op.changes } : { op: 'deletePerson', id };
+      }
+      case 'addTie': {
+        if (addedTies.has(op.lid)) return 'cut';
+        const source = personRef(op.source, true);
+        const target = personRef(op.target, true);
+        if (source === undefined || target === undefined) return null;
+        addedTies.add(op.lid);
+        return { op: 'addTie', tempId: op.lid, source, target, strength: op.strength };
+      }
+      case 'updateTie':
+      case 'deleteTie': {
+        if (addedTies.has(op.lid)) return 'cut';
+        const id = this.tieIds.get(op.lid);
+        if (id === undefined) return null;
+        return op.op === 'updateTie' ? { op: 'updateTie', id, strength: op.strength } : { op: 'deleteTie', id };
+      }
+    }
+  }
+
+  /** The server took the first `count` ops: record new ids and forget deleted ones. */
+  acknowledge(count: number, result: { people: Record<string, number>; ties: Record<string, number> }): void {
+    const done = this.queue.splice(0, count);
+    for (const op of done) {
+      if (op.op === 'deletePerson') this.personIds.delete(op.lid);
+      if (op.op === 'deleteTie') this.tieIds.delete(op.lid);
+    }
+    for (const [temp, id] of Object.entries(result.people)) this.personIds.set(temp, id);
+    for (const [temp, id] of Object.entries(result.ties)) this.tieIds.set(temp, id);
+  }
+}

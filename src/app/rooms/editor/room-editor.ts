@@ -1,0 +1,376 @@
+import { HttpClient, HttpContext } from '@angular/common/http';
+import { computed, inject, Injectable, type OnDestroy, signal } from '@angular/core';
+import { firstValueFrom } from 'rxjs';
+import type {
+  PersonDto,
+  RoomDto,
+  RoomEditResult,
+  RoomSettings,
+  StaleVersionDetails,
+  UpdateRoomRequest,
+} from '../../../../shared/api/rooms';
+import { type ApiError, toApiError } from '../../core/api-error';
+import { HANDLES_ERRORS } from '../../core/error-interceptor';
+import { CommandStack } from './command-stack';
+import { Outbox } from './outbox';
+import { type EditorOp, type EditorPerson, type EditorTie, type Move, type PersonFields, RoomModel } from './room-model';
+import { Selection } from './selection';
+
+export type SaveState = 'saved' | 'unsaved' | 'saving' | 'failed' | 'conflict';
+export type RoomMeta = Omit<RoomDto, 'people' | 'ties'>;
+
+const SAVE_DELAY_MS = 700;
+
+/**
+ * The room being edited on one page: the local model, undo and redo, the selection, and
+ * autosave through the batch endpoint. Every change goes through `execute`, so the map and
+ * the tables stay in step and every change can be undone.
+ */
+@Injectable()
+export class RoomEditor implements OnDestroy {
+  private readonly http = inject(HttpClient);
+  private readonly ctx = new HttpContext().set(HANDLES_ERRORS, true);
+
+  readonly model = new RoomModel();
+  readonly stack = new CommandStack();
+  readonly selection = new Selection();
+  private readonly outbox = new Outbox();
+
+  readonly room = signal<RoomMeta | null>(null);
+  /** Bumps on every change of people or ties (including moves). */
+  readonly revision = signal(0);
+  readonly selectionRevision = signal(0);
+  readonly saveState = signal<SaveState>('saved');
+  readonly saveError = signal<string | null>(null);
+  readonly conflict = signal<StaleVersionDetails | null>(null);
+  /** The version last confirmed by the server for content changes (the summary follows it). */
+  readonly savedVersion = signal(0);
+  readonly loadError = signal<ApiError | null>(null);
+
+  readonly canEdit = computed(() => {
+    const r = this.room();
+    return !!r && r.access !== 'viewer';
+  });
+  readonly people = computed<EditorPerson[]>(() => {
+    this.revision();
+    return [...this.model.people.values()];
+  });
+  readonly ties = computed<EditorTie[]>(() => {
+    this.revision();
+    return [...this.model.ties.values()];
+  });
+  readonly groups = computed(() =>
+    [...new Set(this.people().map((p) => p.group ?? ''))].filter((g) => g).sort((a, b) => a.localeCompare(b)),
+  );
+  readonly history = computed(() => {
+    this.revision();
+    return { canUndo: this.stack.canUndo, canRedo: this.stack.canRedo, undo: this.stack.undoLabel, redo: this.stack.redoLabel };
+  });
+
+  private timer: ReturnType<typeof setTimeout> | null = null;
+  private inFlight = false;
+  private pendingPatch: Omit<UpdateRoomRequest, 'version'> | null = null;
+  private nextLocal = 1;
+
+  ngOnDestroy(): void {
+    if (this.timer) clearTimeout(this.timer);
+    // Leaving the page: send what is left right away.
+    if (this.outbox.pending || this.pendingPatch) void this.flush();
+  }
+
+  get hasUnsaved(): boolean {
+    return this.outbox.pending > 0 || !!this.pendingPatch || this.inFlight;
+  }
+
+  async load(id: number): Promise<void> {
+    this.loadError.set(null);
+    try {
+      const dto = await firstValueFrom(this.http.get<RoomDto>(`/api/rooms/${id}`, { context: this.ctx }));
+      this.reset(dto);
+    } catch (err) {
+      this.loadError.set(toApiError(err));
+    }
+  }
+
+  private reset(dto: RoomDto): void {
+    const { people, ties, ...meta } = dto;
+    this.model.people.clear();
+    this.model.ties.clear();
+    this.outbox.discard();
+    this.outbox.personIds.clear();
+    this.outbox.tieIds.clear();
+    for (const p of people) {
+      const lid = `p${p.id}`;
+      this.model.people.set(lid, { lid, ...fieldsOf(p) });
+      this.outbox.personIds.set(lid, p.id);
+    }
+    for (const t of ties) {
+      const lid = `t${t.id}`;
+      this.model.ties.set(lid, { lid, source: `p${t.sourceId}`, target: `p${t.targetId}`, strength: t.strength });
+      this.outbox.tieIds.set(lid, t.id);
+    }
+    this.stack.clear();
+    this.selection.clear();
+    this.pendingPatch = null;
+    this.room.set(meta);
+    this.savedVersion.set(meta.version);
+    this.conflict.set(null);
+    this.saveError.set(null);
+    this.saveState.set('saved');
+    this.changed();
+    this.selectionChanged();
+  }
+
+  // ---- commands ----
+
+  /** Applies a user action, records it for undo and queues it for saving. */
+  execute(label: string, ops: EditorOp[]): void {
+    if (!this.canEdit() || !ops.length) return;
+    const undo = this.model.applyAll(ops);
+    this.stack.push({ label, redo: ops, undo });
+    this.queue(ops);
+  }
+
+  undo(): void {
+    if (!this.canEdit()) return;
+    const cmd = this.stack.undo();
+    if (!cmd) return;
+    this.model.applyAll(cmd.undo);
+    this.queue(cmd.undo);
+  }
+
+  redo(): void {
+    if (!this.canEdit()) return;
+    const cmd = this.stack.redo();
+    if (!cmd) return;
+    this.model.applyAll(cmd.redo);
+    this.queue(cmd.redo);
+  }
+
+  /** Positions found by the layout (not a user action: saved, but not on the undo stack). */
+  recordLayout(moves: Move[]): void {
+    if (!this.canEdit() || !moves.length) return;
+    const op: EditorOp = { op: 'move', moves };
+    this.model.apply(op);
+    this.queue([op]);
+  }
+
+  newPersonLid(): string {
+    return `n${this.nextLocal++}`;
+  }
+
+  newTieLid(): string {
+    return `m${this.nextLocal++}`;
+  }
+
+  /** A key not used in the room yet: P1, P2, ... */
+  freeKey(): string {
+    const taken = new Set([...this.model.people.values()].map((p) => p.key));
+    let i = this.model.people.size + 1;
+    while (taken.has(`P${i}`)) i++;
+    return `P${i}`;
+  }
+
+  keyTaken(key: string, except?: string): boolean {
+    for (const p of this.model.people.values()) if (p.key === key && p.lid !== except) return true;
+    return false;
+  }
+
+  addPerson(fields: Partial<PersonFields> & { name: string }): string {
+    const lid = this.newPersonLid();
+    const full: PersonFields = { key: fields.key || this.freeKey(), group: null, email: null, x: null, y: null, pinned: false, ...fields };
+    this.execute(`Add ${full.name}`, [{ op: 'addPerson', lid, fields: full }]);
+    return lid;
+  }
+
+  updatePerson(lid: string, changes: Partial<PersonFields>, label = 'Edit person'): void {
+    this.execute(label, [{ op: 'updatePerson', lid, changes }]);
+  }
+
+  deletePeople(lids: string[]): void {
+    const ops: EditorOp[] = [];
+    const seenTies = new Set<string>();
+    for (const lid of lids) {
+      for (const t of this.model.tiesOf(lid)) {
+        if (!seenTies.has(t.lid)) ops.push({ op: 'deleteTie', lid: t.lid });
+        seenTies.add(t.lid);
+      }
+    }
+    for (const lid of lids) ops.push({ op: 'deletePerson', lid });
+    const label = lids.length === 1 ? `Delete ${this.model.people.get(lids[0])?.name ?? 'person'}` : `Delete ${lids.length} people`;
+    this.execute(label, ops);
+    this.selection.keepOnly(
+      (l) => this.model.people.has(l),
+      (l) => this.model.ties.has(l),
+    );
+    this.selectionChanged();
+  }
+
+  /** Adds a tie, or returns the one already there between the two people. */
+  addTie(source: string, target: string, strength = 1): { lid: string; existed: boolean } {
+    const existing = this.model.findTie(source, target, !!this.room()?.settings.directed);
+    if (existing) return { lid: existing.lid, existed: true };
+    const lid = this.newTieLid();
+    const a = this.model.people.get(source)?.name;
+    const b = this.model.people.get(target)?.name;
+    this.execute(`Tie ${a} and ${b}`, [{ op: 'addTie', lid, source, target, strength }]);
+    return { lid, existed: false };
+  }
+
+  setTieStrength(lid: string, strength: number): void {
+    if (this.model.ties.get(lid)?.strength === strength) return;
+    this.execute('Change strength', [{ op: 'updateTie', lid, strength }]);
+  }
+
+  deleteTies(lids: string[]): void {
+    this.execute(
+      lids.length === 1 ? 'Delete tie' : `Delete ${lids.length} ties`,
+      lids.map((lid) => ({ op: 'deleteTie', lid })),
+    );
+    this.selection.keepOnly(
+      (l) => this.model.people.has(l),
+      (l) => this.model.ties.has(l),
+    );
+    this.selectionChanged();
+  }
+
+  movePeople(moves: Move[], label = moves.length === 1 ? 'Move person' : `Move ${moves.length} people`): void {
+    this.execute(label, [{ op: 'move', moves }]);
+  }
+
+  setPinned(lids: string[], pinned: boolean): void {
+    const moves = lids
+      .map((lid) => this.model.person(lid))
+      .filter((p) => p.x !== null && p.y !== null)
+      .map((p) => ({ lid: p.lid, x: p.x!, y: p.y!, pinned }));
+    this.movePeople(moves, pinned ? 'Pin' : 'Unpin');
+  }
+
+  /** Name, description or settings: saved through PATCH with the room's version. */
+  updateRoom(changes: { name?: string; description?: string; settings?: Partial<RoomSettings> }): void {
+    const r = this.room();
+    if (!r || !this.canEdit()) return;
+    this.room.set({
+      ...r,
+      ...(changes.name !== undefined ? { name: changes.name } : {}),
+      settings: { ...r.settings, ...changes.settings },
+    });
+    this.pendingPatch = {
+      ...this.pendingPatch,
+      ...changes,
+      settings: { ...this.pendingPatch?.settings, ...changes.settings },
+    };
+    this.saveState.set('unsaved');
+    this.scheduleSave(0);
+  }
+
+  selectionChanged(): void {
+    this.selectionRevision.update((v) => v + 1);
+  }
+
+  // ---- saving ----
+
+  private queue(ops: EditorOp[]): void {
+    this.outbox.push(ops);
+    this.changed();
+    if (this.saveState() !== 'conflict') this.saveState.set('unsaved');
+    this.scheduleSave(SAVE_DELAY_MS);
+  }
+
+  private changed(): void {
+    this.revision.update((v) => v + 1);
+  }
+
+  private scheduleSave(delay: number): void {
+    if (this.saveState() === 'conflict') return;
+    if (this.timer) clearTimeout(this.timer);
+    this.timer = setTimeout(() => void this.flush(), delay);
+  }
+
+  /** Sends everything queued, one request at a time. Safe to call at any moment. */
+  async flush(): Promise<void> {
+    if (this.inFlight || this.saveState() === 'conflict') return;
+    const room = this.room();
+    if (!room) return;
+    this.inFlight = true;
+    this.saveState.set('saving');
+    this.saveError.set(null);
+    try {
+      while (this.pendingPatch || this.outbox.pending) {
+        if (this.pendingPatch) {
+          const body: UpdateRoomRequest = { version: this.room()!.version, ...this.pendingPatch };
+          if (!body.settings || !Object.keys(body.settings).length) delete body.settings;
+          const dto = await firstValueFrom(this.http.patch<RoomDto>(`/api/rooms/${room.id}`, body, { context: this.ctx }));
+          this.pendingPatch = null;
+          this.setVersion(dto.version, true);
+          continue;
+        }
+        const batch = this.outbox.next();
+        if (!batch) {
+          this.outbox.discard();
+          break;
+        }
+        const body = batch.layoutOnly ? { ops: batch.ops } : { version: this.room()!.version, ops: batch.ops };
+        const result = batch.ops.length
+          ? await firstValueFrom(this.http.post<RoomEditResult>(`/api/rooms/${room.id}/edits`, body, { context: this.ctx }))
+          : { version: this.room()!.version, layoutOnly: true, people: {}, ties: {} };
+        this.outbox.acknowledge(batch.count, result);
+        if (!result.layoutOnly) this.setVersion(result.version, true);
+      }
+      this.saveState.set('saved');
+    } catch (err) {
+      const e = toApiError(err);
+      if (e.status === 409) {
+        this.conflict.set(
+          (e.details as unknown as StaleVersionDetails) ?? { currentVersion: room.version, yourVersion: room.version, message: e.message },
+        );
+        this.saveState.set('conflict');
+      } else {
+        const fields = e.details?.fields?.map((f) => `${f.field}: ${f.message}`).join('; ');
+        this.saveError.set(fields ? `${e.message} (${fields})` : e.message);
+        this.saveState.set('failed');
+      }
+    } finally {
+      this.inFlight = false;
+    }
+    // Changes made while the last request was in flight.
+    if (this.saveState() === 'saved' && (this.outbox.pending || this.pendingPatch)) this.scheduleSave(0);
+  }
+
+  private setVersion(version: number, content: boolean): void {
+    const r = this.room();
+    if (r) this.room.set({ ...r, version });
+    if (content) this.savedVersion.set(version);
+  }
+
+  retry(): void {
+    void this.flush();
+  }
+
+  /** "Keep yours": apply the unsaved changes on top of the newer version. */
+  keepMine(): void {
+    const c = this.conflict();
+    if (!c) return;
+    this.setVersion(c.currentVersion, false);
+    this.conflict.set(null);
+    this.saveState.set('unsaved');
+    void this.flush();
+  }
+
+  /** "Reload": drop the unsaved changes and show the room as it is now. */
+  async reloadFromServer(): Promise<void> {
+    const r = this.room();
+    if (!r) return;
+    this.conflict.set(null);
+    await this.load(r.id);
+  }
+
+  /** After an import replaced the room: send what is queued first, then load it again. */
+  async reloadAfterReplace(): Promise<void> {
+    await this.reloadFromServer();
+  }
+}
+
+function fieldsOf(p: PersonDto): PersonFields {
+  return { key: p.key, name: p.name, group: p.group, email: p.email, x: p.x, y: p.y, pinned: p.pinned };
+}
