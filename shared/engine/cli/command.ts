@@ -22,13 +22,15 @@ export const ROOM_FLAGS: Record<string, FlagSpec> = {
   graph: { required: true },
   people: {},
   directed: { boolean: true },
+  'max-people': {},
 };
 
 export const WALK_FLAGS: Record<string, FlagSpec> = { laziness: {}, mixing: {} };
 
 export const ROOM_HELP = `  --graph FILE        the room: .json (node-link), .csv (ties: source,target[,strength]) or .graphml
   --people FILE       (CSV only) people file with header id,name[,group]
-  --directed          (CSV only) read each tie as "source asks target"; otherwise ties go both ways`;
+  --directed          (CSV only) read each tie as "source asks target"; otherwise ties go both ways
+  --max-people N      refuse rooms with more than N people (default 1000000)`;
 
 export const WALK_HELP = `  --laziness A        chance of staying put at each hop, 0 <= A < 1 (default 0)
   --mixing B          chance of asking anyone in the room at random, 0 <= B < 1 (default 0)`;

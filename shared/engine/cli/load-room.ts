@@ -2,7 +2,7 @@
 import { readFileSync, statSync } from 'node:fs';
 import type { RoomGraph } from '../graph';
 import { decodeUtf8, describeIssue, formatOf, parseRoom, type Issue } from '../io/index';
-import { CliError, type Flags } from './args';
+import { CliError, integerFlag, type Flags } from './args';
 
 /** Files above this size are refused before reading (the parsers have their own caps too). */
 const MAX_FILE_BYTES = 256 * 1024 * 1024;
@@ -23,7 +23,10 @@ export function loadRoom(flags: Flags): LoadedRoom {
     throw new CliError('--directed goes with a .csv ties file only (JSON and GraphML say it in the file)');
   const text = readText(file, format === 'csv' ? 'ties' : format);
   const peopleText = people === undefined ? undefined : readText(people, 'people');
-  const result = parseRoom(format, text, { directed: flags.has('directed') }, peopleText);
+  // The command line reads local files: limits are generous (the server keeps the parsers' defaults).
+  const maxPeople = integerFlag(flags, 'max-people', 1, 100_000_000) ?? 1_000_000;
+  const options = { directed: flags.has('directed'), maxPeople, maxTies: 50_000_000, maxChars: MAX_FILE_BYTES };
+  const result = parseRoom(format, text, options, peopleText);
   if (result.errors.length > 0) {
     const more = result.errors.length > 1 ? ` (and ${result.errors.length - 1} more problem${result.errors.length > 2 ? 's' : ''})` : '';
     throw new CliError(`${file}: ${describeIssue(result.errors[0])}${more}`);
