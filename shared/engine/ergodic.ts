@@ -11,7 +11,7 @@
  * infinite single-starter total because the closed class never reaches them.
  */
 import { EngineError } from './errors';
-import { invertInPlace } from './linalg/dense';
+import { invertInPlace, invertSymmetricInPlace } from './linalg/dense';
 import { classStructure } from './reachability';
 import type { PreparedRoom } from './room';
 import { denseWalk } from './walk';
@@ -36,11 +36,7 @@ export function ergodicFromWalk(p1: Float64Array, n: number, scale = 1): Ergodic
   for (let i = 0; i < n; i++) a[i * n + i] += 1;
   const g = invertInPlace(a, n);
   const pi = new Float64Array(n);
-  const colSum = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    const r = i * n;
-    for (let j = 0; j < n; j++) colSum[j] += g[r + j];
-  }
+  const colSum = columnSums(g, n);
   let piSum = 0;
   for (let j = 0; j < n; j++) {
     let v = colSum[j] * u;
@@ -49,9 +45,61 @@ export function ergodicFromWalk(p1: Float64Array, n: number, scale = 1): Ergodic
     piSum += v;
   }
   for (let j = 0; j < n; j++) pi[j] /= piSum;
+  return withTotals(g, pi, colSum, n, scale);
+}
+
+function columnSums(g: Float64Array, n: number): Float64Array {
+  const colSum = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const r = i * n;
+    for (let j = 0; j < n; j++) colSum[j] += g[r + j];
+  }
+  return colSum;
+}
+
+function withTotals(g: Float64Array, pi: Float64Array, colSum: Float64Array, n: number, scale: number): ErgodicData {
   const singleTotals = new Float64Array(n);
   for (let j = 0; j < n; j++) singleTotals[j] = pi[j] > 0 ? (scale * (n * g[j * n + j] - colSum[j])) / pi[j] : Infinity;
   return { n, g, pi, singleTotals, scale };
+}
+
+/**
+ * Undirected connected room without mixing: the walk is reversible, so with S = D^-1/2 W D^-1/2
+ * and pi = d / vol, Z = D^-1/2 (I - S + sqrt(pi) sqrt(pi)^T)^-1 D^1/2 (Kemeny & Snell's Z, u = pi).
+ * The middle matrix is symmetric positive definite: inverted by the sweep operator at half
+ * the cost of Gauss-Jordan.
+ */
+export function ergodicSymmetric(room: PreparedRoom): ErgodicData {
+  const { n, csr } = room;
+  const d = csr.outStrength;
+  let vol = 0;
+  for (let i = 0; i < n; i++) vol += d[i];
+  const sq = new Float64Array(n);
+  for (let i = 0; i < n; i++) sq[i] = Math.sqrt(d[i]);
+  const m = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) {
+    const ri = i * n;
+    const a = sq[i] / vol;
+    for (let j = 0; j < n; j++) m[ri + j] = a * sq[j];
+    m[ri + i] += 1;
+    for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) m[ri + csr.col[e]] -= csr.weight[e] / (sq[i] * sq[csr.col[e]]);
+  }
+  const g = invertSymmetricInPlace(m, n);
+  for (let i = 0; i < n; i++) {
+    const ri = i * n;
+    const inv = 1 / sq[i];
+    for (let j = 0; j < n; j++) g[ri + j] *= inv * sq[j];
+  }
+  const pi = new Float64Array(n);
+  for (let i = 0; i < n; i++) pi[i] = d[i] / vol;
+  return withTotals(g, pi, columnSums(g, n), n, 1 / (1 - room.laziness));
+}
+
+/** True when the room's walk is reversible with every person recurrent (undirected, connected, no mixing). */
+export function isReversibleErgodic(room: PreparedRoom, closedClasses: number): boolean {
+  if (room.directed || room.mixing > 0 || closedClasses !== 1) return false;
+  for (let i = 0; i < room.n; i++) if (!(room.csr.outStrength[i] > 0)) return false;
+  return true;
 }
 
 /** Ergodic data of the room (laziness applied to totals). Throws when the room has several closed classes. */
@@ -60,6 +108,7 @@ export function ergodicData(room: PreparedRoom): ErgodicData {
   if (cs.closedClasses.length !== 1) {
     throw new EngineError('NO_FEASIBLE_PLAN', `No single starter can reach everyone: the room has ${cs.closedClasses.length} closed groups, each needs its own starter.`, { closedGroups: cs.closedClasses.length });
   }
+  if (isReversibleErgodic(room, 1)) return ergodicSymmetric(room);
   return ergodicFromWalk(denseWalk(room), room.n, 1 / (1 - room.laziness));
 }
 

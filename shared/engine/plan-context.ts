@@ -6,7 +6,7 @@ import { coverBound, qualityRank } from './quality';
 import { vertexCover, type CoverResult } from './cover';
 import { AbsorbingState, beats } from './dense-state';
 import { EngineError } from './errors';
-import { ergodicFromWalk, type ErgodicData } from './ergodic';
+import { ergodicFromWalk, ergodicSymmetric, isReversibleErgodic, type ErgodicData } from './ergodic';
 import type { PlanMethod, PlanOptions, PlanResult } from './plan-types';
 import { classStructure, type ClassStructure } from './reachability';
 import { exactReach } from './reach';
@@ -93,7 +93,11 @@ export function planContext(input: RoomInput, options: PlanOptions): PlanContext
     cover: () => (coverCache ??= vertexCover(room)),
     p1: () => (p1Cache ??= denseWalk(room)),
     ergodic: () => {
-      if (ergCache === undefined) ergCache = classes.closedClasses.length === 1 ? ergodicFromWalk(ctx.p1(), n, 1 / (1 - room.laziness)) : null;
+      if (ergCache === undefined) {
+        if (classes.closedClasses.length !== 1) ergCache = null;
+        else if (isReversibleErgodic(room, 1)) ergCache = ergodicSymmetric(room);
+        else ergCache = ergodicFromWalk(ctx.p1(), n, 1 / (1 - room.laziness));
+      }
       return ergCache;
     },
     worstTotal: () => ctx.worstOverride ?? (worstCache ??= worstSingle(ctx)),

@@ -1,6 +1,6 @@
 /**
  * Exact reach for a starter set A (engine.md section 1): h = (I - Q)^-1 1 on T = V \ A.
- * - dense, undirected, no mixing: Cholesky on the symmetric form (D - W)_T h = d_T (identity 5);
+ * - dense, undirected, no mixing: LDL^T (Cholesky-equivalent) on the symmetric form (D - W)_T h = d_T (identity 5);
  * - dense otherwise: LU with partial pivoting on I - Q;                      O(n^3)
  * - sparse undirected, no mixing: Jacobi-preconditioned CG on L_T (identity 5);  O(m * iterations)
  * - sparse otherwise: BiCGSTAB on I - Q with the mixing as a rank-one term.    O(m * iterations)
@@ -10,7 +10,7 @@
 import { EngineError } from './errors';
 import type { WalkOptions } from './graph';
 import { bicgstab, pcg } from './linalg/iterative';
-import { choleskyFactor, choleskySolve, luFactor, luSolve } from './linalg/dense';
+import { luFactor, luSolve, symmetricFactor, symmetricSolve } from './linalg/dense';
 import { unreachablePeople, type UnreachablePerson } from './reachability';
 import { checkPeople, prepareRoom, type PreparedRoom, type RoomInput } from './room';
 import { sparseWalk } from './walk';
@@ -38,7 +38,7 @@ export interface ReachResult {
   readonly reachableTotal: number;
   readonly reachableAverage: number;
   readonly unreachable: UnreachablePerson[];
-  readonly solver: 'cholesky' | 'lu' | 'cg' | 'bicgstab' | 'none';
+  readonly solver: 'ldlt' | 'lu' | 'cg' | 'bicgstab' | 'none';
   readonly iterations?: number;
   readonly relativeResidual?: number;
 }
@@ -101,8 +101,8 @@ export function exactReach(input: RoomInput, starterList: readonly number[], opt
     const rhs = new Float64Array(f);
     if (sym) {
       for (let k = 0; k < f; k++) rhs[k] = room.csr.outStrength[idx[k]];
-      choleskySolve(choleskyFactor(m, f), f, rhs);
-      solver = 'cholesky';
+      symmetricSolve(symmetricFactor(m, f), f, rhs);
+      solver = 'ldlt';
     } else {
       rhs.fill(1);
       luSolve(luFactor(m, f), rhs);

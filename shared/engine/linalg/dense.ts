@@ -126,6 +126,84 @@ export function choleskySolve(l: Float64Array, n: number, b: Float64Array): Floa
   return b;
 }
 
+/**
+ * Symmetric positive definite factor by right-looking elimination on the upper triangle
+ * (LDL^T without pivoting, equivalent to Cholesky; n^3 / 6 multiply-adds). Row-oriented
+ * updates stay contiguous, and zero multipliers (no tie) are skipped.
+ */
+export function symmetricFactor(a: Float64Array, n: number): Float64Array {
+  for (let k = 0; k < n; k++) {
+    const rk = k * n;
+    const piv = a[rk + k];
+    if (!(piv > 0)) throw new EngineError('SOLVER_FAILED', 'The system is not positive definite: some people cannot reach any starter.');
+    const inv = 1 / piv;
+    for (let i = k + 1; i < n; i++) {
+      const l = a[rk + i] * inv;
+      if (l === 0) continue;
+      const ri = i * n;
+      for (let j = i; j < n; j++) a[ri + j] -= l * a[rk + j];
+    }
+  }
+  return a;
+}
+
+/** Solves with the factor of symmetricFactor, in place of b. */
+export function symmetricSolve(u: Float64Array, n: number, b: Float64Array): Float64Array {
+  for (let k = 0; k < n; k++) {
+    const bk = b[k];
+    if (bk === 0) continue;
+    const rk = k * n;
+    const f = bk / u[rk + k];
+    for (let i = k + 1; i < n; i++) b[i] -= u[rk + i] * f;
+  }
+  for (let i = n - 1; i >= 0; i--) {
+    const ri = i * n;
+    let s = b[i];
+    for (let j = i + 1; j < n; j++) s -= u[ri + j] * b[j];
+    b[i] = s / u[ri + i];
+  }
+  return b;
+}
+
+/**
+ * Inverse of a symmetric positive definite matrix by the sweep operator (Beaton 1964;
+ * Goodnight, "A tutorial on the SWEEP operator", 1979) on the upper triangle only:
+ * n^3 / 2 multiply-adds, half of Gauss-Jordan. a is overwritten by the full inverse.
+ */
+export function invertSymmetricInPlace(a: Float64Array, n: number): Float64Array {
+  const col = new Float64Array(n);
+  for (let k = 0; k < n; k++) {
+    const rk = k * n;
+    const d = a[rk + k];
+    if (!(d > 0)) throw new EngineError('SOLVER_FAILED', 'The matrix is not positive definite.');
+    // col[j] = a_jk (upper-triangle storage), the pivot row/column of the sweep.
+    for (let j = 0; j < k; j++) col[j] = a[j * n + k];
+    for (let j = k; j < n; j++) col[j] = a[rk + j];
+    const inv = 1 / d;
+    for (let i = 0; i < n; i++) {
+      if (i === k) continue;
+      const f = col[i] * inv;
+      if (f === 0) continue;
+      const ri = i * n;
+      for (let j = i; j < n; j++) a[ri + j] -= f * col[j];
+    }
+    // Pivot row and column: a_ik <- a_ik / d (sign fixed at the end), a_kk <- -1 / d.
+    for (let j = 0; j < k; j++) a[j * n + k] = col[j] * inv;
+    for (let j = k + 1; j < n; j++) a[rk + j] = col[j] * inv;
+    a[rk + k] = -inv;
+  }
+  // The sweep leaves -A^-1; negate and mirror the upper triangle.
+  for (let i = 0; i < n; i++) {
+    const ri = i * n;
+    for (let j = i; j < n; j++) {
+      const v = -a[ri + j];
+      a[ri + j] = v;
+      a[j * n + i] = v;
+    }
+  }
+  return a;
+}
+
 /** Inverts a (overwritten) by Gauss-Jordan elimination with partial pivoting. */
 export function invertInPlace(a: Float64Array, n: number): Float64Array {
   const perm = new Int32Array(n);
