@@ -1,3 +1,4 @@
+import type { RehearsalPersonDto } from '../../../shared/api/plans';
 import type { ChartData, ChartDataset } from 'chart.js';
 
 /** One person's analytic expectation and the rehearsal's estimate with its interval. */
@@ -16,11 +17,11 @@ export type IntervalChartData = ChartData<'bar' | 'line', (number | [number, num
  * hops; each gets a floating bar from the interval's low to high end, a point for the simulated mean
  * and a diamond for the analytic value. A diamond outside its bar is a person where the two disagree.
  */
-export function intervalChartData(points: readonly IntervalPoint[]): IntervalChartData {
+export function intervalChartData(points: readonly IntervalPoint[], intervalLabel = '99% interval of the rehearsal'): IntervalChartData {
   const rows = [...points].sort((a, b) => a.analytic - b.analytic || a.name.localeCompare(b.name));
   const interval: ChartDataset<'bar', [number, number][]> = {
     type: 'bar',
-    label: '95% interval of the rehearsal',
+    label: intervalLabel,
     data: rows.map((r) => [round(r.low), round(r.high)]),
     backgroundColor: 'rgba(91, 112, 101, 0.35)',
     borderColor: '#5b7065',
@@ -51,6 +52,13 @@ export function intervalChartData(points: readonly IntervalPoint[]): IntervalCha
     order: 1,
   };
   return { labels: rows.map((r) => r.name), datasets: [interval, simulated, analytic] as IntervalChartData['datasets'] };
+}
+
+/** The rehearsal's people who walked (starters excluded), with the 99% interval the verdict uses. */
+export function intervalPointsFrom(people: readonly RehearsalPersonDto[]): IntervalPoint[] {
+  return people
+    .filter((p) => p.walked)
+    .map((p) => ({ name: p.name, analytic: p.analytic, simulated: p.mean, low: p.low99, high: p.high99 }));
 }
 
 /** How many people's analytic value falls inside their interval (the agreement check reads this). */

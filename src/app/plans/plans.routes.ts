@@ -1,4 +1,4 @@
 import type { Routes } from '@angular/router';
 
-// Filled in by the plans feature.
-export default [] satisfies Routes;
+/** Mounted at rooms/:roomId/plans. */
+export default [{ path: '', title: 'Plan · Ripplehall', loadComponent: () => import('./plan-page') }] satisfies Routes;

@@ -1,4 +1,4 @@
-import { sweepChartData } from './sweep-chart-data';
+import { sweepChartData, sweepSeriesFromPoints } from './sweep-chart-data';
 
 describe('sweepChartData', () => {
   it('lays every method on one ascending k axis with gaps where a method has no value', () => {
@@ -42,5 +42,20 @@ describe('sweepChartData', () => {
     expect(data.datasets.map((d) => d.label)).toEqual(['Widened greedy', 'Most ties (baseline)']);
     expect(data.datasets[0].borderDash).toBeUndefined();
     expect(data.datasets[1].borderDash).toEqual([5, 4]);
+  });
+});
+
+describe('sweepSeriesFromPoints', () => {
+  it('turns server rows into one series per method, baselines included', () => {
+    const series = sweepSeriesFromPoints([
+      { k: 1, greedy: 4, widened: 4, swap: 4, mostTies: 5, random: 7, lowerBound: 3.5 },
+      { k: 2, greedy: 3, widened: 2.9, swap: 2.9, mostTies: 3.6, random: null, lowerBound: 2.5 },
+    ]);
+    expect(series.map((s) => s.method)).toEqual(['greedy', 'widened', 'swap', 'mostTies', 'random']);
+    expect(series[1].points).toEqual([
+      { k: 1, average: 4 },
+      { k: 2, average: 2.9 },
+    ]);
+    expect(sweepChartData(series).datasets[4].data).toEqual([7, null]);
   });
 });

@@ -1,3 +1,4 @@
+import { SWEEP_SERIES, type KSweepPoint } from '../../../shared/api/plans';
 import type { ChartData, ChartDataset } from 'chart.js';
 import { SERIES_COLOURS } from './reach-chart-data';
 
@@ -6,6 +7,11 @@ export interface SweepSeries {
   /** Method key, e.g. greedy, widened, swap, most-ties, random. */
   method: string;
   points: readonly { k: number; average: number | null }[];
+}
+
+/** The server's sweep rows turned into one series per method (greedy, widened, swap, most ties, random). */
+export function sweepSeriesFromPoints(points: readonly KSweepPoint[]): SweepSeries[] {
+  return SWEEP_SERIES.map((method) => ({ method, points: points.map((p) => ({ k: p.k, average: p[method] })) }));
 }
 
 /** Plain labels for the sweep's methods and baselines. */
