@@ -24,6 +24,8 @@ export interface PlanOptions extends WalkOptions {
   readonly exclude?: readonly number[];
   /** Largest room handled with dense matrices (default 2500); larger rooms use lazy greedy. */
   readonly denseLimit?: number;
+  /** Lazy greedy: people checked exactly per choice (default 3). */
+  readonly lazyChecks?: number;
   /** Widened greedy: most seed sets extended (default 64). */
   readonly maxSeeds?: number;
   readonly onProgress?: (p: PlanProgress) => void;
