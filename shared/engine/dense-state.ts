@@ -7,7 +7,7 @@
  * N, h, c are kept unscaled (laziness 0); totals are reported scaled by 1 / (1 - laziness).
  */
 import type { ErgodicData } from './ergodic';
-import { invertInPlace } from './linalg/dense';
+import { axpySub, invertInPlace } from './linalg/dense';
 import { denseSystem } from './reach';
 import type { PreparedRoom } from './room';
 
@@ -162,7 +162,7 @@ export class AbsorbingState {
       if (!inT[i]) continue;
       const ri = i * n;
       const f = N[ri + j] / njj;
-      if (f !== 0) for (let l = 0; l < n; l++) N[ri + l] -= f * rowJ[l];
+      if (f !== 0) axpySub(N, ri, N, rj, n, f);
       h[i] -= f * hj;
     }
     const fc = cj / njj;

@@ -30,22 +30,7 @@ export interface ErgodicData {
 
 /** Fundamental data of a walk matrix p1 (row-major, stochastic). */
 export function ergodicFromWalk(p1: Float64Array, n: number, scale = 1): ErgodicData {
-  const a = new Float64Array(n * n);
-  const u = 1 / n;
-  for (let k = 0; k < n * n; k++) a[k] = u - p1[k];
-  for (let i = 0; i < n; i++) a[i * n + i] += 1;
-  const g = invertInPlace(a, n);
-  const pi = new Float64Array(n);
-  const colSum = columnSums(g, n);
-  let piSum = 0;
-  for (let j = 0; j < n; j++) {
-    let v = colSum[j] * u;
-    if (v < 1e-14) v = 0; // transient people: pi is zero up to rounding
-    pi[j] = v;
-    piSum += v;
-  }
-  for (let j = 0; j < n; j++) pi[j] /= piSum;
-  return withTotals(g, pi, colSum, n, scale);
+  return generalErgodicFinish(invertInPlace(generalErgodicMatrix(p1, n), n), n, scale);
 }
 
 function columnSums(g: Float64Array, n: number): Float64Array {
@@ -70,6 +55,12 @@ function withTotals(g: Float64Array, pi: Float64Array, colSum: Float64Array, n: 
  * the cost of Gauss-Jordan.
  */
 export function ergodicSymmetric(room: PreparedRoom): ErgodicData {
+  const m = symmetricErgodicMatrix(room);
+  return symmetricErgodicFinish(room, invertSymmetricInPlace(m, room.n));
+}
+
+/** The symmetric positive definite matrix I - S + sqrt(pi) sqrt(pi)^T (row-major). */
+export function symmetricErgodicMatrix(room: PreparedRoom): Float64Array {
   const { n, csr } = room;
   const d = csr.outStrength;
   let vol = 0;
@@ -84,15 +75,49 @@ export function ergodicSymmetric(room: PreparedRoom): ErgodicData {
     m[ri + i] += 1;
     for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) m[ri + csr.col[e]] -= csr.weight[e] / (sq[i] * sq[csr.col[e]]);
   }
-  const g = invertSymmetricInPlace(m, n);
+  return m;
+}
+
+/** Z from the inverse of symmetricErgodicMatrix (overwritten). */
+export function symmetricErgodicFinish(room: PreparedRoom, inv: Float64Array): ErgodicData {
+  const { n, csr } = room;
+  const d = csr.outStrength;
+  let vol = 0;
+  for (let i = 0; i < n; i++) vol += d[i];
+  const g = inv;
   for (let i = 0; i < n; i++) {
     const ri = i * n;
-    const inv = 1 / sq[i];
-    for (let j = 0; j < n; j++) g[ri + j] *= inv * sq[j];
+    const f = 1 / Math.sqrt(d[i]);
+    for (let j = 0; j < n; j++) g[ri + j] *= f * Math.sqrt(d[j]);
   }
   const pi = new Float64Array(n);
   for (let i = 0; i < n; i++) pi[i] = d[i] / vol;
   return withTotals(g, pi, columnSums(g, n), n, 1 / (1 - room.laziness));
+}
+
+/** The matrix I - P + (1/n) 1 1^T of ergodicFromWalk (row-major). */
+export function generalErgodicMatrix(p1: Float64Array, n: number): Float64Array {
+  const a = new Float64Array(n * n);
+  const u = 1 / n;
+  for (let k = 0; k < n * n; k++) a[k] = u - p1[k];
+  for (let i = 0; i < n; i++) a[i * n + i] += 1;
+  return a;
+}
+
+/** Ergodic data from the inverse G of generalErgodicMatrix. */
+export function generalErgodicFinish(g: Float64Array, n: number, scale: number): ErgodicData {
+  const u = 1 / n;
+  const pi = new Float64Array(n);
+  const colSum = columnSums(g, n);
+  let piSum = 0;
+  for (let j = 0; j < n; j++) {
+    let v = colSum[j] * u;
+    if (v < 1e-14) v = 0; // transient people: pi is zero up to rounding
+    pi[j] = v;
+    piSum += v;
+  }
+  for (let j = 0; j < n; j++) pi[j] /= piSum;
+  return withTotals(g, pi, colSum, n, scale);
 }
 
 /** True when the room's walk is reversible with every person recurrent (undirected, connected, no mixing). */

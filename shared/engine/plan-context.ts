@@ -95,6 +95,7 @@ export function planContext(input: RoomInput, options: PlanOptions): PlanContext
     ergodic: () => {
       if (ergCache === undefined) {
         if (classes.closedClasses.length !== 1) ergCache = null;
+        else if (options.ergodic && options.ergodic.n === n) ergCache = options.ergodic;
         else if (isReversibleErgodic(room, 1)) ergCache = ergodicSymmetric(room);
         else ergCache = ergodicFromWalk(ctx.p1(), n, 1 / (1 - room.laziness));
       }

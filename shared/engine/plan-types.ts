@@ -1,4 +1,5 @@
 /** Shapes shared by every planner (see plan.ts for the entry point). */
+import type { ErgodicData } from './ergodic';
 import type { WalkOptions } from './graph';
 
 export type PlanMethod = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy';
@@ -29,6 +30,8 @@ export interface PlanOptions extends WalkOptions {
   /** Widened greedy: most seed sets extended (default 64). */
   readonly maxSeeds?: number;
   readonly onProgress?: (p: PlanProgress) => void;
+  /** Precomputed ergodic data of this room and walk (e.g. from the Node-only parallel kernel). */
+  readonly ergodic?: ErgodicData;
 }
 
 export interface PlanResult {

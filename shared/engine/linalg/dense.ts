@@ -6,6 +6,19 @@
  */
 import { EngineError } from '../errors';
 
+/** y[from..to) -= f * x[xFrom + (j - from)], unrolled by four (V8 does not vectorise). */
+export function axpySub(y: Float64Array, yOff: number, x: Float64Array, xOff: number, len: number, f: number): void {
+  let j = 0;
+  const end = len - 3;
+  for (; j < end; j += 4) {
+    y[yOff + j] -= f * x[xOff + j];
+    y[yOff + j + 1] -= f * x[xOff + j + 1];
+    y[yOff + j + 2] -= f * x[xOff + j + 2];
+    y[yOff + j + 3] -= f * x[xOff + j + 3];
+  }
+  for (; j < len; j++) y[yOff + j] -= f * x[xOff + j];
+}
+
 export interface LuFactors {
   readonly n: number;
   readonly lu: Float64Array;
@@ -36,7 +49,7 @@ export function luFactor(a: Float64Array, n: number): LuFactors {
       const l = a[ri + k] * inv;
       a[ri + k] = l;
       if (l === 0) continue;
-      for (let j = k + 1; j < n; j++) a[ri + j] -= l * a[rk + j];
+      axpySub(a, ri + k + 1, a, rk + k + 1, n - k - 1, l);
     }
   }
   return { n, lu: a, piv };
@@ -141,7 +154,7 @@ export function symmetricFactor(a: Float64Array, n: number): Float64Array {
       const l = a[rk + i] * inv;
       if (l === 0) continue;
       const ri = i * n;
-      for (let j = i; j < n; j++) a[ri + j] -= l * a[rk + j];
+      axpySub(a, ri + i, a, rk + i, n - i, l);
     }
   }
   return a;
@@ -185,7 +198,7 @@ export function invertSymmetricInPlace(a: Float64Array, n: number): Float64Array
       const f = col[i] * inv;
       if (f === 0) continue;
       const ri = i * n;
-      for (let j = i; j < n; j++) a[ri + j] -= f * col[j];
+      axpySub(a, ri + i, col, i, n - i, f);
     }
     // Pivot row and column: a_ik <- a_ik / d (sign fixed at the end), a_kk <- -1 / d.
     for (let j = 0; j < k; j++) a[j * n + k] = col[j] * inv;
@@ -233,7 +246,7 @@ export function invertInPlace(a: Float64Array, n: number): Float64Array {
       const f = a[ri + k];
       if (f === 0) continue;
       a[ri + k] = 0;
-      for (let j = 0; j < n; j++) a[ri + j] -= f * row[j];
+      axpySub(a, ri, row, 0, n, f);
     }
   }
   // Row swaps of A become column swaps of A^-1, undone in reverse order.
