@@ -1,0 +1,90 @@
+import { DecimalPipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { RouterLink } from '@angular/router';
+import { firstValueFrom } from 'rxjs';
+import type { PlanComparison, PlanDetail } from '../../../shared/api/plans';
+import type { RoomDto } from '../../../shared/api/rooms';
+import { toApiError } from '../core/api-error';
+import { methodLabel } from './method-label';
+import { ModelCaution } from './model-caution';
+import { PlanMap } from './plan-map';
+import { PlansApi } from './plans-api';
+import { ReachChart } from './reach-chart';
+import type { ReachSeries } from './reach-chart-data';
+
+/** Two plans side by side: starters, scores and their reach curves on one chart. */
+@Component({
+  selector: 'app-compare-page',
+  imports: [DecimalPipe, RouterLink, MatButtonModule, MatIconModule, ModelCaution, PlanMap, ReachChart],
+  templateUrl: './compare-page.html',
+  styleUrl: './compare-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export default class ComparePage {
+  private readonly api = inject(PlansApi);
+  readonly roomId = input.required<string>();
+  readonly a = input<string>();
+  readonly b = input<string>();
+
+  protected readonly id = computed(() => Number(this.roomId()));
+  protected readonly comparison = signal<PlanComparison | null>(null);
+  protected readonly details = signal<[PlanDetail, PlanDetail] | null>(null);
+  protected readonly room = signal<RoomDto | null>(null);
+  protected readonly error = signal<string | null>(null);
+  protected readonly methodLabel = methodLabel;
+
+  protected readonly series = computed<ReachSeries[]>(() => {
+    const d = this.details();
+    if (!d) return [];
+    return d.map((p, i) => ({ label: `${i === 0 ? 'A' : 'B'}: ${p.name}`, share: p.reach?.byHop ?? [], dashed: i === 1 }));
+  });
+  protected readonly biggest = computed(() => {
+    const c = this.comparison();
+    if (!c) return [];
+    return c.people
+      .filter((p) => p.difference !== null && Math.abs(p.difference) > 1e-9)
+      .sort((x, y) => Math.abs(y.difference!) - Math.abs(x.difference!))
+      .slice(0, 8);
+  });
+  protected readonly hopsOf = computed(() =>
+    (this.details() ?? []).map((p) => new Map(p.perPerson.map((x) => [x.personId, x.expectedHops]))),
+  );
+  protected readonly startersOf = computed(() => (this.details() ?? []).map((p) => p.starters.map((s) => s.personId)));
+
+  constructor() {
+    effect(() => {
+      const [a, b] = [Number(this.a()), Number(this.b())];
+      untracked(() => void this.load(a, b));
+    });
+  }
+
+  private async load(a: number, b: number): Promise<void> {
+    if (!(a > 0 && b > 0)) {
+      this.error.set('Pick two saved plans to compare.');
+      return;
+    }
+    try {
+      const [c, pa, pb, room] = await Promise.all([
+        firstValueFrom(this.api.compare(a, b)),
+        firstValueFrom(this.api.plan(a)),
+        firstValueFrom(this.api.plan(b)),
+        firstValueFrom(this.api.room(this.id())),
+      ]);
+      this.comparison.set(c);
+      this.details.set([pa, pb]);
+      this.room.set(room);
+    } catch (e) {
+      this.error.set(toApiError(e).message);
+    }
+  }
+
+  protected nameOf(id: number): string {
+    for (const p of this.details() ?? []) {
+      const s = p.starters.find((x) => x.personId === id);
+      if (s) return s.name;
+    }
+    return `#${id}`;
+  }
+}

@@ -1,0 +1,36 @@
+import { DatePipe, DecimalPipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, input, model, output } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatSelectModule } from '@angular/material/select';
+import { MatTooltipModule } from '@angular/material/tooltip';
+import { RouterLink } from '@angular/router';
+import { JOB_STATUSES, type PlanSummary, type RehearsalSummary } from '../../../shared/api/plans';
+
+/** The room's rehearsals, newest first, filtered by plan and status. */
+@Component({
+  selector: 'app-rehearsal-history',
+  imports: [DatePipe, DecimalPipe, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatSelectModule, MatTooltipModule],
+  templateUrl: './rehearsal-history.html',
+  styleUrl: './rehearsal-history.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class RehearsalHistory {
+  readonly rehearsals = input.required<readonly RehearsalSummary[]>();
+  readonly plans = input.required<readonly PlanSummary[]>();
+  readonly shownId = input<number | null>(null);
+  readonly planFilter = model<number | null>(null);
+  readonly statusFilter = model<string | null>(null);
+  readonly opened = output<number>();
+  readonly rerun = output<RehearsalSummary>();
+  protected readonly statuses = JOB_STATUSES;
+  protected readonly statusLabel: Record<string, string> = {
+    queued: 'waiting',
+    running: 'running',
+    done: 'finished',
+    failed: 'failed',
+    cancelled: 'cancelled',
+    interrupted: 'interrupted (server restart)',
+  };
+}

@@ -1,0 +1,254 @@
+import { DecimalPipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, DestroyRef, effect, inject, input, signal, untracked } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { FormControl, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { MatTooltipModule } from '@angular/material/tooltip';
+import { Router, RouterLink } from '@angular/router';
+import { firstValueFrom, merge, type Subscription } from 'rxjs';
+import {
+  REHEARSAL_LIMITS,
+  type PlanSummary,
+  type RehearsalDetail,
+  type RehearsalStarted,
+  type RehearsalSummary,
+} from '../../../shared/api/plans';
+import { toApiError } from '../core/api-error';
+import { jobEvents } from './job-events';
+import { PlansApi } from './plans-api';
+import { randomSeed, runsMessage, runsValidator, seedMessage, seedValidator } from './rehearsal-form-rules';
+import { RehearsalHistory } from './rehearsal-history';
+import { RehearsalResult } from './rehearsal-result';
+import { rerunMatch, type RerunMatch } from './rerun-match';
+
+interface Active {
+  rehearsalId: number;
+  progress: number;
+  done: number | null;
+  of: number;
+  position: number | null;
+  state: string;
+}
+
+/** Rehearsals of a room: start seeded cascades for a plan, follow them live, read and reproduce them. */
+@Component({
+  selector: 'app-rehearsal-page',
+  imports: [
+    DecimalPipe,
+    ReactiveFormsModule,
+    RouterLink,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    MatTooltipModule,
+    RehearsalHistory,
+    RehearsalResult,
+  ],
+  templateUrl: './rehearsal-page.html',
+  styleUrl: './rehearsal-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export default class RehearsalPage {
+  private readonly api = inject(PlansApi);
+  private readonly router = inject(Router);
+  readonly roomId = input.required<string>();
+  /** Query parameters: the plan to rehearse and the rehearsal shown. */
+  readonly plan = input<string>();
+  readonly show = input<string>();
+
+  protected readonly id = computed(() => Number(this.roomId()));
+  protected readonly plans = signal<PlanSummary[]>([]);
+  protected readonly cap = signal<number>(REHEARSAL_LIMITS.defaultRuns);
+  protected readonly planId = new FormControl<number | null>(null);
+  protected readonly runs = new FormControl<number | null>(
+    REHEARSAL_LIMITS.defaultRuns,
+    runsValidator(() => this.cap()),
+  );
+  protected readonly seed = new FormControl<string>(randomSeed(), { nonNullable: true, validators: seedValidator });
+  private readonly formChanges = toSignal(
+    merge(this.runs.statusChanges, this.seed.statusChanges, this.runs.valueChanges, this.seed.valueChanges),
+    { initialValue: null },
+  );
+  protected readonly runsError = computed(() => (this.formChanges(), runsMessage(this.runs.errors, this.cap())));
+  protected readonly seedError = computed(() => (this.formChanges(), seedMessage(this.seed.errors)));
+
+  protected readonly active = signal<Active | null>(null);
+  protected readonly detail = signal<RehearsalDetail | null>(null);
+  protected readonly match = signal<RerunMatch | null>(null);
+  protected readonly startError = signal<string | null>(null);
+  protected readonly notice = signal<string | null>(null);
+  protected readonly history = signal<RehearsalSummary[]>([]);
+  protected readonly planFilter = signal<number | null>(null);
+  protected readonly statusFilter = signal<string | null>(null);
+  protected readonly readyPlans = computed(() => this.plans().filter((p) => p.status === 'ready'));
+  protected readonly selectedPlan = computed(
+    () => (this.formChanges(), this.planChoice(), this.readyPlans().find((p) => p.id === this.planId.value) ?? null),
+  );
+  private readonly planChoice = toSignal(this.planId.valueChanges, { initialValue: null });
+
+  private starting = false;
+  private idempotencyKey: string | null = null;
+  private sub: Subscription | null = null;
+
+  constructor() {
+    inject(DestroyRef).onDestroy(() => this.sub?.unsubscribe());
+    merge(this.runs.valueChanges, this.seed.valueChanges, this.planId.valueChanges).subscribe(() => (this.idempotencyKey = null));
+    effect(() => {
+      const id = this.id();
+      untracked(() => void this.init(id));
+    });
+    effect(() => {
+      const show = Number(this.show());
+      untracked(() => void this.display(show > 0 ? show : null));
+    });
+    effect(() => {
+      this.planFilter();
+      this.statusFilter();
+      untracked(() => void this.refreshHistory());
+    });
+  }
+
+  private async init(roomId: number): Promise<void> {
+    const [plans, limits] = await Promise.all([firstValueFrom(this.api.plans(roomId)), firstValueFrom(this.api.limits())]);
+    this.plans.set(plans);
+    this.cap.set(limits.maxCascades);
+    this.runs.updateValueAndValidity();
+    const wanted = Number(this.plan());
+    const pick =
+      plans.find((p) => p.id === wanted && p.status === 'ready') ??
+      plans.find((p) => p.chosen && p.status === 'ready') ??
+      plans.find((p) => p.status === 'ready');
+    this.planId.setValue(pick?.id ?? null);
+  }
+
+  protected async refreshHistory(): Promise<void> {
+    if (!(this.id() > 0)) return;
+    this.history.set(await firstValueFrom(this.api.rehearsals(this.id(), { planId: this.planFilter(), status: this.statusFilter() })));
+  }
+
+  protected newSeed(): void {
+    this.seed.setValue(randomSeed());
+  }
+
+  protected async start(): Promise<void> {
+    if (this.starting || this.active()) return;
+    this.runs.markAsTouched();
+    this.seed.markAsTouched();
+    const planId = this.planId.value;
+    if (!planId) {
+      this.startError.set('Choose a plan to rehearse.');
+      return;
+    }
+    if (this.runs.invalid || this.seed.invalid) return;
+    this.starting = true;
+    this.startError.set(null);
+    this.idempotencyKey ??= crypto.randomUUID();
+    try {
+      const r = await firstValueFrom(
+        this.api.startRehearsal(planId, { runs: this.runs.value!, seed: this.seed.value, idempotencyKey: this.idempotencyKey }),
+      );
+      this.began(r);
+    } catch (e) {
+      this.startError.set(toApiError(e).message);
+    } finally {
+      this.starting = false;
+    }
+  }
+
+  protected async rerunOf(r: RehearsalSummary): Promise<void> {
+    if (this.active()) return;
+    this.startError.set(null);
+    try {
+      const started = await firstValueFrom(this.api.rerun(r.id, crypto.randomUUID()));
+      this.began(started);
+    } catch (e) {
+      this.startError.set(toApiError(e).message);
+    }
+  }
+
+  private began(r: RehearsalStarted): void {
+    this.notice.set(r.reused ? 'That rehearsal had just been started: following it instead of starting a second one.' : null);
+    this.detail.set(null);
+    this.match.set(null);
+    void this.router.navigate([], { queryParams: { plan: r.rehearsal.planId, show: r.rehearsal.id } });
+    this.follow(r.rehearsal);
+    void this.refreshHistory();
+  }
+
+  /** Feeds the progress bar from the rehearsal's server-sent events. */
+  private follow(r: RehearsalSummary): void {
+    this.sub?.unsubscribe();
+    this.active.set({ rehearsalId: r.id, progress: r.progress, done: null, of: r.runs, position: r.queuePosition, state: r.status });
+    this.sub = jobEvents(`/api/rehearsals/${r.id}/events`).subscribe({
+      next: (e) => {
+        const a = this.active();
+        if (!a) return;
+        this.active.set({
+          ...a,
+          state: e.type,
+          progress: e.fraction ?? e.job.progress,
+          done: e.done ?? a.done,
+          of: e.of ?? a.of,
+          position: e.type === 'queued' ? (e.position ?? e.job.queuePosition) : null,
+        });
+        if (e.type === 'done') void this.finished(r.id);
+        else if (e.type === 'failed' || e.type === 'cancelled' || e.type === 'interrupted') {
+          this.active.set(null);
+          this.startError.set(
+            e.type === 'cancelled'
+              ? 'Rehearsal cancelled: nothing from it is shown as a result.'
+              : e.type === 'interrupted'
+                ? 'The server restarted during this rehearsal, so it was stopped. Re-run it from its seed.'
+                : `The rehearsal failed: ${e.message ?? e.job.message ?? 'no reason given'}.`,
+          );
+          void this.refreshHistory();
+        }
+      },
+      error: (err: Error) => {
+        this.active.set(null);
+        this.startError.set(`${err.message} Reload the page to see where it stands.`);
+      },
+    });
+  }
+
+  private async finished(id: number): Promise<void> {
+    this.active.set(null);
+    this.idempotencyKey = null;
+    await this.display(id, true);
+    await this.refreshHistory();
+  }
+
+  protected async cancel(): Promise<void> {
+    const a = this.active();
+    if (a) await firstValueFrom(this.api.cancelRehearsal(a.rehearsalId));
+  }
+
+  protected async display(id: number | null, force = false): Promise<void> {
+    if (id === null) return;
+    if (!force && (this.detail()?.id === id || this.active()?.rehearsalId === id)) return;
+    const d = await firstValueFrom(this.api.rehearsal(id));
+    if (d.status === 'queued' || d.status === 'running') {
+      this.follow(d);
+      return;
+    }
+    this.detail.set(d.status === 'done' ? d : null);
+    this.match.set(null);
+    if (d.status !== 'done') this.startError.set(`Rehearsal #${d.id} is ${d.status}: it has no results. ${d.message ?? ''}`);
+    if (d.status === 'done' && d.rerunOf) {
+      const original = await firstValueFrom(this.api.rehearsal(d.rerunOf));
+      if (original.status === 'done') this.match.set(rerunMatch(original, d));
+    }
+  }
+
+  protected async openRehearsal(id: number): Promise<void> {
+    await this.router.navigate([], { queryParams: { plan: this.planId.value, show: id } });
+  }
+}
