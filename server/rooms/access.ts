@@ -36,7 +36,7 @@ export function roomIdOf(raw: unknown): number {
 
 export async function loadRoomFor(
   user: SignedInUser | undefined,
-  roomId: number | string,
+  roomId: unknown,
   need: RoomNeed,
   tx: Tx | typeof db = db,
 ): Promise<LoadedRoom> {

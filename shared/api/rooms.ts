@@ -158,6 +158,8 @@ export interface StaleVersionDetails {
   yourVersion: number;
   /** "changed elsewhere: reload or keep yours" */
   message: string;
+  /** The stored name, description and settings now (PATCH only), to show beside the user's change. */
+  current?: { name: string; description: string; settings: RoomSettings };
 }
 export const STALE_MESSAGE = 'This room was changed elsewhere: reload or keep yours.';
 
@@ -223,6 +225,11 @@ export interface ImportIssue {
   field?: string;
 }
 
+/**
+ * A dry run answers 200 with the report (errors included). A commit with errors saves nothing
+ * and answers 422 `{ error: { code: 'import_errors', message, details: ImportReport } }`;
+ * a stale `version` answers 409; a file over the limit 413; a wrong file type 415.
+ */
 export interface ImportReport {
   format: ImportFormat;
   dryRun: boolean;
@@ -255,6 +262,8 @@ export interface ShareDto {
   name: string;
   role: ShareRole;
   createdAt: string;
+  /** On create: whether the notification e-mail went out. */
+  notified?: boolean;
 }
 
 // ---- summary ----

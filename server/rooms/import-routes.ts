@@ -1,0 +1,115 @@
+/**
+ * Import routes: POST /api/rooms/import (create a room from a file) and POST /api/rooms/:id/import
+ * (replace a room's content; editors and owners; `version` checked). `dryRun=true` (the default)
+ * only reports; `dryRun=false` writes everything in one transaction, or nothing.
+ */
+import { Router, type Request, type Response, type NextFunction } from 'express';
+import { z } from 'zod';
+import { DEFAULT_ROOM_SETTINGS, type ImportReport, type RoomSettings } from '../../shared/api/rooms';
+import { signedIn } from '../core/access';
+import { audit } from '../core/audit';
+import { HttpError, notFound } from '../core/http-error';
+import { parse } from '../core/validate';
+import { db } from '../db';
+import { loadRoomFor, type LoadedRoom } from './access';
+import { contentOf, formatFor, readImport, receiveUpload, reportOf, uploadedFiles, type ParsedImport } from './import';
+import { roomName } from './schemas';
+import { createWithContent, staleVersion } from './service';
+import * as store from './store';
+
+export const importRouter = Router();
+
+const query = z.strictObject({ dryRun: z.enum(['true', 'false'], 'dryRun must be true or false.').default('true') });
+const fields = z.strictObject({
+  format: z.enum(['csv', 'graphml', 'json'], 'format must be csv, graphml or json.').optional(),
+  directed: z.enum(['true', 'false'], 'directed must be true or false.').optional(),
+  version: z.coerce.number({ error: 'version must be a number.' }).int().min(1).optional(),
+  name: roomName.optional(),
+});
+
+/** Checks the room before the upload is read, so a room of someone else costs nothing and says 404. */
+async function editableRoom(req: Request, res: Response, next: NextFunction) {
+  res.locals['room'] = await loadRoomFor(req.user, req.params['id'] as string, 'edit');
+  next();
+}
+
+function read(req: Request, defaultDirected?: boolean) {
+  const { dryRun } = parse(query, req.query, 'query');
+  const f = parse(fields, req.body ?? {}, 'import form');
+  const { file, people } = uploadedFiles(req);
+  const format = formatFor(file, f.format);
+  const directed = f.directed === undefined ? defaultDirected : f.directed === 'true';
+  const parsed = readImport(file, people, format, directed);
+  return { dryRun: dryRun === 'true', f, parsed, fileName: file.name };
+}
+
+function refuseErrors(report: ImportReport): void {
+  if (report.errors.length === 0) return;
+  const n = report.errors.length;
+  throw new HttpError(
+    422,
+    'import_errors',
+    `The file has ${n} error${n === 1 ? '' : 's'}; nothing was saved. Fix ${n === 1 ? 'it' : 'them'} and import again.`,
+    report,
+  );
+}
+
+importRouter.post('/import', signedIn(), receiveUpload, async (req, res) => {
+  const { dryRun, f, parsed, fileName } = read(req);
+  const report = reportOf(parsed, dryRun);
+  if (dryRun) return void res.json(report);
+  refuseErrors(report);
+  const name =
+    f.name ??
+    parsed.extras.name ??
+    (fileName
+      .replace(/\.[^.]+$/, '')
+      .trim()
+      .slice(0, 120) ||
+      'Imported room');
+  const settings: RoomSettings = { ...DEFAULT_ROOM_SETTINGS, ...parsed.extras.settings, directed: parsed.graph.directed };
+  const roomId = await db.transaction(async (tx) => {
+    const id = await createWithContent(tx, req.user!.id, name, '', settings, contentOf(parsed));
+    await audit(
+      req,
+      { action: 'room.import', targetType: 'room', targetId: id, detail: { format: parsed.format, people: report.counts.people } },
+      tx,
+    );
+    return id;
+  });
+  res.status(201).json({ ...report, committed: true, roomId, version: 1 } satisfies ImportReport);
+});
+
+importRouter.post('/:id/import', signedIn(), editableRoom, receiveUpload, async (req, res) => {
+  const loaded = res.locals['room'] as LoadedRoom;
+  const { dryRun, f, parsed } = read(req, loaded.room.directed);
+  const report: ImportReport = { ...reportOf(parsed, dryRun), replaces: await store.countContent(db, loaded.room.id) };
+  if (dryRun) return void res.json(report);
+  if (f.version === undefined) {
+    throw new HttpError(400, 'bad_request', 'Send the room version you started from (form field "version") to replace its content.', {
+      fields: [{ field: 'version', message: 'Send the room version you started from.' }],
+    });
+  }
+  refuseErrors(report);
+  const version = await replaceContent(req, loaded, parsed, f.version);
+  res.json({ ...report, committed: true, roomId: loaded.room.id, version } satisfies ImportReport);
+});
+
+/** Replaces people and ties (and the direction, which the file decides) in one transaction. */
+async function replaceContent(req: Request, loaded: LoadedRoom, parsed: ParsedImport, version: number): Promise<number> {
+  return db.transaction(async (tx) => {
+    const room = await store.lockRoom(tx, loaded.room.id);
+    if (!room) throw notFound('That room');
+    if (room.version !== version) throw staleVersion(room, version);
+    const content = contentOf(parsed);
+    await store.clearContent(tx, room.id);
+    await store.insertContent(tx, room.id, content.people, content.ties);
+    await store.updateRoomFields(tx, room.id, { directed: parsed.graph.directed });
+    await audit(
+      req,
+      { action: 'room.import', targetType: 'room', targetId: room.id, detail: { format: parsed.format, people: content.people.length } },
+      tx,
+    );
+    return room.version + 1;
+  });
+}

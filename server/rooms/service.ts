@@ -1,0 +1,113 @@
+/** Rooms domain: create, read, change settings with a version check, duplicate, delete. */
+import { DEFAULT_ROOM_SETTINGS, STALE_MESSAGE, type RoomDto, type RoomSettings, type StaleVersionDetails } from '../../shared/api/rooms';
+import { db, type Tx } from '../db';
+import { HttpError, notFound } from '../core/http-error';
+import { settingsOf, type LoadedRoom, type RoomRow } from './access';
+import { checkContent, pairKey, type RoomContent } from './content';
+import type { CreateRoomInput } from './schemas';
+import * as store from './store';
+
+export function staleVersion(room: RoomRow, yourVersion: number, withCurrent = false): HttpError {
+  const details: StaleVersionDetails = { currentVersion: room.version, yourVersion, message: STALE_MESSAGE };
+  if (withCurrent) details.current = { name: room.name, description: room.description, settings: settingsOf(room) };
+  return new HttpError(409, 'stale_version', STALE_MESSAGE, details);
+}
+
+export async function createRoom(ownerId: number, input: CreateRoomInput): Promise<number> {
+  const settings: RoomSettings = { ...DEFAULT_ROOM_SETTINGS, ...input.settings };
+  const content = checkContent(input.people ?? [], input.ties ?? [], settings);
+  return db.transaction(async (tx) => createWithContent(tx, ownerId, input.name, input.description ?? '', settings, content));
+}
+
+export async function createWithContent(
+  tx: Tx,
+  ownerId: number,
+  name: string,
+  description: string,
+  settings: RoomSettings,
+  content: RoomContent,
+): Promise<number> {
+  const roomId = await store.insertRoom(tx, { ownerId, name, description, settings });
+  await store.insertContent(tx, roomId, content.people, content.ties);
+  return roomId;
+}
+
+export async function roomDto(loaded: LoadedRoom, tx: Tx | typeof db = db): Promise<RoomDto> {
+  const { room } = loaded;
+  const [folk, links] = await Promise.all([store.roomPeople(tx, room.id), store.roomTies(tx, room.id)]);
+  return {
+    id: room.id,
+    name: room.name,
+    description: room.description,
+    settings: settingsOf(room),
+    version: room.version,
+    access: loaded.access,
+    ownerName: loaded.ownerName,
+    people: folk,
+    ties: links,
+    updatedAt: room.updatedAt.toISOString(),
+  };
+}
+
+export interface RoomPatch {
+  version: number;
+  name?: string;
+  description?: string;
+  settings?: Partial<RoomSettings>;
+}
+
+/** Changes name, description or settings; a stale version answers 409 with what is stored now. */
+export async function updateRoom(roomId: number, patch: RoomPatch): Promise<void> {
+  await db.transaction(async (tx) => {
+    const room = await store.lockRoom(tx, roomId);
+    if (!room) throw notFound('That room');
+    if (room.version !== patch.version) throw staleVersion(room, patch.version, true);
+    if (patch.settings?.directed === false && room.directed) await checkUndirectedPairs(tx, roomId);
+    await store.updateRoomFields(tx, roomId, {
+      ...(patch.name !== undefined ? { name: patch.name } : {}),
+      ...(patch.description !== undefined ? { description: patch.description } : {}),
+      ...patch.settings,
+    });
+  });
+}
+
+/** Turning a directed room undirected would make a -> b and b -> a one doubled tie: refuse, and say which. */
+async function checkUndirectedPairs(tx: Tx, roomId: number): Promise<void> {
+  const links = await store.roomTies(tx, roomId);
+  const seen = new Set<string>();
+  const pairs: string[] = [];
+  for (const t of links) {
+    const k = pairKey(t.sourceId, t.targetId, false);
+    if (seen.has(k)) pairs.push(k);
+    seen.add(k);
+  }
+  if (pairs.length === 0) return;
+  const folk = new Map((await store.roomPeople(tx, roomId)).map((p) => [p.id, p.name]));
+  const named = pairs.slice(0, 5).map((k) => {
+    const [a, b] = k.split(':').map(Number);
+    return `${folk.get(a)} - ${folk.get(b)}`;
+  });
+  throw new HttpError(
+    409,
+    'reciprocal_ties',
+    `The room has ${pairs.length} pair${pairs.length === 1 ? '' : 's'} tied both ways (${named.join(', ')}${pairs.length > 5 ? ', ...' : ''}). ` +
+      'An undirected room keeps one tie per pair: delete one tie of each pair first.',
+    { pairs: pairs.length },
+  );
+}
+
+/** Copies a room (content, layout, settings; not its shares) into a new room of `ownerId`. */
+export async function duplicateRoom(loaded: LoadedRoom, ownerId: number, name?: string): Promise<number> {
+  return db.transaction(async (tx) => {
+    const { room } = loaded;
+    const folk = await store.roomPeople(tx, room.id);
+    const links = await store.roomTies(tx, room.id);
+    const at = new Map(folk.map((p, i) => [p.id, i]));
+    const content: RoomContent = {
+      people: folk.map(({ key, name: n, group, email, x, y, pinned }) => ({ key, name: n, group, email, x, y, pinned })),
+      ties: links.map((t) => ({ source: at.get(t.sourceId)!, target: at.get(t.targetId)!, strength: t.strength })),
+    };
+    const copyName = name ?? `${room.name} (copy)`.slice(0, 120);
+    return createWithContent(tx, ownerId, copyName, room.description, settingsOf(room), content);
+  });
+}

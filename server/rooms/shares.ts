@@ -1,0 +1,92 @@
+/** Sharing a room with another facilitator as editor or viewer: list, add (with an e-mail), change role, revoke. */
+import { and, asc, eq } from 'drizzle-orm';
+import type { ShareDto, ShareRole } from '../../shared/api/rooms';
+import { users } from '../../db/schema/accounts';
+import { roomShares } from '../../db/schema/rooms';
+import { db } from '../db';
+import { HttpError, notFound } from '../core/http-error';
+import { publicUrl } from '../config';
+import { findUserByEmail } from '../auth/store';
+import { sendMail } from '../mail/transport';
+import { logger } from '../core/logging';
+import type { RoomRow } from './access';
+
+export async function listShares(roomId: number): Promise<ShareDto[]> {
+  const rows = await db
+    .select({ userId: users.id, email: users.email, name: users.name, role: roomShares.role, createdAt: roomShares.createdAt })
+    .from(roomShares)
+    .innerJoin(users, eq(users.id, roomShares.userId))
+    .where(eq(roomShares.roomId, roomId))
+    .orderBy(asc(users.name), asc(users.id));
+  return rows.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() }));
+}
+
+async function shareOf(roomId: number, userId: number): Promise<ShareDto> {
+  const found = (await listShares(roomId)).find((s) => s.userId === userId);
+  if (!found) throw notFound('That share');
+  return found;
+}
+
+const fieldError = (status: number, code: string, message: string) =>
+  new HttpError(status, code, message, { fields: [{ field: 'email', message }] });
+
+export async function addShare(room: RoomRow, sharedBy: { id: number; name: string }, email: string, role: ShareRole): Promise<ShareDto> {
+  const user = await findUserByEmail(email);
+  if (!user || user.status !== 'active') {
+    throw fieldError(
+      400,
+      'no_such_account',
+      `No active facilitator account uses ${email}. Ask an admin to invite them first, then share again.`,
+    );
+  }
+  if (user.id === room.ownerId) throw fieldError(400, 'own_room', 'That is the owner of this room; the owner can already do everything.');
+  const [existing] = await db
+    .select({ role: roomShares.role })
+    .from(roomShares)
+    .where(and(eq(roomShares.roomId, room.id), eq(roomShares.userId, user.id)));
+  if (existing) {
+    throw fieldError(
+      409,
+      'already_shared',
+      `The room is already shared with ${email} as ${existing.role}; change the role in the list instead.`,
+    );
+  }
+  await db.insert(roomShares).values({ roomId: room.id, userId: user.id, role });
+  const notified = await notify(room, sharedBy.name, user.email, user.name, role);
+  return { ...(await shareOf(room.id, user.id)), notified };
+}
+
+/** Tells the person; a mail failure is logged and reported, the share stands. */
+async function notify(room: RoomRow, byName: string, to: string, toName: string, role: ShareRole): Promise<boolean> {
+  const link = `${publicUrl()}/rooms/${room.id}`;
+  const can = role === 'editor' ? 'view and change' : 'view (not change)';
+  const text =
+    `Hello ${toName},\n\n${byName} shared the room "${room.name}" with you in Ripplehall. You can ${can} it:\n${link}\n\n` +
+    'The room holds who-talks-to-whom data about people: treat it as personal data and use it only for planning the briefing.\n';
+  const esc = (s: string) => s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]!);
+  const html =
+    `<p>Hello ${esc(toName)},</p><p>${esc(byName)} shared the room <strong>${esc(room.name)}</strong> with you in Ripplehall. ` +
+    `You can ${can} it: <a href="${esc(link)}">${esc(link)}</a></p>` +
+    '<p>The room holds who-talks-to-whom data about people: treat it as personal data and use it only for planning the briefing.</p>';
+  try {
+    await sendMail({ to, subject: `${byName} shared the room "${room.name}" with you`, text, html });
+    return true;
+  } catch (err) {
+    logger.warn({ err, roomId: room.id }, 'share notification could not be sent');
+    return false;
+  }
+}
+
+export async function changeShare(roomId: number, userId: number, role: ShareRole): Promise<ShareDto> {
+  await shareOf(roomId, userId);
+  await db
+    .update(roomShares)
+    .set({ role })
+    .where(and(eq(roomShares.roomId, roomId), eq(roomShares.userId, userId)));
+  return shareOf(roomId, userId);
+}
+
+export async function revokeShare(roomId: number, userId: number): Promise<void> {
+  const result = await db.delete(roomShares).where(and(eq(roomShares.roomId, roomId), eq(roomShares.userId, userId)));
+  if (result[0].affectedRows === 0) throw notFound('That share');
+}

@@ -1,0 +1,328 @@
+/** Rooms data access (Drizzle on MariaDB: select / join only, bulk inserts in chunks). */
+import { and, asc, desc, eq, exists, inArray, like, or, sql, type SQL } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/mysql-core';
+import type { Page, PersonDto, RoomListItem, RoomSettings, TieDto, TieListItem } from '../../shared/api/rooms';
+import { users } from '../../db/schema/accounts';
+import { people, roomShares, rooms, ties } from '../../db/schema/rooms';
+import { db, type Tx } from '../db';
+import type { RoomRow } from './access';
+
+type Q = Tx | typeof db;
+const CHUNK = 1000;
+
+/** A LIKE pattern matching the text anywhere, with the wildcards in it escaped. */
+export const contains = (q: string) => `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+
+export interface PersonRowInput {
+  key: string;
+  name: string;
+  group: string | null;
+  email: string | null;
+  x: number | null;
+  y: number | null;
+  pinned: boolean;
+}
+
+export interface TieRowInput {
+  source: number; // index into the people list
+  target: number;
+  strength: number;
+}
+
+export async function insertRoom(
+  tx: Q,
+  values: { ownerId: number; name: string; description: string; settings: RoomSettings },
+): Promise<number> {
+  const [{ id }] = await tx
+    .insert(rooms)
+    .values({ ownerId: values.ownerId, name: values.name, description: values.description, ...values.settings })
+    .$returningId();
+  return id;
+}
+
+/** Inserts people and ties (by index into `folk`); returns the new person ids in order. */
+export async function insertContent(
+  tx: Q,
+  roomId: number,
+  folk: PersonRowInput[],
+  links: TieRowInput[],
+  firstOrder = 0,
+): Promise<number[]> {
+  const ids: number[] = [];
+  for (let at = 0; at < folk.length; at += CHUNK) {
+    const rows = folk.slice(at, at + CHUNK).map((p, i) => ({
+      roomId,
+      personKey: p.key,
+      name: p.name,
+      groupName: p.group,
+      email: p.email,
+      x: p.x,
+      y: p.y,
+      pinned: p.pinned,
+      orderIndex: firstOrder + at + i,
+    }));
+    const got = await tx.insert(people).values(rows).$returningId();
+    ids.push(...got.map((g) => g.id));
+  }
+  for (let at = 0; at < links.length; at += CHUNK) {
+    const rows = links
+      .slice(at, at + CHUNK)
+      .map((t) => ({ roomId, sourceId: ids[t.source], targetId: ids[t.target], strength: t.strength }));
+    await tx.insert(ties).values(rows);
+  }
+  return ids;
+}
+
+export async function clearContent(tx: Q, roomId: number): Promise<void> {
+  await tx.delete(ties).where(eq(ties.roomId, roomId));
+  await tx.delete(people).where(eq(people.roomId, roomId));
+}
+
+/** Locks the room row for the rest of the transaction (serialises edits of one room). */
+export async function lockRoom(tx: Tx, roomId: number): Promise<RoomRow | undefined> {
+  const [row] = await tx.select().from(rooms).where(eq(rooms.id, roomId)).for('update');
+  return row;
+}
+
+export async function bumpVersion(tx: Q, roomId: number): Promise<void> {
+  await tx
+    .update(rooms)
+    .set({ version: sql`${rooms.version} + 1` })
+    .where(eq(rooms.id, roomId));
+}
+
+export async function touchRoom(tx: Q, roomId: number): Promise<void> {
+  await tx
+    .update(rooms)
+    .set({ updatedAt: sql`CURRENT_TIMESTAMP(3)` })
+    .where(eq(rooms.id, roomId));
+}
+
+export async function updateRoomFields(tx: Q, roomId: number, set: Partial<typeof rooms.$inferInsert>): Promise<void> {
+  await tx
+    .update(rooms)
+    .set({ ...set, version: sql`${rooms.version} + 1` })
+    .where(eq(rooms.id, roomId));
+}
+
+export async function deleteRoom(roomId: number): Promise<void> {
+  await db.delete(rooms).where(eq(rooms.id, roomId));
+}
+
+const personColumns = {
+  id: people.id,
+  key: people.personKey,
+  name: people.name,
+  group: people.groupName,
+  email: people.email,
+  x: people.x,
+  y: people.y,
+  pinned: people.pinned,
+};
+
+export async function roomPeople(tx: Q, roomId: number): Promise<PersonDto[]> {
+  return tx.select(personColumns).from(people).where(eq(people.roomId, roomId)).orderBy(asc(people.orderIndex), asc(people.id));
+}
+
+export async function roomTies(tx: Q, roomId: number): Promise<TieDto[]> {
+  return tx
+    .select({ id: ties.id, sourceId: ties.sourceId, targetId: ties.targetId, strength: ties.strength })
+    .from(ties)
+    .where(eq(ties.roomId, roomId))
+    .orderBy(asc(ties.id));
+}
+
+export async function maxOrder(tx: Q, roomId: number): Promise<number> {
+  const [row] = await tx
+    .select({ m: sql<number | null>`MAX(${people.orderIndex})` })
+    .from(people)
+    .where(eq(people.roomId, roomId));
+  return row?.m === null || row?.m === undefined ? -1 : Number(row.m);
+}
+
+export async function countContent(tx: Q, roomId: number): Promise<{ people: number; ties: number }> {
+  const [p] = await tx
+    .select({ n: sql<number>`COUNT(*)` })
+    .from(people)
+    .where(eq(people.roomId, roomId));
+  const [t] = await tx
+    .select({ n: sql<number>`COUNT(*)` })
+    .from(ties)
+    .where(eq(ties.roomId, roomId));
+  return { people: Number(p.n), ties: Number(t.n) };
+}
+
+// ---- lists ----
+
+export interface ListParams<S extends string> {
+  page: number;
+  pageSize: number;
+  sort: S;
+  direction: 'asc' | 'desc';
+  q?: string;
+}
+
+const iso = (d: Date) => d.toISOString();
+
+export async function listRooms(userId: number, p: ListParams<string> & { scope: 'all' | 'mine' | 'shared' }): Promise<Page<RoomListItem>> {
+  const mine = eq(rooms.ownerId, userId);
+  const sharedWithMe = exists(
+    db
+      .select({ one: sql`1` })
+      .from(roomShares)
+      .where(and(eq(roomShares.roomId, rooms.id), eq(roomShares.userId, userId))),
+  );
+  const scope = p.scope === 'mine' ? mine : p.scope === 'shared' ? sharedWithMe : or(mine, sharedWithMe);
+  const filters: (SQL | undefined)[] = [scope];
+  if (p.q) filters.push(or(like(rooms.name, contains(p.q)), like(rooms.description, contains(p.q))));
+  const where = and(...filters);
+  const peopleCount = sql<number>`(SELECT COUNT(*) FROM ${people} WHERE ${people.roomId} = ${rooms.id})`;
+  const tieCount = sql<number>`(SELECT COUNT(*) FROM ${ties} WHERE ${ties.roomId} = ${rooms.id})`;
+  const order = p.direction === 'desc' ? desc : asc;
+  const sortBy = { name: rooms.name, updatedAt: rooms.updatedAt, people: peopleCount, ties: tieCount }[p.sort] ?? rooms.updatedAt;
+  const [{ total }] = await db
+    .select({ total: sql<number>`COUNT(*)` })
+    .from(rooms)
+    .where(where);
+  const rows = await db
+    .select({
+      room: rooms,
+      ownerName: users.name,
+      shareRole: roomShares.role,
+      people: peopleCount,
+      ties: tieCount,
+    })
+    .from(rooms)
+    .innerJoin(users, eq(users.id, rooms.ownerId))
+    .leftJoin(roomShares, and(eq(roomShares.roomId, rooms.id), eq(roomShares.userId, userId)))
+    .where(where)
+    .orderBy(order(sortBy), asc(rooms.id))
+    .limit(p.pageSize)
+    .offset(p.page * p.pageSize);
+  return {
+    total: Number(total),
+    page: p.page,
+    pageSize: p.pageSize,
+    items: rows.map((r) => ({
+      id: r.room.id,
+      name: r.room.name,
+      description: r.room.description,
+      access: r.room.ownerId === userId ? 'owner' : (r.shareRole ?? 'viewer'),
+      ownerName: r.ownerName,
+      people: Number(r.people),
+      ties: Number(r.ties),
+      version: r.room.version,
+      updatedAt: iso(r.room.updatedAt),
+    })),
+  };
+}
+
+export async function listPeople(roomId: number, p: ListParams<string> & { group?: string }): Promise<Page<PersonDto>> {
+  const filters: (SQL | undefined)[] = [eq(people.roomId, roomId)];
+  if (p.q) {
+    const pat = contains(p.q);
+    filters.push(or(like(people.name, pat), like(people.personKey, pat), like(people.email, pat), like(people.groupName, pat)));
+  }
+  if (p.group !== undefined) filters.push(p.group === '' ? sql`${people.groupName} IS NULL` : eq(people.groupName, p.group));
+  const where = and(...filters);
+  const order = p.direction === 'desc' ? desc : asc;
+  const sortBy = { order: people.orderIndex, name: people.name, key: people.personKey, group: people.groupName, email: people.email }[
+    p.sort
+  ];
+  const [{ total }] = await db
+    .select({ total: sql<number>`COUNT(*)` })
+    .from(people)
+    .where(where);
+  const items = await db
+    .select(personColumns)
+    .from(people)
+    .where(where)
+    .orderBy(order(sortBy ?? people.orderIndex), asc(people.orderIndex), asc(people.id))
+    .limit(p.pageSize)
+    .offset(p.page * p.pageSize);
+  return { items, total: Number(total), page: p.page, pageSize: p.pageSize };
+}
+
+export async function listTies(roomId: number, p: ListParams<string> & { personId?: number }): Promise<Page<TieListItem>> {
+  const s = alias(people, 's');
+  const t = alias(people, 't');
+  const filters: (SQL | undefined)[] = [eq(ties.roomId, roomId)];
+  if (p.q)
+    filters.push(
+      or(like(s.name, contains(p.q)), like(t.name, contains(p.q)), like(s.personKey, contains(p.q)), like(t.personKey, contains(p.q))),
+    );
+  if (p.personId !== undefined) filters.push(or(eq(ties.sourceId, p.personId), eq(ties.targetId, p.personId)));
+  const where = and(...filters);
+  const order = p.direction === 'desc' ? desc : asc;
+  const sortBy = { source: s.name, target: t.name, strength: ties.strength }[p.sort] ?? s.name;
+  const [{ total }] = await db
+    .select({ total: sql<number>`COUNT(*)` })
+    .from(ties)
+    .innerJoin(s, eq(s.id, ties.sourceId))
+    .innerJoin(t, eq(t.id, ties.targetId))
+    .where(where);
+  const items = await db
+    .select({
+      id: ties.id,
+      sourceId: ties.sourceId,
+      targetId: ties.targetId,
+      strength: ties.strength,
+      sourceName: s.name,
+      targetName: t.name,
+    })
+    .from(ties)
+    .innerJoin(s, eq(s.id, ties.sourceId))
+    .innerJoin(t, eq(t.id, ties.targetId))
+    .where(where)
+    .orderBy(order(sortBy), asc(ties.id))
+    .limit(p.pageSize)
+    .offset(p.page * p.pageSize);
+  return { items, total: Number(total), page: p.page, pageSize: p.pageSize };
+}
+
+// ---- batch edit writes ----
+
+export async function updatePeopleRows(tx: Tx, roomId: number, id: number, set: Partial<typeof people.$inferInsert>): Promise<void> {
+  await tx
+    .update(people)
+    .set(set)
+    .where(and(eq(people.id, id), eq(people.roomId, roomId)));
+}
+
+export async function deletePeopleRows(tx: Tx, roomId: number, ids: number[]): Promise<void> {
+  if (ids.length === 0) return;
+  await tx.delete(ties).where(and(eq(ties.roomId, roomId), or(inArray(ties.sourceId, ids), inArray(ties.targetId, ids))));
+  await tx.delete(people).where(and(eq(people.roomId, roomId), inArray(people.id, ids)));
+}
+
+export async function deleteTieRows(tx: Tx, roomId: number, ids: number[]): Promise<void> {
+  if (ids.length === 0) return;
+  await tx.delete(ties).where(and(eq(ties.roomId, roomId), inArray(ties.id, ids)));
+}
+
+export async function updateTieRow(tx: Tx, roomId: number, id: number, strength: number): Promise<void> {
+  await tx
+    .update(ties)
+    .set({ strength })
+    .where(and(eq(ties.id, id), eq(ties.roomId, roomId)));
+}
+
+export async function insertPeopleRows(tx: Tx, roomId: number, folk: PersonRowInput[], firstOrder: number): Promise<number[]> {
+  return insertContent(tx, roomId, folk, [], firstOrder);
+}
+
+export async function insertTieRows(
+  tx: Tx,
+  roomId: number,
+  links: { sourceId: number; targetId: number; strength: number }[],
+): Promise<number[]> {
+  const ids: number[] = [];
+  for (let at = 0; at < links.length; at += CHUNK) {
+    const got = await tx
+      .insert(ties)
+      .values(links.slice(at, at + CHUNK).map((l) => ({ roomId, ...l })))
+      .$returningId();
+    ids.push(...got.map((g) => g.id));
+  }
+  return ids;
+}
