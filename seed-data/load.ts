@@ -2,11 +2,11 @@
 import { pool } from '../server/db';
 import { config } from '../server/config';
 import { seedAccounts } from './accounts';
+import { seedRooms } from './rooms';
 
 try {
   const accounts = await seedAccounts();
-  const rooms = await import('./rooms').catch(() => undefined);
-  if (rooms) await rooms.seedRooms(accounts.facilitatorId);
+  await seedRooms(accounts.facilitatorId);
   console.log(`Demo data is loaded in ${config.DB_NAME}.`);
 } catch (err) {
   console.error(`Could not load the demo data: ${(err as Error).message}`);
