@@ -33,18 +33,25 @@ export function vertexCover(input: RoomInput, options: CoverOptions = {}): Cover
     for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) {
       const j = csr.col[e];
       if (j === i) forced[i] = 1;
-      else { nbr[i].add(j); nbr[j].add(i); }
+      else {
+        nbr[i].add(j);
+        nbr[j].add(i);
+      }
     }
   }
   // Edges still to cover: those with no forced end.
-  const adj: number[][] = Array.from({ length: n }, (_, i) => (forced[i] ? [] : [...nbr[i]].filter((j) => !forced[j]).sort((a, b) => a - b)));
+  const adj: number[][] = Array.from({ length: n }, (_, i) =>
+    forced[i] ? [] : [...nbr[i]].filter((j) => !forced[j]).sort((a, b) => a - b),
+  );
   const inCover = (order: number[]): Uint8Array => {
     const c = Uint8Array.from(forced);
     for (const v of order) c[v] = 1;
     return c;
   };
   const prune = (c: Uint8Array): Uint8Array => {
-    const order = Array.from({ length: n }, (_, i) => i).filter((i) => c[i] && !forced[i]).sort((a, b) => adj[a].length - adj[b].length || a - b);
+    const order = Array.from({ length: n }, (_, i) => i)
+      .filter((i) => c[i] && !forced[i])
+      .sort((a, b) => adj[a].length - adj[b].length || a - b);
     for (const v of order) if (adj[v].every((u) => c[u])) c[v] = 0;
     return c;
   };
@@ -53,7 +60,12 @@ export function vertexCover(input: RoomInput, options: CoverOptions = {}): Cover
   const used = new Uint8Array(n);
   for (let i = 0; i < n; i++) {
     if (used[i]) continue;
-    for (const j of adj[i]) if (!used[j]) { used[i] = used[j] = 1; matched.push(i, j); break; }
+    for (const j of adj[i])
+      if (!used[j]) {
+        used[i] = used[j] = 1;
+        matched.push(i, j);
+        break;
+      }
   }
   let best = prune(inCover(matched));
   // Max-degree greedy.
@@ -106,12 +118,22 @@ function exactCover(adj: number[][], active: number[], upper: number, nodeLimit:
     }
   };
   const rec = () => {
-    if (++nodes > nodeLimit) { complete = false; return; }
+    if (++nodes > nodeLimit) {
+      complete = false;
+      return;
+    }
     let v = -1;
     let edges = 0;
-    for (const i of active) if (!removed[i] && deg[i] > 0) { edges += deg[i]; if (v < 0 || deg[i] > deg[v]) v = i; }
+    for (const i of active)
+      if (!removed[i] && deg[i] > 0) {
+        edges += deg[i];
+        if (v < 0 || deg[i] > deg[v]) v = i;
+      }
     if (v < 0) {
-      if (cur.length < best) { best = cur.length; bestSet = [...cur]; }
+      if (cur.length < best) {
+        best = cur.length;
+        bestSet = [...cur];
+      }
       return;
     }
     edges /= 2;
@@ -125,7 +147,10 @@ function exactCover(adj: number[][], active: number[], upper: number, nodeLimit:
     if (!complete) return;
     const u2: number[] = [];
     const ns = adj[v].filter((u) => !removed[u]);
-    for (const u of ns) { take(u, u2); cur.push(u); }
+    for (const u of ns) {
+      take(u, u2);
+      cur.push(u);
+    }
     if (cur.length < best) rec();
     for (let q = 0; q < ns.length; q++) cur.pop();
     restore(u2);

@@ -53,7 +53,10 @@ export class AbsorbingState {
   static fromStarters(room: PreparedRoom, starters: readonly number[]): AbsorbingState {
     const n = room.n;
     const s = new AbsorbingState(n, 1 / (1 - room.laziness));
-    for (const a of starters) { s.inT[a] = 0; s.starters.push(a); }
+    for (const a of starters) {
+      s.inT[a] = 0;
+      s.starters.push(a);
+    }
     const idx: number[] = [];
     for (let i = 0; i < n; i++) if (s.inT[i]) idx.push(i);
     const f = idx.length;
@@ -134,7 +137,10 @@ export class AbsorbingState {
     for (let j = 0; j < this.n; j++) {
       if (!this.inT[j] || !allowed[j]) continue;
       const t = this.rawTotal - this.rawGain(j);
-      if (beats(t, j, bestTotal, best)) { best = j; bestTotal = t; }
+      if (beats(t, j, bestTotal, best)) {
+        best = j;
+        bestTotal = t;
+      }
     }
     return best;
   }

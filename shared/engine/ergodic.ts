@@ -131,7 +131,11 @@ export function isReversibleErgodic(room: PreparedRoom, closedClasses: number): 
 export function ergodicData(room: PreparedRoom): ErgodicData {
   const cs = classStructure(room);
   if (cs.closedClasses.length !== 1) {
-    throw new EngineError('NO_FEASIBLE_PLAN', `No single starter can reach everyone: the room has ${cs.closedClasses.length} closed groups, each needs its own starter.`, { closedGroups: cs.closedClasses.length });
+    throw new EngineError(
+      'NO_FEASIBLE_PLAN',
+      `No single starter can reach everyone: the room has ${cs.closedClasses.length} closed groups, each needs its own starter.`,
+      { closedGroups: cs.closedClasses.length },
+    );
   }
   if (isReversibleErgodic(room, 1)) return ergodicSymmetric(room);
   return ergodicFromWalk(denseWalk(room), room.n, 1 / (1 - room.laziness));

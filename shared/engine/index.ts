@@ -35,7 +35,17 @@ export * from './plan';
 export * from './reach-time';
 export { AbsorbingState, beats, TIE_TOLERANCE } from './dense-state';
 export { SparseSystem } from './sparse-system';
-export { luFactor, luSolve, luSolveTransposed, choleskyFactor, choleskySolve, invertInPlace, invertSymmetricInPlace, symmetricFactor, symmetricSolve } from './linalg/dense';
+export {
+  luFactor,
+  luSolve,
+  luSolveTransposed,
+  choleskyFactor,
+  choleskySolve,
+  invertInPlace,
+  invertSymmetricInPlace,
+  symmetricFactor,
+  symmetricSolve,
+} from './linalg/dense';
 export { pcg, bicgstab } from './linalg/iterative';
 export * from './io/index';
 export * from './simulate/index';

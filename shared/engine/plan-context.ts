@@ -46,16 +46,25 @@ export function planContext(input: RoomInput, options: PlanOptions): PlanContext
   const k = options.k;
   if (n < 2) throw new EngineError('INVALID_K', 'A plan needs a room of at least two people.');
   if (!Number.isInteger(k) || k < 1 || k >= n) {
-    throw new EngineError('INVALID_K', `k must be a whole number with 1 <= k <= ${n - 1} (the room has ${n} people); got ${String(k)}.`, { k, n });
+    throw new EngineError('INVALID_K', `k must be a whole number with 1 <= k <= ${n - 1} (the room has ${n} people); got ${String(k)}.`, {
+      k,
+      n,
+    });
   }
   const mustInclude = checkPeople(room, options.mustInclude ?? [], 'People who must be briefed');
   const exclude = checkPeople(room, options.exclude ?? [], 'People who cannot be briefed');
   const both = mustInclude.filter((p) => exclude.includes(p));
   if (both.length > 0) {
-    throw new EngineError('CONFLICTING_CONSTRAINTS', `${both.map((p) => room.ids[p]).join(', ')} cannot be both required and excluded.`, { people: both });
+    throw new EngineError('CONFLICTING_CONSTRAINTS', `${both.map((p) => room.ids[p]).join(', ')} cannot be both required and excluded.`, {
+      people: both,
+    });
   }
   if (mustInclude.length > k) {
-    throw new EngineError('MUST_INCLUDE_TOO_MANY', `${mustInclude.length} people must be briefed but k is ${k}: raise k or shorten the list.`, { k, mustInclude: mustInclude.length });
+    throw new EngineError(
+      'MUST_INCLUDE_TOO_MANY',
+      `${mustInclude.length} people must be briefed but k is ${k}: raise k or shorten the list.`,
+      { k, mustInclude: mustInclude.length },
+    );
   }
   if (n - exclude.length < k) {
     throw new EngineError('NO_FEASIBLE_PLAN', `Only ${n - exclude.length} people may be briefed, fewer than k = ${k}.`);
@@ -69,7 +78,11 @@ export function planContext(input: RoomInput, options: PlanOptions): PlanContext
   for (const cls of classes.closedClasses) {
     if (cls.some((p) => isMust[p])) continue;
     if (!cls.some((p) => allowed[p])) {
-      throw new EngineError('NO_FEASIBLE_PLAN', `The closed group ${describe(room, cls)} can only hear from one of its own members, and all of them are excluded.`, { group: cls });
+      throw new EngineError(
+        'NO_FEASIBLE_PLAN',
+        `The closed group ${describe(room, cls)} can only hear from one of its own members, and all of them are excluded.`,
+        { group: cls },
+      );
     }
     open++;
   }
@@ -87,8 +100,18 @@ export function planContext(input: RoomInput, options: PlanOptions): PlanContext
   let ergCache: ErgodicData | null | undefined;
   let worstCache: number | undefined;
   const ctx: PlanContext = {
-    room, n, k, mustInclude, exclude, allowed, classes, started, options,
-    notes: [], warnings: [], bounds: [],
+    room,
+    n,
+    k,
+    mustInclude,
+    exclude,
+    allowed,
+    classes,
+    started,
+    options,
+    notes: [],
+    warnings: [],
+    bounds: [],
     deadline: started + (options.timeLimitMs ?? 10_000),
     cover: () => (coverCache ??= vertexCover(room)),
     p1: () => (p1Cache ??= denseWalk(room)),
@@ -140,7 +163,10 @@ export function classPick(ctx: PlanContext, cls: number[], allowed: Uint8Array |
   for (let a = 0; a < m; a++) {
     if (allowed && !allowed[cls[a]]) continue;
     const t = worst ? -e.singleTotals[a] : e.singleTotals[a];
-    if (beats(t, cls[a], bestT, best < 0 ? -1 : cls[best])) { best = a; bestT = t; }
+    if (beats(t, cls[a], bestT, best < 0 ? -1 : cls[best])) {
+      best = a;
+      bestT = t;
+    }
   }
   return cls[best];
 }
@@ -154,7 +180,8 @@ export function initialState(ctx: PlanContext): AbsorbingState {
   const e = ctx.ergodic();
   if (ctx.mustInclude.length === 0 && e) {
     let best = -1;
-    for (let j = 0; j < ctx.n; j++) if (ctx.allowed[j] && beats(e.singleTotals[j], j, best < 0 ? Infinity : e.singleTotals[best], best)) best = j;
+    for (let j = 0; j < ctx.n; j++)
+      if (ctx.allowed[j] && beats(e.singleTotals[j], j, best < 0 ? Infinity : e.singleTotals[best], best)) best = j;
     // For k = 1 the best single starter is the optimum (identity 3 scores every candidate).
     if (ctx.k === 1) ctx.bounds.push(e.singleTotals[best]);
     return AbsorbingState.fromErgodic(e, best);

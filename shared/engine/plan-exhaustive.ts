@@ -22,7 +22,6 @@ export function exhaustiveSearch(ctx: PlanContext, incumbent: AbsorbingState): E
   const scale = incumbent.scale;
   let bestRaw = incumbent.rawTotal;
   let bestSet = [...incumbent.starters];
-  const closedOf = ctx.classes.closedOf;
   const isMust = new Uint8Array(n);
   for (const p of ctx.mustInclude) isMust[p] = 1;
   const openClasses = ctx.classes.closedClasses.filter((c) => !c.some((p) => isMust[p]));
@@ -37,7 +36,10 @@ export function exhaustiveSearch(ctx: PlanContext, incumbent: AbsorbingState): E
 
   const dfs = (s: AbsorbingState, from: number, rep: Int32Array, depth: number): void => {
     if (aborted) return;
-    if ((++nodes & 63) === 0 && performance.now() > ctx.deadline) { aborted = true; return; }
+    if ((++nodes & 63) === 0 && performance.now() > ctx.deadline) {
+      aborted = true;
+      return;
+    }
     const r = k - s.starters.length;
     const elig: number[] = [];
     for (let x = from; x < n; x++) {
@@ -55,8 +57,15 @@ export function exhaustiveSearch(ctx: PlanContext, incumbent: AbsorbingState): E
     for (let p = elig.length - 1; p >= 0; p--) {
       suffixTop[p] = heapSum;
       if (r - 1 > 0) {
-        if (heap.length < r - 1) { heap.push(gains[p]); heapSum += gains[p]; heap.sort((a, b) => a - b); }
-        else if (gains[p] > heap[0]) { heapSum += gains[p] - heap[0]; heap[0] = gains[p]; heap.sort((a, b) => a - b); }
+        if (heap.length < r - 1) {
+          heap.push(gains[p]);
+          heapSum += gains[p];
+          heap.sort((a, b) => a - b);
+        } else if (gains[p] > heap[0]) {
+          heapSum += gains[p] - heap[0];
+          heap[0] = gains[p];
+          heap.sort((a, b) => a - b);
+        }
       }
     }
     const floor = coverFloor / scale;
@@ -66,7 +75,10 @@ export function exhaustiveSearch(ctx: PlanContext, incumbent: AbsorbingState): E
       if (pruneAt(lb)) continue;
       if (r === 1) {
         const t = s.rawTotal - gains[p];
-        if (t < bestRaw - 1e-12 * Math.abs(bestRaw)) { bestRaw = t; bestSet = [...s.starters, x]; }
+        if (t < bestRaw - 1e-12 * Math.abs(bestRaw)) {
+          bestRaw = t;
+          bestSet = [...s.starters, x];
+        }
         continue;
       }
       let child = stateAt[depth];
@@ -90,7 +102,10 @@ export function exhaustiveSearch(ctx: PlanContext, incumbent: AbsorbingState): E
       continue;
     }
     if (s.starters.length === k) {
-      if (s.rawTotal < bestRaw - 1e-12 * Math.abs(bestRaw)) { bestRaw = s.rawTotal; bestSet = [...s.starters]; }
+      if (s.rawTotal < bestRaw - 1e-12 * Math.abs(bestRaw)) {
+        bestRaw = s.rawTotal;
+        bestSet = [...s.starters];
+      }
       continue;
     }
     dfs(s, 0, rep, 0);
@@ -114,8 +129,15 @@ function enumerateRoots(ctx: PlanContext, openClasses: number[][]): { set: numbe
   const choices = openClasses.map((c) => c.filter((p) => ctx.allowed[p]));
   const cur: number[] = [];
   const rec = (q: number) => {
-    if (q === choices.length) { out.push({ set: [...ctx.mustInclude, ...cur], reps: [...cur] }); return; }
-    for (const p of choices[q]) { cur.push(p); rec(q + 1); cur.pop(); }
+    if (q === choices.length) {
+      out.push({ set: [...ctx.mustInclude, ...cur], reps: [...cur] });
+      return;
+    }
+    for (const p of choices[q]) {
+      cur.push(p);
+      rec(q + 1);
+      cur.pop();
+    }
   };
   rec(0);
   return out;

@@ -19,7 +19,10 @@ export function classPickSparse(ctx: PlanContext): { set: number[]; evaluated: n
   const evaluated: number[] = [];
   const open = ctx.classes.closedClasses.filter((cls) => !cls.some((p) => isIn[p]));
   if (open.length === 1 && set.length === 0) {
-    const cands = open[0].filter((p) => ctx.allowed[p]).sort((a, b) => inStrength[b] - inStrength[a] || a - b).slice(0, 5);
+    const cands = open[0]
+      .filter((p) => ctx.allowed[p])
+      .sort((a, b) => inStrength[b] - inStrength[a] || a - b)
+      .slice(0, 5);
     // Include the least-connected member too: its total estimates the worst single starter.
     const weakest = open[0].reduce((w, p) => (inStrength[p] < inStrength[w] ? p : w), open[0][0]);
     const ones = new Float64Array(n).fill(1);
@@ -31,7 +34,10 @@ export function classPickSparse(ctx: PlanContext): { set: number[]; evaluated: n
       let t = 0;
       for (let i = 0; i < n; i++) if (sys.active[i]) t += h[i];
       evaluated.push(t);
-      if (cands.includes(p) && (best < 0 || t < bestT - 1e-12 * bestT || (Math.abs(t - bestT) <= 1e-12 * bestT && p < best))) { best = p; bestT = t; }
+      if (cands.includes(p) && (best < 0 || t < bestT - 1e-12 * bestT || (Math.abs(t - bestT) <= 1e-12 * bestT && p < best))) {
+        best = p;
+        bestT = t;
+      }
     }
     set.push(best);
     return { set, evaluated };

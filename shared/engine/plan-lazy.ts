@@ -1,10 +1,14 @@
 /**
- * Lazy greedy for large sparse rooms (after Minoux, "Accelerated greedy algorithms for maximizing
- * submodular set functions", 1978). Gains h_j c_j / N_jj (identity 2) are bounded above by
- * h_j c_j / N^lo_jj, where N^lo_jj <= N_jj counts returns in one or two hops only; because the
- * total is supermodular, stale gains stay upper bounds. The top candidate is checked exactly
- * (one sparse solve for its column of N) until a checked candidate stays on top.
- * Per choice: two solves (h = N 1, c = N^T 1) plus one per check; each solve O(m * iterations).
+ * Lazy greedy for large sparse rooms (after Minoux, "Accelerated greedy algorithms for
+ * maximizing submodular set functions", 1978). Gains h_j c_j / N_jj (identity 2) are estimated
+ * from above by h_j c_j / N^lo_jj, where N^lo_jj <= N_jj counts returns in one or two hops
+ * only; because the total is supermodular, old estimates stay upper bounds. Each round the
+ * `lazyChecks` (default 3) people with the highest estimates are checked exactly (one sparse
+ * solve for their column of N) and the best checked person is chosen; when that exact gain
+ * exceeds every remaining estimate, the choice is provably the greedy one.
+ * Per round: the checks, each O(m * iterations); in undirected rooms h and c are then updated
+ * from the chosen person's column (identity 1, with N = L_T^-1 D giving the row), with fresh
+ * solves every tenth round; directed rooms re-solve h and c (two more solves).
  *
  * What is estimated, and the error: the first starter is the best of the five best-connected
  * people (not the best of all n); a later choice can differ from exact greedy when a person
@@ -37,7 +41,10 @@ export function lazyGreedyPlan(ctx: PlanContext): PlanResult {
   const start = classPickSparse(ctx);
   const starters = [...start.set];
   ctx.worstOverride = Math.max(...start.evaluated.map((t) => t * scale), 0) || undefined;
-  if (start.evaluated.length > 0) ctx.notes.push(`First starter: best of ${start.evaluated.length - 1} well-connected candidates (an estimate of the best single starter).`);
+  if (start.evaluated.length > 0)
+    ctx.notes.push(
+      `First starter: best of ${start.evaluated.length - 1} well-connected candidates (an estimate of the best single starter).`,
+    );
   const ub = new Float64Array(n);
   const freshAt = new Int32Array(n).fill(-1);
   let sys = new SparseSystem(room, starters, tol);
@@ -54,17 +61,27 @@ export function lazyGreedyPlan(ctx: PlanContext): PlanResult {
   const tighten = () => {
     const lo = sys.diagLowerBound();
     for (let j = 0; j < n; j++) {
-      if (!sys.active[j] || !allowed[j]) { ub[j] = -Infinity; continue; }
+      if (!sys.active[j] || !allowed[j]) {
+        ub[j] = -Infinity;
+        continue;
+      }
       const fresh = (h[j] * c[j]) / lo[j];
       if (fresh < ub[j]) ub[j] = fresh;
     }
   };
   const bound = (rawTotal: number) => {
     const r = k - ctx.mustInclude.length;
-    const top = Array.from(ub).filter((g) => g > 0).sort((a, b) => b - a).slice(0, r);
+    const top = Array.from(ub)
+      .filter((g) => g > 0)
+      .sort((a, b) => b - a)
+      .slice(0, r);
     ctx.bounds.push((rawTotal - top.reduce((s, g) => s + g, 0)) * scale);
   };
-  const sumH = () => { let t = 0; for (let i = 0; i < n; i++) if (sys.active[i]) t += h[i]; return t; };
+  const sumH = () => {
+    let t = 0;
+    for (let i = 0; i < n; i++) if (sys.active[i]) t += h[i];
+    return t;
+  };
   let rawTotal = sumH();
   bound(rawTotal);
   const e = new Float64Array(n);
@@ -76,6 +93,7 @@ export function lazyGreedyPlan(ctx: PlanContext): PlanResult {
     // above every other estimate is chosen at once.
     let chosen = -1;
     let chosenGain = -Infinity;
+    const columns = new Map<number, Float64Array>();
     for (let q = 0; q < checksPerPick; q++) {
       let best = -1;
       for (let j = 0; j < n; j++) if (ub[j] > -Infinity && freshAt[j] !== step && (best < 0 || ub[j] > ub[best] * (1 + 1e-12))) best = j;
@@ -84,16 +102,40 @@ export function lazyGreedyPlan(ctx: PlanContext): PlanResult {
       e.fill(0);
       e[best] = 1;
       const col = sys.solve(e);
+      columns.set(best, col);
       checks++;
       ub[best] = (h[best] * c[best]) / col[best];
       freshAt[best] = step;
-      if (ub[best] > chosenGain * (1 + 1e-12) || (ub[best] >= chosenGain * (1 - 1e-12) && best < chosen)) { chosen = best; chosenGain = ub[best]; }
+      if (ub[best] > chosenGain * (1 + 1e-12) || (ub[best] >= chosenGain * (1 - 1e-12) && best < chosen)) {
+        chosen = best;
+        chosenGain = ub[best];
+      }
     }
     if (chosen < 0) throw new EngineError('NO_FEASIBLE_PLAN', 'No allowed person is left to brief.');
     starters.push(chosen);
+    const x = columns.get(chosen)!;
     sys = new SparseSystem(room, starters, tol);
-    h = sys.solve(ones, h);
-    c = sys.solveTransposed(ones, c);
+    if (sys.symmetric && step % 10 !== 0) {
+      // Identity 1 with the column just solved: h' = h - x h_j / x_j; for undirected rooms
+      // N = L_T^-1 D, so row j of N is x_l d_l / d_j and c' needs no further solve.
+      const d = room.csr.outStrength;
+      const hj = h[chosen];
+      const cj = c[chosen];
+      const xj = x[chosen];
+      for (let i = 0; i < n; i++) {
+        if (!sys.active[i]) {
+          h[i] = 0;
+          c[i] = 0;
+          continue;
+        }
+        h[i] -= (x[i] * hj) / xj;
+        c[i] -= (cj * x[i] * d[i]) / (d[chosen] * xj);
+      }
+    } else {
+      // Fresh solves now and then, so rounding from the rank-one updates cannot build up.
+      h = sys.solve(ones, h);
+      c = sys.solveTransposed(ones, c);
+    }
     rawTotal = sumH();
     if (!provenRound(ub, freshAt, step, chosen)) unproven++;
     // Old bounds stay valid (supermodularity); fresh estimates at the new set are valid too,

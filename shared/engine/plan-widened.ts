@@ -34,14 +34,18 @@ export function widenedState(ctx: PlanContext, greedy: AbsorbingState): Absorbin
     const all: Seed[] = [];
     for (let a = 0; a < n; a++) {
       if (!ctx.allowed[a]) continue;
-      for (let b = a + 1; b < n; b++) if (ctx.allowed[b] && Number.isFinite(pairs[a * n + b])) all.push({ set: [a, b], total: pairs[a * n + b] });
+      for (let b = a + 1; b < n; b++)
+        if (ctx.allowed[b] && Number.isFinite(pairs[a * n + b])) all.push({ set: [a, b], total: pairs[a * n + b] });
     }
     all.sort((x, y) => x.total - y.total || x.set[0] - y.set[0] || x.set[1] - y.set[1]);
     seeds = all.filter((s) => rank(s.total, 2) >= nu);
     if (seeds.length === 0) {
       seeds = all.slice(0, maxSeeds);
       ctx.notes.push(`No set of 1 or 2 starters reaches quality rank ${nu}; the ${seeds.length} best pairs were extended.`);
-    } else ctx.notes.push(`${seeds.length} pairs reach quality rank ${nu}${seeds.length > maxSeeds ? `; the best ${maxSeeds} were extended` : ''}.`);
+    } else
+      ctx.notes.push(
+        `${seeds.length} pairs reach quality rank ${nu}${seeds.length > maxSeeds ? `; the best ${maxSeeds} were extended` : ''}.`,
+      );
   } else {
     seeds.sort((x, y) => x.total - y.total || x.set[0] - y.set[0]);
     ctx.notes.push(`${seeds.length} single starters reach quality rank ${nu}.`);

@@ -54,10 +54,14 @@ export function plan(input: RoomInput, options: PlanOptions): PlanResult {
   const limit = options.denseLimit ?? DEFAULT_DENSE_LIMIT;
   const big = ctx.n > limit;
   if (method === 'exhaustive' && big) {
-    throw new EngineError('EXHAUSTIVE_INFEASIBLE', `Exhaustive search is limited to rooms of at most ${limit} people (this room has ${ctx.n}); use greedy, auto or lazy-greedy.`);
+    throw new EngineError(
+      'EXHAUSTIVE_INFEASIBLE',
+      `Exhaustive search is limited to rooms of at most ${limit} people (this room has ${ctx.n}); use greedy, auto or lazy-greedy.`,
+    );
   }
   if (big || method === 'lazy-greedy') {
-    if (big && method !== 'auto' && method !== 'lazy-greedy') ctx.warnings.push(`The room has ${ctx.n} people, above the dense limit of ${limit}: lazy greedy was used instead of ${method}.`);
+    if (big && method !== 'auto' && method !== 'lazy-greedy')
+      ctx.warnings.push(`The room has ${ctx.n} people, above the dense limit of ${limit}: lazy greedy was used instead of ${method}.`);
     return lazyGreedyPlan(ctx);
   }
   switch (method) {
@@ -77,7 +81,8 @@ export function plan(input: RoomInput, options: PlanOptions): PlanResult {
 function runExhaustive(ctx: PlanContext): PlanResult {
   const start = swapPolish(ctx, greedyState(ctx));
   const out = exhaustiveSearch(ctx, start);
-  if (!out.complete) ctx.warnings.push(`Time limit reached after ${out.nodes} search nodes: the best plan found is returned with a proven gap.`);
+  if (!out.complete)
+    ctx.warnings.push(`Time limit reached after ${out.nodes} search nodes: the best plan found is returned with a proven gap.`);
   else ctx.notes.push(`Branch and bound visited ${out.nodes} nodes.`);
   const total = finalTotal(ctx, out.state.starters, out.state.total);
   return finishPlan(ctx, 'exhaustive', out.state.starters, total, { certified: out.complete });
@@ -107,4 +112,3 @@ function auto(ctx: PlanContext): PlanResult {
   ctx.notes.push('Greedy, then swap polish.');
   return finishState(ctx, 'swap', swapPolish(ctx, g));
 }
-

@@ -53,7 +53,8 @@ export function reachCurve(input: RoomInput, starterList: readonly number[], opt
   if (starters.length === 0) throw new EngineError('INVALID_STARTERS', 'Choose at least one starter.');
   const people = checkPeople(room, options.people ?? [], 'People');
   const mph = options.minutesPerHop;
-  if (mph !== undefined && !(mph > 0 && Number.isFinite(mph))) throw new EngineError('INVALID_OPTION', 'Minutes per hop must be a positive number.');
+  if (mph !== undefined && !(mph > 0 && Number.isFinite(mph)))
+    throw new EngineError('INVALID_OPTION', 'Minutes per hop must be a positive number.');
   const { n } = room;
   const m = room.csr.col.length;
   const cap = options.maxHops ?? Math.min(20_000, Math.max(200, Math.floor(4e8 / (m + n))));
@@ -73,7 +74,11 @@ export function reachCurve(input: RoomInput, starterList: readonly number[], opt
   while (remaining > tol && hops < cap) {
     walk.mulQ(s, t2);
     let sum = 0;
-    if (a > 0) for (let i = 0; i < n; i++) { t2[i] = (1 - a) * t2[i] + a * s[i]; sum += t2[i]; }
+    if (a > 0)
+      for (let i = 0; i < n; i++) {
+        t2[i] = (1 - a) * t2[i] + a * s[i];
+        sum += t2[i];
+      }
     else for (let i = 0; i < n; i++) sum += t2[i];
     [s, t2] = [t2, s];
     hops++;
@@ -86,7 +91,11 @@ export function reachCurve(input: RoomInput, starterList: readonly number[], opt
   const quantiles = (options.quantiles ?? [0.5, 0.9, 0.99]).map((q) => {
     if (!(q > 0 && q <= 1)) throw new EngineError('INVALID_OPTION', `Quantile shares must be in (0, 1] (got ${q}).`);
     let hop: number | null = null;
-    for (let t = 0; t < shareReached.length; t++) if (shareReached[t] >= q - 1e-12) { hop = t; break; }
+    for (let t = 0; t < shareReached.length; t++)
+      if (shareReached[t] >= q - 1e-12) {
+        hop = t;
+        break;
+      }
     return { share: q, hop, minutes: hop !== null && mph !== undefined ? hop * mph : null };
   });
   return {

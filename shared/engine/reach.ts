@@ -9,11 +9,10 @@
  */
 import { EngineError } from './errors';
 import type { WalkOptions } from './graph';
-import { bicgstab, pcg } from './linalg/iterative';
 import { luFactor, luSolve, symmetricFactor, symmetricSolve } from './linalg/dense';
 import { unreachablePeople, type UnreachablePerson } from './reachability';
 import { checkPeople, prepareRoom, type PreparedRoom, type RoomInput } from './room';
-import { sparseWalk } from './walk';
+import { SparseSystem } from './sparse-system';
 
 export type ReachSolver = 'auto' | 'dense' | 'sparse';
 
@@ -63,13 +62,19 @@ export function denseSystem(room: PreparedRoom, idx: Int32Array, symmetric: bool
     const row = r * f;
     if (symmetric) {
       m[row + r] += s;
-      for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) { const c = pos[csr.col[e]]; if (c >= 0) m[row + c] -= csr.weight[e]; }
+      for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) {
+        const c = pos[csr.col[e]];
+        if (c >= 0) m[row + c] -= csr.weight[e];
+      }
       continue;
     }
     m[row + r] += 1;
     if (s > 0) {
       const g = (1 - b) / s;
-      for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) { const c = pos[csr.col[e]]; if (c >= 0) m[row + c] -= g * csr.weight[e]; }
+      for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) {
+        const c = pos[csr.col[e]];
+        if (c >= 0) m[row + c] -= g * csr.weight[e];
+      }
     } else m[row + r] -= 1 - b;
   }
   return m;
@@ -84,7 +89,10 @@ export function exactReach(input: RoomInput, starterList: readonly number[], opt
   const h = new Float64Array(n);
   const active = new Uint8Array(n).fill(1);
   for (const s of starters) active[s] = 0;
-  for (const u of unreachable) { active[u.index] = 0; h[u.index] = Infinity; }
+  for (const u of unreachable) {
+    active[u.index] = 0;
+    h[u.index] = Infinity;
+  }
   const idxList: number[] = [];
   for (let i = 0; i < n; i++) if (active[i]) idxList.push(i);
   const idx = Int32Array.from(idxList);
@@ -110,11 +118,12 @@ export function exactReach(input: RoomInput, starterList: readonly number[], opt
     }
     for (let k = 0; k < f; k++) h[idx[k]] = rhs[k] * scale;
   } else if (f > 0) {
-    const res = sparseSolve(room, starters, unreachable, active, options.tolerance ?? 1e-12);
-    solver = res.solver;
-    iterations = res.iterations;
-    relativeResidual = res.relativeResidual;
-    for (let k = 0; k < f; k++) h[idx[k]] = res.x[idx[k]] * scale;
+    const sys = new SparseSystem(room, [...starters, ...unreachable.map((u) => u.index)], options.tolerance ?? 1e-12);
+    const x = sys.solve(new Float64Array(n).fill(1));
+    solver = sys.symmetric ? 'cg' : 'bicgstab';
+    iterations = sys.iterations;
+    relativeResidual = sys.lastResidual;
+    for (let k = 0; k < f; k++) h[idx[k]] = x[idx[k]] * scale;
   }
   let reachableTotal = 0;
   for (let k = 0; k < f; k++) reachableTotal += h[idx[k]];
@@ -133,63 +142,4 @@ export function exactReach(input: RoomInput, starterList: readonly number[], opt
     iterations,
     relativeResidual,
   };
-}
-
-interface SparseSolveResult {
-  x: Float64Array;
-  solver: 'cg' | 'bicgstab';
-  iterations: number;
-  relativeResidual: number;
-}
-
-/** Iterative solve of (I - Q) x = 1 over the active people (laziness not applied). */
-export function sparseSolve(
-  room: PreparedRoom,
-  starters: readonly number[],
-  unreachable: readonly UnreachablePerson[],
-  active: Uint8Array,
-  tol: number,
-  rhsOverride?: Float64Array,
-): SparseSolveResult {
-  const n = room.n;
-  const { csr } = room;
-  if (isSymmetricForm(room)) {
-    const { rowStart, col, weight, outStrength } = csr;
-    const mul = (x: Float64Array, y: Float64Array) => {
-      for (let i = 0; i < n; i++) {
-        if (!active[i]) { y[i] = 0; continue; }
-        let acc = outStrength[i] * x[i];
-        for (let e = rowStart[i]; e < rowStart[i + 1]; e++) { const j = col[e]; if (active[j]) acc -= weight[e] * x[j]; }
-        y[i] = acc;
-      }
-    };
-    const b = new Float64Array(n);
-    const diag = new Float64Array(n);
-    for (let i = 0; i < n; i++) if (active[i]) { b[i] = rhsOverride ? rhsOverride[i] * outStrength[i] : outStrength[i]; diag[i] = outStrength[i]; }
-    for (let i = 0; i < n; i++) for (let e = rowStart[i]; e < rowStart[i + 1]; e++) if (col[e] === i) diag[i] -= weight[e];
-    const r = pcg(mul, b, diag, { tol });
-    if (!r.converged) throw new EngineError('SOLVER_FAILED', `Conjugate gradient did not converge (relative residual ${r.relativeResidual.toExponential(2)} after ${r.iterations} iterations).`);
-    return { x: r.x, solver: 'cg', iterations: r.iterations, relativeResidual: r.relativeResidual };
-  }
-  const excluded = [...starters, ...unreachable.map((u) => u.index)];
-  const walk = sparseWalk(room, excluded);
-  const t = new Float64Array(n);
-  const mul = (x: Float64Array, y: Float64Array) => {
-    walk.mulQ(x, t);
-    for (let i = 0; i < n; i++) y[i] = active[i] ? x[i] - t[i] : 0;
-  };
-  const b = new Float64Array(n);
-  const diag = new Float64Array(n);
-  const bm = room.mixing;
-  for (let i = 0; i < n; i++) {
-    if (!active[i]) continue;
-    b[i] = rhsOverride ? rhsOverride[i] : 1;
-    let self = bm / n;
-    if (walk.stay[i]) self += 1 - bm;
-    else for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) if (csr.col[e] === i) self += (1 - bm) * walk.prob[e];
-    diag[i] = 1 - self;
-  }
-  const r = bicgstab(mul, b, diag, { tol });
-  if (!r.converged) throw new EngineError('SOLVER_FAILED', `The iterative solver did not converge (relative residual ${r.relativeResidual.toExponential(2)} after ${r.iterations} iterations).`);
-  return { x: r.x, solver: 'bicgstab', iterations: r.iterations, relativeResidual: r.relativeResidual };
 }

@@ -88,7 +88,8 @@ export function classStructure(room: PreparedRoom): ClassStructure {
     }
   }
   const leaves = new Uint8Array(count);
-  for (let i = 0; i < n; i++) for (let e = start[i]; e < start[i + 1]; e++) if (component[adj[e]] !== component[i]) leaves[component[i]] = 1;
+  for (let i = 0; i < n; i++)
+    for (let e = start[i]; e < start[i + 1]; e++) if (component[adj[e]] !== component[i]) leaves[component[i]] = 1;
   const classOfComp = new Int32Array(count).fill(-1);
   const closedClasses: number[][] = [];
   const closedOf = new Int32Array(n).fill(-1);
@@ -127,23 +128,37 @@ export function unreachablePeople(room: PreparedRoom, starters: readonly number[
   const queue = new Int32Array(n);
   let qh = 0;
   let qt = 0;
-  for (const s of starters) if (!reaches[s]) { reaches[s] = 1; queue[qt++] = s; }
+  for (const s of starters)
+    if (!reaches[s]) {
+      reaches[s] = 1;
+      queue[qt++] = s;
+    }
   while (qh < qt) {
     const v = queue[qh++];
     for (let e = pred.start[v]; e < pred.start[v + 1]; e++) {
       const u = pred.adj[e];
-      if (!reaches[u]) { reaches[u] = 1; queue[qt++] = u; }
+      if (!reaches[u]) {
+        reaches[u] = 1;
+        queue[qt++] = u;
+      }
     }
   }
   // People who can get to a dead end (a person with no way to a starter) without passing a starter.
   const stuck = new Uint8Array(n);
   qh = qt = 0;
-  for (let i = 0; i < n; i++) if (!reaches[i]) { stuck[i] = 1; queue[qt++] = i; }
+  for (let i = 0; i < n; i++)
+    if (!reaches[i]) {
+      stuck[i] = 1;
+      queue[qt++] = i;
+    }
   while (qh < qt) {
     const v = queue[qh++];
     for (let e = pred.start[v]; e < pred.start[v + 1]; e++) {
       const u = pred.adj[e];
-      if (!stuck[u] && !isStarter[u]) { stuck[u] = 1; queue[qt++] = u; }
+      if (!stuck[u] && !isStarter[u]) {
+        stuck[u] = 1;
+        queue[qt++] = u;
+      }
     }
   }
   const out: UnreachablePerson[] = [];
@@ -152,14 +167,20 @@ export function unreachablePeople(room: PreparedRoom, starters: readonly number[
     if (!stuck[i]) continue;
     const id = room.ids[i];
     if (!reaches[i]) {
-      const message = starters.length === 0
-        ? `${id} cannot be reached: no starter is chosen.`
-        : undirected
-          ? `${id} is in a part of the room with no tie to any starter (the room is disconnected): add a starter there or connect it.`
-          : `${id} has no chain of ties leading to any starter: add a starter in the group they ask, or add a tie.`;
+      const message =
+        starters.length === 0
+          ? `${id} cannot be reached: no starter is chosen.`
+          : undirected
+            ? `${id} is in a part of the room with no tie to any starter (the room is disconnected): add a starter there or connect it.`
+            : `${id} has no chain of ties leading to any starter: add a starter in the group they ask, or add a tie.`;
       out.push({ index: i, id, reason: 'no-path', message });
     } else {
-      out.push({ index: i, id, reason: 'may-get-stuck', message: `${id} can reach a starter, but the question may drift into a group of people with no way to any starter: add a starter in that group.` });
+      out.push({
+        index: i,
+        id,
+        reason: 'may-get-stuck',
+        message: `${id} can reach a starter, but the question may drift into a group of people with no way to any starter: add a starter in that group.`,
+      });
     }
   }
   return out;

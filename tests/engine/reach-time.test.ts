@@ -42,7 +42,10 @@ describe('reach-time distribution', () => {
   it('star: every leaf hears at hop 1 when the centre is briefed', () => {
     const r = reachCurve(star(6), [0]);
     assert.equal(r.shareReached[1], 1);
-    assert.deepEqual(r.quantiles.map((q) => q.hop), [1, 1, 1]);
+    assert.deepEqual(
+      r.quantiles.map((q) => q.hop),
+      [1, 1, 1],
+    );
   });
 
   it('unreachable people keep the curve below 1 and are listed; bad options throw', () => {
@@ -51,7 +54,10 @@ describe('reach-time distribution', () => {
     assert.equal(r.complete, false);
     assert.ok(relClose(r.shareReached[50], 0.5, 1e-12));
     assert.equal(r.quantiles[1].hop, null);
-    assert.deepEqual(r.unreachable.map((u) => u.id), ['c']);
+    assert.deepEqual(
+      r.unreachable.map((u) => u.id),
+      ['c'],
+    );
     assert.throws(() => reachCurve(g, [0], { minutesPerHop: -1 }), EngineError);
     assert.throws(() => reachCurve(g, [0], { quantiles: [2] }), EngineError);
   });

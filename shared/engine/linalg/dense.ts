@@ -33,14 +33,21 @@ export function luFactor(a: Float64Array, n: number): LuFactors {
     let best = Math.abs(a[k * n + k]);
     for (let i = k + 1; i < n; i++) {
       const v = Math.abs(a[i * n + k]);
-      if (v > best) { best = v; p = i; }
+      if (v > best) {
+        best = v;
+        p = i;
+      }
     }
     if (!(best > 0)) throw new EngineError('SOLVER_FAILED', 'The system is singular: some people cannot reach any starter.');
     piv[k] = p;
     if (p !== k) {
       const rk = k * n;
       const rp = p * n;
-      for (let j = 0; j < n; j++) { const t = a[rk + j]; a[rk + j] = a[rp + j]; a[rp + j] = t; }
+      for (let j = 0; j < n; j++) {
+        const t = a[rk + j];
+        a[rk + j] = a[rp + j];
+        a[rp + j] = t;
+      }
     }
     const rk = k * n;
     const inv = 1 / a[rk + k];
@@ -60,7 +67,11 @@ export function luSolve(f: LuFactors, b: Float64Array): Float64Array {
   const { n, lu, piv } = f;
   for (let k = 0; k < n; k++) {
     const p = piv[k];
-    if (p !== k) { const t = b[k]; b[k] = b[p]; b[p] = t; }
+    if (p !== k) {
+      const t = b[k];
+      b[k] = b[p];
+      b[p] = t;
+    }
   }
   for (let i = 0; i < n; i++) {
     let s = b[i];
@@ -81,11 +92,18 @@ export function luSolve(f: LuFactors, b: Float64Array): Float64Array {
 export function luSolveTransposed(f: LuFactors, b: Float64Array): Float64Array {
   const { n, lu, piv } = f;
   // A^T = U^T L^T P, so solve U^T z = b, L^T y = z, x = P^T y.
-  for (let i = 0; i < n; i++) b[i] /= lu[i * n + i], subtractRow(lu, n, i, b, i + 1, n);
+  for (let i = 0; i < n; i++) {
+    b[i] /= lu[i * n + i];
+    subtractRow(lu, n, i, b, i + 1, n);
+  }
   for (let i = n - 1; i >= 0; i--) subtractRowLower(lu, n, i, b);
   for (let k = n - 1; k >= 0; k--) {
     const p = piv[k];
-    if (p !== k) { const t = b[k]; b[k] = b[p]; b[p] = t; }
+    if (p !== k) {
+      const t = b[k];
+      b[k] = b[p];
+      b[p] = t;
+    }
   }
   return b;
 }
@@ -227,14 +245,23 @@ export function invertInPlace(a: Float64Array, n: number): Float64Array {
     let best = Math.abs(a[k * n + k]);
     for (let i = k + 1; i < n; i++) {
       const v = Math.abs(a[i * n + k]);
-      if (v > best) { best = v; p = i; }
+      if (v > best) {
+        best = v;
+        p = i;
+      }
     }
     if (!(best > 0)) throw new EngineError('SOLVER_FAILED', 'The matrix is singular: some people cannot reach any starter.');
     const rk = k * n;
     if (p !== k) {
       const rp = p * n;
-      for (let j = 0; j < n; j++) { const t = a[rk + j]; a[rk + j] = a[rp + j]; a[rp + j] = t; }
-      const t = perm[k]; perm[k] = perm[p]; perm[p] = t;
+      for (let j = 0; j < n; j++) {
+        const t = a[rk + j];
+        a[rk + j] = a[rp + j];
+        a[rp + j] = t;
+      }
+      const t = perm[k];
+      perm[k] = perm[p];
+      perm[p] = t;
     }
     const inv = 1 / a[rk + k];
     a[rk + k] = 1;

@@ -113,7 +113,10 @@ export function bicgstab(mul: MatVec, b: Float64Array, diag: Float64Array, opts:
     for (let i = 0; i < n; i++) y[i] = minv[i] * p[i];
     mul(y, v);
     const rv = dot(rhat, v);
-    if (rv === 0) { rho = 0; continue; }
+    if (rv === 0) {
+      rho = 0;
+      continue;
+    }
     alpha = rho / rv;
     for (let i = 0; i < n; i++) s[i] = r[i] - alpha * v[i];
     const snorm = Math.sqrt(dot(s, s)) / bnorm;
@@ -139,7 +142,10 @@ export function bicgstab(mul: MatVec, b: Float64Array, diag: Float64Array, opts:
   // Report the true residual, not the recursively updated one.
   mul(x, t);
   let rr = 0;
-  for (let i = 0; i < n; i++) { const d = b[i] - t[i]; rr += d * d; }
+  for (let i = 0; i < n; i++) {
+    const d = b[i] - t[i];
+    rr += d * d;
+  }
   res = Math.sqrt(rr) / bnorm;
   return { x, iterations: it, relativeResidual: res, converged: res <= Math.max(tol * 10, 1e-10) };
 }

@@ -2,7 +2,15 @@
  * Node-only entry (worker threads): the ergodic fundamental matrix computed on several cores,
  * and plans that use it. Import from 'shared/engine/parallel/index', never from browser code.
  */
-import { ergodicFromWalk, generalErgodicFinish, generalErgodicMatrix, isReversibleErgodic, symmetricErgodicFinish, symmetricErgodicMatrix, type ErgodicData } from '../ergodic';
+import {
+  ergodicFromWalk,
+  generalErgodicFinish,
+  generalErgodicMatrix,
+  isReversibleErgodic,
+  symmetricErgodicFinish,
+  symmetricErgodicMatrix,
+  type ErgodicData,
+} from '../ergodic';
 import { plan } from '../plan';
 import type { PlanOptions, PlanResult } from '../plan-types';
 import { classStructure } from '../reachability';
@@ -14,11 +22,16 @@ import { invertParallel } from './parallel-inverse';
 export { invertParallel };
 
 /** Ergodic data on `threads` threads; null when the room has several closed classes. */
-export async function ergodicDataParallel(input: RoomInput, options: PlanOptions | Record<string, never> = {}, threads = 2): Promise<ErgodicData | null> {
+export async function ergodicDataParallel(
+  input: RoomInput,
+  options: PlanOptions | Record<string, never> = {},
+  threads = 2,
+): Promise<ErgodicData | null> {
   const room = prepareRoom(input, options);
   if (classStructure(room).closedClasses.length !== 1) return null;
   if (threads <= 1) return ergodicFromWalk(denseWalk(room), room.n, 1 / (1 - room.laziness));
-  if (isReversibleErgodic(room, 1)) return symmetricErgodicFinish(room, await invertParallel(symmetricErgodicMatrix(room), room.n, true, threads));
+  if (isReversibleErgodic(room, 1))
+    return symmetricErgodicFinish(room, await invertParallel(symmetricErgodicMatrix(room), room.n, true, threads));
   const g = await invertParallel(generalErgodicMatrix(denseWalk(room), room.n), room.n, false, threads);
   return generalErgodicFinish(g, room.n, 1 / (1 - room.laziness));
 }

@@ -58,18 +58,29 @@ export async function invertParallel(src: Float64Array, n: number, symmetric: bo
   const helpers = Math.max(0, Math.min(threads, 8) - 1);
   // Row ranges of roughly equal work: symmetric rows shrink with i (upper triangle only).
   const cuts = [0];
-  for (let t = 1; t <= helpers; t++) cuts.push(symmetric ? Math.round(n * (1 - Math.sqrt(1 - t / (helpers + 1)))) : Math.round((n * t) / (helpers + 1)));
+  for (let t = 1; t <= helpers; t++)
+    cuts.push(symmetric ? Math.round(n * (1 - Math.sqrt(1 - t / (helpers + 1)))) : Math.round((n * t) / (helpers + 1)));
   cuts.push(n);
   const workers: Worker[] = [];
   for (let t = 0; t < helpers; t++) {
-    workers.push(new Worker(WORKER_SOURCE, { eval: true, workerData: { sab, colSab, ctrlSab: ctrl.buffer, n, from: cuts[t + 1], to: cuts[t + 2] } }));
+    workers.push(
+      new Worker(WORKER_SOURCE, { eval: true, workerData: { sab, colSab, ctrlSab: ctrl.buffer, n, from: cuts[t + 1], to: cuts[t + 2] } }),
+    );
   }
   const ownFrom = 0;
   const ownTo = cuts[1];
   const perm = new Int32Array(n);
   for (let i = 0; i < n; i++) perm[i] = i;
   try {
-    await Promise.all(workers.map((w) => new Promise<void>((res, rej) => { w.once('online', () => res()); w.once('error', rej); })));
+    await Promise.all(
+      workers.map(
+        (w) =>
+          new Promise<void>((res, rej) => {
+            w.once('online', () => res());
+            w.once('error', rej);
+          }),
+      ),
+    );
     for (let k = 0; k < n; k++) {
       const rk = k * n;
       let inv: number;
@@ -82,12 +93,24 @@ export async function invertParallel(src: Float64Array, n: number, symmetric: bo
       } else {
         let p = k;
         let best = Math.abs(a[rk + k]);
-        for (let i = k + 1; i < n; i++) { const v = Math.abs(a[i * n + k]); if (v > best) { best = v; p = i; } }
+        for (let i = k + 1; i < n; i++) {
+          const v = Math.abs(a[i * n + k]);
+          if (v > best) {
+            best = v;
+            p = i;
+          }
+        }
         if (!(best > 0)) throw new EngineError('SOLVER_FAILED', 'The matrix is singular: some people cannot reach any starter.');
         if (p !== k) {
           const rp = p * n;
-          for (let j = 0; j < n; j++) { const t = a[rk + j]; a[rk + j] = a[rp + j]; a[rp + j] = t; }
-          const t = perm[k]; perm[k] = perm[p]; perm[p] = t;
+          for (let j = 0; j < n; j++) {
+            const t = a[rk + j];
+            a[rk + j] = a[rp + j];
+            a[rp + j] = t;
+          }
+          const t = perm[k];
+          perm[k] = perm[p];
+          perm[p] = t;
         }
         inv = 1 / a[rk + k];
         a[rk + k] = 1;
@@ -111,11 +134,23 @@ export async function invertParallel(src: Float64Array, n: number, symmetric: bo
     ctrl[0] = -1;
     Atomics.add(ctrl, 1, 1);
     Atomics.notify(ctrl, 1);
-    await Promise.all(workers.map((w) => new Promise((res) => { w.once('exit', res); })));
+    await Promise.all(
+      workers.map(
+        (w) =>
+          new Promise((res) => {
+            w.once('exit', res);
+          }),
+      ),
+    );
   }
   const out = new Float64Array(n * n);
   if (symmetric) {
-    for (let i = 0; i < n; i++) for (let j = i; j < n; j++) { const v = -a[i * n + j]; out[i * n + j] = v; out[j * n + i] = v; }
+    for (let i = 0; i < n; i++)
+      for (let j = i; j < n; j++) {
+        const v = -a[i * n + j];
+        out[i * n + j] = v;
+        out[j * n + i] = v;
+      }
   } else {
     for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) out[i * n + perm[j]] = a[i * n + j];
   }
@@ -131,7 +166,12 @@ function updateRows(a: Float64Array, col: Float64Array, n: number, k: number, fr
       if (f === 0) continue;
       let j = i;
       const end = n - 3;
-      for (; j < end; j += 4) { a[ri + j] -= f * col[j]; a[ri + j + 1] -= f * col[j + 1]; a[ri + j + 2] -= f * col[j + 2]; a[ri + j + 3] -= f * col[j + 3]; }
+      for (; j < end; j += 4) {
+        a[ri + j] -= f * col[j];
+        a[ri + j + 1] -= f * col[j + 1];
+        a[ri + j + 2] -= f * col[j + 2];
+        a[ri + j + 3] -= f * col[j + 3];
+      }
       for (; j < n; j++) a[ri + j] -= f * col[j];
     } else {
       const f = a[ri + k];
@@ -139,7 +179,12 @@ function updateRows(a: Float64Array, col: Float64Array, n: number, k: number, fr
       a[ri + k] = 0;
       let j = 0;
       const end = n - 3;
-      for (; j < end; j += 4) { a[ri + j] -= f * col[j]; a[ri + j + 1] -= f * col[j + 1]; a[ri + j + 2] -= f * col[j + 2]; a[ri + j + 3] -= f * col[j + 3]; }
+      for (; j < end; j += 4) {
+        a[ri + j] -= f * col[j];
+        a[ri + j + 1] -= f * col[j + 1];
+        a[ri + j + 2] -= f * col[j + 2];
+        a[ri + j + 3] -= f * col[j + 3];
+      }
       for (; j < n; j++) a[ri + j] -= f * col[j];
     }
   }
