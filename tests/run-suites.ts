@@ -24,12 +24,12 @@ const suites: Suite[] = [
   },
   {
     name: 'engine',
-    command: 'node --import tsx --test --test-reporter=tap "tests/engine/**/*.test.ts"',
+    command: "node --import tsx --test --test-reporter=tap $(find tests/engine -name '*.test.ts' | sort)",
     count: nodeTap,
   },
   {
     name: 'server',
-    command: `DB_NAME=${dbName} bash scripts/test-db.sh && node --import tsx --test --test-concurrency=1 --test-reporter=tap "tests/server/**/*.test.ts"`,
+    command: `DB_NAME=${dbName} bash scripts/test-db.sh && node --import tsx --test --test-concurrency=1 --test-reporter=tap $(find tests/server -name '*.test.ts' | sort)`,
     count: nodeTap,
   },
   {
