@@ -1,0 +1,46 @@
+import type { JoinState } from '../../shared/api/workshops';
+import { db } from '../db';
+import { HttpError } from '../core/http-error';
+import { issueLink } from './links';
+import { claimName, namesOf, workshopById } from './store';
+
+/**
+ * The join page behind the projector QR code: a participant picks their own name once and
+ * gets a personal link. A taken name stays taken until the facilitator resets it.
+ */
+const JOINABLE = new Set(['collecting', 'running', 'debrief']);
+
+export async function joinState(workshopId: number): Promise<JoinState> {
+  const w = await workshopById(workshopId);
+  if (!w) throw new HttpError(404, 'link_invalid', 'This workshop no longer exists.');
+  const names = await namesOf(workshopId);
+  return {
+    workshopTitle: w.title,
+    open: JOINABLE.has(w.status),
+    names: names.map((n) => ({ id: n.id, name: n.name, taken: n.claimedAt !== null })),
+  };
+}
+
+export async function claimJoinName(workshopId: number, participantId: number): Promise<{ path: string; name: string }> {
+  const w = await workshopById(workshopId);
+  if (!w || !JOINABLE.has(w.status)) {
+    throw new HttpError(409, 'join_closed', 'This workshop is not taking new participants right now. Ask your facilitator.');
+  }
+  return db.transaction(async (tx) => {
+    const names = await namesOf(workshopId, tx);
+    const mine = names.find((n) => n.id === participantId);
+    if (!mine) throw new HttpError(400, 'unknown_name', 'That name is not on this workshop\'s list. Reload the page to see the current names.');
+    if (!(await claimName(tx, workshopId, participantId))) {
+      const allTaken = names.every((n) => n.claimedAt !== null || n.id === participantId);
+      throw new HttpError(
+        409,
+        allTaken ? 'all_names_taken' : 'name_taken',
+        allTaken
+          ? 'Every name on the list has been picked. If one of them is yours, ask your facilitator to reset it; if yours is missing, ask them to add you.'
+          : `Someone already picked “${mine.name}”. If that is you, ask your facilitator to reset it; otherwise pick your own name.`,
+      );
+    }
+    const { token } = await issueLink(tx, participantId, 'join', w.linkDays, false);
+    return { path: `/p/${token}`, name: mine.name };
+  });
+}

@@ -1,0 +1,101 @@
+import { and, eq, inArray } from 'drizzle-orm';
+import { ties } from '../../db/schema/rooms';
+import { workshopParticipants, workshops } from '../../db/schema/workshops';
+import { DEFAULT_ROOM_SETTINGS } from '../../shared/api/rooms';
+import type { BuildMode, BuildResult, MissingAnswer, SurveyLevel } from '../../shared/api/workshops';
+import { db, type Tx } from '../db';
+import { HttpError } from '../core/http-error';
+import { keyMaker } from '../rooms/content';
+import * as roomStore from '../rooms/store';
+import type { SignedInUser } from '../types';
+import { loadRoomFor } from '../rooms/access';
+import { answeredIds, nominationsOf, participantsById, type WorkshopRow } from './store';
+import { missingMeaning, tiesFromAnswers } from './ties-from-answers';
+
+/**
+ * Builds or updates the workshop's room from the survey answers, in one transaction:
+ * a new room when the workshop has none; a person for every participant not yet in it; the
+ * ties among the survey's people replaced by those the answers give (ties touching anyone
+ * else in the room are kept). Uses the rooms store, so versions and order stay consistent.
+ */
+export async function missingAnswers(workshopId: number, mode: BuildMode, tx: Tx | typeof db = db): Promise<MissingAnswer[]> {
+  const [all, answered, edges] = await Promise.all([participantsById(workshopId, undefined, tx), answeredIds(workshopId, tx), nominationsOf(workshopId, tx)]);
+  return all
+    .filter((p) => !answered.has(p.id))
+    .map((p) => {
+      const nominatedBy = edges.filter((e) => e.to === p.id).length;
+      return { participantId: p.id, name: p.name, nominatedBy, meaning: missingMeaning(nominatedBy, mode) };
+    });
+}
+
+export async function buildRoom(w: WorkshopRow, owner: SignedInUser, mode: BuildMode): Promise<BuildResult> {
+  if (w.roomId !== null) {
+    // The owner's rights on the room apply: they linked it to this workshop.
+    await loadRoomFor(owner, w.roomId, 'edit').catch((err: unknown) => {
+      if (err instanceof HttpError && err.status === 404) {
+        throw new HttpError(409, 'room_gone', 'The room of this workshop was deleted. Unlink it in the workshop settings and build a new one.');
+      }
+      throw err;
+    });
+  }
+  const directed = mode === 'directed';
+  return db.transaction(async (tx) => {
+    let roomId = w.roomId;
+    if (roomId === null) {
+      roomId = await roomStore.insertRoom(tx, {
+        ownerId: w.ownerId,
+        name: `${w.title} (from the survey)`.slice(0, 120),
+        description: `Built from the survey answers of the workshop “${w.title}” on ${w.sessionDate}.`,
+        settings: { ...DEFAULT_ROOM_SETTINGS, directed },
+      });
+      await tx.update(workshops).set({ roomId }).where(eq(workshops.id, w.id));
+    }
+    const room = await roomStore.lockRoom(tx, roomId);
+    if (!room) throw new HttpError(409, 'room_gone', 'The room of this workshop was deleted.');
+    const participants = await participantsById(w.id, undefined, tx);
+    if (participants.length < 2) throw new HttpError(409, 'too_few', 'Add at least two participants before building the room.');
+    const existing = await roomStore.roomPeople(tx, roomId);
+    const existingIds = new Set(existing.map((p) => p.id));
+    const personOf = new Map<number, number>();
+    const toAdd = participants.filter((p) => {
+      const id = p.personId === null ? NaN : Number(p.personId);
+      if (existingIds.has(id)) {
+        personOf.set(p.id, id);
+        return false;
+      }
+      return true;
+    });
+    if (toAdd.length) {
+      const nextKey = keyMaker(existing.map((p) => p.key));
+      const first = (await roomStore.maxOrder(tx, roomId)) + 1;
+      const ids = await roomStore.insertPeopleRows(
+        tx,
+        roomId,
+        toAdd.map((p) => ({ key: nextKey(), name: p.name, group: null, email: p.email, x: null, y: null, pinned: false })),
+        first,
+      );
+      for (let i = 0; i < toAdd.length; i++) {
+        personOf.set(toAdd[i].id, ids[i]);
+        await tx.update(workshopParticipants).set({ personId: String(ids[i]) }).where(eq(workshopParticipants.id, toAdd[i].id));
+      }
+    }
+    const surveyPeople = [...personOf.values()];
+    await tx
+      .delete(ties)
+      .where(and(eq(ties.roomId, roomId), inArray(ties.sourceId, surveyPeople), inArray(ties.targetId, surveyPeople)));
+    const edges = (await nominationsOf(w.id, tx))
+      .filter((e) => personOf.has(e.from) && personOf.has(e.to))
+      .map((e) => ({ from: personOf.get(e.from)!, to: personOf.get(e.to)!, level: e.level as SurveyLevel }));
+    const built = tiesFromAnswers(edges, mode);
+    await roomStore.insertTieRows(tx, roomId, built.map((t) => ({ sourceId: t.source, targetId: t.target, strength: t.strength })));
+    if (room.directed !== directed) await roomStore.updateRoomFields(tx, roomId, { directed });
+    else await roomStore.bumpVersion(tx, roomId);
+    return {
+      roomId,
+      people: existing.length + toAdd.length,
+      ties: built.length,
+      mode,
+      missing: await missingAnswers(w.id, mode, tx),
+    };
+  });
+}

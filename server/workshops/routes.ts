@@ -1,0 +1,213 @@
+import { Router } from 'express';
+import { z } from 'zod';
+import { workshops } from '../../db/schema/workshops';
+import { BUILD_MODES, NAME_MAX, NOMINATION_LIMIT_MAX, ROSTER_MAX, TITLE_MAX, WORKSHOP_STATUSES } from '../../shared/api/workshops';
+import { db } from '../db';
+import { signedIn } from '../core/access';
+import { audit } from '../core/audit';
+import { parse } from '../core/validate';
+import { loadRoomFor } from '../rooms/access';
+import { eq } from 'drizzle-orm';
+import { issueJoinCode, joinUrl } from '../participants/links';
+import { loadWorkshopFor } from './access';
+import { releaseDebrief } from './release';
+import { buildRoom, missingAnswers } from './room-build';
+import { parseRoster } from './roster';
+import { qrDataUrl } from './qr';
+import * as service from './service';
+import { listWorkshops, participantCounts } from './store';
+import type { SignedInUser } from '../types';
+import { findUserById } from '../auth/store';
+
+const date = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-05-14.');
+const createBody = z.strictObject({
+  title: z.string().trim().min(1, 'Give the workshop a title.').max(TITLE_MAX),
+  sessionDate: date,
+  roomId: z.number().int().positive().nullable(),
+  nominationLimit: z.number().int().min(1).max(NOMINATION_LIMIT_MAX).optional(),
+});
+const patchBody = z.strictObject({
+  title: z.string().trim().min(1, 'Give the workshop a title.').max(TITLE_MAX).optional(),
+  sessionDate: date.optional(),
+  nominationLimit: z.number().int().min(1, 'Ask for at least one name.').max(NOMINATION_LIMIT_MAX, `At most ${NOMINATION_LIMIT_MAX} names.`).optional(),
+  linkDays: z.number().int().min(1, 'Links must work for at least a day.').max(365, 'Links can work for at most a year.').optional(),
+  showStarters: z.boolean().optional(),
+});
+const statusBody = z.strictObject({ to: z.enum(WORKSHOP_STATUSES, 'Unknown status.') });
+const emailBody = z.strictObject({ email: z.string().trim().toLowerCase().email('Enter an e-mail address.').max(254) });
+const peopleBody = z.strictObject({
+  people: z
+    .array(z.strictObject({ name: z.string().trim().min(1, 'A name is empty.').max(NAME_MAX), email: z.string().trim().toLowerCase().email().max(254).nullable().optional() }))
+    .min(1, 'Add at least one person.')
+    .max(ROSTER_MAX),
+});
+const rosterBody = z.strictObject({ csv: z.string().min(1, 'The file is empty.').max(2_000_000, 'The file is too large for a roster.') });
+const linksBody = z.strictObject({ participantIds: z.array(z.number().int().positive()).max(ROSTER_MAX).optional(), replace: z.boolean().default(true) });
+const revokeBody = z.strictObject({ participantIds: z.array(z.number().int().positive()).min(1).max(ROSTER_MAX) });
+const buildBody = z.strictObject({ mode: z.enum(BUILD_MODES.map((m) => m.value) as ['directed', 'reciprocated', 'either'], 'Choose how to read the answers.') });
+const releaseBody = z.strictObject({ rehearsalId: z.number().int().positive(), sampleRun: z.number().int().min(0), showStarters: z.boolean() });
+const pid = (raw: unknown) => (/^[1-9]\d{0,15}$/.test(String(raw)) ? Number(raw) : 0);
+
+async function ownerOf(ownerId: number): Promise<SignedInUser> {
+  const row = await findUserById(ownerId);
+  return { id: ownerId, email: row?.email ?? '', name: row?.name ?? '', role: row?.role ?? 'facilitator' };
+}
+
+export const workshopsRouter = Router();
+
+workshopsRouter.get('/', signedIn(), async (req, res) => {
+  res.json(await listWorkshops(req.user!.id));
+});
+
+workshopsRouter.post('/', signedIn(), async (req, res) => {
+  const body = parse(createBody, req.body);
+  if (body.roomId !== null) await loadRoomFor(req.user, body.roomId, 'edit');
+  const [{ id }] = await db
+    .insert(workshops)
+    .values({ ownerId: req.user!.id, title: body.title, sessionDate: body.sessionDate, roomId: body.roomId, nominationLimit: body.nominationLimit ?? 5 })
+    .$returningId();
+  const loaded = await loadWorkshopFor(req.user, id);
+  if (body.roomId !== null) await service.participantsFromRoom(loaded.workshop, req.user!);
+  await audit(req, { action: 'workshop.created', targetType: 'workshop', targetId: id });
+  res.status(201).json(await service.workshopDetail(loaded.workshop, true));
+});
+
+workshopsRouter.get('/:id', signedIn(), async (req, res) => {
+  const { workshop, owner } = await loadWorkshopFor(req.user, req.params['id']);
+  res.json(await service.workshopDetail(workshop, owner));
+});
+
+workshopsRouter.patch('/:id', signedIn(), async (req, res) => {
+  const { workshop, owner } = await loadWorkshopFor(req.user, req.params['id']);
+  const body = parse(patchBody, req.body);
+  service.assertNotClosed(workshop);
+  if (Object.keys(body).length) await db.update(workshops).set(body).where(eq(workshops.id, workshop.id));
+  res.json(await service.workshopDetail((await loadWorkshopFor(req.user, workshop.id)).workshop, owner));
+});
+
+workshopsRouter.delete('/:id', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id'], 'own');
+  await db.delete(workshops).where(eq(workshops.id, workshop.id));
+  await audit(req, { action: 'workshop.deleted', targetType: 'workshop', targetId: workshop.id });
+  res.status(204).end();
+});
+
+workshopsRouter.post('/:id/status', signedIn(), async (req, res) => {
+  const { workshop, owner } = await loadWorkshopFor(req.user, req.params['id']);
+  const { to } = parse(statusBody, req.body);
+  await service.moveStatus(workshop, to);
+  await audit(req, { action: 'workshop.status', targetType: 'workshop', targetId: workshop.id, detail: { from: workshop.status, to } });
+  res.json(await service.workshopDetail((await loadWorkshopFor(req.user, workshop.id)).workshop, owner));
+});
+
+workshopsRouter.post('/:id/facilitators', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id'], 'own');
+  await service.addFacilitator(workshop, parse(emailBody, req.body).email);
+  res.status(201).json(await service.workshopDetail(workshop, true));
+});
+
+workshopsRouter.delete('/:id/facilitators/:userId', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id'], 'own');
+  await service.removeFacilitator(workshop, pid(req.params['userId']));
+  res.status(204).end();
+});
+
+workshopsRouter.post('/:id/participants', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  const body = parse(peopleBody, req.body);
+  res.status(201).json(await service.addParticipants(workshop, body.people.map((p) => ({ name: p.name, email: p.email ?? null, personId: null }))));
+});
+
+workshopsRouter.post('/:id/participants/roster', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  const { rows, issues } = parseRoster(parse(rosterBody, req.body).csv);
+  const result = rows.length ? await service.addParticipants(workshop, rows.map((r) => ({ ...r, personId: null }))) : { added: 0, skipped: [] };
+  res.status(rows.length ? 201 : 400).json(
+    rows.length ? { ...result, issues } : { error: { code: 'bad_roster', message: issues[0]?.message ?? 'The roster has no names.', details: { issues } } },
+  );
+});
+
+workshopsRouter.post('/:id/participants/from-room', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  res.status(201).json(await service.participantsFromRoom(workshop, await ownerOf(workshop.ownerId)));
+});
+
+workshopsRouter.delete('/:id/participants/:pid', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  await service.removeParticipant(workshop, pid(req.params['pid']));
+  res.status(204).end();
+});
+
+workshopsRouter.post('/:id/participants/:pid/reset-claim', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  await service.resetClaim(workshop, pid(req.params['pid']));
+  res.status(204).end();
+});
+
+workshopsRouter.post('/:id/links/email', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  const body = parse(linksBody, req.body);
+  const result = await service.emailLinks(workshop, req.user!, body.participantIds, body.replace);
+  await audit(req, { action: 'workshop.links_emailed', targetType: 'workshop', targetId: workshop.id, detail: { sent: result.sent.length } });
+  res.json(result);
+});
+
+workshopsRouter.post('/:id/links/sheet', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  const body = parse(linksBody, req.body);
+  res.set('Cache-Control', 'no-store').json(await service.sheetLinks(workshop, body.participantIds, body.replace));
+});
+
+workshopsRouter.post('/:id/links/revoke', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  res.json({ revoked: await service.revokeParticipantLinks(workshop, parse(revokeBody, req.body).participantIds) });
+});
+
+workshopsRouter.post('/:id/join-code', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  service.assertNotClosed(workshop);
+  const { code, expiresAt } = await issueJoinCode(db, workshop.id, 1);
+  const url = joinUrl(code);
+  res.set('Cache-Control', 'no-store').json({ url, qr: await qrDataUrl(url), expiresAt: expiresAt.toISOString() });
+});
+
+workshopsRouter.delete('/:id/join-code', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  await db.update(workshops).set({ joinCodeHash: null, joinCodeExpiresAt: null }).where(eq(workshops.id, workshop.id));
+  res.status(204).end();
+});
+
+workshopsRouter.get('/:id/progress', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  const c = (await participantCounts([workshop.id])).get(workshop.id);
+  res.set('Cache-Control', 'no-store').json({
+    status: workshop.status,
+    participants: c?.participants ?? 0,
+    answered: c?.answered ?? 0,
+    consented: c?.consented ?? 0,
+    updatedAt: c?.updatedAt?.toISOString() ?? null,
+  });
+});
+
+workshopsRouter.get('/:id/missing', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  const mode = BUILD_MODES.find((m) => m.value === req.query['mode'])?.value ?? 'directed';
+  res.json(await missingAnswers(workshop.id, mode));
+});
+
+workshopsRouter.post('/:id/build', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  service.assertNotClosed(workshop);
+  const { mode } = parse(buildBody, req.body);
+  const result = await buildRoom(workshop, await ownerOf(workshop.ownerId), mode);
+  await audit(req, { action: 'workshop.room_built', targetType: 'workshop', targetId: workshop.id, detail: { roomId: result.roomId, mode } });
+  res.json(result);
+});
+
+workshopsRouter.post('/:id/release', signedIn(), async (req, res) => {
+  const { workshop, owner } = await loadWorkshopFor(req.user, req.params['id']);
+  const body = parse(releaseBody, req.body);
+  await releaseDebrief(workshop, await ownerOf(workshop.ownerId), body);
+  await audit(req, { action: 'workshop.debrief_released', targetType: 'workshop', targetId: workshop.id, detail: body });
+  res.json(await service.workshopDetail((await loadWorkshopFor(req.user, workshop.id)).workshop, owner));
+});

@@ -1,0 +1,205 @@
+import { and, eq } from 'drizzle-orm';
+import { users } from '../../db/schema/accounts';
+import { rooms } from '../../db/schema/rooms';
+import { workshopFacilitators, workshopParticipants, workshops } from '../../db/schema/workshops';
+import {
+  STATUS_LABELS,
+  STATUS_MOVES,
+  type IssuedLink,
+  type WorkshopDetail,
+  type WorkshopStatus,
+} from '../../shared/api/workshops';
+import { db } from '../db';
+import { badRequest, conflict, HttpError } from '../core/http-error';
+import { sendMail } from '../mail/transport';
+import { issueLink, participantUrl, revokeLinks, type LinkChannel } from '../participants/links';
+import { loadRoomFor } from '../rooms/access';
+import { roomPeople } from '../rooms/store';
+import type { SignedInUser } from '../types';
+import type { DebriefSnapshot } from './debrief';
+import { surveyLinkMail } from './mail';
+import { qrDataUrl } from './qr';
+import { facilitatorsOf, insertParticipants, participantRows, participantsById, type WorkshopRow } from './store';
+
+/** Workshops domain: status moves, facilitators, participants and their links. */
+
+export async function workshopDetail(w: WorkshopRow, owner: boolean): Promise<WorkshopDetail> {
+  const [facilitators, participants, room] = await Promise.all([
+    facilitatorsOf(w),
+    participantRows(w.id),
+    w.roomId === null ? Promise.resolve([]) : db.select({ name: rooms.name }).from(rooms).where(eq(rooms.id, w.roomId)),
+  ]);
+  const snap = w.debrief as DebriefSnapshot | null;
+  return {
+    id: w.id,
+    title: w.title,
+    sessionDate: w.sessionDate,
+    status: w.status,
+    roomId: w.roomId,
+    roomName: room[0]?.name ?? null,
+    owner,
+    nominationLimit: w.nominationLimit,
+    linkDays: w.linkDays,
+    showStarters: w.showStarters,
+    facilitators,
+    participants,
+    nextStatuses: [...STATUS_MOVES[w.status]],
+    debrief: snap ? { rehearsalId: snap.rehearsalId, sampleRun: snap.sampleRun, releasedAt: snap.releasedAt } : null,
+    joinCodeActive: w.joinCodeHash !== null && (w.joinCodeExpiresAt?.getTime() ?? 0) > Date.now(),
+  };
+}
+
+export function assertNotClosed(w: WorkshopRow): void {
+  if (w.status === 'closed') throw new HttpError(409, 'workshop_closed', 'This workshop is closed, so it can no longer be changed.');
+}
+
+/** Status moves, each refusal saying what to do instead. */
+export async function moveStatus(w: WorkshopRow, to: WorkshopStatus): Promise<void> {
+  if (w.status === to) return;
+  const allowed = STATUS_MOVES[w.status];
+  if (!allowed.includes(to)) {
+    const options = allowed.map((s) => `“${STATUS_LABELS[s]}”`).join(' or ');
+    throw new HttpError(
+      409,
+      'status_move',
+      w.status === 'closed'
+        ? 'This workshop is closed; a closed workshop cannot be reopened.'
+        : `A workshop in “${STATUS_LABELS[w.status]}” cannot move to “${STATUS_LABELS[to]}”; it can move to ${options}.`,
+      { from: w.status, to, allowed },
+    );
+  }
+  if (to === 'collecting') {
+    const count = (await participantsById(w.id)).length;
+    if (count < 2) throw new HttpError(409, 'too_few', 'Add at least two participants before opening the survey.');
+  }
+  if (to === 'debrief' && !w.debrief) {
+    throw new HttpError(409, 'not_released', 'Release the results first: choose a rehearsal and a cascade under Debrief.');
+  }
+  await db.update(workshops).set({ status: to }).where(eq(workshops.id, w.id));
+}
+
+export async function addFacilitator(w: WorkshopRow, email: string): Promise<void> {
+  const [user] = await db.select().from(users).where(eq(users.email, email.trim().toLowerCase()));
+  if (!user || user.status !== 'active') {
+    throw badRequest('No active Ripplehall account uses that e-mail address. Ask an admin to invite them first.', {
+      fields: [{ field: 'email', message: 'No active account uses this address.' }],
+    });
+  }
+  if (user.id === w.ownerId) throw conflict('That is the owner of this workshop; they are already a facilitator.');
+  await db.insert(workshopFacilitators).values({ workshopId: w.id, userId: user.id }).onDuplicateKeyUpdate({ set: { userId: user.id } });
+}
+
+export async function removeFacilitator(w: WorkshopRow, userId: number): Promise<void> {
+  await db.delete(workshopFacilitators).where(and(eq(workshopFacilitators.workshopId, w.id), eq(workshopFacilitators.userId, userId)));
+}
+
+/** Adds participants, skipping names already on the list (case-insensitive). */
+export async function addParticipants(
+  w: WorkshopRow,
+  list: { name: string; email: string | null; personId: string | null }[],
+): Promise<{ added: number; skipped: string[] }> {
+  assertNotClosed(w);
+  const existing = new Set((await participantsById(w.id)).map((p) => p.name.toLowerCase()));
+  const fresh = list.filter((p) => !existing.has(p.name.toLowerCase()));
+  const skipped = list.filter((p) => existing.has(p.name.toLowerCase())).map((p) => p.name);
+  const added = await insertParticipants(db, w.id, fresh);
+  return { added, skipped };
+}
+
+export async function participantsFromRoom(w: WorkshopRow, owner: SignedInUser): Promise<{ added: number; skipped: string[] }> {
+  if (w.roomId === null) throw conflict('This workshop has no room yet: its room will be built from the survey. Add participants from a roster instead.');
+  await loadRoomFor(owner, w.roomId, 'view');
+  const folk = await roomPeople(db, w.roomId);
+  return addParticipants(
+    w,
+    folk.map((p) => ({ name: p.name, email: p.email, personId: String(p.id) })),
+  );
+}
+
+export async function removeParticipant(w: WorkshopRow, participantId: number): Promise<void> {
+  assertNotClosed(w);
+  await db.delete(workshopParticipants).where(and(eq(workshopParticipants.workshopId, w.id), eq(workshopParticipants.id, participantId)));
+}
+
+export async function resetClaim(w: WorkshopRow, participantId: number): Promise<void> {
+  const [p] = await participantsById(w.id, [participantId]);
+  if (!p) throw new HttpError(404, 'not_found', 'That participant was not found.');
+  await db.transaction(async (tx) => {
+    await tx.update(workshopParticipants).set({ claimedAt: null }).where(eq(workshopParticipants.id, p.id));
+    await revokeLinks(tx, [p.id]);
+  });
+}
+
+async function targets(w: WorkshopRow, ids: number[] | undefined) {
+  const list = await participantsById(w.id, ids);
+  if (ids && list.length !== new Set(ids).size) throw badRequest('Some of the chosen participants are not in this workshop. Reload the page.');
+  if (!list.length) throw badRequest('This workshop has no participants yet.');
+  return list;
+}
+
+/** Fresh links for a printed sheet (the only time these tokens are shown). */
+export async function sheetLinks(w: WorkshopRow, ids: number[] | undefined, replace: boolean): Promise<IssuedLink[]> {
+  assertNotClosed(w);
+  const list = await targets(w, ids);
+  return issueMany(w, list, 'sheet', replace);
+}
+
+async function issueMany(w: WorkshopRow, list: Awaited<ReturnType<typeof participantsById>>, channel: LinkChannel, replace: boolean) {
+  const out: IssuedLink[] = [];
+  await db.transaction(async (tx) => {
+    for (const p of list) {
+      const { token, expiresAt } = await issueLink(tx, p.id, channel, w.linkDays, replace);
+      const url = participantUrl(token);
+      out.push({ participantId: p.id, name: p.name, email: p.email, url, expiresAt: expiresAt.toISOString(), qr: '' });
+    }
+  });
+  for (const link of out) link.qr = await qrDataUrl(link.url);
+  return out;
+}
+
+/** E-mails fresh links to every chosen participant with an address. */
+export async function emailLinks(
+  w: WorkshopRow,
+  sender: SignedInUser,
+  ids: number[] | undefined,
+  replace: boolean,
+): Promise<{ sent: string[]; withoutEmail: string[]; failed: string[] }> {
+  assertNotClosed(w);
+  const list = await targets(w, ids);
+  const withEmail = list.filter((p) => p.email);
+  const withoutEmail = list.filter((p) => !p.email).map((p) => p.name);
+  if (!withEmail.length) throw badRequest('None of the chosen participants has an e-mail address. Print a sheet of links or show the QR code instead.');
+  const links = await issueMany(w, withEmail, 'email', replace);
+  const sent: string[] = [];
+  const failed: string[] = [];
+  for (const link of links) {
+    try {
+      await sendMail(
+        surveyLinkMail({
+          to: link.email!,
+          name: link.name,
+          workshopTitle: w.title,
+          sessionDate: w.sessionDate,
+          facilitator: sender.name,
+          url: link.url,
+          expiresAt: new Date(link.expiresAt),
+        }),
+      );
+      sent.push(link.name);
+    } catch {
+      // The link of an unsent message must not stay valid.
+      await revokeLinks(db, [link.participantId]);
+      failed.push(link.name);
+    }
+  }
+  return { sent, withoutEmail, failed };
+}
+
+export async function revokeParticipantLinks(w: WorkshopRow, ids: number[]): Promise<number> {
+  const list = await targets(w, ids);
+  return revokeLinks(
+    db,
+    list.map((p) => p.id),
+  );
+}
+

@@ -1,0 +1,166 @@
+import { and, asc, count, desc, eq, inArray, isNotNull, isNull, gt, or, sql } from 'drizzle-orm';
+import { users } from '../../db/schema/accounts';
+import { rooms } from '../../db/schema/rooms';
+import {
+  participantLinks,
+  surveyNominations,
+  surveyResponses,
+  workshopFacilitators,
+  workshopParticipants,
+  workshops,
+} from '../../db/schema/workshops';
+import type { Facilitator, ParticipantRow, WorkshopSummary } from '../../shared/api/workshops';
+import { db, type Tx } from '../db';
+
+/** Data access for the facilitator side of workshops. */
+type Conn = Tx | typeof db;
+export type WorkshopRow = typeof workshops.$inferSelect;
+export type ParticipantDbRow = typeof workshopParticipants.$inferSelect;
+
+/** The workshop if the user owns it or co-facilitates it. */
+export async function workshopForUser(userId: number, workshopId: number, tx: Conn = db) {
+  const [row] = await tx
+    .select({ workshop: workshops, coUser: workshopFacilitators.userId })
+    .from(workshops)
+    .leftJoin(workshopFacilitators, and(eq(workshopFacilitators.workshopId, workshops.id), eq(workshopFacilitators.userId, userId)))
+    .where(eq(workshops.id, workshopId));
+  if (!row) return undefined;
+  if (row.workshop.ownerId !== userId && row.coUser === null) return undefined;
+  return { workshop: row.workshop, owner: row.workshop.ownerId === userId };
+}
+
+export async function listWorkshops(userId: number): Promise<WorkshopSummary[]> {
+  const co = db.select({ id: workshopFacilitators.workshopId }).from(workshopFacilitators).where(eq(workshopFacilitators.userId, userId));
+  const rows = await db
+    .select({ w: workshops, roomName: rooms.name })
+    .from(workshops)
+    .leftJoin(rooms, eq(rooms.id, workshops.roomId))
+    .where(or(eq(workshops.ownerId, userId), inArray(workshops.id, co)))
+    .orderBy(desc(workshops.sessionDate), desc(workshops.id));
+  const ids = rows.map((r) => r.w.id);
+  const counts = await participantCounts(ids);
+  return rows.map(({ w, roomName }) => ({
+    id: w.id,
+    title: w.title,
+    sessionDate: w.sessionDate,
+    status: w.status,
+    roomId: w.roomId,
+    roomName: roomName ?? null,
+    participants: counts.get(w.id)?.participants ?? 0,
+    answered: counts.get(w.id)?.answered ?? 0,
+    owner: w.ownerId === userId,
+  }));
+}
+
+export async function participantCounts(workshopIds: number[]) {
+  const out = new Map<number, { participants: number; answered: number; consented: number; updatedAt: Date | null }>();
+  if (!workshopIds.length) return out;
+  const rows = await db
+    .select({
+      workshopId: workshopParticipants.workshopId,
+      participants: count(workshopParticipants.id),
+      answered: sql<number>`sum(case when ${surveyResponses.submittedAt} is not null then 1 else 0 end)`,
+      consented: count(surveyResponses.participantId),
+      updatedAt: sql<string | null>`max(${surveyResponses.submittedAt})`,
+    })
+    .from(workshopParticipants)
+    .leftJoin(surveyResponses, eq(surveyResponses.participantId, workshopParticipants.id))
+    .where(inArray(workshopParticipants.workshopId, workshopIds))
+    .groupBy(workshopParticipants.workshopId);
+  for (const r of rows) {
+    out.set(r.workshopId, {
+      participants: Number(r.participants),
+      answered: Number(r.answered ?? 0),
+      consented: Number(r.consented),
+      updatedAt: r.updatedAt ? new Date(`${String(r.updatedAt).replace(' ', 'T')}Z`) : null,
+    });
+  }
+  return out;
+}
+
+export async function facilitatorsOf(w: WorkshopRow): Promise<Facilitator[]> {
+  const [owner] = await db.select({ id: users.id, name: users.name, email: users.email }).from(users).where(eq(users.id, w.ownerId));
+  const co = await db
+    .select({ id: users.id, name: users.name, email: users.email })
+    .from(workshopFacilitators)
+    .innerJoin(users, eq(users.id, workshopFacilitators.userId))
+    .where(eq(workshopFacilitators.workshopId, w.id))
+    .orderBy(asc(users.name));
+  return [...(owner ? [{ ...owner, owner: true }] : []), ...co.map((c) => ({ ...c, owner: false }))];
+}
+
+export async function participantRows(workshopId: number): Promise<ParticipantRow[]> {
+  const people = await db
+    .select({ p: workshopParticipants, submittedAt: surveyResponses.submittedAt })
+    .from(workshopParticipants)
+    .leftJoin(surveyResponses, eq(surveyResponses.participantId, workshopParticipants.id))
+    .where(eq(workshopParticipants.workshopId, workshopId))
+    .orderBy(asc(workshopParticipants.name));
+  const ids = people.map((r) => r.p.id);
+  const links = ids.length
+    ? await db
+        .select({
+          participantId: participantLinks.participantId,
+          active: sql<number>`sum(case when ${participantLinks.revokedAt} is null and ${participantLinks.expiresAt} > now(3) then 1 else 0 end)`,
+          lastUsed: sql<string | null>`max(${participantLinks.lastUsedAt})`,
+        })
+        .from(participantLinks)
+        .where(inArray(participantLinks.participantId, ids))
+        .groupBy(participantLinks.participantId)
+    : [];
+  const byId = new Map(links.map((l) => [l.participantId, l]));
+  return people.map(({ p, submittedAt }) => ({
+    id: p.id,
+    name: p.name,
+    email: p.email,
+    personId: p.personId,
+    claimed: p.claimedAt !== null,
+    answered: submittedAt !== null,
+    answeredAt: submittedAt?.toISOString() ?? null,
+    activeLinks: Number(byId.get(p.id)?.active ?? 0),
+    lastLinkUse: byId.get(p.id)?.lastUsed ? new Date(`${String(byId.get(p.id)!.lastUsed).replace(' ', 'T')}Z`).toISOString() : null,
+  }));
+}
+
+export async function participantsById(workshopId: number, ids?: number[], tx: Conn = db): Promise<ParticipantDbRow[]> {
+  const where = ids
+    ? and(eq(workshopParticipants.workshopId, workshopId), inArray(workshopParticipants.id, ids.length ? ids : [0]))
+    : eq(workshopParticipants.workshopId, workshopId);
+  return tx.select().from(workshopParticipants).where(where).orderBy(asc(workshopParticipants.name));
+}
+
+export async function insertParticipants(
+  tx: Conn,
+  workshopId: number,
+  list: { name: string; email: string | null; personId: string | null }[],
+): Promise<number> {
+  if (!list.length) return 0;
+  await tx.insert(workshopParticipants).values(list.map((p) => ({ workshopId, ...p })));
+  return list.length;
+}
+
+/** Every nomination of the workshop, as participant ids. */
+export async function nominationsOf(workshopId: number, tx: Conn = db) {
+  return tx
+    .select({ from: surveyNominations.participantId, to: surveyNominations.nomineeId, level: surveyNominations.level })
+    .from(surveyNominations)
+    .innerJoin(workshopParticipants, eq(workshopParticipants.id, surveyNominations.participantId))
+    .where(eq(workshopParticipants.workshopId, workshopId));
+}
+
+export async function answeredIds(workshopId: number, tx: Conn = db): Promise<Set<number>> {
+  const rows = await tx
+    .select({ id: surveyResponses.participantId })
+    .from(surveyResponses)
+    .innerJoin(workshopParticipants, eq(workshopParticipants.id, surveyResponses.participantId))
+    .where(and(eq(workshopParticipants.workshopId, workshopId), isNotNull(surveyResponses.submittedAt)));
+  return new Set(rows.map((r) => r.id));
+}
+
+export async function activeLinkCount(participantId: number): Promise<number> {
+  const [row] = await db
+    .select({ n: count() })
+    .from(participantLinks)
+    .where(and(eq(participantLinks.participantId, participantId), isNull(participantLinks.revokedAt), gt(participantLinks.expiresAt, new Date())));
+  return Number(row?.n ?? 0);
+}
