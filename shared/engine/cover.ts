@@ -68,17 +68,22 @@ export function vertexCover(input: RoomInput, options: CoverOptions = {}): Cover
       }
   }
   let best = prune(inCover(matched));
-  // Max-degree greedy.
+  // Max-degree greedy with a lazy max-heap (stale entries skipped): O(m log n).
   const deg = adj.map((a) => a.length);
   const chosen: number[] = [];
   const covered = new Uint8Array(n);
-  for (;;) {
-    let v = -1;
-    for (let i = 0; i < n; i++) if (!covered[i] && deg[i] > 0 && (v < 0 || deg[i] > deg[v])) v = i;
-    if (v < 0) break;
+  const heap = new MaxHeap();
+  for (let i = 0; i < n; i++) if (deg[i] > 0) heap.push(deg[i], i);
+  while (heap.size > 0) {
+    const [d, v] = heap.pop();
+    if (covered[v] || d !== deg[v] || d === 0) continue;
     chosen.push(v);
     covered[v] = 1;
-    for (const u of adj[v]) if (!covered[u]) deg[u]--;
+    for (const u of adj[v]) {
+      if (covered[u]) continue;
+      deg[u]--;
+      if (deg[u] > 0) heap.push(deg[u], u);
+    }
     deg[v] = 0;
   }
   const greedy = prune(inCover(chosen));
@@ -157,4 +162,52 @@ function exactCover(adj: number[][], active: number[], upper: number, nodeLimit:
   };
   rec();
   return { cover: bestSet, complete };
+}
+
+/** Binary max-heap of (key, person); ties pop the earlier person first. */
+class MaxHeap {
+  private keys: number[] = [];
+  private vals: number[] = [];
+  get size(): number {
+    return this.keys.length;
+  }
+  private above(a: number, b: number): boolean {
+    return this.keys[a] > this.keys[b] || (this.keys[a] === this.keys[b] && this.vals[a] < this.vals[b]);
+  }
+  private swap(a: number, b: number): void {
+    [this.keys[a], this.keys[b]] = [this.keys[b], this.keys[a]];
+    [this.vals[a], this.vals[b]] = [this.vals[b], this.vals[a]];
+  }
+  push(key: number, val: number): void {
+    this.keys.push(key);
+    this.vals.push(val);
+    let i = this.keys.length - 1;
+    while (i > 0) {
+      const p = (i - 1) >> 1;
+      if (!this.above(i, p)) break;
+      this.swap(i, p);
+      i = p;
+    }
+  }
+  pop(): [number, number] {
+    const top: [number, number] = [this.keys[0], this.vals[0]];
+    const lastK = this.keys.pop()!;
+    const lastV = this.vals.pop()!;
+    if (this.keys.length > 0) {
+      this.keys[0] = lastK;
+      this.vals[0] = lastV;
+      let i = 0;
+      for (;;) {
+        const l = 2 * i + 1;
+        const r = l + 1;
+        let m = i;
+        if (l < this.keys.length && this.above(l, m)) m = l;
+        if (r < this.keys.length && this.above(r, m)) m = r;
+        if (m === i) break;
+        this.swap(i, m);
+        i = m;
+      }
+    }
+    return top;
+  }
 }
