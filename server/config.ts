@@ -38,6 +38,10 @@ const schema = z.object({
   ADMIN_PASSWORD: z.string().min(10).default('admin-demo-2026'),
   RATE_LIMIT_SIGNIN_PER_15MIN: z.coerce.number().int().positive().default(10),
   RATE_LIMIT_IP_PER_15MIN: z.coerce.number().int().positive().default(100),
+  /** Password-reset requests per account and address (the per-address cap is RATE_LIMIT_IP_PER_15MIN). */
+  RATE_LIMIT_RESET_PER_15MIN: z.coerce.number().int().positive().default(5),
+  /** Failed participant-link lookups per address (made-up, expired or revoked links). */
+  RATE_LIMIT_LINK_PER_15MIN: z.coerce.number().int().positive().default(30),
   MAX_ROOM_PEOPLE: z.coerce.number().int().positive().default(5000),
   MAX_CASCADES: z.coerce.number().int().positive().default(100000),
   MAX_JOBS_PER_USER: z.coerce.number().int().positive().default(2),

@@ -31,6 +31,4 @@ export async function verifyPassword(password: string, stored: string | null | u
   return timingSafeEqual(key, expected);
 }
 
-/** Password rule shown in the UI too: length over composition (NIST SP 800-63B, 2017). */
-export const PASSWORD_MIN = 10;
-export const PASSWORD_MAX = 200;
+export { PASSWORD_MAX, PASSWORD_MIN } from '../../shared/api/accounts';

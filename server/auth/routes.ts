@@ -1,52 +1,43 @@
 import { Router } from 'express';
-import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import { z } from 'zod';
-import { eq } from 'drizzle-orm';
-import { users } from '../../db/schema/accounts';
-import { config } from '../config';
-import { db } from '../db';
+import { EMAIL_MAX, NAME_MAX, RESET_REQUEST_ANSWER } from '../../shared/api/accounts';
 import { publicAccess, signedIn } from '../core/access';
-import { audit } from '../core/audit';
-import { HttpError, unauthorized } from '../core/http-error';
+import { audit, auditFor } from '../core/audit';
+import { HttpError } from '../core/http-error';
 import { parse } from '../core/validate';
-import { SESSION_COOKIE } from '../core/session';
+import { endSessionsOf, SESSION_COOKIE } from '../core/session';
+import { acceptInvitation, completeReset, linkInfo, requestReset } from './links';
 import { hashPassword, PASSWORD_MAX, PASSWORD_MIN, verifyPassword } from './passwords';
-import { findUserByEmail, findUserById } from './store';
+import { linkPerIp, resetPerAccount, resetPerIp, signInPerAccount, signInPerIp } from './rate-limits';
+import { findUserByEmail, findUserById, updateUser } from './store';
+import { db } from '../db';
+
+// Re-exported for code that imported the limiters from here before they moved.
+export { signInPerAccount, signInPerIp } from './rate-limits';
+
+const email = z.string().trim().toLowerCase().email('Enter an e-mail address.').max(EMAIL_MAX);
+const newPassword = z
+  .string()
+  .min(PASSWORD_MIN, `Use at least ${PASSWORD_MIN} characters.`)
+  .max(PASSWORD_MAX, `Use at most ${PASSWORD_MAX} characters.`);
+const token = z.string().min(1, 'The link has no token.').max(200);
 
 const signInBody = z.strictObject({
-  email: z.string().trim().toLowerCase().email('Enter an e-mail address.').max(254),
+  email,
   password: z.string().min(1, 'Enter your password.').max(PASSWORD_MAX),
 });
-
 const changePasswordBody = z.strictObject({
   currentPassword: z.string().min(1, 'Enter your current password.').max(PASSWORD_MAX),
-  newPassword: z.string().min(PASSWORD_MIN, `Use at least ${PASSWORD_MIN} characters.`).max(PASSWORD_MAX),
+  newPassword,
 });
-
-const tooMany = (message: string) => ({
-  statusCode: 429,
-  message: { error: { code: 'rate_limited', message } },
-  standardHeaders: 'draft-8' as const,
-  legacyHeaders: false,
+const tokenBody = z.strictObject({ token });
+const acceptBody = z.strictObject({
+  token,
+  name: z.string().trim().min(1, 'Enter your name.').max(NAME_MAX),
+  password: newPassword,
 });
-
-/** Per IP: a cap on attempts from one address across all accounts. */
-export const signInPerIp = rateLimit({
-  windowMs: 15 * 60 * 1000,
-  limit: config.RATE_LIMIT_IP_PER_15MIN,
-  ...tooMany('Too many sign-in attempts from this address. Wait 15 minutes and try again.'),
-});
-
-/** Per account and IP: slows guessing one account's password. */
-export const signInPerAccount = rateLimit({
-  windowMs: 15 * 60 * 1000,
-  limit: config.RATE_LIMIT_SIGNIN_PER_15MIN,
-  keyGenerator: (req) =>
-    `${String(req.body?.email ?? '')
-      .trim()
-      .toLowerCase()}|${ipKeyGenerator(req.ip ?? '')}`,
-  ...tooMany('Too many sign-in attempts for this account. Wait 15 minutes and try again.'),
-});
+const resetRequestBody = z.strictObject({ email });
+const resetBody = z.strictObject({ token, password: newPassword });
 
 const WRONG = 'That e-mail and password do not match an active account.';
 
@@ -56,12 +47,15 @@ authRouter.post('/sign-in', publicAccess, signInPerIp, signInPerAccount, async (
   const body = parse(signInBody, req.body);
   const row = await findUserByEmail(body.email);
   const ok = await verifyPassword(body.password, row?.passwordHash);
-  if (!row || !ok || row.status !== 'active') throw new HttpError(401, 'wrong_credentials', WRONG);
+  if (!row || !ok || row.status !== 'active') {
+    if (row) await audit(req, { action: 'account.sign_in_failed', targetType: 'user', targetId: row.id });
+    throw new HttpError(401, 'wrong_credentials', WRONG);
+  }
   // A fresh session id at sign-in defeats session fixation.
   await new Promise<void>((resolve, reject) => req.session.regenerate((err) => (err ? reject(err) : resolve())));
   req.session.userId = row.id;
   req.session.signedInAt = Date.now();
-  await db.update(users).set({ lastSignInAt: new Date() }).where(eq(users.id, row.id));
+  await updateUser(db, row.id, { lastSignInAt: new Date() });
   req.user = { id: row.id, email: row.email, name: row.name, role: row.role };
   await audit(req, { action: 'account.sign_in', targetType: 'user', targetId: row.id });
   res.json({ user: req.user });
@@ -82,12 +76,39 @@ authRouter.post('/password', signedIn(), async (req, res) => {
   const body = parse(changePasswordBody, req.body);
   const row = await findUserById(req.user!.id);
   if (!row || !(await verifyPassword(body.currentPassword, row.passwordHash))) {
-    throw unauthorized('Your current password is not right.');
+    throw new HttpError(400, 'wrong_password', 'Your current password is not right.', {
+      fields: [{ field: 'currentPassword', message: 'This is not your current password.' }],
+    });
   }
-  await db
-    .update(users)
-    .set({ passwordHash: await hashPassword(body.newPassword) })
-    .where(eq(users.id, row.id));
-  await audit(req, { action: 'account.password_changed', targetType: 'user', targetId: row.id });
+  await updateUser(db, row.id, { passwordHash: await hashPassword(body.newPassword) });
+  // Other devices signed in with the old password are signed out; this one stays.
+  const ended = await endSessionsOf(row.id, req.sessionID);
+  await audit(req, { action: 'account.password_changed', targetType: 'user', targetId: row.id, detail: { otherSessionsEnded: ended } });
   res.status(204).end();
+});
+
+// Invitation links (the admin sends them; see server/admin).
+authRouter.post('/invitation/check', publicAccess, linkPerIp, async (req, res) => {
+  res.json(await linkInfo(parse(tokenBody, req.body).token, 'invite'));
+});
+
+authRouter.post('/invitation/accept', publicAccess, linkPerIp, async (req, res) => {
+  const body = parse(acceptBody, req.body);
+  res.json(await acceptInvitation(body.token, body.name, body.password, auditFor(req)));
+});
+
+// Password reset by e-mail.
+authRouter.post('/password-reset', publicAccess, resetPerIp, resetPerAccount, async (req, res) => {
+  const body = parse(resetRequestBody, req.body);
+  await requestReset(body.email, auditFor(req));
+  res.status(202).json({ message: RESET_REQUEST_ANSWER });
+});
+
+authRouter.post('/password-reset/check', publicAccess, linkPerIp, async (req, res) => {
+  res.json(await linkInfo(parse(tokenBody, req.body).token, 'reset'));
+});
+
+authRouter.post('/password-reset/complete', publicAccess, linkPerIp, async (req, res) => {
+  const body = parse(resetBody, req.body);
+  res.json(await completeReset(body.token, body.password, auditFor(req)));
 });

@@ -7,13 +7,16 @@ export interface AuditEntry {
   targetType?: string;
   targetId?: string | number;
   detail?: Record<string, unknown>;
+  /** Who acted, when not the signed-in account (accepting an invitation, using a reset link). */
+  actor?: { id: number; email: string };
 }
 
 /** Records who did what, when and from where. Never pass secrets in detail. */
 export async function audit(req: Request, entry: AuditEntry, tx: Tx | typeof db = db): Promise<void> {
+  const actor = entry.actor ?? req.user;
   await tx.insert(auditLog).values({
-    actorId: req.user?.id ?? null,
-    actorEmail: req.user?.email ?? null,
+    actorId: actor?.id ?? null,
+    actorEmail: actor?.email ?? null,
     action: entry.action,
     targetType: entry.targetType ?? null,
     targetId: entry.targetId === undefined ? null : String(entry.targetId),
@@ -21,3 +24,10 @@ export async function audit(req: Request, entry: AuditEntry, tx: Tx | typeof db 
     ip: req.ip ?? null,
   });
 }
+
+/** An audit writer bound to one request, for domain services that must not see HTTP. */
+export type AuditWriter = (entry: AuditEntry, tx?: Tx | typeof db) => Promise<void>;
+export const auditFor =
+  (req: Request): AuditWriter =>
+  (entry, tx) =>
+    audit(req, entry, tx);

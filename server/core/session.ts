@@ -42,7 +42,11 @@ export function absoluteLifetime(req: Request, _res: Response, next: NextFunctio
   next();
 }
 
-/** Removes every stored session of one account (deactivation, password reset). */
-export async function endSessionsOf(userId: number): Promise<void> {
-  await pool.query("DELETE FROM sessions WHERE JSON_VALUE(data, '$.userId') = ?", [String(userId)]);
+/** Removes every stored session of one account (deactivation, password reset), but `keep` if given. */
+export async function endSessionsOf(userId: number, keep?: string): Promise<number> {
+  const [result] = await pool.query("DELETE FROM sessions WHERE JSON_VALUE(data, '$.userId') = ? AND session_id <> ?", [
+    String(userId),
+    keep ?? '',
+  ]);
+  return (result as { affectedRows?: number }).affectedRows ?? 0;
 }

@@ -1,0 +1,103 @@
+import { and, asc, count, desc, eq, like, or, sql, type SQL } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/mysql-core';
+import { auditLog, users } from '../../db/schema/accounts';
+import { mailMessages } from '../../db/schema/mail';
+import type { AccountRole, AccountSortKey } from '../../shared/api/accounts';
+import { db, type Tx } from '../db';
+
+/** Data access for the admin console: accounts, audit log and the captured outbox. */
+
+export interface PageQuery {
+  page: number;
+  size: number;
+}
+
+const sortColumns = {
+  name: users.name,
+  email: users.email,
+  role: users.role,
+  status: users.status,
+  lastSignInAt: users.lastSignInAt,
+  createdAt: users.createdAt,
+} satisfies Record<AccountSortKey, unknown>;
+
+/** LIKE with the user's text taken literally (no wildcards of their own). */
+const contains = (text: string) => `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+
+export async function listAccounts(q: PageQuery & { sort: AccountSortKey; dir: 'asc' | 'desc'; filter: string }) {
+  const where: SQL | undefined = q.filter ? or(like(users.name, contains(q.filter)), like(users.email, contains(q.filter))) : undefined;
+  const order = q.dir === 'asc' ? asc(sortColumns[q.sort]) : desc(sortColumns[q.sort]);
+  const rows = await db
+    .select()
+    .from(users)
+    .where(where)
+    .orderBy(order, asc(users.id))
+    .limit(q.size)
+    .offset(q.page * q.size);
+  const [{ total }] = await db.select({ total: count() }).from(users).where(where);
+  return { rows, total };
+}
+
+/** Active admins, locked for the rest of the transaction so two demotions cannot race past the rule. */
+export async function lockActiveAdmins(tx: Tx): Promise<number[]> {
+  const rows = await tx
+    .select({ id: users.id })
+    .from(users)
+    .where(and(eq(users.role, 'admin'), eq(users.status, 'active')))
+    .for('update');
+  return rows.map((r) => r.id);
+}
+
+export async function insertInvitedUser(tx: Tx, email: string, name: string, role: AccountRole): Promise<number> {
+  const [{ id }] = await tx.insert(users).values({ email, name, role, status: 'invited' }).$returningId();
+  return id;
+}
+
+const target = alias(users, 'target');
+
+export async function listAudit(q: PageQuery & { filter: string }) {
+  const where = q.filter
+    ? or(like(auditLog.action, contains(q.filter)), like(auditLog.actorEmail, contains(q.filter)), like(target.email, contains(q.filter)))
+    : undefined;
+  const joined = eq(sql`${auditLog.targetId}`, sql`CAST(${target.id} AS CHAR)`);
+  const rows = await db
+    .select({
+      id: auditLog.id,
+      createdAt: auditLog.createdAt,
+      actorEmail: auditLog.actorEmail,
+      action: auditLog.action,
+      targetType: auditLog.targetType,
+      targetId: auditLog.targetId,
+      targetEmail: target.email,
+      detail: auditLog.detail,
+      ip: auditLog.ip,
+    })
+    .from(auditLog)
+    .leftJoin(target, and(eq(auditLog.targetType, 'user'), joined))
+    .where(where)
+    .orderBy(desc(auditLog.id))
+    .limit(q.size)
+    .offset(q.page * q.size);
+  const [{ total }] = await db
+    .select({ total: count() })
+    .from(auditLog)
+    .leftJoin(target, and(eq(auditLog.targetType, 'user'), joined))
+    .where(where);
+  return { rows, total };
+}
+
+export async function listOutbox(q: PageQuery) {
+  const rows = await db
+    .select({ id: mailMessages.id, to: mailMessages.envelopeTo, subject: mailMessages.subject, createdAt: mailMessages.createdAt })
+    .from(mailMessages)
+    .orderBy(desc(mailMessages.id))
+    .limit(q.size)
+    .offset(q.page * q.size);
+  const [{ total }] = await db.select({ total: count() }).from(mailMessages);
+  return { rows, total };
+}
+
+export async function findOutboxMessage(id: number) {
+  const [row] = await db.select().from(mailMessages).where(eq(mailMessages.id, id));
+  return row;
+}
