@@ -1,4 +1,7 @@
 import type { Routes } from '@angular/router';
 
-// Filled in by the rooms feature.
-export default [] satisfies Routes;
+export default [
+  { path: '', title: 'Rooms · Ripplehall', loadComponent: () => import('./list/rooms-page') },
+  { path: 'new/seating', title: 'Seating builder · Ripplehall', loadComponent: () => import('./seating/seating-page') },
+  { path: ':roomId', title: 'Room · Ripplehall', loadComponent: () => import('./room/room-page') },
+] satisfies Routes;

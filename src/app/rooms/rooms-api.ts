@@ -1,0 +1,72 @@
+import { HttpClient, HttpContext, type HttpEvent, HttpParams } from '@angular/common/http';
+import { inject, Injectable } from '@angular/core';
+import type { Observable } from 'rxjs';
+import type {
+  CreateRoomRequest,
+  ImportReport,
+  Page,
+  RoomDto,
+  RoomListItem,
+  RoomListQuery,
+  RoomSummary,
+  ShareDto,
+  ShareRequest,
+  ShareRole,
+} from '../../../shared/api/rooms';
+import { HANDLES_ERRORS } from '../core/error-interceptor';
+
+/** The rooms endpoints the pages call (the editor's own saving lives in RoomEditor). */
+@Injectable({ providedIn: 'root' })
+export class RoomsApi {
+  private readonly http = inject(HttpClient);
+  private readonly selfHandled = new HttpContext().set(HANDLES_ERRORS, true);
+
+  list(q: RoomListQuery): Observable<Page<RoomListItem>> {
+    let params = new HttpParams();
+    for (const [k, v] of Object.entries(q)) if (v !== undefined && v !== '') params = params.set(k, String(v));
+    return this.http.get<Page<RoomListItem>>('/api/rooms', { params });
+  }
+
+  create(body: CreateRoomRequest): Observable<RoomDto> {
+    return this.http.post<RoomDto>('/api/rooms', body, { context: this.selfHandled });
+  }
+
+  duplicate(id: number, name: string): Observable<RoomDto> {
+    return this.http.post<RoomDto>(`/api/rooms/${id}/duplicate`, { name });
+  }
+
+  delete(id: number): Observable<void> {
+    return this.http.delete<void>(`/api/rooms/${id}`);
+  }
+
+  summary(id: number): Observable<RoomSummary> {
+    return this.http.get<RoomSummary>(`/api/rooms/${id}/summary`, { context: this.selfHandled, headers: { 'X-Background': '1' } });
+  }
+
+  /** Dry run or commit of an import; `roomId` null creates a new room. Reports upload progress. */
+  import(roomId: number | null, form: FormData, dryRun: boolean): Observable<HttpEvent<ImportReport>> {
+    const url = roomId === null ? '/api/rooms/import' : `/api/rooms/${roomId}/import`;
+    return this.http.post<ImportReport>(url, form, {
+      params: { dryRun: String(dryRun) },
+      reportProgress: true,
+      observe: 'events',
+      context: this.selfHandled,
+    });
+  }
+
+  shares(id: number): Observable<ShareDto[]> {
+    return this.http.get<ShareDto[]>(`/api/rooms/${id}/shares`);
+  }
+
+  share(id: number, body: ShareRequest): Observable<ShareDto> {
+    return this.http.post<ShareDto>(`/api/rooms/${id}/shares`, body, { context: this.selfHandled });
+  }
+
+  changeShare(id: number, userId: number, role: ShareRole): Observable<ShareDto> {
+    return this.http.patch<ShareDto>(`/api/rooms/${id}/shares/${userId}`, { role });
+  }
+
+  revokeShare(id: number, userId: number): Observable<void> {
+    return this.http.delete<void>(`/api/rooms/${id}/shares/${userId}`);
+  }
+}
