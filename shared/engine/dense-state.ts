@@ -191,11 +191,13 @@ export class AbsorbingState {
     const y = new Float64Array(n);
     const rs = s * n;
     // x = N u with u_l = P_ls; y^T = v^T N with v_l = P_sl.
+    const u = new Float64Array(n);
+    for (let l = 0; l < n; l++) if (inT[l]) u[l] = p1[l * n + s];
     for (let i = 0; i < n; i++) {
       if (!inT[i]) continue;
       const ri = i * n;
       let acc = 0;
-      for (let l = 0; l < n; l++) if (inT[l]) acc += N[ri + l] * p1[l * n + s];
+      for (let l = 0; l < n; l++) acc += N[ri + l] * u[l];
       x[i] = acc;
       const vi = p1[rs + i];
       if (vi !== 0) for (let l = 0; l < n; l++) y[l] += vi * N[ri + l];
