@@ -1,4 +1,13 @@
 /** Entry point of `npm run -s cli`: see run.ts. Even a failure to load the engine gives one line, never a stack trace. */
+
+// A reader that stops early (`| head`) closes the pipe: that is not an error of ours.
+for (const stream of [process.stdout, process.stderr]) {
+  stream.on('error', (e: NodeJS.ErrnoException) => {
+    if (e.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+    throw e;
+  });
+}
+
 try {
   const { runCli } = await import('./run');
   const { code, stdout, stderr } = await runCli(process.argv.slice(2));
