@@ -4,8 +4,10 @@ import { createApp } from './app';
 import { logger } from './core/logging';
 import { pool } from './db';
 import { startMail, stopMail } from './mail/transport';
+import { startJobs, stopJobs } from './jobs/index';
 
 await startMail();
+await startJobs();
 const server = createServer(createApp());
 
 server.on('error', (err: NodeJS.ErrnoException) => {
@@ -29,6 +31,7 @@ async function stop(signal: string) {
   server.close();
   server.closeIdleConnections();
   setTimeout(() => process.exit(0), 5000).unref();
+  await stopJobs();
   await stopMail();
   await pool.end();
   process.exit(0);

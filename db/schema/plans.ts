@@ -1,7 +1,27 @@
-import { boolean, double, index, int, json, longtext, mysqlEnum, mysqlTable, text, timestamp, uniqueIndex, varchar } from 'drizzle-orm/mysql-core';
+import {
+  boolean,
+  double,
+  index,
+  int,
+  json,
+  longtext,
+  mysqlEnum,
+  mysqlTable,
+  text,
+  timestamp,
+  uniqueIndex,
+  varchar,
+} from 'drizzle-orm/mysql-core';
 import { users } from './accounts';
 import { createdAt, idColumn, refColumn, updatedAt } from './columns';
 import { rooms } from './rooms';
+
+export interface StoredStarter {
+  personId: number;
+  key: string;
+  name: string;
+  group: string | null;
+}
 
 export const jobKinds = ['plan', 'rehearsal'] as const;
 export const jobStatuses = ['queued', 'running', 'done', 'failed', 'cancelled', 'interrupted'] as const;
@@ -62,8 +82,8 @@ export const plans = mysqlTable(
     timeLimitSeconds: double('time_limit_seconds'),
     mustBrief: json('must_brief').$type<number[]>().notNull(),
     cannotBrief: json('cannot_brief').$type<number[]>().notNull(),
-    /** Person ids in briefing order (null until computed). */
-    starters: json('starters').$type<number[]>(),
+    /** Starters in briefing order, with their names at computing time (null until computed). */
+    starters: json('starters').$type<StoredStarter[]>(),
     total: double('total'),
     average: double('average'),
     qualityRank: double('quality_rank'),

@@ -1,0 +1,33 @@
+/** Piscina worker of the plan pool: planners, hand-made scoring and k-sweeps off the request thread. */
+import type { MessagePort } from 'node:worker_threads';
+import {
+  asFailure,
+  runPlanner,
+  scoreHandMade,
+  type ComputeOutcome,
+  type HandMadeTask,
+  type PlanComputation,
+  type PlannerTask,
+} from '../plans/compute';
+import { runSweep, type SweepTask } from '../plans/sweep';
+import type { KSweepResult } from '../../shared/api/plans';
+
+export type PlanPoolTask = (PlannerTask | HandMadeTask | SweepTask) & { port?: MessagePort };
+export type PlanPoolResult = ComputeOutcome<PlanComputation> | ComputeOutcome<KSweepResult>;
+
+export default function runPlanTask(task: PlanPoolTask): PlanPoolResult {
+  try {
+    switch (task.kind) {
+      case 'planner':
+        return { ok: runPlanner(task, (fraction, stage) => task.port?.postMessage({ fraction, stage })) };
+      case 'hand-made':
+        return scoreHandMade(task);
+      default:
+        return { ok: runSweep(task) };
+    }
+  } catch (e) {
+    return asFailure(e);
+  } finally {
+    task.port?.close();
+  }
+}

@@ -1,0 +1,96 @@
+/**
+ * The two worker pools (created on first use): planners and k-sweeps in a piscina pool of
+ * plan-worker.ts, rehearsals in the engine's SimulationPool. Both have config.WORKERS threads.
+ * The engine is synchronous, so nothing heavy ever runs on the request thread.
+ */
+import { setMaxListeners } from 'node:events';
+import { MessageChannel } from 'node:worker_threads';
+import { Piscina } from 'piscina';
+import { SimulationPool } from '../../shared/engine/simulate/pool';
+import { config } from '../config';
+import type { PlanPoolResult, PlanPoolTask } from './plan-worker';
+
+let planPool: Piscina | undefined;
+let simPool: SimulationPool | undefined;
+
+function workerFile(): string {
+  const here = import.meta.url;
+  return new URL(here.endsWith('.ts') ? './plan-worker.ts' : './plan-worker.js', here).href;
+}
+
+export function simulationPool(): SimulationPool {
+  simPool ??= new SimulationPool(config.WORKERS);
+  return simPool;
+}
+
+function plans(): Piscina {
+  planPool ??= new Piscina({ filename: workerFile(), minThreads: 1, maxThreads: config.WORKERS, idleTimeout: 60_000 });
+  return planPool;
+}
+
+export class TimeLimitError extends Error {
+  constructor(readonly seconds: number) {
+    super(`The computation did not finish within ${seconds} seconds and was stopped.`);
+    this.name = 'TimeLimitError';
+  }
+}
+
+export interface PlanRunControl {
+  signal?: AbortSignal;
+  /** Hard stop (the worker thread is ended), in ms. */
+  hardLimitMs: number;
+  onProgress?: (fraction: number, stage: string) => void;
+}
+
+/** Runs one task in the plan pool; a cancel or the hard time limit ends the worker thread. */
+export async function runInPlanPool(task: PlanPoolTask, control: PlanRunControl): Promise<PlanPoolResult> {
+  const stop = new AbortController();
+  setMaxListeners(32, stop.signal);
+  const timer = setTimeout(() => stop.abort(new TimeLimitError(Math.round(control.hardLimitMs / 1000))), control.hardLimitMs);
+  const onCancel = () => stop.abort(control.signal?.reason);
+  control.signal?.addEventListener('abort', onCancel, { once: true });
+  const channel = control.onProgress ? new MessageChannel() : undefined;
+  channel?.port1.on('message', (m: { fraction: number; stage: string }) => control.onProgress?.(m.fraction, m.stage));
+  try {
+    const payload = channel ? { ...task, port: channel.port2 } : task;
+    return (await plans().run(payload, { signal: stop.signal, transferList: channel ? [channel.port2] : [] })) as PlanPoolResult;
+  } catch (e) {
+    if (stop.signal.aborted && stop.signal.reason instanceof TimeLimitError) throw stop.signal.reason;
+    throw e;
+  } finally {
+    clearTimeout(timer);
+    control.signal?.removeEventListener('abort', onCancel);
+    channel?.port1.close();
+  }
+}
+
+/** Starts both pools and loads the worker code with a tiny task each. */
+export async function warmPools(): Promise<void> {
+  const graph = {
+    ids: ['a', 'b', 'c'],
+    directed: false,
+    ties: [
+      { source: 0, target: 1, strength: 1 },
+      { source: 1, target: 2, strength: 1 },
+    ],
+  };
+  const snapshot = {
+    graph,
+    personIds: [1, 2, 3],
+    names: ['a', 'b', 'c'],
+    settings: { directed: false, minutesPerHop: 1, laziness: 0, mixing: 0 },
+    version: 0,
+  };
+  await Promise.all([
+    runInPlanPool({ kind: 'planner', snapshot, k: 1, method: 'greedy', mustInclude: [], exclude: [] }, { hardLimitMs: 60_000 }),
+    simulationPool().simulate(graph, [1], 4, 'warm-up', { samples: 0 }),
+  ]);
+}
+
+export async function closePools(): Promise<void> {
+  const p = planPool;
+  const s = simPool;
+  planPool = undefined;
+  simPool = undefined;
+  await Promise.all([p?.destroy(), s?.close()]);
+}

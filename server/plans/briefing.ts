@@ -1,0 +1,145 @@
+/**
+ * The briefing sheet: whom to brief, in which order, and what to expect (room average, "90% will
+ * have heard within N minutes"), with the model caution, the date and the room version. As JSON
+ * for the printable page, as CSV (every cell protected against formula injection) and as a PDF
+ * with our own simple layout (pdfkit, self-hosted font).
+ */
+import { existsSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import PDFDocument from 'pdfkit';
+import { MODEL_CAUTIONS, type BriefingSheet } from '../../shared/api/plans';
+import { writeCsvRows } from '../../shared/engine/index';
+import { parseResults, parseSnapshot } from './dto';
+import type { LoadedPlan } from './service';
+import { roomName, roomVersion } from './store';
+import { planError } from './validate';
+
+const fmt = (v: number, digits = 1) => (Math.round(v * 10 ** digits) / 10 ** digits).toFixed(digits);
+
+function shareWords(share: number): string {
+  if (share === 0.5) return 'Half of the people not briefed';
+  if (share === 1) return 'Everyone';
+  return `${Math.round(share * 100)}% of the people not briefed`;
+}
+
+export async function briefingSheet(plan: LoadedPlan): Promise<BriefingSheet> {
+  const results = parseResults(plan);
+  if (plan.status !== 'ready' || !results || plan.average === null) {
+    throw planError('NOT_READY', 'This plan is not computed yet: the briefing sheet needs a finished plan.');
+  }
+  const snap = parseSnapshot(plan);
+  const mph = plan.settings.minutesPerHop;
+  const current = (await roomVersion(plan.roomId)) ?? plan.roomVersion;
+  const expectations = results.curve.quantiles
+    .filter((q) => q.share < 1)
+    .map((q) => ({
+      share: q.share,
+      hop: q.hop,
+      minutes: q.minutes,
+      line:
+        q.hop === null || q.minutes === null
+          ? `${shareWords(q.share)}: not expected within the hops computed.`
+          : `${shareWords(q.share)} will have heard within ${fmt(q.minutes, 0)} minutes (${q.hop} ${q.hop === 1 ? 'hop' : 'hops'}).`,
+    }));
+  return {
+    planId: plan.id,
+    planName: plan.name,
+    roomName: await roomName(plan.roomId),
+    roomVersion: plan.roomVersion,
+    stale: current !== plan.roomVersion,
+    generatedAt: new Date().toISOString(),
+    minutesPerHop: mph,
+    starters: (plan.starters ?? []).map((s, i) => ({ personId: s.personId, personKey: s.key, name: s.name, group: s.group, order: i + 1 })),
+    people: snap.personIds.length,
+    average: plan.average,
+    averageMinutes: plan.average * mph,
+    expectations,
+    cautions: [...MODEL_CAUTIONS],
+  };
+}
+
+/** One table: starters in briefing order, then everyone else by expected hops. */
+export async function briefingCsv(plan: LoadedPlan): Promise<string> {
+  await briefingSheet(plan);
+  const snap = parseSnapshot(plan);
+  const h = parseResults(plan)!.h;
+  const mph = plan.settings.minutesPerHop;
+  const order = new Map((plan.starters ?? []).map((s, i) => [s.personId, i + 1]));
+  const rows = snap.personIds.map((id, i) => ({ i, id, order: order.get(id) ?? null, hops: h[i] ?? Infinity }));
+  rows.sort((a, b) => (a.order ?? Infinity) - (b.order ?? Infinity) || a.hops - b.hops || a.i - b.i);
+  const out: string[][] = [['briefing order', 'person key', 'name', 'group', 'role', 'expected hops to hear', 'expected minutes']];
+  for (const r of rows) {
+    out.push([
+      r.order === null ? '' : String(r.order),
+      snap.graph.ids[r.i],
+      snap.names[r.i],
+      snap.graph.groups?.[r.i] ?? '',
+      r.order === null ? 'hears by word of mouth' : 'brief first',
+      Number.isFinite(r.hops) ? r.hops.toFixed(3) : '',
+      Number.isFinite(r.hops) ? (r.hops * mph).toFixed(1) : '',
+    ]);
+  }
+  return '\uFEFF' + writeCsvRows(out);
+}
+
+const require = createRequire(import.meta.url);
+function fontFile(weight: 400 | 600): string | null {
+  try {
+    const f = require.resolve(`@fontsource/source-sans-3/files/source-sans-3-latin-${weight}-normal.woff`);
+    return existsSync(f) ? f : null;
+  } catch {
+    return null;
+  }
+}
+
+export async function briefingPdf(plan: LoadedPlan): Promise<Buffer> {
+  const sheet = await briefingSheet(plan);
+  const doc = new PDFDocument({ size: 'A4', margin: 56, info: { Title: `Briefing sheet: ${sheet.planName}`, Author: 'Ripplehall' } });
+  const regular = fontFile(400);
+  const bold = fontFile(600);
+  if (regular && bold) {
+    doc.registerFont('body', regular);
+    doc.registerFont('strong', bold);
+  } else {
+    doc.registerFont('body', 'Helvetica');
+    doc.registerFont('strong', 'Helvetica-Bold');
+  }
+  const chunks: Buffer[] = [];
+  doc.on('data', (c: Buffer) => chunks.push(c));
+  const done = new Promise<Buffer>((resolve, reject) => {
+    doc.on('end', () => resolve(Buffer.concat(chunks)));
+    doc.on('error', reject);
+  });
+  const date = sheet.generatedAt.slice(0, 10);
+  doc.font('strong').fontSize(20).text('Briefing sheet');
+  doc
+    .font('body')
+    .fontSize(11)
+    .fillColor('#444')
+    .text(`${sheet.roomName} · plan "${sheet.planName}" · room version ${sheet.roomVersion} · ${date}`);
+  if (sheet.stale)
+    doc.fillColor('#8a3b12').text('The room has changed since this plan was computed: the numbers below are for the earlier version.');
+  doc.moveDown(1).fillColor('#000');
+  doc
+    .font('strong')
+    .fontSize(14)
+    .text(`Brief these ${sheet.starters.length} ${sheet.starters.length === 1 ? 'person' : 'people'}, in this order`);
+  doc.moveDown(0.4).font('body').fontSize(12);
+  for (const s of sheet.starters) {
+    doc.text(`${s.order}.  ${s.name}${s.group ? `  (${s.group})` : ''}`, { indent: 8 });
+  }
+  doc.moveDown(1);
+  doc.font('strong').fontSize(14).text('What to expect');
+  doc.moveDown(0.4).font('body').fontSize(12);
+  doc.text(
+    `Room average: ${fmt(sheet.average, 2)} hops to hear, about ${fmt(sheet.averageMinutes, 0)} minutes at ${fmt(sheet.minutesPerHop, 1)} minutes per hop ` +
+      `(over the ${sheet.people - sheet.starters.length} people not briefed).`,
+  );
+  for (const e of sheet.expectations) doc.text(`• ${e.line}`, { indent: 8 });
+  doc.moveDown(1);
+  doc.font('strong').fontSize(12).text('Please keep in mind');
+  doc.font('body').fontSize(10).fillColor('#333');
+  for (const c of sheet.cautions) doc.text(`• ${c}`, { indent: 8 });
+  doc.end();
+  return done;
+}

@@ -1,0 +1,195 @@
+/**
+ * Plan computations on a room snapshot, run inside the plan worker pool (server/jobs/plan-worker.ts):
+ * the engine's planners, exact reach for hand-made plans, the per-person expected hops and the
+ * reach curve. Pure: no database, no HTTP. Engine errors come back as values (their class does
+ * not survive the trip between threads).
+ */
+import {
+  exactReach,
+  isEngineError,
+  plan,
+  prepareRoom,
+  reachCurve,
+  type PlanMethodChoice,
+  type PlanResult,
+  type PreparedRoom,
+  type RoomGraph,
+} from '../../shared/engine/index';
+import type { PlanSettingsSnapshot, ReachQuantileDto } from '../../shared/api/plans';
+
+export interface RoomSnapshot {
+  graph: RoomGraph;
+  /** Engine index -> person id. */
+  personIds: number[];
+  names: string[];
+  settings: PlanSettingsSnapshot;
+  version: number;
+}
+
+export interface PlannerTask {
+  kind: 'planner';
+  snapshot: RoomSnapshot;
+  k: number;
+  method: PlanMethodChoice;
+  nu?: number;
+  timeLimitMs?: number;
+  /** Engine indices. */
+  mustInclude: number[];
+  exclude: number[];
+}
+
+export interface HandMadeTask {
+  kind: 'hand-made';
+  snapshot: RoomSnapshot;
+  /** Engine indices, in briefing order. */
+  starters: number[];
+}
+
+export interface StoredCurve {
+  byHop: number[];
+  roomByHop: number[];
+  complete: boolean;
+  quantiles: ReachQuantileDto[];
+}
+
+export interface PlanComputation {
+  methodUsed: PlanResult['method'] | 'hand-made';
+  starters: number[];
+  total: number;
+  average: number;
+  rank: number;
+  lowerBound: number;
+  gap: number;
+  certified: boolean;
+  coverSize: number;
+  elapsedMs: number;
+  notes: string[];
+  warnings: string[];
+  /** Expected hops to hear per person (engine order). */
+  h: number[];
+  curve: StoredCurve;
+}
+
+export interface ComputeFailure {
+  error: { code: string; message: string; detail?: Record<string, unknown> };
+}
+
+export type ComputeOutcome<T> = { ok: T } | ComputeFailure;
+
+export const REACH_QUANTILES = [0.5, 0.9, 0.99, 1] as const;
+
+export function prepared(snapshot: RoomSnapshot): PreparedRoom {
+  return prepareRoom(snapshot.graph, { laziness: snapshot.settings.laziness, mixing: snapshot.settings.mixing });
+}
+
+/** The reach curve stored with a plan: until 99.99% have heard (at most 5000 hops). */
+export function curveFor(room: PreparedRoom, starters: readonly number[], minutesPerHop: number): StoredCurve {
+  const c = reachCurve(room, starters, { tolerance: 1e-4, maxHops: 5000, quantiles: [...REACH_QUANTILES], minutesPerHop });
+  return {
+    byHop: Array.from(c.shareReached),
+    roomByHop: Array.from(c.roomShare),
+    complete: c.complete,
+    quantiles: c.quantiles.map((q) => ({ share: q.share, hop: q.hop, minutes: q.minutes })),
+  };
+}
+
+export function runPlanner(task: PlannerTask, onProgress?: (fraction: number, stage: string) => void): PlanComputation {
+  const room = prepared(task.snapshot);
+  const started = performance.now();
+  const limitMs = task.timeLimitMs ?? 10_000;
+  let last = 0;
+  const r = plan(room, {
+    k: task.k,
+    method: task.method,
+    ...(task.nu !== undefined ? { nu: task.nu } : {}),
+    timeLimitMs: limitMs,
+    mustInclude: task.mustInclude,
+    exclude: task.exclude,
+    onProgress: (p) => {
+      // Stages restart their counters; the bar only moves forward (time share for searches with a budget).
+      const byStage = p.of > 0 ? p.done / p.of : 0;
+      const byTime = (performance.now() - started) / limitMs;
+      const f = Math.min(0.99, Math.max(last, task.method === 'exhaustive' || task.method === 'auto' ? byTime : byStage));
+      if (f > last + 0.005) {
+        last = f;
+        onProgress?.(f, p.stage);
+      }
+    },
+  });
+  const reach = exactReach(room, r.starters);
+  return {
+    methodUsed: r.method,
+    starters: r.starters,
+    total: r.total,
+    average: r.average,
+    rank: r.rank,
+    lowerBound: r.lowerBound,
+    gap: r.gap,
+    certified: r.certified,
+    coverSize: r.coverSize,
+    elapsedMs: performance.now() - started,
+    notes: r.notes,
+    warnings: r.warnings,
+    h: Array.from(reach.h),
+    curve: curveFor(room, r.starters, task.snapshot.settings.minutesPerHop),
+  };
+}
+
+/**
+ * A hand-made plan gets the same scores: its total and quality rank from the planner with every
+ * starter required (which then returns exactly that set), and its gap to best from the
+ * unconstrained greedy plan's proven lower bound of the same size (identity 6 of engine.md).
+ */
+export function scoreHandMade(task: HandMadeTask): ComputeOutcome<PlanComputation> {
+  const room = prepared(task.snapshot);
+  const started = performance.now();
+  const reach = exactReach(room, task.starters);
+  if (reach.unreachable.length > 0) {
+    const people = reach.unreachable.map((u) => ({
+      personId: task.snapshot.personIds[u.index],
+      name: task.snapshot.names[u.index],
+      reason: u.reason,
+    }));
+    const named = people
+      .slice(0, 5)
+      .map((p) => p.name)
+      .join(', ');
+    return {
+      error: {
+        code: 'UNREACHABLE_PEOPLE',
+        message:
+          `With these starters ${people.length} ${people.length === 1 ? 'person' : 'people'} can never hear (${named}${people.length > 5 ? ', ...' : ''}): ` +
+          'add a starter in each part of the room that questions cannot leave.',
+        detail: { people },
+      },
+    };
+  }
+  const k = task.starters.length;
+  const fixed = plan(room, { k, method: 'greedy', mustInclude: task.starters });
+  const free = plan(room, { k, method: 'greedy' });
+  const lowerBound = Math.min(free.lowerBound, reach.total);
+  const gap = Math.max(0, reach.total - lowerBound);
+  return {
+    ok: {
+      methodUsed: 'hand-made',
+      starters: [...task.starters],
+      total: reach.total,
+      average: reach.average,
+      rank: fixed.rank,
+      lowerBound,
+      gap,
+      certified: gap <= 1e-9 * Math.abs(reach.total),
+      coverSize: fixed.coverSize,
+      elapsedMs: performance.now() - started,
+      notes: [],
+      warnings: fixed.warnings,
+      h: Array.from(reach.h),
+      curve: curveFor(room, task.starters, task.snapshot.settings.minutesPerHop),
+    },
+  };
+}
+
+export function asFailure(e: unknown): ComputeFailure {
+  if (isEngineError(e)) return { error: { code: e.code, message: e.message, detail: e.detail } };
+  throw e;
+}

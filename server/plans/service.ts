@@ -1,0 +1,303 @@
+/**
+ * Plans: create (computed now, or as a background job), read, list, rename, choose, delete,
+ * compare, k-sweep. Heavy work always goes to the plan worker pool; small plans are awaited in
+ * the request, large ones (and exhaustive / auto) are queued as jobs with progress.
+ */
+import type { CreatePlanRequest, KSweepResult, PlanComparison, PlanDetail, PlanStarted, PlanSummary } from '../../shared/api/plans';
+import { PLAN_LIMITS } from '../../shared/api/plans';
+import type { PlanMethodChoice } from '../../shared/engine/index';
+import { notFound } from '../core/http-error';
+import { db } from '../db';
+import { roomAccess, idOf } from '../jobs/access';
+import { jobDto } from '../jobs/dto';
+import { runInPlanPool } from '../jobs/pools';
+import { JobFailure, jobRunner, type JobHandler } from '../jobs/runner';
+import { findJob, insertJob } from '../jobs/store';
+import { loadRoomGraph, type RoomNeed } from '../rooms/access';
+import type { SignedInUser } from '../types';
+import { prepared, type ComputeOutcome, type PlanComputation, type PlannerTask, type RoomSnapshot } from './compute';
+import { parseResults, parseSnapshot, planDetail, planSummary, type StoredPlanResults } from './dto';
+import type { NewPlan, PlanRow } from './store';
+import * as store from './store';
+import { checkHandMade, checkPlannerRequest, indicesOfPeople, planError } from './validate';
+
+export type LoadedPlan = PlanRow & { createdByName: string };
+
+export async function loadPlanFor(user: SignedInUser | undefined, raw: unknown, need: RoomNeed): Promise<LoadedPlan> {
+  const plan = await store.findPlan(idOf(raw, 'That plan'));
+  if (!plan) throw notFound('That plan');
+  await roomAccess(user, plan.roomId, need, 'That plan');
+  return plan;
+}
+
+async function snapshotOf(roomId: number): Promise<RoomSnapshot> {
+  const r = await loadRoomGraph(roomId);
+  return { graph: r.graph, personIds: r.personIds, names: r.names, settings: r.settings, version: r.version };
+}
+
+function starterInfo(snapshot: RoomSnapshot, indices: readonly number[]) {
+  return indices.map((i) => ({
+    personId: snapshot.personIds[i],
+    key: snapshot.graph.ids[i],
+    name: snapshot.names[i],
+    group: snapshot.graph.groups?.[i] ?? null,
+  }));
+}
+
+function resultColumns(snapshot: RoomSnapshot, c: PlanComputation): Partial<NewPlan> {
+  const results: StoredPlanResults = { h: c.h.map((v) => (Number.isFinite(v) ? v : null)), curve: c.curve };
+  return {
+    status: 'ready',
+    methodUsed: c.methodUsed,
+    starters: starterInfo(snapshot, c.starters),
+    total: c.total,
+    average: c.average,
+    qualityRank: c.rank,
+    lowerBound: c.lowerBound,
+    gap: c.gap,
+    certified: c.certified,
+    coverSize: c.coverSize,
+    elapsedMs: c.elapsedMs,
+    notes: c.notes,
+    warnings: c.warnings,
+    results: JSON.stringify(results),
+    error: null,
+  };
+}
+
+function unwrap(outcome: ComputeOutcome<PlanComputation>): PlanComputation {
+  if ('error' in outcome) throw planError(outcome.error.code, outcome.error.message, outcome.error.detail);
+  return outcome.ok;
+}
+
+/** Where a plan runs: awaited in the request (small rooms, fast methods) or as a background job. */
+export function runsInBackground(body: CreatePlanRequest, n: number): boolean {
+  if (body.starters) return false;
+  if (body.background) return true;
+  const fast = body.method === 'greedy' || body.method === 'swap' || body.method === 'widened';
+  return !fast || n > PLAN_LIMITS.inlineMaxPeople;
+}
+
+function plannerTask(
+  snapshot: RoomSnapshot,
+  row: Pick<PlanRow, 'k' | 'methodRequested' | 'nu' | 'timeLimitSeconds' | 'mustBrief' | 'cannotBrief'>,
+): PlannerTask {
+  return {
+    kind: 'planner',
+    snapshot,
+    k: row.k,
+    method: row.methodRequested as PlanMethodChoice,
+    ...(row.nu !== null ? { nu: row.nu } : {}),
+    ...(row.timeLimitSeconds !== null ? { timeLimitMs: row.timeLimitSeconds * 1000 } : {}),
+    mustInclude: indicesOfPeople(snapshot, row.mustBrief, 'People who must be briefed'),
+    exclude: indicesOfPeople(snapshot, row.cannotBrief, 'People who cannot be briefed'),
+  };
+}
+
+/** Hard stop for a worker: the engine's own budget plus a generous margin. */
+function hardLimitMs(timeLimitSeconds: number | null): number {
+  return ((timeLimitSeconds ?? PLAN_LIMITS.timeLimitSeconds.default) + 60) * 1000;
+}
+
+export async function createPlan(
+  user: SignedInUser,
+  roomId: number,
+  body: CreatePlanRequest,
+): Promise<{ status: 201; body: PlanDetail } | { status: 202; body: PlanStarted }> {
+  await roomAccess(user, roomId, 'edit', 'That room');
+  const snapshot = await snapshotOf(roomId);
+  const room = prepared(snapshot);
+  const handMade = body.starters !== undefined;
+  const must = indicesOfPeople(snapshot, body.mustBrief ?? [], 'People who must be briefed');
+  const exclude = indicesOfPeople(snapshot, body.cannotBrief ?? [], 'People who cannot be briefed');
+  let starters: number[] = [];
+  if (handMade) {
+    starters = indicesOfPeople(snapshot, body.starters!, 'Starters');
+    checkHandMade(room, snapshot, starters);
+  } else checkPlannerRequest(room, snapshot, body, must, exclude);
+  const k = handMade ? starters.length : body.k!;
+  const method = handMade ? 'hand-made' : (body.method ?? 'auto');
+  const base: NewPlan = {
+    roomId,
+    createdBy: user.id,
+    name: body.name?.trim() || defaultName(method, k),
+    kind: handMade ? 'hand-made' : 'computed',
+    status: 'computing',
+    k,
+    methodRequested: method,
+    nu: body.nu ?? null,
+    timeLimitSeconds: body.timeLimitSeconds ?? null,
+    mustBrief: body.mustBrief ?? [],
+    cannotBrief: body.cannotBrief ?? [],
+    people: snapshot.personIds.length,
+    roomVersion: snapshot.version,
+    settings: snapshot.settings,
+    snapshot: JSON.stringify(snapshot),
+    notes: [],
+    warnings: [],
+  };
+  if (runsInBackground(body, room.n)) {
+    const { planId, jobId } = await db.transaction(async (tx) => {
+      const planId = await store.insertPlan(base, tx);
+      const jobId = await insertJob({ userId: user.id, roomId, kind: 'plan', planId }, tx);
+      await store.updatePlan(planId, { jobId }, tx);
+      return { planId, jobId };
+    });
+    const job = (await findJob(jobId))!;
+    jobRunner.enqueue(job);
+    const plan = (await store.findPlan(planId))!;
+    return { status: 202, body: { plan: planSummary(plan, snapshot.version), job: jobDto(job, jobRunner.positionOf(jobId)) } };
+  }
+  const task = handMade
+    ? { kind: 'hand-made' as const, snapshot, starters }
+    : plannerTask(snapshot, {
+        k,
+        methodRequested: method,
+        nu: base.nu ?? null,
+        timeLimitSeconds: base.timeLimitSeconds ?? null,
+        mustBrief: base.mustBrief,
+        cannotBrief: base.cannotBrief,
+      });
+  const outcome = (await runInPlanPool(task, {
+    hardLimitMs: hardLimitMs(base.timeLimitSeconds ?? null),
+  })) as ComputeOutcome<PlanComputation>;
+  const computed = unwrap(outcome);
+  const planId = await store.insertPlan({ ...base, ...resultColumns(snapshot, computed) });
+  return { status: 201, body: planDetail((await store.findPlan(planId))!, snapshot.version) };
+}
+
+function defaultName(method: string, k: number): string {
+  const label: Record<string, string> = {
+    auto: 'Auto',
+    greedy: 'Greedy',
+    widened: 'Widened greedy',
+    swap: 'Swap polish',
+    exhaustive: 'Exhaustive',
+    'hand-made': 'Hand-made',
+  };
+  return `${label[method] ?? method}, k = ${k}`;
+}
+
+/** Background job of a plan: runs the planner in the pool with progress and a hard time limit. */
+export const planJobHandler: JobHandler = {
+  async run(job, ctx) {
+    const row = await store.findPlan(job.planId!);
+    if (!row) throw new JobFailure('The plan was deleted.');
+    const snapshot = parseSnapshot(row);
+    const outcome = (await runInPlanPool(plannerTask(snapshot, row), {
+      signal: ctx.signal,
+      hardLimitMs: hardLimitMs(row.timeLimitSeconds),
+      onProgress: (f) => ctx.progress(f),
+    })) as ComputeOutcome<PlanComputation>;
+    if ('error' in outcome) throw new JobFailure(outcome.error.message);
+    const columns = resultColumns(snapshot, outcome.ok);
+    return async (tx) => store.updatePlan(row.id, columns, tx);
+  },
+  async onEnd(job, status, message, tx) {
+    if (job.planId) await store.updatePlan(job.planId, { status, error: message }, tx);
+  },
+};
+
+/** Runs an interrupted, failed or cancelled plan again on its stored snapshot. */
+export async function rerunPlan(user: SignedInUser, plan: LoadedPlan): Promise<PlanStarted> {
+  if (plan.kind !== 'computed' || plan.status === 'ready' || plan.status === 'computing') {
+    throw planError(
+      'NOT_RERUNNABLE',
+      plan.status === 'computing' ? 'This plan is still being computed.' : 'Only a computed plan that did not finish can be run again.',
+    );
+  }
+  const jobId = await db.transaction(async (tx) => {
+    const jobId = await insertJob({ userId: user.id, roomId: plan.roomId, kind: 'plan', planId: plan.id }, tx);
+    await store.updatePlan(plan.id, { status: 'computing', jobId, error: null }, tx);
+    return jobId;
+  });
+  const job = (await findJob(jobId))!;
+  jobRunner.enqueue(job);
+  const version = (await store.roomVersion(plan.roomId)) ?? plan.roomVersion;
+  return { plan: planSummary((await store.findPlan(plan.id))!, version), job: jobDto(job, jobRunner.positionOf(jobId)) };
+}
+
+export async function getPlan(plan: LoadedPlan): Promise<PlanDetail> {
+  return planDetail(plan, (await store.roomVersion(plan.roomId)) ?? plan.roomVersion);
+}
+
+export async function listPlans(user: SignedInUser, roomId: number): Promise<PlanSummary[]> {
+  const { room } = await roomAccess(user, roomId, 'view', 'That room');
+  return (await store.listPlans(roomId)).map((r) => planSummary(r, room.version));
+}
+
+export async function updatePlan(plan: LoadedPlan, patch: { name?: string; chosen?: boolean }): Promise<PlanSummary> {
+  if (patch.name !== undefined) await store.updatePlan(plan.id, { name: patch.name.trim() });
+  if (patch.chosen !== undefined) {
+    if (patch.chosen && plan.status !== 'ready') throw planError('NOT_READY', 'Only a finished plan can be marked as chosen.');
+    await store.setChosen(plan.id, plan.roomId, patch.chosen);
+  }
+  const fresh = (await store.findPlan(plan.id))!;
+  return planSummary(fresh, (await store.roomVersion(plan.roomId)) ?? plan.roomVersion);
+}
+
+export async function deletePlan(plan: LoadedPlan): Promise<void> {
+  for (const job of await store.openJobsOfPlan(plan.id)) await jobRunner.cancel(job);
+  await store.deletePlan(plan.id);
+}
+
+export async function comparePlans(a: LoadedPlan, b: LoadedPlan): Promise<PlanComparison> {
+  if (a.roomId !== b.roomId) throw planError('INVALID_INPUT', 'Compare two plans of the same room.');
+  const version = (await store.roomVersion(a.roomId)) ?? a.roomVersion;
+  const hops = (p: LoadedPlan) => {
+    const r = parseResults(p);
+    const s = parseSnapshot(p);
+    return { map: new Map(s.personIds.map((id, i) => [id, r?.h[i] ?? null])), snap: s };
+  };
+  const ha = hops(a);
+  const hb = hops(b);
+  const ids = [...ha.snap.personIds, ...hb.snap.personIds.filter((id) => !ha.map.has(id))];
+  const nameOf = new Map<number, string>();
+  hb.snap.personIds.forEach((id, i) => nameOf.set(id, hb.snap.names[i]));
+  ha.snap.personIds.forEach((id, i) => nameOf.set(id, ha.snap.names[i]));
+  const people = ids.map((personId) => {
+    const va = ha.map.get(personId) ?? null;
+    const vb = hb.map.get(personId) ?? null;
+    return { personId, name: nameOf.get(personId) ?? '', a: va, b: vb, difference: va !== null && vb !== null ? vb - va : null };
+  });
+  const sa = new Set((a.starters ?? []).map((s) => s.personId));
+  const sb = new Set((b.starters ?? []).map((s) => s.personId));
+  const diff = a.average !== null && b.average !== null ? b.average - a.average : null;
+  let line = 'One of the plans is not finished yet.';
+  if (diff !== null && a.average) {
+    const pct = Math.abs(diff / a.average) * 100;
+    line =
+      Math.abs(diff) <= 1e-9 * a.average
+        ? `Both plans give the same room average (${a.average.toFixed(2)} hops).`
+        : `"${b.name}" gives a room average ${Math.abs(diff).toFixed(2)} hops (${pct.toFixed(1)}%) ${diff < 0 ? 'lower' : 'higher'} than "${a.name}".`;
+  }
+  return {
+    a: planSummary(a, version),
+    b: planSummary(b, version),
+    people,
+    onlyInA: [...sa].filter((id) => !sb.has(id)),
+    onlyInB: [...sb].filter((id) => !sa.has(id)),
+    inBoth: [...sa].filter((id) => sb.has(id)),
+    averageDifference: diff,
+    sameRoomVersion: a.roomVersion === b.roomVersion,
+    line,
+  };
+}
+
+export async function sweep(user: SignedInUser, roomId: number, maxK: number, seed: string): Promise<KSweepResult> {
+  await roomAccess(user, roomId, 'view', 'That room');
+  const snapshot = await snapshotOf(roomId);
+  const n = snapshot.personIds.length;
+  const cap = Math.min(n - 1, PLAN_LIMITS.sweepMaxK);
+  if (n < 2) throw planError('INVALID_K', 'A k-sweep needs a room of at least two people.');
+  if (maxK < 1 || maxK > cap) {
+    throw planError(
+      'INVALID_K',
+      `The k-sweep goes up to k = ${cap} for this room (${n} people, at most ${PLAN_LIMITS.sweepMaxK}); got ${maxK}.`,
+      { maxK, cap },
+    );
+  }
+  const out = await runInPlanPool({ kind: 'sweep', snapshot, maxK, seed }, { hardLimitMs: 180_000 });
+  if ('error' in out) throw planError(out.error.code, out.error.message, out.error.detail);
+  return out.ok as KSweepResult;
+}

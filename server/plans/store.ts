@@ -1,0 +1,81 @@
+/** Data access for plans (Drizzle). Lists never load the snapshot or the per-person results. */
+import { and, desc, eq, getTableColumns, inArray, ne } from 'drizzle-orm';
+import { users } from '../../db/schema/accounts';
+import { jobs, plans, rehearsals } from '../../db/schema/plans';
+import { rooms } from '../../db/schema/rooms';
+import { db, type Tx } from '../db';
+
+export type PlanRow = typeof plans.$inferSelect;
+export type NewPlan = typeof plans.$inferInsert;
+/** A plan row without its two large columns. */
+export type PlanListRow = Omit<PlanRow, 'snapshot' | 'results'> & { createdByName: string };
+
+const { snapshot: _snapshot, results: _results, ...listColumns } = getTableColumns(plans);
+
+export async function insertPlan(values: NewPlan, tx: Tx | typeof db = db): Promise<number> {
+  const [{ id }] = await tx.insert(plans).values(values).$returningId();
+  return id;
+}
+
+export async function updatePlan(id: number, patch: Partial<NewPlan>, tx: Tx | typeof db = db): Promise<void> {
+  await tx.update(plans).set(patch).where(eq(plans.id, id));
+}
+
+export async function findPlan(id: number, tx: Tx | typeof db = db): Promise<(PlanRow & { createdByName: string }) | undefined> {
+  const [row] = await tx
+    .select({ plan: plans, createdByName: users.name })
+    .from(plans)
+    .innerJoin(users, eq(users.id, plans.createdBy))
+    .where(eq(plans.id, id));
+  return row ? { ...row.plan, createdByName: row.createdByName } : undefined;
+}
+
+export async function listPlans(roomId: number): Promise<PlanListRow[]> {
+  const rows = await db
+    .select({ ...listColumns, createdByName: users.name })
+    .from(plans)
+    .innerJoin(users, eq(users.id, plans.createdBy))
+    .where(eq(plans.roomId, roomId))
+    .orderBy(desc(plans.createdAt), desc(plans.id));
+  return rows;
+}
+
+export async function roomVersion(roomId: number, tx: Tx | typeof db = db): Promise<number | undefined> {
+  const [row] = await tx.select({ version: rooms.version, name: rooms.name }).from(rooms).where(eq(rooms.id, roomId));
+  return row?.version;
+}
+
+export async function roomName(roomId: number): Promise<string> {
+  const [row] = await db.select({ name: rooms.name }).from(rooms).where(eq(rooms.id, roomId));
+  return row?.name ?? '';
+}
+
+/** Marks one plan as the room's chosen plan (or unmarks it). */
+export async function setChosen(planId: number, roomId: number, chosen: boolean): Promise<void> {
+  await db.transaction(async (tx) => {
+    if (chosen)
+      await tx
+        .update(plans)
+        .set({ chosen: false })
+        .where(and(eq(plans.roomId, roomId), ne(plans.id, planId)));
+    await tx.update(plans).set({ chosen }).where(eq(plans.id, planId));
+  });
+}
+
+export async function deletePlan(id: number): Promise<void> {
+  await db.delete(plans).where(eq(plans.id, id));
+}
+
+/** Open jobs of a plan and of its rehearsals (to cancel before deleting). */
+export async function openJobsOfPlan(planId: number) {
+  const own = await db
+    .select()
+    .from(jobs)
+    .where(and(eq(jobs.planId, planId), inArray(jobs.status, ['queued', 'running'])));
+  const viaRehearsals = await db
+    .select({ job: jobs })
+    .from(rehearsals)
+    .innerJoin(jobs, eq(jobs.id, rehearsals.jobId))
+    .where(and(eq(rehearsals.planId, planId), inArray(jobs.status, ['queued', 'running'])));
+  return [...own, ...viaRehearsals.map((r) => r.job)];
+}

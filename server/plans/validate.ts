@@ -1,0 +1,103 @@
+/**
+ * Checks a plan request on the request thread before any work is queued, so every bad input is
+ * a specific 400 at once (never a failed background job): person ids, k, the closed groups, the
+ * exhaustive size limit. The engine's own validation (planContext, O(n + m) here) gives the codes.
+ */
+import { isEngineError, unreachablePeople, type PreparedRoom } from '../../shared/engine/index';
+import { planContext } from '../../shared/engine/plan-context';
+import { PLAN_LIMITS, type CreatePlanRequest } from '../../shared/api/plans';
+import { HttpError } from '../core/http-error';
+import type { RoomSnapshot } from './compute';
+
+export function planError(code: string, message: string, details?: Record<string, unknown>): HttpError {
+  return new HttpError(400, code, message, details);
+}
+
+/** Engine errors become 400 answers with the engine's code; anything else is rethrown. */
+export function fromEngine(e: unknown): never {
+  if (isEngineError(e)) throw planError(e.code, e.message, e.detail);
+  throw e;
+}
+
+/** Person ids -> engine indices, naming every id that is not (or no longer) in the room. */
+export function indicesOfPeople(snapshot: RoomSnapshot, ids: readonly number[], what: string): number[] {
+  const index = new Map(snapshot.personIds.map((id, i) => [id, i]));
+  const missing = ids.filter((id) => !index.has(id));
+  if (missing.length > 0) {
+    throw planError(
+      'UNKNOWN_PERSON',
+      `${what}: ${missing.length === 1 ? `person ${missing[0]} is` : `people ${missing.join(', ')} are`} not in this room ` +
+        '(deleted, or from another room). Reload the room and choose again.',
+      { personIds: missing },
+    );
+  }
+  const dupes = ids.filter((id, i) => ids.indexOf(id) !== i);
+  if (dupes.length > 0)
+    throw planError('INVALID_STARTERS', `${what}: ${snapshot.names[index.get(dupes[0])!]} is listed twice.`, { personIds: dupes });
+  return ids.map((id) => index.get(id)!);
+}
+
+export function checkPlannerRequest(
+  room: PreparedRoom,
+  snapshot: RoomSnapshot,
+  body: CreatePlanRequest,
+  must: number[],
+  exclude: number[],
+): void {
+  const n = room.n;
+  const k = body.k!;
+  if (n < 2) throw planError('INVALID_K', `The room has ${n} ${n === 1 ? 'person' : 'people'}: a plan needs at least two people.`);
+  if (k < 1) throw planError('INVALID_K', 'k must be at least 1: brief at least one person.', { k, people: n });
+  if (k >= n) {
+    throw planError(
+      'INVALID_K',
+      `k must be below the number of people (${n}): with k = ${k} nobody is left to hear it by word of mouth. Choose 1 to ${n - 1}.`,
+      { k, people: n },
+    );
+  }
+  if (must.length > k) {
+    throw planError(
+      'MUST_INCLUDE_TOO_MANY',
+      `${must.length} people must be briefed but k is ${k}: raise k to at least ${must.length} or shorten the list.`,
+      { k, mustBrief: must.length },
+    );
+  }
+  if (body.method === 'exhaustive' && n > PLAN_LIMITS.exhaustiveMaxPeople) {
+    throw planError(
+      'EXHAUSTIVE_INFEASIBLE',
+      `Exhaustive search is offered for rooms of at most ${PLAN_LIMITS.exhaustiveMaxPeople} people; this room has ${n}. ` +
+        'Use auto (widened greedy then swap polish, with a proven gap) or swap polish instead.',
+      { people: n, limit: PLAN_LIMITS.exhaustiveMaxPeople, suggest: 'auto' },
+    );
+  }
+  try {
+    planContext(room, { k, method: body.method ?? 'auto', mustInclude: must, exclude });
+  } catch (e) {
+    fromEngine(e);
+  }
+}
+
+export function checkHandMade(room: PreparedRoom, snapshot: RoomSnapshot, starters: number[]): void {
+  const n = room.n;
+  if (starters.length < 1) throw planError('INVALID_K', 'Pick at least one starter.');
+  if (starters.length >= n) {
+    throw planError('INVALID_K', `A plan briefs fewer people than the room holds (${n}); you picked ${starters.length}.`, {
+      k: starters.length,
+      people: n,
+    });
+  }
+  const lost = unreachablePeople(room, starters);
+  if (lost.length > 0) {
+    const people = lost.map((u) => ({ personId: snapshot.personIds[u.index], name: snapshot.names[u.index], reason: u.reason }));
+    const named = people
+      .slice(0, 5)
+      .map((p) => p.name)
+      .join(', ');
+    throw planError(
+      'UNREACHABLE_PEOPLE',
+      `With these starters ${people.length} ${people.length === 1 ? 'person' : 'people'} can never hear (${named}${people.length > 5 ? ', ...' : ''}): ` +
+        'add a starter in each part of the room that questions cannot leave.',
+      { people },
+    );
+  }
+}

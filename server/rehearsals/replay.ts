@@ -1,0 +1,70 @@
+/** Sample cascades for the projector replay: the people (with their current map positions) and each stored cascade. */
+import { eq } from 'drizzle-orm';
+import type { ReplayIndex, ReplaySample } from '../../shared/api/plans';
+import { people as peopleTable } from '../../db/schema/rooms';
+import { notFound } from '../core/http-error';
+import { db } from '../db';
+import { parseSnapshot } from '../plans/dto';
+import { findPlan } from '../plans/store';
+import { planError } from '../plans/validate';
+import type { LoadedRehearsal, StoredSample } from './service';
+
+function samplesOf(row: LoadedRehearsal): StoredSample[] {
+  if (row.job.status !== 'done' || !row.rehearsal.samples)
+    throw planError('NOT_READY', 'This rehearsal has not finished: its sample cascades are not available.');
+  return JSON.parse(row.rehearsal.samples) as StoredSample[];
+}
+
+export async function replayIndex(row: LoadedRehearsal): Promise<ReplayIndex> {
+  const samples = samplesOf(row);
+  const plan = (await findPlan(row.rehearsal.planId))!;
+  const snap = parseSnapshot(plan);
+  const positions = new Map(
+    (
+      await db
+        .select({ id: peopleTable.id, x: peopleTable.x, y: peopleTable.y })
+        .from(peopleTable)
+        .where(eq(peopleTable.roomId, plan.roomId))
+    ).map((p) => [p.id, p]),
+  );
+  const starters = (plan.starters ?? []).map((s) => s.personId);
+  const isStarter = new Set(starters);
+  return {
+    rehearsalId: row.rehearsal.id,
+    seed: row.rehearsal.seed,
+    runs: row.rehearsal.runs,
+    minutesPerHop: snap.settings.minutesPerHop,
+    starters,
+    people: snap.personIds.map((personId, index) => ({
+      index,
+      personId,
+      name: snap.names[index],
+      group: snap.graph.groups?.[index] ?? null,
+      x: positions.get(personId)?.x ?? null,
+      y: positions.get(personId)?.y ?? null,
+      starter: isStarter.has(personId),
+    })),
+    ties: snap.graph.ties.map((t) => ({ source: t.source, target: t.target, strength: t.strength })),
+    directed: snap.graph.directed,
+    samples: samples.map((s, n) => ({ n, run: s.run })),
+  };
+}
+
+export async function replaySample(row: LoadedRehearsal, rawN: string): Promise<ReplaySample> {
+  const samples = samplesOf(row);
+  const n = /^\d{1,4}$/.test(rawN) ? Number(rawN) : NaN;
+  const s = samples[n];
+  if (!s) throw notFound(`Sample ${rawN}`);
+  const plan = (await findPlan(row.rehearsal.planId))!;
+  const snap = parseSnapshot(plan);
+  const index = new Map(snap.personIds.map((id, i) => [id, i]));
+  const heardAt: (number | null)[] = snap.personIds.map(() => null);
+  for (const st of plan.starters ?? []) heardAt[index.get(st.personId)!] = 0;
+  const chains = s.people.map((person, q) => {
+    const capped = s.capped[q] === 1;
+    if (!capped) heardAt[person] = s.hops[q];
+    return { person, path: s.path.slice(s.pathStart[q], s.pathStart[q + 1]), hops: s.hops[q], truncated: s.truncated[q] === 1, capped };
+  });
+  const lastHop = chains.reduce((m, c) => (c.capped ? m : Math.max(m, c.hops)), 0);
+  return { rehearsalId: row.rehearsal.id, n, run: s.run, seed: row.rehearsal.seed, heardAt, chains, lastHop };
+}

@@ -1,0 +1,321 @@
+/**
+ * Rehearsals: start R seeded cascades for a plan (idempotent, capped, queued per user), the job
+ * that runs them in the engine's worker pool, results written once when complete, the verdict,
+ * history, re-run from the seed, cancel.
+ */
+import { randomBytes } from 'node:crypto';
+import {
+  IDEMPOTENCY_WINDOW_MS,
+  REHEARSAL_LIMITS,
+  type RehearsalDetail,
+  type RehearsalStarted,
+  type RehearsalSummary,
+  type StartRehearsalRequest,
+} from '../../shared/api/plans';
+import { Z99, type SimulationSummary } from '../../shared/engine/index';
+import { config } from '../config';
+import { conflict, notFound } from '../core/http-error';
+import { db } from '../db';
+import { idOf, roomAccess } from '../jobs/access';
+import { jobDto } from '../jobs/dto';
+import { simulationPool } from '../jobs/pools';
+import { JobFailure, jobRunner, type JobHandler } from '../jobs/runner';
+import { clearJobKey, findJob, findJobByKey, insertJob, updateJob } from '../jobs/store';
+import { parseResults, parseSnapshot } from '../plans/dto';
+import type { LoadedPlan } from '../plans/service';
+import { findPlan } from '../plans/store';
+import { planError } from '../plans/validate';
+import type { RoomNeed } from '../rooms/access';
+import type { SignedInUser } from '../types';
+import * as store from './store';
+import { verdictOf } from './verdict';
+
+export const SEED_PATTERN = new RegExp(REHEARSAL_LIMITS.seedPattern);
+export const SAMPLE_PATH_CAP = 500;
+
+/** What is stored per rehearsal (engine order), written in one go when the job is done. */
+export interface StoredRehearsalResults {
+  mean: number[];
+  sd: number[];
+  stderr: number[];
+  low95: number[];
+  high95: number[];
+  capped: number[];
+  walked: number[];
+  analytic: (number | null)[];
+  inside99: number[];
+  reachSimulated: number[];
+  reachAnalytic: number[];
+}
+
+export type LoadedRehearsal = NonNullable<Awaited<ReturnType<typeof store.findRehearsal>>>;
+
+export async function loadRehearsalFor(user: SignedInUser | undefined, raw: unknown, need: RoomNeed): Promise<LoadedRehearsal> {
+  const row = await store.findRehearsal(idOf(raw, 'That rehearsal'));
+  if (!row) throw notFound('That rehearsal');
+  await roomAccess(user, row.rehearsal.roomId, need, 'That rehearsal');
+  return row;
+}
+
+export function randomSeed(): string {
+  return randomBytes(8).toString('hex');
+}
+
+export function checkRuns(runs: number): void {
+  if (!Number.isInteger(runs) || runs < 1)
+    throw planError('INVALID_OPTION', `The number of cascades must be a whole number of at least 1 (got ${runs}).`);
+  if (runs > config.MAX_CASCADES) {
+    throw planError(
+      'TOO_MANY_CASCADES',
+      `At most ${config.MAX_CASCADES.toLocaleString('en-US')} cascades per rehearsal (you asked for ${runs.toLocaleString('en-US')}): lower the number.`,
+      { runs, max: config.MAX_CASCADES },
+    );
+  }
+}
+
+export function checkSeed(seed: string): void {
+  if (!SEED_PATTERN.test(seed)) {
+    throw planError(
+      'INVALID_SEED',
+      'A seed is 1 to 64 letters, digits, "-" or "_" (for example 2026-allhands); leave it empty for a random one.',
+      { seed: seed.slice(0, 80) },
+    );
+  }
+}
+
+// Starts of one user are serialised in this process, so the idempotency check and the insert cannot interleave.
+const userLocks = new Map<number, Promise<unknown>>();
+function withUserLock<T>(userId: number, work: () => Promise<T>): Promise<T> {
+  const previous = userLocks.get(userId) ?? Promise.resolve();
+  const next = previous.catch(() => undefined).then(work);
+  userLocks.set(userId, next);
+  void next.finally(() => userLocks.get(userId) === next && userLocks.delete(userId)).catch(() => undefined);
+  return next;
+}
+
+export async function startRehearsal(
+  user: SignedInUser,
+  plan: LoadedPlan,
+  body: StartRehearsalRequest,
+  rerunOf: { id: number } | null = null,
+): Promise<RehearsalStarted> {
+  if (plan.status !== 'ready') throw planError('NOT_READY', 'This plan is not computed yet: rehearse it once it is ready.');
+  checkRuns(body.runs);
+  if (body.seed !== undefined) checkSeed(body.seed);
+  const seed = body.seed ?? randomSeed();
+  const key = body.idempotencyKey
+    ? `key:${body.idempotencyKey}`
+    : rerunOf
+      ? `rerun:${rerunOf.id}`
+      : `auto:${plan.id}:${body.seed ?? '*'}:${body.runs}`;
+  return withUserLock(user.id, async () => {
+    const existing = await findJobByKey(user.id, key);
+    if (existing) {
+      const reusable =
+        body.idempotencyKey !== undefined ||
+        (Date.now() - existing.createdAt.getTime() < IDEMPOTENCY_WINDOW_MS &&
+          !['failed', 'cancelled', 'interrupted'].includes(existing.status));
+      if (reusable) {
+        const row = existing.rehearsalId ? await store.findRehearsal(existing.rehearsalId) : undefined;
+        if (!row) throw conflict('That idempotency key was already used for something else.');
+        if (
+          row.rehearsal.planId !== plan.id ||
+          row.rehearsal.runs !== body.runs ||
+          (body.seed !== undefined && row.rehearsal.seed !== body.seed)
+        ) {
+          throw conflict('That idempotency key was already used for a different rehearsal: send a new key.');
+        }
+        return { rehearsal: summaryOf(row), job: jobDto(row.job, jobRunner.positionOf(row.job.id)), reused: true };
+      }
+      await clearJobKey(existing.id);
+    }
+    const rehearsalId = await db.transaction(async (tx) => {
+      const jobId = await insertJob({ userId: user.id, roomId: plan.roomId, kind: 'rehearsal', planId: plan.id, idempotencyKey: key }, tx);
+      const id = await store.insertRehearsal(
+        { planId: plan.id, roomId: plan.roomId, createdBy: user.id, jobId, runs: body.runs, seed, rerunOf: rerunOf?.id ?? null },
+        tx,
+      );
+      await updateJob(jobId, { rehearsalId: id }, tx);
+      return id;
+    });
+    const row = (await store.findRehearsal(rehearsalId))!;
+    jobRunner.enqueue(row.job);
+    const fresh = (await store.findRehearsal(rehearsalId))!;
+    return { rehearsal: summaryOf(fresh), job: jobDto(fresh.job, jobRunner.positionOf(fresh.job.id)), reused: false };
+  });
+}
+
+function starterIndices(plan: LoadedPlan): number[] {
+  const snap = parseSnapshot(plan);
+  const index = new Map(snap.personIds.map((id, i) => [id, i]));
+  return (plan.starters ?? []).map((s) => index.get(s.personId)!);
+}
+
+function storedResults(
+  s: SimulationSummary,
+  analytic: (number | null)[],
+  analyticCurve: number[],
+  inside: Uint8Array,
+): StoredRehearsalResults {
+  return {
+    mean: Array.from(s.mean),
+    sd: Array.from(s.variance, (v) => Math.sqrt(v)),
+    stderr: Array.from(s.stderr),
+    low95: Array.from(s.low95),
+    high95: Array.from(s.high95),
+    capped: Array.from(s.cappedByPerson),
+    walked: Array.from(s.walked),
+    analytic,
+    inside99: Array.from(inside),
+    reachSimulated: s.reachCurve,
+    reachAnalytic: analyticCurve,
+  };
+}
+
+function storedSamples(s: SimulationSummary) {
+  return s.samples.map((c) => ({
+    run: c.run,
+    people: Array.from(c.people),
+    hops: Array.from(c.hops),
+    capped: Array.from(c.capped),
+    truncated: Array.from(c.truncated),
+    pathStart: Array.from(c.pathStart),
+    path: Array.from(c.path),
+  }));
+}
+export type StoredSample = ReturnType<typeof storedSamples>[number];
+
+/** The rehearsal job: cascades in the engine's pool; results and verdict written only when complete. */
+export const rehearsalJobHandler: JobHandler = {
+  async run(job, ctx) {
+    const r = await store.findRehearsalByJob(job.id);
+    if (!r) throw new JobFailure('The rehearsal was deleted.');
+    const plan = await findPlan(r.planId);
+    if (!plan) throw new JobFailure('The plan was deleted.');
+    const snap = parseSnapshot(plan);
+    const planResults = parseResults(plan)!;
+    const started = performance.now();
+    const summary = await simulationPool().simulate(
+      snap.graph,
+      starterIndices(plan),
+      r.runs,
+      r.seed,
+      { laziness: snap.settings.laziness, mixing: snap.settings.mixing, samples: REHEARSAL_LIMITS.samples, samplePathCap: SAMPLE_PATH_CAP },
+      { signal: ctx.signal, onProgress: (done, of) => ctx.progress(done / of, done, of) },
+    );
+    const elapsedMs = performance.now() - started;
+    const analyticAverage = plan.average!;
+    const verdict = verdictOf({
+      mean: summary.mean,
+      stderr: summary.stderr,
+      walked: summary.walked,
+      analytic: planResults.h,
+      average: summary.average,
+      averageStderr: summary.averageStderr,
+      analyticAverage,
+      runs: summary.runs,
+      capped: summary.capped,
+    });
+    const { inside, ...verdictDto } = verdict;
+    const results = JSON.stringify(storedResults(summary, planResults.h, planResults.curve.byHop, inside));
+    const samples = JSON.stringify(storedSamples(summary));
+    return async (tx) =>
+      store.updateRehearsal(
+        r.id,
+        {
+          average: summary.average,
+          averageStderr: summary.averageStderr,
+          analyticAverage,
+          capped: summary.capped,
+          hops: summary.hops,
+          hopCap: summary.hopCap,
+          elapsedMs,
+          verdict: verdictDto,
+          results,
+          samples,
+          finishedAt: new Date(),
+        },
+        tx,
+      );
+  },
+};
+
+export function summaryOf(row: LoadedRehearsal | store.RehearsalListRow): RehearsalSummary {
+  const r = row.rehearsal;
+  const done = row.job.status === 'done';
+  return {
+    id: r.id,
+    planId: r.planId,
+    planName: row.planName,
+    roomId: r.roomId,
+    status: row.job.status,
+    runs: r.runs,
+    seed: r.seed,
+    jobId: r.jobId,
+    progress: row.job.progress,
+    queuePosition: jobRunner.positionOf(r.jobId),
+    average: done ? r.average : null,
+    averageStderr: done ? r.averageStderr : null,
+    analyticAverage: r.analyticAverage,
+    capped: done ? r.capped : null,
+    elapsedMs: done ? r.elapsedMs : null,
+    verdict: done ? (r.verdict as RehearsalSummary['verdict']) : null,
+    rerunOf: r.rerunOf,
+    message: row.job.message,
+    createdBy: row.createdByName,
+    createdAt: r.createdAt.toISOString(),
+    finishedAt: row.job.finishedAt ? row.job.finishedAt.toISOString() : null,
+  };
+}
+
+export async function rehearsalDetail(row: LoadedRehearsal): Promise<RehearsalDetail> {
+  const plan = await findPlan(row.rehearsal.planId);
+  const snap = parseSnapshot(plan!);
+  const base = summaryOf(row);
+  const mph = snap.settings.minutesPerHop;
+  const results = row.job.status === 'done' && row.rehearsal.results ? (JSON.parse(row.rehearsal.results) as StoredRehearsalResults) : null;
+  if (!results) return { ...base, people: [], reach: null, hopCap: null, hops: null, samples: 0, minutesPerHop: mph };
+  const starters = new Set((plan!.starters ?? []).map((s) => s.personId));
+  const people = snap.personIds.map((personId, i) => {
+    const half = Z99 * results.stderr[i];
+    return {
+      personId,
+      name: snap.names[i],
+      group: snap.graph.groups?.[i] ?? null,
+      starter: starters.has(personId),
+      walked: results.walked[i] === 1,
+      mean: results.mean[i],
+      sd: results.sd[i],
+      stderr: results.stderr[i],
+      low95: results.low95[i],
+      high95: results.high95[i],
+      low99: results.mean[i] - half,
+      high99: results.mean[i] + half,
+      analytic: results.analytic[i] ?? Infinity,
+      capped: results.capped[i],
+      inInterval99: results.inside99[i] === 1,
+    };
+  });
+  const sampleCount = row.rehearsal.samples ? (JSON.parse(row.rehearsal.samples) as unknown[]).length : 0;
+  return {
+    ...base,
+    people,
+    reach: { simulated: results.reachSimulated, analytic: results.reachAnalytic },
+    hopCap: row.rehearsal.hopCap,
+    hops: row.rehearsal.hops,
+    samples: sampleCount,
+    minutesPerHop: mph,
+  };
+}
+
+export async function cancelRehearsal(row: LoadedRehearsal): Promise<RehearsalSummary> {
+  const job = await findJob(row.rehearsal.jobId);
+  if (job) await jobRunner.cancel(job);
+  return summaryOf((await store.findRehearsal(row.rehearsal.id))!);
+}
+
+export async function deleteRehearsal(row: LoadedRehearsal): Promise<void> {
+  const job = await findJob(row.rehearsal.jobId);
+  if (job && (job.status === 'queued' || job.status === 'running')) await jobRunner.cancel(job);
+  await store.deleteRehearsal(row.rehearsal.id);
+}

@@ -1,0 +1,71 @@
+/** Data access for rehearsals (Drizzle); status lives on the job row. */
+import { and, desc, eq, getTableColumns, gte, lt, type SQL } from 'drizzle-orm';
+import { users } from '../../db/schema/accounts';
+import { jobs, plans, rehearsals } from '../../db/schema/plans';
+import { db, type Tx } from '../db';
+import type { JobStatus } from '../../shared/api/plans';
+
+export type RehearsalRow = typeof rehearsals.$inferSelect;
+export type NewRehearsal = typeof rehearsals.$inferInsert;
+export type JobRow = typeof jobs.$inferSelect;
+
+export interface RehearsalListRow {
+  rehearsal: Omit<RehearsalRow, 'results' | 'samples'>;
+  job: JobRow;
+  planName: string;
+  createdByName: string;
+}
+
+export async function insertRehearsal(values: NewRehearsal, tx: Tx | typeof db = db): Promise<number> {
+  const [{ id }] = await tx.insert(rehearsals).values(values).$returningId();
+  return id;
+}
+
+export async function updateRehearsal(id: number, patch: Partial<NewRehearsal>, tx: Tx | typeof db = db): Promise<void> {
+  await tx.update(rehearsals).set(patch).where(eq(rehearsals.id, id));
+}
+
+export async function findRehearsal(id: number): Promise<(RehearsalListRow & { rehearsal: RehearsalRow }) | undefined> {
+  const [row] = await db
+    .select({ rehearsal: rehearsals, job: jobs, planName: plans.name, createdByName: users.name })
+    .from(rehearsals)
+    .innerJoin(jobs, eq(jobs.id, rehearsals.jobId))
+    .innerJoin(plans, eq(plans.id, rehearsals.planId))
+    .innerJoin(users, eq(users.id, rehearsals.createdBy))
+    .where(eq(rehearsals.id, id));
+  return row;
+}
+
+export async function findRehearsalByJob(jobId: number, tx: Tx | typeof db = db): Promise<RehearsalRow | undefined> {
+  const [row] = await tx.select().from(rehearsals).where(eq(rehearsals.jobId, jobId));
+  return row;
+}
+
+export interface RehearsalFilter {
+  planId?: number;
+  status?: JobStatus;
+  from?: Date;
+  to?: Date;
+}
+
+export async function listRehearsals(roomId: number, f: RehearsalFilter): Promise<RehearsalListRow[]> {
+  const where: SQL[] = [eq(rehearsals.roomId, roomId)];
+  if (f.planId) where.push(eq(rehearsals.planId, f.planId));
+  if (f.status) where.push(eq(jobs.status, f.status));
+  if (f.from) where.push(gte(rehearsals.createdAt, f.from));
+  if (f.to) where.push(lt(rehearsals.createdAt, f.to));
+  const { results: _r, samples: _s, ...cols } = getTableColumns(rehearsals);
+  return db
+    .select({ rehearsal: cols, job: jobs, planName: plans.name, createdByName: users.name })
+    .from(rehearsals)
+    .innerJoin(jobs, eq(jobs.id, rehearsals.jobId))
+    .innerJoin(plans, eq(plans.id, rehearsals.planId))
+    .innerJoin(users, eq(users.id, rehearsals.createdBy))
+    .where(and(...where))
+    .orderBy(desc(rehearsals.createdAt), desc(rehearsals.id))
+    .limit(500);
+}
+
+export async function deleteRehearsal(id: number): Promise<void> {
+  await db.delete(rehearsals).where(eq(rehearsals.id, id));
+}
