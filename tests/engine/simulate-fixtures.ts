@@ -22,6 +22,18 @@ export function star(n: number): RoomGraph {
   return { ids: ids(n), directed: false, ties: Array.from({ length: n - 1 }, (_, i) => ({ source: 0, target: i + 1, strength: 1 })) };
 }
 
+/** Two pairs a-b and c-d with no tie between them. */
+export function splitRoom(): RoomGraph {
+  return {
+    ids: ['a', 'b', 'c', 'd'],
+    directed: false,
+    ties: [
+      { source: 0, target: 1, strength: 1 },
+      { source: 2, target: 3, strength: 1 },
+    ],
+  };
+}
+
 export function directedCycle(n: number): RoomGraph {
   return { ids: ids(n), directed: true, ties: Array.from({ length: n }, (_, i) => ({ source: i, target: (i + 1) % n, strength: 1 })) };
 }

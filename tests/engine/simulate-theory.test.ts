@@ -7,7 +7,7 @@ import { describe, it } from 'node:test';
 import { exactReach } from '../../shared/engine/reach';
 import { reachCurve } from '../../shared/engine/reach-time';
 import { simulate, Z99, type SimulationSummary } from '../../shared/engine/simulate/index';
-import { complete, directedCycle, karate, lesMiserables, path, randomDirected, star } from './simulate-fixtures';
+import { complete, directedCycle, karate, lesMiserables, path, randomDirected, splitRoom, star } from './simulate-fixtures';
 
 /** Share of walkers whose exact value lies in the simulated 99% interval. */
 function coverage(s: SimulationSummary, exact: (i: number) => number): number {
@@ -145,15 +145,7 @@ describe('caps, unreachable people, sample cascades', () => {
   });
 
   it('people who cannot reach any starter are listed and not walked', () => {
-    const g = {
-      ids: ['a', 'b', 'c', 'd'],
-      directed: false,
-      ties: [
-        { source: 0, target: 1, strength: 1 },
-        { source: 2, target: 3, strength: 1 },
-      ],
-    };
-    const s = simulate(g, [0], 100, 1);
+    const s = simulate(splitRoom(), [0], 100, 1);
     assert.deepEqual(
       s.unreachable.map((u) => u.id),
       ['c', 'd'],
@@ -202,15 +194,7 @@ describe('the simulated reach curve agrees with the analytic one', () => {
   });
 
   it('a split room: the unreachable part keeps the curve below 1', () => {
-    const g = {
-      ids: ['a', 'b', 'c', 'd'],
-      directed: false,
-      ties: [
-        { source: 0, target: 1, strength: 1 },
-        { source: 2, target: 3, strength: 1 },
-      ],
-    };
-    const s = simulate(g, [0], 10, 1);
+    const s = simulate(splitRoom(), [0], 10, 1);
     assert.deepEqual(s.reachCurve, [0, 1 / 3]);
   });
 });

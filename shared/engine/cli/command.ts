@@ -79,3 +79,20 @@ where a group asks only itself), their expected hops are infinite: they are left
 "reach" and listed in "unreachable" (with the reason in "reasons"); "total" and "average"
 are then null (the true values are infinite), "reachableTotal" and "reachableAverage" give
 the sum and mean over the people who can be reached, and one note line goes to stderr.`;
+
+/** The fields reach and simulate share: who is out of reach, why, and the stderr note. */
+export function unreachableFields(
+  n: number,
+  unreachable: readonly { readonly index: number; readonly id: string; readonly message: string }[],
+): { lost: Set<number>; ids: string[]; reasons: Record<string, string>; note?: string } {
+  const reasons: Record<string, string> = {};
+  for (const u of unreachable) reasons[u.id] = u.message;
+  return {
+    lost: new Set(unreachable.map((u) => u.index)),
+    ids: unreachable.map((u) => u.id),
+    reasons,
+    ...(unreachable.length > 0
+      ? { note: `note: ${unreachable.length} of ${n} people cannot reach any starter; total and average are null (see "unreachable")` }
+      : {}),
+  };
+}

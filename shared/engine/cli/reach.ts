@@ -7,6 +7,7 @@ import {
   UNREACHABLE_HELP,
   WALK_FLAGS,
   WALK_HELP,
+  unreachableFields,
   walkOptions,
   warningNotes,
   type Command,
@@ -36,14 +37,11 @@ ${UNREACHABLE_HELP}`,
     const starters = starterIndices(graph, argv, file);
     const r = exactReach(graph, starters, walkOptions(argv));
     const reach: Record<string, number> = {};
-    const lost = new Set(r.unreachable.map((u) => u.index));
-    for (let i = 0; i < r.n; i++) if (!lost.has(i)) reach[graph.ids[i]] = r.h[i];
-    const reasons: Record<string, string> = {};
-    for (const u of r.unreachable) reasons[u.id] = u.message;
-    const complete = r.unreachable.length === 0;
+    const out = unreachableFields(r.n, r.unreachable);
+    for (let i = 0; i < r.n; i++) if (!out.lost.has(i)) reach[graph.ids[i]] = r.h[i];
+    const complete = out.ids.length === 0;
     const notes = warningNotes(warnings, file);
-    if (!complete)
-      notes.push(`note: ${r.unreachable.length} of ${r.n} people cannot reach any starter; total and average are null (see "unreachable")`);
+    if (out.note) notes.push(out.note);
     return {
       result: {
         n: r.n,
@@ -51,8 +49,8 @@ ${UNREACHABLE_HELP}`,
         total: complete ? r.total : null,
         average: complete ? r.average : null,
         reach,
-        unreachable: r.unreachable.map((u) => u.id),
-        reasons,
+        unreachable: out.ids,
+        reasons: out.reasons,
         reachableTotal: r.reachableTotal,
         reachableAverage: r.reachableAverage,
         solver: r.solver,

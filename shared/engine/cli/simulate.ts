@@ -11,6 +11,7 @@ import {
   UNREACHABLE_HELP,
   WALK_FLAGS,
   WALK_HELP,
+  unreachableFields,
   walkOptions,
   warningNotes,
   type Command,
@@ -69,18 +70,15 @@ ${UNREACHABLE_HELP}`,
     }
     const reach: Record<string, number> = {};
     const stderr: Record<string, number> = {};
-    const lost = new Set(s.unreachable.map((u) => u.index));
+    const out = unreachableFields(s.n, s.unreachable);
     for (let i = 0; i < s.n; i++) {
-      if (lost.has(i)) continue;
+      if (out.lost.has(i)) continue;
       reach[graph.ids[i]] = s.mean[i];
       stderr[graph.ids[i]] = s.stderr[i];
     }
-    const reasons: Record<string, string> = {};
-    for (const u of s.unreachable) reasons[u.id] = u.message;
-    const complete = s.unreachable.length === 0;
+    const complete = out.ids.length === 0;
     const notes = warningNotes(warnings, file);
-    if (!complete)
-      notes.push(`note: ${s.unreachable.length} of ${s.n} people cannot reach any starter; total and average are null (see "unreachable")`);
+    if (out.note) notes.push(out.note);
     if (s.capped > 0)
       notes.push(`note: ${s.capped} walks reached the hop cap of ${s.hopCap} and were stopped; their means are lower bounds`);
     return {
@@ -100,8 +98,8 @@ ${UNREACHABLE_HELP}`,
         hopCap: s.hopCap,
         hops: s.hops,
         workers,
-        unreachable: s.unreachable.map((u) => u.id),
-        reasons,
+        unreachable: out.ids,
+        reasons: out.reasons,
         reachableTotal: s.total,
         reachableAverage: s.average,
       },
