@@ -90,6 +90,12 @@ export function exhaustiveSearch(ctx: PlanContext, incumbent: AbsorbingState): E
     }
   };
 
+  if (k === 1 && e && ctx.mustInclude.length === 0) {
+    // Identity 3 scores every single starter exactly: the best allowed one is the optimum.
+    let best = -1;
+    for (let j = 0; j < n; j++) if (allowed[j] && (best < 0 || e.singleTotals[j] < e.singleTotals[best] * (1 - 1e-12))) best = j;
+    return { state: { starters: [best], total: e.singleTotals[best] }, complete: true, nodes: n };
+  }
   const roots = enumerateRoots(ctx, openClasses);
   for (const root of roots) {
     if (aborted) break;

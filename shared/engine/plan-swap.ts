@@ -40,9 +40,12 @@ export function swapPolish(ctx: PlanContext, start: AbsorbingState, maxPasses = 
       }
     }
     if (!improved) break;
-    // Re-factor once per improving pass so rounding from many updates cannot build up.
-    const order = [...state.starters];
-    state = AbsorbingState.fromStarters(ctx.room, order);
+    if (performance.now() > ctx.deadline) {
+      ctx.warnings.push(`Swap polish stopped at the time limit after ${pass + 1} passes.`);
+      break;
+    }
+    // Re-factor once per improving pass (small rooms) so rounding from many updates cannot build up.
+    if (ctx.n <= 500) state = AbsorbingState.fromStarters(ctx.room, [...state.starters]);
   }
   recordBound(ctx, state);
   return state;

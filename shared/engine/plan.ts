@@ -4,8 +4,8 @@
  * whether the plan is certified optimal.
  *
  * `auto` chooses by size: rooms above the dense limit use lazy greedy; small searches
- * (at most ~2e6 k-sets, or n <= 40 with k <= 6) use exhaustive branch and bound under the
- * time limit; rooms up to 400 people use widened greedy followed by swap polish; larger
+ * (n <= 150 with at most ~2e6 k-sets, n <= 40 with k <= 6, or k = 1) use exhaustive branch
+ * and bound under the time limit; rooms up to 400 people use widened greedy followed by swap polish; larger
  * dense rooms use greedy followed by swap polish. When the cover fits within k (and there is
  * no mixing) the cover plus greedy fill reaches the proven best total n - k.
  */
@@ -101,7 +101,7 @@ function auto(ctx: PlanContext): PlanResult {
   }
   const free = n - ctx.exclude.length - ctx.mustInclude.length;
   const sets = binomial(free, k - ctx.mustInclude.length);
-  if (sets <= 2e6 || (n <= 40 && k <= 6)) return runExhaustive(ctx);
+  if ((n <= 150 && sets <= 2e6) || (n <= 40 && k <= 6) || k === 1) return runExhaustive(ctx);
   const g = greedyState(ctx);
   if (n <= 400) {
     const w = widenedState(ctx, g);

@@ -5,7 +5,7 @@
  * references are timed on a sample of solves and extrapolated, marked "(extrapolated)".
  * Speed goals are benchmarks, not tests: nothing here fails the build.
  */
-import { availableParallelism } from 'node:os';
+import { availableParallelism, loadavg } from 'node:os';
 import { allPairsTotals, ergodicData, exactReach, plan, vertexCover, type PreparedRoom } from '../../shared/engine/index';
 import { simulate } from '../../shared/engine/simulate/index';
 import { simulateInPool } from '../../shared/engine/simulate/pool';
@@ -52,7 +52,11 @@ function add(row: Row): void {
 
 async function main(): Promise<void> {
   const t0 = performance.now();
-  log(`Ripplehall engine benchmark (Node ${process.version}, ${availableParallelism()} cores)`);
+  const load = () =>
+    loadavg()
+      .map((x) => x.toFixed(1))
+      .join(' / ');
+  log(`Ripplehall engine benchmark (Node ${process.version}, ${availableParallelism()} cores, load average ${load()})`);
 
   // 1. Exact reach, n = 300, dense.
   for (const directed of [false, true]) {
@@ -303,6 +307,7 @@ async function main(): Promise<void> {
   }
 
   printTable('Speed targets (engine.md section 6)', rows);
+  console.log(`\nLoad average (1/5/15 min) after the table: ${load()}; other work on the machine slows every row.`);
 
   // Scaling table.
   const scale: Row[] = [];
