@@ -47,7 +47,8 @@ describe('rehearsal pool', () => {
       const run = pool.simulate(path(400), [0], 1000, 1, {}, { signal: controller.signal, onProgress: () => {} });
       setTimeout(() => controller.abort(), 200);
       await assert.rejects(run, (e: Error) => e.name === 'AbortError');
-      assert.ok(performance.now() - started < 5000);
+      // a guard against hanging, not a speed test
+      assert.ok(performance.now() - started < 30_000);
       const pre = new AbortController();
       pre.abort();
       await assert.rejects(pool.simulate(path(5), [0], 10, 1, {}, { signal: pre.signal }), (e: Error) => e.name === 'AbortError');
