@@ -10,6 +10,7 @@
 import { EngineError } from './errors';
 import type { WalkOptions } from './graph';
 import { luFactor, luSolve, symmetricFactor, symmetricSolve } from './linalg/dense';
+import { minimumDegreeOrder } from './linalg/ordering';
 import { unreachablePeople, type UnreachablePerson } from './reachability';
 import { checkPeople, prepareRoom, type PreparedRoom, type RoomInput } from './room';
 import { SparseSystem } from './sparse-system';
@@ -105,18 +106,23 @@ export function exactReach(input: RoomInput, starterList: readonly number[], opt
   const dense = options.solver === 'dense' || (options.solver !== 'sparse' && f <= limit);
   if (f > 0 && dense) {
     const sym = isSymmetricForm(room);
-    const m = denseSystem(room, idx, sym);
-    const rhs = new Float64Array(f);
     if (sym) {
-      for (let k = 0; k < f; k++) rhs[k] = room.csr.outStrength[idx[k]];
+      // Eliminate in minimum degree order so a sparse room's factor stays sparse for longer.
+      const ord = f >= 64 ? fillReducingOrder(room, idx) : idx;
+      const m = denseSystem(room, ord, true);
+      const rhs = new Float64Array(f);
+      for (let k = 0; k < f; k++) rhs[k] = room.csr.outStrength[ord[k]];
       symmetricSolve(symmetricFactor(m, f), f, rhs);
+      for (let k = 0; k < f; k++) h[ord[k]] = rhs[k] * scale;
       solver = 'ldlt';
     } else {
+      const m = denseSystem(room, idx, false);
+      const rhs = new Float64Array(f);
       rhs.fill(1);
       luSolve(luFactor(m, f), rhs);
       solver = 'lu';
+      for (let k = 0; k < f; k++) h[idx[k]] = rhs[k] * scale;
     }
-    for (let k = 0; k < f; k++) h[idx[k]] = rhs[k] * scale;
   } else if (f > 0) {
     const sys = new SparseSystem(room, [...starters, ...unreachable.map((u) => u.index)], options.tolerance ?? 1e-12);
     const x = sys.solve(new Float64Array(n).fill(1));
@@ -142,4 +148,19 @@ export function exactReach(input: RoomInput, starterList: readonly number[], opt
     iterations,
     relativeResidual,
   };
+}
+
+/** The people of `idx` in minimum degree order of their ties among themselves. */
+function fillReducingOrder(room: PreparedRoom, idx: Int32Array): Int32Array {
+  const { csr, n } = room;
+  const pos = new Int32Array(n).fill(-1);
+  for (let q = 0; q < idx.length; q++) pos[idx[q]] = q;
+  const order = minimumDegreeOrder(idx.length, (q, visit) => {
+    const i = idx[q];
+    for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) {
+      const p = pos[csr.col[e]];
+      if (p >= 0) visit(p);
+    }
+  });
+  return Int32Array.from(order, (q) => idx[q]);
 }

@@ -163,16 +163,32 @@ export function choleskySolve(l: Float64Array, n: number, b: Float64Array): Floa
  * updates stay contiguous, and zero multipliers (no tie) are skipped.
  */
 export function symmetricFactor(a: Float64Array, n: number): Float64Array {
+  const list = new Int32Array(n);
   for (let k = 0; k < n; k++) {
     const rk = k * n;
     const piv = a[rk + k];
     if (!(piv > 0)) throw new EngineError('SOLVER_FAILED', 'The system is not positive definite: some people cannot reach any starter.');
     const inv = 1 / piv;
-    for (let i = k + 1; i < n; i++) {
-      const l = a[rk + i] * inv;
-      if (l === 0) continue;
-      const ri = i * n;
-      axpySub(a, ri + i, a, rk + i, n - i, l);
+    // Pattern of row k beyond the diagonal: sparse rows (early pivots of a well-ordered
+    // sparse room) are updated entry by entry, dense rows with contiguous axpy.
+    let cnt = 0;
+    for (let j = k + 1; j < n; j++) if (a[rk + j] !== 0) list[cnt++] = j;
+    if (cnt === 0) continue;
+    if (cnt * 4 > n - k) {
+      for (let p = 0; p < cnt; p++) {
+        const i = list[p];
+        axpySub(a, i * n + i, a, rk + i, n - i, a[rk + i] * inv);
+      }
+    } else {
+      for (let p = 0; p < cnt; p++) {
+        const i = list[p];
+        const l = a[rk + i] * inv;
+        const ri = i * n;
+        for (let q = p; q < cnt; q++) {
+          const j = list[q];
+          a[ri + j] -= l * a[rk + j];
+        }
+      }
     }
   }
   return a;
