@@ -161,6 +161,19 @@ describe('exact reach agrees with ml-matrix to 1e-9 relative', () => {
   }
 });
 
+describe('exact reach with the fill-reducing order (n >= 64) agrees with ml-matrix', () => {
+  for (const [n, extra] of [[90, 120], [150, 900]] as const) {
+    it(`undirected weighted room, n = ${n}`, () => {
+      const g = randomRoom(n, extra, false, 700 + n);
+      const A = [3, 50];
+      const ref = referenceReach(g, A);
+      const r = exactReach(g, A, { solver: 'dense' });
+      assert.equal(r.solver, 'ldlt');
+      for (let i = 0; i < n; i++) assert.ok(relClose(r.h[i], ref[i], 1e-9));
+    });
+  }
+});
+
 describe('exact reach on open data sets: dense and conjugate gradient agree', () => {
   for (const [name, g] of [
     ['karate club (Zachary 1977)', karateClub()],
