@@ -4,12 +4,13 @@
  * and keep the best (a published refinement of greedy: J. Res. NIST 121, 2016). Pairs come
  * from identity 4 in O(n^2). When no set of size <= 2 reaches nu, the best `maxSeeds` pairs
  * are extended instead (stated in the notes). The plain greedy result is always among the
- * candidates, so the result is never worse than greedy.
+ * candidates, so the result is never worse than greedy. With required people or several closed
+ * groups, seeds are the single additions to greedy's starting set (see widenFromBase).
  * Cost: O(n^3) once, then O(k n^2) per seed (at most maxSeeds seeds).
  */
 import { AbsorbingState } from './dense-state';
 import { allPairsTotals } from './pairs';
-import { type PlanContext } from './plan-context';
+import { initialState, type PlanContext } from './plan-context';
 import { extendGreedy } from './plan-greedy';
 import { qualityRank } from './quality';
 
@@ -17,10 +18,8 @@ export function widenedState(ctx: PlanContext, greedy: AbsorbingState): Absorbin
   const e = ctx.ergodic();
   const nu = ctx.options.nu ?? 0.9;
   const maxSeeds = ctx.options.maxSeeds ?? 64;
-  if (!e || ctx.mustInclude.length > 0 || ctx.k < 2) {
-    if (ctx.k >= 2) ctx.notes.push('Widening needs one closed group and no required people here; the greedy plan is returned.');
-    return greedy;
-  }
+  if (ctx.k < 2) return greedy;
+  if (!e || ctx.mustInclude.length > 0) return widenFromBase(ctx, greedy, nu, maxSeeds);
   const n = ctx.n;
   const cover = ctx.cover().size;
   const worst = ctx.worstTotal();
@@ -61,6 +60,39 @@ export function widenedState(ctx: PlanContext, greedy: AbsorbingState): Absorbin
     ctx.options.onProgress?.({ stage: 'widened', done: ++done, of: seeds.length });
     if (performance.now() > ctx.deadline) {
       ctx.warnings.push(`Time limit reached after ${done} of ${seeds.length} seeds.`);
+      break;
+    }
+  }
+  return best;
+}
+
+/**
+ * With required people or several closed groups the seeds grow from the starting set B of
+ * greedy (required people plus one starter per closed group): every single addition is scored
+ * by identity 2 at B, the ones reaching rank nu (or the best maxSeeds) are extended greedily.
+ */
+function widenFromBase(ctx: PlanContext, greedy: AbsorbingState, nu: number, maxSeeds: number): AbsorbingState {
+  const base = initialState(ctx);
+  if (base.starters.length >= ctx.k) return greedy;
+  const worst = ctx.worstTotal();
+  const cover = ctx.cover().size;
+  const size = base.starters.length + 1;
+  const cands: { j: number; total: number }[] = [];
+  for (let j = 0; j < ctx.n; j++)
+    if (base.inT[j] && ctx.allowed[j]) cands.push({ j, total: (base.rawTotal - base.rawGain(j)) * base.scale });
+  cands.sort((a, b) => a.total - b.total || a.j - b.j);
+  let seeds = cands.filter((c) => qualityRank(c.total, worst, ctx.n, size, cover, base.scale) >= nu);
+  if (seeds.length === 0) seeds = cands;
+  seeds = seeds.slice(0, maxSeeds);
+  ctx.notes.push(`Widened from the ${base.starters.length} required or group starters: ${seeds.length} single additions extended.`);
+  let best = greedy;
+  for (const seed of seeds) {
+    const s = base.clone();
+    s.add(seed.j);
+    extendGreedy(ctx, s, ctx.k, false);
+    if (s.rawTotal < best.rawTotal - 1e-12 * best.rawTotal) best = s;
+    if (performance.now() > ctx.deadline) {
+      ctx.warnings.push('Time limit reached while widening.');
       break;
     }
   }
