@@ -17,6 +17,11 @@
  *   classStructure(room) / unreachablePeople(room, A)   -> closed classes, unreachable people with reasons
  *   ergodicData(room), allPairsTotals(e), hittingTime(e, i, j), kemenyFrom(e, i)
  *   denseWalk(room), sparseWalk(room, A)                -> walk matrix (dense) / operator (sparse, mixing rank-one)
+ *   Node only (worker threads, not exported here): shared/engine/parallel/index.ts has
+ *   planWithWorkers(room, options, threads) and ergodicDataParallel(room, {}, threads).
+ * Plan methods: greedy O(n^3 + k n^2); widened (nu, maxSeeds); swap (greedy + swap polish);
+ *   exhaustive (branch and bound, certified or a proven gap at timeLimitMs); lazy-greedy (large
+ *   sparse rooms, lazyChecks exact checks per round, error stated in notes); auto chooses by size.
  * Errors: every validation failure throws EngineError { code, message } (see errors.ts).
  * Walk definition: P = (1 - a) [(1 - b) P0 + (b / n) 1 1^T] + a I; a person with no outgoing tie stays put.
  */
