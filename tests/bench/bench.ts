@@ -24,19 +24,27 @@ interface Row {
   refMs: number | null;
   refNote: string;
   note?: string;
+  /** Process CPU time of the median run (all threads), less sensitive to other load than wall time. */
+  cpuMs?: number | null;
 }
 const rows: Row[] = [];
+let lastCpuMs: number | null = null;
 const log = (s: string) => process.stderr.write(s + '\n');
 
 function median(fn: () => unknown, runs: number): number {
-  const ts: number[] = [];
+  const ts: { wall: number; cpu: number }[] = [];
   for (let r = 0; r < runs; r++) {
+    const c = process.cpuUsage();
     const t = performance.now();
     fn();
-    ts.push(performance.now() - t);
+    const wall = performance.now() - t;
+    const d = process.cpuUsage(c);
+    ts.push({ wall, cpu: (d.user + d.system) / 1000 });
   }
-  ts.sort((a, b) => a - b);
-  return ts[Math.floor(ts.length / 2)];
+  ts.sort((a, b) => a.wall - b.wall);
+  const mid = ts[Math.floor(ts.length / 2)];
+  lastCpuMs = mid.cpu;
+  return mid.wall;
 }
 const ties = (r: PreparedRoom) => (r.directed ? r.csr.col.length : r.csr.col.length / 2);
 const greedySolves = (n: number, k: number) => {
@@ -46,6 +54,8 @@ const greedySolves = (n: number, k: number) => {
 };
 
 function add(row: Row): void {
+  if (row.cpuMs === undefined) row.cpuMs = lastCpuMs;
+  lastCpuMs = null;
   rows.push(row);
   log(`  ${row.case}: ${row.ms.toFixed(1)} ms`);
 }
@@ -115,11 +125,14 @@ async function main(): Promise<void> {
       refNote: 'per-candidate ml-matrix re-solve (extrapolated)',
     });
     const ts: number[] = [];
+    const c0 = process.cpuUsage();
     for (let q = 0; q < runs; q++) {
       const t = performance.now();
       await planWithWorkers(r, { k: 50, method: 'greedy' }, 2);
       ts.push(performance.now() - t);
     }
+    const cu = process.cpuUsage(c0);
+    lastCpuMs = (cu.user + cu.system) / 1000 / runs;
     ts.sort((a, b) => a - b);
     const ms2 = ts[Math.floor(ts.length / 2)];
     add({
@@ -241,6 +254,7 @@ async function main(): Promise<void> {
   {
     let notes = '';
     let last = performance.now();
+    const c0 = process.cpuUsage();
     const t = performance.now();
     const res = plan(big, {
       k: 50,
@@ -253,6 +267,8 @@ async function main(): Promise<void> {
       },
     });
     const ms = performance.now() - t;
+    const cu = process.cpuUsage(c0);
+    lastCpuMs = (cu.user + cu.system) / 1000;
     notes = `${res.method}, gap to best <= ${((100 * res.gap) / res.total).toFixed(1)}%`;
     add({
       case: 'plan, large sparse room',
@@ -289,9 +305,12 @@ async function main(): Promise<void> {
       refNote: '-',
       note: `${(hops / ms / 1000).toFixed(1)} M hops/s (target >= 50 per core)`,
     });
+    const c0 = process.cpuUsage();
     const t = performance.now();
     const s2 = await simulateInPool(r, A, 10_000, 42, {}, 2);
     const ms2 = performance.now() - t;
+    const cu = process.cpuUsage(c0);
+    lastCpuMs = (cu.user + cu.system) / 1000;
     add({
       case: 'simulated cascades, 2 workers',
       n: 300,
@@ -307,7 +326,9 @@ async function main(): Promise<void> {
   }
 
   printTable('Speed targets (engine.md section 6)', rows);
-  console.log(`\nLoad average (1/5/15 min) after the table: ${load()}; other work on the machine slows every row.`);
+  console.log(
+    `\nLoad average (1/5/15 min) after the table: ${load()}; other work on the machine slows every row. 'cpu' is the process CPU time (all threads) of the median run: close to the unloaded wall time for one-thread rows.`,
+  );
 
   // Scaling table.
   const scale: Row[] = [];
@@ -315,10 +336,10 @@ async function main(): Promise<void> {
     const r = sparseRoom(n, n * 4, false, 10 + n);
     const A = [0, Math.floor(n / 2)];
     const ms = median(() => exactReach(r, A, { solver: 'dense' }), n <= 300 ? 7 : 3);
-    scale.push({ case: 'exact reach, dense', n, m: ties(r), k: 2, ms, target: '', met: null, refMs: null, refNote: '' });
+    scale.push({ case: 'exact reach, dense', n, m: ties(r), k: 2, ms, target: '', met: null, refMs: null, refNote: '', cpuMs: lastCpuMs });
     if (n <= 1000) {
       const g = median(() => plan(r, { k: 10, method: 'greedy' }), n <= 300 ? 5 : 1);
-      scale.push({ case: 'greedy, dense', n, m: ties(r), k: 10, ms: g, target: '', met: null, refMs: null, refNote: '' });
+      scale.push({ case: 'greedy, dense', n, m: ties(r), k: 10, ms: g, target: '', met: null, refMs: null, refNote: '', cpuMs: lastCpuMs });
     }
   }
   for (const n of [10_000, 100_000]) {
@@ -339,6 +360,7 @@ async function main(): Promise<void> {
       refMs: null,
       refNote: '',
       note: `${it} iterations`,
+      cpuMs: lastCpuMs,
     });
   }
   printTable('Scaling', scale);
@@ -352,13 +374,14 @@ function fmt(ms: number): string {
 }
 
 function printTable(title: string, data: Row[]): void {
-  const head = ['case', 'n', 'm', 'k', 'median', 'target', 'met', 'reference', 'ratio', 'note'];
+  const head = ['case', 'n', 'm', 'k', 'median', 'cpu', 'target', 'met', 'reference', 'ratio', 'note'];
   const body = data.map((r) => [
     r.case,
     String(r.n),
     String(r.m),
     String(r.k),
     fmt(r.ms),
+    r.cpuMs === null || r.cpuMs === undefined ? '' : fmt(r.cpuMs),
     r.target,
     r.met === null ? '' : r.met ? 'yes' : 'NO',
     r.refMs === null ? '' : `${fmt(r.refMs)} ${r.refNote}`,
