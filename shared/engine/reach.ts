@@ -9,7 +9,7 @@
  */
 import { EngineError } from './errors';
 import type { WalkOptions } from './graph';
-import { luFactor, luSolve, symmetricFactor, symmetricSolve } from './linalg/dense';
+import { luFactor, luFactorDominant, luSolve, symmetricFactor, symmetricSolve } from './linalg/dense';
 import { minimumDegreeOrder } from './linalg/ordering';
 import { unreachablePeople, type UnreachablePerson } from './reachability';
 import { checkPeople, prepareRoom, type PreparedRoom, type RoomInput } from './room';
@@ -116,12 +116,16 @@ export function exactReach(input: RoomInput, starterList: readonly number[], opt
       for (let k = 0; k < f; k++) h[ord[k]] = rhs[k] * scale;
       solver = 'ldlt';
     } else {
-      const m = denseSystem(room, idx, false);
+      // Without mixing the system is sparse: minimum degree order on the ties taken both ways,
+      // then elimination without pivoting (I - Q is a diagonally dominant M-matrix).
+      const sparse = room.mixing === 0 && f >= 64;
+      const ord = sparse ? fillReducingOrder(room, idx) : idx;
+      const m = denseSystem(room, ord, false);
       const rhs = new Float64Array(f);
       rhs.fill(1);
-      luSolve(luFactor(m, f), rhs);
+      luSolve(sparse ? luFactorDominant(m, f) : luFactor(m, f), rhs);
       solver = 'lu';
-      for (let k = 0; k < f; k++) h[idx[k]] = rhs[k] * scale;
+      for (let k = 0; k < f; k++) h[ord[k]] = rhs[k] * scale;
     }
   } else if (f > 0) {
     const sys = new SparseSystem(room, [...starters, ...unreachable.map((u) => u.index)], options.tolerance ?? 1e-12);

@@ -162,13 +162,18 @@ describe('exact reach agrees with ml-matrix to 1e-9 relative', () => {
 });
 
 describe('exact reach with the fill-reducing order (n >= 64) agrees with ml-matrix', () => {
-  for (const [n, extra] of [[90, 120], [150, 900]] as const) {
-    it(`undirected weighted room, n = ${n}`, () => {
-      const g = randomRoom(n, extra, false, 700 + n);
+  for (const [n, extra, directed] of [
+    [90, 120, false],
+    [150, 900, false],
+    [100, 250, true],
+    [140, 700, true],
+  ] as const) {
+    it(`${directed ? 'directed' : 'undirected'} weighted room, n = ${n}`, () => {
+      const g = randomRoom(n, extra, directed, 700 + n);
       const A = [3, 50];
       const ref = referenceReach(g, A);
       const r = exactReach(g, A, { solver: 'dense' });
-      assert.equal(r.solver, 'ldlt');
+      assert.equal(r.solver, directed ? 'lu' : 'ldlt');
       for (let i = 0; i < n; i++) assert.ok(relClose(r.h[i], ref[i], 1e-9));
     });
   }

@@ -62,6 +62,37 @@ export function luFactor(a: Float64Array, n: number): LuFactors {
   return { n, lu: a, piv };
 }
 
+/**
+ * LU without pivoting for diagonally dominant M-matrices such as I - Q (Gaussian elimination is
+ * stable there without pivoting: Wilkinson 1961; Golub & Van Loan section 3.4.3). Zero
+ * multipliers are skipped and sparse pivot rows are applied entry by entry, so a room put in
+ * minimum degree order keeps its factor sparse for longer.
+ */
+export function luFactorDominant(a: Float64Array, n: number): LuFactors {
+  const piv = new Int32Array(n);
+  const list = new Int32Array(n);
+  for (let k = 0; k < n; k++) {
+    piv[k] = k;
+    const rk = k * n;
+    const d = a[rk + k];
+    if (!(d > 0)) throw new EngineError('SOLVER_FAILED', 'The system is singular: some people cannot reach any starter.');
+    const inv = 1 / d;
+    let cnt = 0;
+    for (let j = k + 1; j < n; j++) if (a[rk + j] !== 0) list[cnt++] = j;
+    const dense = cnt * 4 > n - k;
+    for (let i = k + 1; i < n; i++) {
+      const ri = i * n;
+      if (a[ri + k] === 0) continue;
+      const l = a[ri + k] * inv;
+      a[ri + k] = l;
+      if (cnt === 0) continue;
+      if (dense) axpySub(a, ri + k + 1, a, rk + k + 1, n - k - 1, l);
+      else for (let q = 0; q < cnt; q++) a[ri + list[q]] -= l * a[rk + list[q]];
+    }
+  }
+  return { n, lu: a, piv };
+}
+
 /** Solves A x = b in place of b using the factors. */
 export function luSolve(f: LuFactors, b: Float64Array): Float64Array {
   const { n, lu, piv } = f;
