@@ -9,11 +9,21 @@
 import type { AbsorbingState } from './dense-state';
 import { initialState, recordBound, type PlanContext } from './plan-context';
 
-/** Extends `state` greedily until it holds k starters; records an identity-6 bound at every step. */
-export function extendGreedy(ctx: PlanContext, state: AbsorbingState, k: number, record = true): AbsorbingState {
+/**
+ * Extends `state` greedily until it holds k starters; records an identity-6 bound at every step.
+ * With `cutoff` (an unscaled total), stops and returns null as soon as the identity-6 bound
+ * proves that no k-set containing the current set can beat it (used to prune widened seeds).
+ */
+export function extendGreedy(ctx: PlanContext, state: AbsorbingState, k: number, record?: true): AbsorbingState;
+export function extendGreedy(ctx: PlanContext, state: AbsorbingState, k: number, record: false, cutoff?: number): AbsorbingState | null;
+export function extendGreedy(ctx: PlanContext, state: AbsorbingState, k: number, record = true, cutoff?: number): AbsorbingState | null {
   const onProgress = ctx.options.onProgress;
   while (state.starters.length < k) {
     if (record) recordBound(ctx, state);
+    if (cutoff !== undefined) {
+      const lb = state.rawTotal - state.topGains(ctx.allowed, k - state.starters.length);
+      if (lb >= cutoff * (1 - 1e-12)) return null;
+    }
     const j = state.bestCandidate(ctx.allowed);
     if (j < 0) break;
     state.add(j);

@@ -6,7 +6,8 @@
  * are extended instead (stated in the notes). The plain greedy result is always among the
  * candidates, so the result is never worse than greedy. With required people or several closed
  * groups, seeds are the single additions to greedy's starting set (see widenFromBase).
- * Cost: O(n^3) once, then O(k n^2) per seed (at most maxSeeds seeds).
+ * Cost: O(n^3) once, then O(k n^2) per seed (at most maxSeeds seeds); a seed is dropped as soon
+ * as the identity-6 bound shows its extensions cannot beat the best plan so far.
  */
 import { AbsorbingState } from './dense-state';
 import { allPairsTotals } from './pairs';
@@ -55,8 +56,8 @@ export function widenedState(ctx: PlanContext, greedy: AbsorbingState): Absorbin
   for (const seed of seeds) {
     const s = AbsorbingState.fromErgodic(e, seed.set[0]);
     for (const x of seed.set.slice(1)) s.add(x);
-    extendGreedy(ctx, s, ctx.k, false);
-    if (s.rawTotal < best.rawTotal - 1e-12 * best.rawTotal) best = s;
+    const ext = extendGreedy(ctx, s, ctx.k, false, best.rawTotal);
+    if (ext && ext.rawTotal < best.rawTotal - 1e-12 * best.rawTotal) best = ext;
     ctx.options.onProgress?.({ stage: 'widened', done: ++done, of: seeds.length });
     if (performance.now() > ctx.deadline) {
       ctx.warnings.push(`Time limit reached after ${done} of ${seeds.length} seeds.`);
@@ -89,8 +90,8 @@ function widenFromBase(ctx: PlanContext, greedy: AbsorbingState, nu: number, max
   for (const seed of seeds) {
     const s = base.clone();
     s.add(seed.j);
-    extendGreedy(ctx, s, ctx.k, false);
-    if (s.rawTotal < best.rawTotal - 1e-12 * best.rawTotal) best = s;
+    const ext = extendGreedy(ctx, s, ctx.k, false, best.rawTotal);
+    if (ext && ext.rawTotal < best.rawTotal - 1e-12 * best.rawTotal) best = ext;
     if (performance.now() > ctx.deadline) {
       ctx.warnings.push('Time limit reached while widening.');
       break;
