@@ -3,28 +3,19 @@ import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
 import { MatAutocompleteModule, type MatAutocompleteSelectedEvent } from '@angular/material/autocomplete';
 import { MatChipsModule } from '@angular/material/chips';
-import { ErrorStateMatcher } from '@angular/material/core';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import type { PersonDto } from '../../../shared/api/rooms';
-
-/** Shows the field in error when the form reports a problem for it, once the user has touched anything. */
-class MessageMatcher implements ErrorStateMatcher {
-  constructor(private readonly message: () => string | null | undefined) {}
-  isErrorState(): boolean {
-    return !!this.message();
-  }
-}
 
 /** Searchable chips of the room's people, bound to a FormControl of person ids (order kept). */
 @Component({
   selector: 'app-person-chips',
   imports: [ReactiveFormsModule, MatFormFieldModule, MatChipsModule, MatAutocompleteModule, MatIconModule, MatInputModule],
   template: `
-    <mat-form-field appearance="outline" class="field">
+    <mat-form-field appearance="outline" class="field" [class.has-problem]="!!error()">
       <mat-label>{{ label() }}</mat-label>
-      <mat-chip-grid #grid [attr.aria-label]="label()" [errorStateMatcher]="matcher">
+      <mat-chip-grid #grid [attr.aria-label]="label()">
         @for (id of selected(); track id; let i = $index) {
           <mat-chip-row (removed)="remove(id)">
             @if (numbered()) {
@@ -52,10 +43,11 @@ class MessageMatcher implements ErrorStateMatcher {
           </mat-option>
         }
       </mat-autocomplete>
-      @if (hint()) {
+      @if (error()) {
+        <mat-hint class="problem" role="alert">{{ error() }}</mat-hint>
+      } @else if (hint()) {
         <mat-hint>{{ hint() }}</mat-hint>
       }
-      <mat-error>{{ error() }}</mat-error>
     </mat-form-field>
   `,
   styles: `
@@ -80,7 +72,6 @@ export class PersonChips {
   /** Show the position of each chip (briefing order of a hand-made plan). */
   readonly numbered = input(false);
 
-  protected readonly matcher = new MessageMatcher(() => this.error());
   protected readonly search = new FormControl<string | number>('', { nonNullable: true });
   private readonly term = toSignal(this.search.valueChanges, { initialValue: '' });
   private readonly version = signal(0);

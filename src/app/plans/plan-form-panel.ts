@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, input, output, untracked } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -33,7 +33,7 @@ import { applyMode, budgetMessage, constraintMessages, createPlanForm, maxBudget
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class PlanFormPanel {
-  readonly people = input.required<readonly PersonDto[]>();
+  readonly people = input<readonly PersonDto[]>([]);
   readonly pending = input(false);
   /** A message from the server about the last request (shown under the button). */
   readonly serverError = input<string | null>(null);
@@ -58,6 +58,18 @@ export class PlanFormPanel {
     const names = new Map(this.people().map((p) => [p.id, p.name]));
     return constraintMessages(this.form.errors, (id) => names.get(id) ?? `#${id}`);
   });
+
+  constructor() {
+    // The room arrives after the form is built: re-check the bounds, and keep the default budget inside them.
+    effect(() => {
+      const max = this.maxK();
+      untracked(() => {
+        const k = this.form.controls.k;
+        if (typeof k.value === 'number' && k.value > max && !k.dirty) k.setValue(max);
+        this.form.updateValueAndValidity();
+      });
+    });
+  }
 
   protected setMode(mode: 'computed' | 'hand'): void {
     this.form.controls.mode.setValue(mode);

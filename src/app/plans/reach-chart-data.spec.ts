@@ -36,6 +36,24 @@ describe('reachChartData', () => {
     expect(data.datasets[0].borderDash).toBeUndefined();
   });
 
+  it('cuts a long thin tail once every curve has reached 99.5%', () => {
+    // 1 - (2/3)^t first reaches 0.995 at t = 14 (0.9966); 13 gives 0.9949.
+    const long = Array.from({ length: 60 }, (_, t) => 1 - Math.pow(2 / 3, t));
+    expect(reachChartData([{ label: 'Plan', share: long }], 'hop', 1).datasets[0].data.length).toBe(17);
+    // A curve that never gets there keeps the whole length.
+    expect(
+      reachChartData(
+        [
+          { label: 'A', share: long },
+          { label: 'B', share: long.map((v) => v / 2) },
+        ],
+        'hop',
+        1,
+      ).datasets[0].data.length,
+    ).toBe(60);
+    expect(reachChartData([{ label: 'Plan', share: long }], 'hop', 1, 1).datasets[0].data.length).toBe(60);
+  });
+
   it('finds the hop and minute by which a share has heard', () => {
     // 1 - (2/3)^t >= 0.9 first at t = 6 (0.912), not at t = 5 (0.868).
     expect(reachedBy(k4, 0.9, 5)).toEqual({ hop: 6, minutes: 30 });

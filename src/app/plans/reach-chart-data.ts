@@ -49,6 +49,22 @@ export function reachChartData(
 }
 
 /**
+ * How many hops to draw: up to the first hop where every curve has reached `trimShare` (plus two,
+ * so the flat end shows), so a long thin tail does not squeeze the part that matters.
+ */
+export function visibleLength(series: readonly ReachSeries[], trimShare: number): number {
+  const full = Math.max(0, ...series.map((s) => s.share.length));
+  if (series.length === 0 || trimShare >= 1) return full;
+  let need = 0;
+  for (const s of series) {
+    const hop = s.share.findIndex((v) => v >= trimShare);
+    if (hop < 0) return full;
+    need = Math.max(need, hop);
+  }
+  return Math.min(full, need + 3);
+}
+
+/**
  * The first hop by which at least `share` of people have heard (null when the curve never gets there),
  * and the same in minutes. Used for "90% will have heard within 40 minutes".
  */

@@ -15,7 +15,7 @@ import { reachChartData, type ReachAxis, type ReachSeries } from './reach-chart-
         [value]="axis()"
         (change)="axis.set($event.value)"
         aria-label="Reach curve axis"
-        hideSingleSelectionIndicator
+        hideSingleSelectionIndicator="true"
       >
         <mat-button-toggle value="hop">By hop</mat-button-toggle>
         <mat-button-toggle value="minute">By minute</mat-button-toggle>

@@ -16,7 +16,7 @@ import { SweepChart } from './sweep-chart';
   selector: 'app-sweep-panel',
   imports: [DecimalPipe, ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, SweepChart],
   template: `
-    <form class="row" (ngSubmit)="run()">
+    <form class="row" (submit)="$event.preventDefault(); run()" novalidate>
       <mat-form-field appearance="outline" class="k">
         <mat-label>Budgets up to</mat-label>
         <input matInput type="number" [formControl]="maxK" min="1" [max]="limit()" />
@@ -63,7 +63,7 @@ import { SweepChart } from './sweep-chart';
 export class SweepPanel {
   private readonly api = inject(PlansApi);
   readonly roomId = input.required<number>();
-  readonly roomSize = input.required<number>();
+  readonly roomSize = input(2);
   protected readonly limit = computed(() => Math.max(1, Math.min(this.roomSize() - 1, PLAN_LIMITS.sweepMaxK)));
   protected readonly maxK = new FormControl<number | null>(8, [
     Validators.required,
