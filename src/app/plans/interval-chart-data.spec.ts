@@ -1,4 +1,4 @@
-import { insideCount, intervalChartData } from './interval-chart-data';
+import { insideCount, intervalChartData, intervalPointsFrom } from './interval-chart-data';
 
 describe('intervalChartData', () => {
   // Path 0-1-2-3-4 with starters {0, 4}: h_i = i (n - i) = 3, 4, 3 (gambler's ruin; Levin, Peres,
@@ -25,5 +25,16 @@ describe('intervalChartData', () => {
 
   it('counts the people whose analytic value lies inside their interval', () => {
     expect(insideCount(points)).toEqual({ inside: 2, of: 3 });
+  });
+});
+
+describe('intervalPointsFrom', () => {
+  it('keeps the people who walked and uses the 99% interval the verdict reads', () => {
+    const base = { group: null, sd: 1, stderr: 0.1, low95: 0, high95: 0, capped: 0, inInterval99: true };
+    const pts = intervalPointsFrom([
+      { ...base, personId: 1, name: 'Starter', starter: true, walked: false, mean: 0, low99: 0, high99: 0, analytic: 0 },
+      { ...base, personId: 2, name: 'Walker', starter: false, walked: true, mean: 3.1, low99: 2.8, high99: 3.4, analytic: 3 },
+    ]);
+    expect(pts).toEqual([{ name: 'Walker', analytic: 3, simulated: 3.1, low: 2.8, high: 3.4 }]);
   });
 });

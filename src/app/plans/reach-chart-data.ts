@@ -23,8 +23,9 @@ export function reachChartData(
   series: readonly ReachSeries[],
   axis: ReachAxis,
   minutesPerHop: number,
+  trimShare = 0.995,
 ): ChartData<'line', { x: number; y: number }[]> {
-  const len = Math.max(0, ...series.map((s) => s.share.length));
+  const len = visibleLength(series, trimShare);
   const scale = axis === 'minute' ? minutesPerHop : 1;
   const datasets: ChartDataset<'line', { x: number; y: number }[]>[] = series.map((s, i) => {
     const colour = s.colour ?? SERIES_COLOURS[i % SERIES_COLOURS.length];
