@@ -51,6 +51,6 @@ export {
   symmetricFactor,
   symmetricSolve,
 } from './linalg/dense';
-export { pcg, bicgstab } from './linalg/iterative';
+export { pcg, bicgstab, gmres } from './linalg/iterative';
 export * from './io/index';
 export * from './simulate/index';

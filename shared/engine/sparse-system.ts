@@ -5,7 +5,7 @@
  * (mixing kept as a rank-one term). O(m) per iteration. Laziness is not applied here.
  */
 import { EngineError } from './errors';
-import { bicgstab, pcg, type IterativeResult } from './linalg/iterative';
+import { bicgstab, gmres, pcg, type IterativeResult, type MatVec } from './linalg/iterative';
 import type { PreparedRoom } from './room';
 import { sparseWalk, type SparseWalk } from './walk';
 
@@ -89,7 +89,16 @@ export class SparseSystem {
       this.walk.mulQ(x, t);
       for (let i = 0; i < n; i++) y[i] = this.active[i] ? x[i] - t[i] : 0;
     };
-    return this.check(bicgstab(mul, this.masked(rhs), this.diagI(), { tol: this.tol, x0 }));
+    return this.nonsymmetric(mul, this.masked(rhs), x0);
+  }
+
+  /** BiCGSTAB, falling back to restarted GMRES from its iterate when it stagnates. */
+  private nonsymmetric(mul: MatVec, b: Float64Array, x0?: Float64Array): Float64Array {
+    const first = bicgstab(mul, b, this.diagI(), { tol: this.tol, x0 });
+    if (first.converged) return this.check(first);
+    this.iterations += first.iterations;
+    const start = first.x.every(Number.isFinite) && first.relativeResidual < 1 ? first.x : x0?.every(Number.isFinite) ? x0 : undefined;
+    return this.check(gmres(mul, b, this.diagI(), { tol: this.tol, x0: start }));
   }
 
   /** y with (I - Q)^T y = rhs on the active people. */
@@ -108,7 +117,7 @@ export class SparseSystem {
       this.walk.mulQt(x, t);
       for (let i = 0; i < n; i++) y[i] = this.active[i] ? x[i] - t[i] : 0;
     };
-    return this.check(bicgstab(mul, this.masked(rhs), this.diagI(), { tol: this.tol, x0 }));
+    return this.nonsymmetric(mul, this.masked(rhs), x0);
   }
 
   /** Lower bound on N_jj = 1 / (1 - return probability): returns in one or two hops only. O(m log d). */

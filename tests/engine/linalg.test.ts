@@ -3,6 +3,8 @@ import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import { inverse, Matrix } from 'ml-matrix';
 import {
+  bicgstab,
+  gmres,
   invertInPlace,
   invertSymmetricInPlace,
   luFactor,
@@ -75,4 +77,28 @@ describe('dense kernels agree with ml-matrix', () => {
       }
     });
   }
+  it('GMRES and BiCGSTAB solve a nonsymmetric diagonally dominant system like ml-matrix', () => {
+    const n = 60;
+    const a = randomMatrix(n, 77, false);
+    for (let i = 0; i < n; i++) a[i * n + i] += 10;
+    const mul = (x: Float64Array, y: Float64Array) => {
+      for (let i = 0; i < n; i++) {
+        let s = 0;
+        for (let j = 0; j < n; j++) s += a[i * n + j] * x[j];
+        y[i] = s;
+      }
+    };
+    const b = Float64Array.from({ length: n }, (_, i) => Math.cos(i));
+    const diag = Float64Array.from({ length: n }, (_, i) => a[i * n + i]);
+    const inv = inverse(toMl(a, n));
+    for (const solve of [gmres, bicgstab]) {
+      const r = solve(mul, b, diag, { tol: 1e-13 });
+      assert.ok(r.converged);
+      for (let i = 0; i < n; i++) {
+        let v = 0;
+        for (let j = 0; j < n; j++) v += inv.get(i, j) * b[j];
+        assert.ok(relClose(r.x[i], v, 1e-10));
+      }
+    }
+  });
 });

@@ -61,7 +61,7 @@ const caseArb = fc
     return { g, k, mixing: r.mixing, laziness: r.laziness, mustInclude, exclude };
   });
 
-const methods: PlanMethod[] = ['greedy', 'widened', 'swap', 'exhaustive'];
+const methods: PlanMethod[] = ['greedy', 'widened', 'swap', 'exhaustive', 'lazy-greedy'];
 
 function run(c: Case, method: PlanMethod | 'auto') {
   const opts: PlanOptions = { k: c.k, method, mixing: c.mixing, laziness: c.laziness, mustInclude: c.mustInclude, exclude: c.exclude };

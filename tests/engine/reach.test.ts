@@ -203,6 +203,21 @@ describe('exact reach on open data sets: dense and conjugate gradient agree', ()
   }
 });
 
+describe('iterative solvers on one-way chains (BiCGSTAB falls back to GMRES)', () => {
+  // Directed cycle 0 -> 1 -> ... -> n-1 -> 0 with starter 0: person i hears after exactly n - i hops.
+  for (const n of [4, 5, 12]) {
+    it(`directed cycle of ${n}`, () => {
+      const g = room(
+        n,
+        Array.from({ length: n }, (_, i) => [i, (i + 1) % n, 0.5 + i] as [number, number, number]),
+        true,
+      );
+      const r = exactReach(g, [0], { solver: 'sparse' });
+      for (let i = 1; i < n; i++) assert.ok(relClose(r.h[i], n - i, 1e-9), `${i}: ${r.h[i]}`);
+    });
+  }
+});
+
 describe('exact reach: unreachable people are named, never NaN', () => {
   it('disconnected undirected room', () => {
     const g = room(5, [

@@ -114,7 +114,7 @@ export function bicgstab(mul: MatVec, b: Float64Array, diag: Float64Array, opts:
     mul(y, v);
     const rv = dot(rhat, v);
     if (rv === 0) {
-      rho = 0;
+      omega = 0; // breakdown: the next pass restarts
       continue;
     }
     alpha = rho / rv;
@@ -144,6 +144,103 @@ export function bicgstab(mul: MatVec, b: Float64Array, diag: Float64Array, opts:
   let rr = 0;
   for (let i = 0; i < n; i++) {
     const d = b[i] - t[i];
+    rr += d * d;
+  }
+  res = Math.sqrt(rr) / bnorm;
+  return { x, iterations: it, relativeResidual: res, converged: res <= Math.max(tol * 10, 1e-10) };
+}
+
+/**
+ * Restarted GMRES(m) with right Jacobi preconditioning and Givens rotations (Saad & Schultz,
+ * "GMRES: a generalized minimal residual algorithm", SIAM J. Sci. Stat. Comput. 1986): the
+ * residual never grows, so it serves as the fallback when BiCGSTAB stagnates (for example on
+ * chains of one-way ties). O(m n) memory, O(nnz + j n) per iteration.
+ */
+export function gmres(
+  mul: MatVec,
+  b: Float64Array,
+  diag: Float64Array,
+  opts: IterativeOptions & { restart?: number } = {},
+): IterativeResult {
+  const n = b.length;
+  const tol = opts.tol ?? 1e-12;
+  const m = Math.max(2, Math.min(opts.restart ?? 50, n));
+  const maxIt = opts.maxIterations ?? Math.max(5000, 4 * n);
+  const x = opts.x0 ? Float64Array.from(opts.x0) : new Float64Array(n);
+  const minv = new Float64Array(n);
+  for (let i = 0; i < n; i++) minv[i] = diag[i] !== 0 ? 1 / diag[i] : 0;
+  const V: Float64Array[] = Array.from({ length: m + 1 }, () => new Float64Array(n));
+  const H = new Float64Array((m + 1) * m);
+  const cs = new Float64Array(m);
+  const sn = new Float64Array(m);
+  const g = new Float64Array(m + 1);
+  const y = new Float64Array(m);
+  const w = new Float64Array(n);
+  const z = new Float64Array(n);
+  const bnorm = Math.sqrt(dot(b, b)) || 1;
+  let it = 0;
+  let res = Infinity;
+  while (it < maxIt) {
+    mul(x, w);
+    for (let i = 0; i < n; i++) V[0][i] = b[i] - w[i];
+    const beta = Math.sqrt(dot(V[0], V[0]));
+    res = beta / bnorm;
+    if (res <= tol) break;
+    for (let i = 0; i < n; i++) V[0][i] /= beta;
+    g.fill(0);
+    g[0] = beta;
+    H.fill(0);
+    let j = 0;
+    for (; j < m && it < maxIt;) {
+      for (let i = 0; i < n; i++) z[i] = minv[i] * V[j][i];
+      mul(z, w);
+      for (let i = 0; i <= j; i++) {
+        const h = dot(w, V[i]);
+        H[i * m + j] = h;
+        const vi = V[i];
+        for (let q = 0; q < n; q++) w[q] -= h * vi[q];
+      }
+      const hn = Math.sqrt(dot(w, w));
+      H[(j + 1) * m + j] = hn;
+      if (hn > 0) for (let q = 0; q < n; q++) V[j + 1][q] = w[q] / hn;
+      for (let i = 0; i < j; i++) {
+        const a = H[i * m + j];
+        const c = H[(i + 1) * m + j];
+        H[i * m + j] = cs[i] * a + sn[i] * c;
+        H[(i + 1) * m + j] = -sn[i] * a + cs[i] * c;
+      }
+      const a = H[j * m + j];
+      const c = H[(j + 1) * m + j];
+      const r = Math.hypot(a, c);
+      cs[j] = r > 0 ? a / r : 1;
+      sn[j] = r > 0 ? c / r : 0;
+      H[j * m + j] = r;
+      H[(j + 1) * m + j] = 0;
+      g[j + 1] = -sn[j] * g[j];
+      g[j] = cs[j] * g[j];
+      j++;
+      it++;
+      res = Math.abs(g[j]) / bnorm;
+      if (res <= tol || hn === 0) break;
+    }
+    for (let i = j - 1; i >= 0; i--) {
+      let s = g[i];
+      for (let q = i + 1; q < j; q++) s -= H[i * m + q] * y[q];
+      y[i] = H[i * m + i] !== 0 ? s / H[i * m + i] : 0;
+    }
+    w.fill(0);
+    for (let i = 0; i < j; i++) {
+      const vi = V[i];
+      const yi = y[i];
+      for (let q = 0; q < n; q++) w[q] += yi * vi[q];
+    }
+    for (let q = 0; q < n; q++) x[q] += minv[q] * w[q];
+    if (res <= tol) break;
+  }
+  mul(x, w);
+  let rr = 0;
+  for (let i = 0; i < n; i++) {
+    const d = b[i] - w[i];
     rr += d * d;
   }
   res = Math.sqrt(rr) / bnorm;
