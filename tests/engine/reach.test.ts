@@ -1,6 +1,7 @@
 /** Exact reach against published values, the commute-time identity, and an independent solver (ml-matrix). */
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
+import fc from 'fast-check';
 import { Matrix, pseudoInverse, solve } from 'ml-matrix';
 import { exactReach, ergodicData, hittingTime, kemenyFrom, prepareRoom, EngineError, type RoomGraph } from '../../shared/engine/index';
 import { bipartite, complete, cycle, hypercube, karateClub, miserables, path, randomRoom, relClose, room, star } from './engine-fixtures';
@@ -282,6 +283,39 @@ describe('exact reach: unreachable people are named, never NaN', () => {
     assert.throws(
       () => exactReach(path(3), [0], { laziness: -0.1 }),
       (e: unknown) => e instanceof EngineError && e.code === 'INVALID_OPTION',
+    );
+  });
+});
+
+describe('exact reach: dense and sparse solvers agree on many random rooms (property-based, seeded)', () => {
+  it('same h, same unreachable people', () => {
+    fc.assert(
+      fc.property(
+        fc.record({
+          n: fc.integer({ min: 2, max: 40 }),
+          extra: fc.integer({ min: 0, max: 80 }),
+          directed: fc.boolean(),
+          connected: fc.boolean(),
+          seed: fc.integer({ min: 1, max: 1_000_000 }),
+          starters: fc.integer({ min: 1, max: 4 }),
+          mixing: fc.constantFrom(0, 0, 0.03),
+          laziness: fc.constantFrom(0, 0.4),
+        }),
+        (c) => {
+          const g = randomRoom(c.n, c.extra, c.directed, c.seed, c.connected);
+          const A = Array.from({ length: Math.min(c.starters, c.n - 1) }, (_, q) => (c.seed * (q + 1)) % c.n);
+          const opts = { mixing: c.mixing, laziness: c.laziness };
+          const d = exactReach(g, A, { ...opts, solver: 'dense' });
+          const s = exactReach(g, A, { ...opts, solver: 'sparse' });
+          assert.deepEqual(s.unreachable, d.unreachable);
+          for (let i = 0; i < c.n; i++) {
+            assert.ok(!Number.isNaN(d.h[i]) && !Number.isNaN(s.h[i]));
+            if (Number.isFinite(d.h[i])) assert.ok(relClose(s.h[i], d.h[i], 1e-8), `${i}: ${s.h[i]} vs ${d.h[i]}`);
+            else assert.equal(s.h[i], Infinity);
+          }
+        },
+      ),
+      { seed: 4242, numRuns: 300 },
     );
   });
 });
