@@ -92,6 +92,17 @@ export class AbsorbingState {
     return s;
   }
 
+  /** Overwrites this state with `from` (same room size) without allocating. */
+  copyFrom(from: AbsorbingState): this {
+    this.N.set(from.N);
+    this.h.set(from.h);
+    this.c.set(from.c);
+    this.inT.set(from.inT);
+    this.starters.splice(0, this.starters.length, ...from.starters);
+    this.rawTotal = from.rawTotal;
+    return this;
+  }
+
   clone(): AbsorbingState {
     const s = new AbsorbingState(this.n, this.scale);
     s.N.set(this.N);

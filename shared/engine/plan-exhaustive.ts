@@ -83,7 +83,7 @@ export function exhaustiveSearch(ctx: PlanContext, incumbent: AbsorbingState): E
       }
       let child = stateAt[depth];
       if (!child) child = stateAt[depth] = s.clone();
-      else copyState(s, child);
+      else child.copyFrom(s);
       child.add(x);
       dfs(child, x + 1, rep, depth + 1);
       if (aborted) return;
@@ -118,15 +118,6 @@ export function exhaustiveSearch(ctx: PlanContext, incumbent: AbsorbingState): E
   }
   if (aborted) recordBound(ctx, AbsorbingState.fromStarters(ctx.room, bestSet));
   return { state: { starters: bestSet, total: bestRaw * scale }, complete: !aborted, nodes };
-}
-
-function copyState(from: AbsorbingState, to: AbsorbingState): void {
-  to.N.set(from.N);
-  to.h.set(from.h);
-  to.c.set(from.c);
-  to.inT.set(from.inT);
-  to.starters.splice(0, to.starters.length, ...from.starters);
-  to.rawTotal = from.rawTotal;
 }
 
 /** Root sets: the required people plus one allowed representative per open closed group. */

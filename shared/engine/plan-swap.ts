@@ -10,6 +10,7 @@ import { recordBound, type PlanContext } from './plan-context';
 
 export function swapPolish(ctx: PlanContext, start: AbsorbingState, maxPasses = 20): AbsorbingState {
   let state = start.clone();
+  let trial = start.clone(); // scratch, reused for every trial swap
   const p1 = ctx.p1();
   const fixed = new Uint8Array(ctx.n);
   for (const p of ctx.mustInclude) fixed[p] = 1;
@@ -23,7 +24,7 @@ export function swapPolish(ctx: PlanContext, start: AbsorbingState, maxPasses = 
       const cls = closedOf[s];
       if (cls >= 0 && state.starters.filter((t) => closedOf[t] === cls).length === 1) continue;
       const before = state.rawTotal;
-      const trial = state.clone();
+      trial.copyFrom(state);
       trial.remove(s, p1);
       const allowed = Uint8Array.from(ctx.allowed);
       allowed[s] = 0;
@@ -33,7 +34,7 @@ export function swapPolish(ctx: PlanContext, start: AbsorbingState, maxPasses = 
       if (after < before - 1e-12 * Math.abs(before)) {
         trial.add(j);
         const order = state.starters.map((t) => (t === s ? j : t));
-        state = trial;
+        [state, trial] = [trial, state];
         state.starters.splice(0, state.starters.length, ...order);
         improved = true;
         ctx.options.onProgress?.({ stage: 'swap', done: pass + 1, of: maxPasses });
@@ -45,7 +46,10 @@ export function swapPolish(ctx: PlanContext, start: AbsorbingState, maxPasses = 
       break;
     }
     // Re-factor once per improving pass (small rooms) so rounding from many updates cannot build up.
-    if (ctx.n <= 500) state = AbsorbingState.fromStarters(ctx.room, [...state.starters]);
+    if (ctx.n <= 500) {
+      state = AbsorbingState.fromStarters(ctx.room, [...state.starters]);
+      trial = state.clone();
+    }
   }
   recordBound(ctx, state);
   return state;
