@@ -1,4 +1,7 @@
 import type { Routes } from '@angular/router';
 
-// Filled in by the participant feature.
-export default [] satisfies Routes;
+/** Participant pages: no account, a personal link or the projector's join code. */
+export default [
+  { path: 'join/:code', data: { bare: true }, title: 'Join a workshop · Ripplehall', loadComponent: () => import('./join-page') },
+  { path: ':token', data: { bare: true }, title: 'Your workshop page · Ripplehall', loadComponent: () => import('./participant-page') },
+] satisfies Routes;

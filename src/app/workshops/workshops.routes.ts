@@ -1,4 +1,8 @@
 import type { Routes } from '@angular/router';
 
-// Filled in by the workshops feature.
-export default [] satisfies Routes;
+export default [
+  { path: '', title: 'Workshops · Ripplehall', loadComponent: () => import('./workshop-list') },
+  { path: ':id', title: 'Workshop · Ripplehall', loadComponent: () => import('./workshop-page') },
+  { path: ':id/sheet', title: 'Links to print · Ripplehall', loadComponent: () => import('./link-sheet') },
+  { path: ':id/qr', data: { bare: true }, title: 'Join by QR code · Ripplehall', loadComponent: () => import('./join-projector') },
+] satisfies Routes;

@@ -1,0 +1,124 @@
+import { chainFronts, hasHeard, type Timeline } from './replay-timeline';
+
+/**
+ * Draws one frame of the replay on a canvas. Readable without colour: starters are squares
+ * marked "S", people who have heard are filled discs with a dark centre ring, people still
+ * waiting are hollow rings, and a travelling question is a diamond with a dashed trail.
+ */
+export const REPLAY_COLOURS = {
+  background: '#0d1b26',
+  tie: 'rgba(220, 230, 240, 0.16)',
+  waiting: '#c9d3dc',
+  heard: '#ffc94d',
+  starter: '#ffffff',
+  front: '#6fd3ff',
+  justHeard: '#ffffff',
+};
+
+export interface Frame {
+  ctx: CanvasRenderingContext2D;
+  width: number;
+  height: number;
+  x: Float64Array;
+  y: Float64Array;
+  ties: readonly { source: number; target: number }[];
+  timeline: Timeline;
+  t: number;
+  names: readonly string[];
+  showNames: boolean;
+}
+
+export function drawFrame(f: Frame): void {
+  const { ctx, width, height, timeline: tl } = f;
+  const pad = Math.max(28, Math.min(width, height) * 0.06);
+  const px = (i: number) => pad + f.x[i] * (width - 2 * pad);
+  const py = (i: number) => pad + f.y[i] * (height - 2 * pad);
+  const r = Math.max(4, Math.min(14, (Math.min(width, height) / Math.sqrt(tl.n + 1)) * 0.18));
+  ctx.fillStyle = REPLAY_COLOURS.background;
+  ctx.fillRect(0, 0, width, height);
+
+  ctx.strokeStyle = REPLAY_COLOURS.tie;
+  ctx.lineWidth = 1;
+  ctx.beginPath();
+  for (const t of f.ties) {
+    ctx.moveTo(px(t.source), py(t.source));
+    ctx.lineTo(px(t.target), py(t.target));
+  }
+  ctx.stroke();
+
+  // Travelling questions: a dashed trail and a diamond at the front.
+  const fronts = chainFronts(tl, f.t);
+  ctx.strokeStyle = REPLAY_COLOURS.front;
+  ctx.lineWidth = 2;
+  ctx.setLineDash([5, 4]);
+  ctx.beginPath();
+  const fx: number[] = [];
+  const fy: number[] = [];
+  for (const c of fronts) {
+    const x = px(c.from) + (px(c.to) - px(c.from)) * c.along;
+    const y = py(c.from) + (py(c.to) - py(c.from)) * c.along;
+    ctx.moveTo(px(c.trail[0]), py(c.trail[0]));
+    for (let k = 1; k < c.trail.length; k++) ctx.lineTo(px(c.trail[k]), py(c.trail[k]));
+    ctx.lineTo(x, y);
+    fx.push(x);
+    fy.push(y);
+  }
+  ctx.stroke();
+  ctx.setLineDash([]);
+  ctx.fillStyle = REPLAY_COLOURS.front;
+  ctx.beginPath();
+  const d = r * 0.7;
+  for (let k = 0; k < fx.length; k++) {
+    ctx.moveTo(fx[k], fy[k] - d);
+    ctx.lineTo(fx[k] + d, fy[k]);
+    ctx.lineTo(fx[k], fy[k] + d);
+    ctx.lineTo(fx[k] - d, fy[k]);
+    ctx.closePath();
+  }
+  ctx.fill();
+
+  const hop = Math.floor(f.t + 1e-9);
+  for (let i = 0; i < tl.n; i++) {
+    const x = px(i);
+    const y = py(i);
+    if (tl.starters.has(i)) {
+      ctx.fillStyle = REPLAY_COLOURS.starter;
+      ctx.fillRect(x - r * 1.2, y - r * 1.2, r * 2.4, r * 2.4);
+      ctx.fillStyle = REPLAY_COLOURS.background;
+      ctx.font = `700 ${Math.round(r * 1.6)}px "Source Sans 3", sans-serif`;
+      ctx.textAlign = 'center';
+      ctx.textBaseline = 'middle';
+      ctx.fillText('S', x, y + 1);
+    } else if (hasHeard(tl, i, f.t)) {
+      ctx.fillStyle = REPLAY_COLOURS.heard;
+      ctx.beginPath();
+      ctx.arc(x, y, r, 0, Math.PI * 2);
+      ctx.fill();
+      ctx.strokeStyle = REPLAY_COLOURS.background;
+      ctx.lineWidth = Math.max(1.5, r * 0.25);
+      ctx.beginPath();
+      ctx.arc(x, y, r * 0.45, 0, Math.PI * 2);
+      ctx.stroke();
+      if (tl.heardAt[i] === hop) {
+        ctx.strokeStyle = REPLAY_COLOURS.justHeard;
+        ctx.lineWidth = 2.5;
+        ctx.beginPath();
+        ctx.arc(x, y, r + 4, 0, Math.PI * 2);
+        ctx.stroke();
+      }
+    } else {
+      ctx.strokeStyle = REPLAY_COLOURS.waiting;
+      ctx.lineWidth = 2;
+      ctx.beginPath();
+      ctx.arc(x, y, r * 0.8, 0, Math.PI * 2);
+      ctx.stroke();
+    }
+  }
+  if (f.showNames) {
+    ctx.font = `600 ${Math.round(Math.max(13, r * 1.3))}px "Source Sans 3", sans-serif`;
+    ctx.textAlign = 'left';
+    ctx.textBaseline = 'middle';
+    ctx.fillStyle = '#e8eef3';
+    for (let i = 0; i < tl.n; i++) ctx.fillText(f.names[i], px(i) + r * 1.5, py(i));
+  }
+}
