@@ -11,6 +11,13 @@ export const routes: Routes = [
   { path: 'workshops', canActivate: [signedInGuard], loadChildren: () => import('./workshops/workshops.routes') },
   { path: 'admin', canActivate: [roleGuard('admin')], loadChildren: () => import('./admin/admin.routes') },
   { path: 'p', loadChildren: () => import('./participant/participant.routes') },
+  {
+    path: 'replay/:rehearsalId',
+    canActivate: [signedInGuard],
+    data: { bare: true },
+    title: 'Replay · Ripplehall',
+    loadComponent: () => import('./replay/replay-page'),
+  },
   { path: 'not-allowed', title: 'Not allowed · Ripplehall', loadComponent: () => import('./core/not-allowed') },
   { path: '**', title: 'Not found · Ripplehall', loadComponent: () => import('./core/not-found') },
 ];
