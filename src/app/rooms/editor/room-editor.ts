@@ -60,7 +60,7 @@ export class RoomEditor implements OnDestroy {
     return [...this.model.ties.values()];
   });
   readonly groups = computed(() =>
-    [...new Set(this.people().map((p) => p.group ?? ''))].filter((g) => g).sort((a, b) => a.localeCompare(b)),
+    [...new Set(this.people().map((p) => p.group ?? ''))].filter((g) => g).sort((a, b) => a.localeCompare(b, undefined, { numeric: true })),
   );
   readonly history = computed(() => {
     this.revision();

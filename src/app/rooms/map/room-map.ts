@@ -46,6 +46,7 @@ export class RoomMap implements OnDestroy {
   private readonly editor = inject(RoomEditor);
   readonly tool = input<MapTool>('select');
   private readonly svgRef = viewChild.required<ElementRef<SVGSVGElement>>('svg');
+  private readonly overlayRef = viewChild.required<ElementRef<SVGSVGElement>>('overlay');
 
   readonly mode = signal<LayoutMode>('full');
   protected readonly band = signal<{ x: number; y: number; w: number; h: number } | null>(null);
@@ -61,9 +62,15 @@ export class RoomMap implements OnDestroy {
   private tieLayer!: SVGGElement;
   private peopleLayer!: SVGGElement;
   private draft!: SVGLineElement;
+  private overlayViewport!: SVGGElement;
+  private overlayTies!: SVGGElement;
+  private overlayPeople!: SVGGElement;
   private highlight!: SVGCircleElement;
   private highlighted: string | null = null;
   private ready = false;
+  private signature = '';
+  private elements = new Map<string, SVGGElement>();
+  private tieElements = new Map<string, SVGLineElement>();
   private fitted = false;
   private labelsShown = true;
 
@@ -95,6 +102,14 @@ export class RoomMap implements OnDestroy {
     this.highlight = el('circle', { r: R + 9, fill: 'none', stroke: CLAY, 'stroke-width': 3, visibility: 'hidden', class: 'rh-find-ring' });
     this.viewport.append(this.tieLayer, this.draft, this.peopleLayer, this.highlight);
     svg.append(this.viewport);
+    // People being dragged (and their ties) move to a composited layer of their own, so a drag
+    // frame repaints a few shapes instead of the whole map.
+    const overlay = this.overlayRef().nativeElement;
+    this.overlayViewport = el('g', {});
+    this.overlayTies = el('g', {});
+    this.overlayPeople = el('g', {});
+    this.overlayViewport.append(this.overlayTies, this.overlayPeople);
+    overlay.replaceChildren(this.overlayViewport);
     this.zoomer = zoom<SVGSVGElement, unknown>()
       .scaleExtent([0.05, 6])
       // Shift + drag on the background is the rubber band, not a pan.
@@ -102,6 +117,7 @@ export class RoomMap implements OnDestroy {
       .on('zoom', (e: { transform: ZoomTransform }) => {
         this.transform = e.transform;
         this.viewport.setAttribute('transform', e.transform.toString());
+        this.overlayViewport.setAttribute('transform', e.transform.toString());
         this.updateLabelVisibility();
       });
     select(svg).call(this.zoomer).on('dblclick.zoom', null);
@@ -148,13 +164,25 @@ export class RoomMap implements OnDestroy {
       }
     }
     const nodes = [...next.values()];
+    const signature = structureOf(people, ties, room.settings.directed);
+    if (signature === this.signature && !newcomers) {
+      // Only places changed (a move, an undo of a move): update positions, keep the elements.
+      for (const n of nodes) n.el = this.elements.get(n.lid);
+      for (const l of this.links) l.el = this.tieElements.get(l.lid);
+      this.renderAll();
+      this.paintPins(people);
+      return;
+    }
+    this.signature = signature;
     const mode = layoutMode(nodes.length);
     this.mode.set(mode);
     const noneSaved = people.length > 0 && people.every((p) => p.x === null || p.y === null);
     placeUnplaced(nodes);
     this.drawTies(room.settings.directed);
     this.drawPeople(people, styles);
-    this.labelsShown = nodes.length <= 600;
+    this.elements = new Map(nodes.map((n) => [n.lid, n.el!]));
+    this.tieElements = new Map(this.links.map((l) => [l.lid, l.el!]));
+    this.labelsShown = nodes.length <= 150;
     this.updateLabelVisibility();
     this.paintSelection();
     if (!this.fitted && nodes.length) {
@@ -207,7 +235,7 @@ export class RoomMap implements OnDestroy {
       const g = el('g', { class: 'person', 'data-lid': p.lid, 'data-name': p.name });
       g.append(el('path', { d: shapePath(style.shape, R), fill: style.fill, stroke: INK, 'stroke-width': 1.4, class: 'shape' }));
       if (style.hollow) g.append(el('circle', { r: R * 0.38, fill: '#ffffff', stroke: INK, 'stroke-width': 1 }));
-      if (p.pinned) g.append(el('path', { d: 'M6,-14l6,0l-3,5z', fill: INK, class: 'pin' }));
+      g.append(el('path', { d: 'M5,-17h7l-3.5,6z', fill: INK, class: 'pin', visibility: p.pinned ? 'visible' : 'hidden' }));
       const label = el('text', {
         y: R + 13,
         'text-anchor': 'middle',
@@ -230,6 +258,14 @@ export class RoomMap implements OnDestroy {
     sel.data([...people.map((p) => this.nodes.get(p.lid)!)]);
     if (editable) this.attachDrag(sel as unknown as D3Selection<SVGGElement, MapNode, SVGGElement, unknown>);
     else sel.on('click', (e: MouseEvent, d) => this.clickPerson(e, d as MapNode));
+  }
+
+  private paintPins(people: ReturnType<RoomEditor['people']>): void {
+    for (const p of people)
+      this.elements
+        .get(p.lid)
+        ?.querySelector('.pin')
+        ?.setAttribute('visibility', p.pinned ? 'visible' : 'hidden');
   }
 
   private placeTie(l: MapLink): void {
@@ -311,6 +347,7 @@ export class RoomMap implements OnDestroy {
     let moving: MapNode[] = [];
     let moved = false;
     let tieMode = false;
+    let lifted: MapLink[] = [];
     const behaviour = drag<SVGGElement, MapNode>()
       .clickDistance(3)
       .on('start', (e: { sourceEvent: MouseEvent; subject: MapNode }) => {
@@ -331,6 +368,7 @@ export class RoomMap implements OnDestroy {
               .map((lid) => this.nodes.get(lid)!)
               .filter(Boolean)
           : [d];
+        lifted = this.lift(moving);
         this.sim?.stop();
         this.layoutRunning.set(false);
       })
@@ -365,6 +403,7 @@ export class RoomMap implements OnDestroy {
           }
           return;
         }
+        this.drop(moving, lifted);
         if (!moved) return;
         this.editor.movePeople(
           moving.map((n) => ({ lid: n.lid, x: Math.round(n.x!), y: Math.round(n.y!), pinned: n.pinned })),
@@ -372,6 +411,19 @@ export class RoomMap implements OnDestroy {
         );
       });
     sel.call(behaviour);
+  }
+
+  private lift(nodes: MapNode[]): MapLink[] {
+    const links = new Set<MapLink>();
+    for (const n of nodes) for (const l of this.adjacency.get(n.lid) ?? []) links.add(l);
+    for (const l of links) if (l.el) this.overlayTies.append(l.el);
+    for (const n of nodes) if (n.el) this.overlayPeople.append(n.el);
+    return [...links];
+  }
+
+  private drop(nodes: MapNode[], links: MapLink[]): void {
+    for (const l of links) if (l.el) this.tieLayer.append(l.el);
+    for (const n of nodes) if (n.el) this.peopleLayer.append(n.el);
   }
 
   private clickPerson(e: MouseEvent, d: MapNode): void {
@@ -541,6 +593,15 @@ export class RoomMap implements OnDestroy {
     clone.prepend(bg);
     return { svg: new XMLSerializer().serializeToString(clone), width, height };
   }
+}
+
+/** What needs a redraw when it changes (positions and pins do not). */
+function structureOf(people: ReturnType<RoomEditor['people']>, ties: ReturnType<RoomEditor['ties']>, directed: boolean): string {
+  let s = directed ? 'd' : 'u';
+  for (const p of people) s += `|${p.lid}\u0001${p.name}\u0001${p.group ?? ''}`;
+  s += '#';
+  for (const t of ties) s += `|${t.lid}\u0001${t.source}\u0001${t.target}\u0001${t.strength}`;
+  return s;
 }
 
 function el<K extends keyof SVGElementTagNameMap>(tag: K, a: Record<string, string | number>): SVGElementTagNameMap[K] {

@@ -10,7 +10,6 @@ import { MatTooltipModule } from '@angular/material/tooltip';
 import { RoomEditor } from '../editor/room-editor';
 import { groupStyles, NO_GROUP_STYLE, shapePath } from '../map/group-style';
 import { type MapTool, RoomMap } from '../map/room-map';
-import { MapInspector } from './map-inspector';
 
 /** The map tab: tools, the map, the legend of groups and the inspector of the selection. */
 @Component({
@@ -25,7 +24,6 @@ import { MapInspector } from './map-inspector';
     MatInputModule,
     MatTooltipModule,
     RoomMap,
-    MapInspector,
   ],
   templateUrl: './map-panel.html',
   styleUrl: './map-panel.scss',

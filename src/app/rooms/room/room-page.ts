@@ -16,6 +16,7 @@ import { SummaryPanel } from '../panels/summary-panel';
 import { PeopleTable } from '../tables/people-table';
 import { TiesTable } from '../tables/ties-table';
 import { downloadMapPng } from './map-png';
+import { MapInspector } from './map-inspector';
 import { MapPanel } from './map-panel';
 import { SaveStatus } from './save-status';
 
@@ -30,6 +31,7 @@ import { SaveStatus } from './save-status';
     MatTabsModule,
     MatTooltipModule,
     MapPanel,
+    MapInspector,
     PeopleTable,
     TiesTable,
     SettingsPanel,

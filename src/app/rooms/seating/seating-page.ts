@@ -17,6 +17,7 @@ import {
   type RosterEntry,
   type SeatingKind,
   type SeatingOptions,
+  type SeatingResult,
   seatingProblems,
 } from '../../../../shared/seating/seating';
 import { toApiError } from '../../core/api-error';
@@ -75,6 +76,13 @@ export default class SeatingPage {
   protected readonly problems = computed(() => seatingProblems(this.options(), this.entries().length));
   protected readonly result = computed(() => (this.problems().length ? null : buildSeating(this.entries(), this.options())));
   protected readonly kind = computed(() => this.value().kind ?? 'round');
+
+  protected countsLine(r: SeatingResult): string {
+    const unit = this.kind() === 'round' ? 'tables' : this.kind() === 'rows' ? 'rows' : 'U';
+    const kinds = [`${r.counts.neighbour} neighbour`, `${r.counts.across} weaker`];
+    if (r.counts.mingle) kinds.push(`${r.counts.mingle} mingling`);
+    return `${r.people.length} people · ${r.groups} ${unit} · ${r.ties.length} ties (${kinds.join(', ')})`;
+  }
 
   protected fillNumbered(count: string): void {
     const n = Math.min(Math.max(Number(count) || 0, 0), 3000);
