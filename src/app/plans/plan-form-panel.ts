@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, effect, input, output, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, input, output, signal, untracked } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -56,8 +56,12 @@ export class PlanFormPanel {
   protected readonly constraint = computed(() => {
     this.changes();
     const names = new Map(this.people().map((p) => [p.id, p.name]));
-    return constraintMessages(this.form.errors, (id) => names.get(id) ?? `#${id}`);
+    const messages = constraintMessages(this.form.errors, (id) => names.get(id) ?? `#${id}`);
+    // "Pick at least one starter" waits until the facilitator has tried: an empty new form is not a mistake.
+    if (!this.tried() && !this.form.controls.starters.touched) delete messages.starters;
+    return messages;
   });
+  private readonly tried = signal(false);
 
   constructor() {
     // The room arrives after the form is built: re-check the bounds, and keep the default budget inside them.
@@ -77,6 +81,7 @@ export class PlanFormPanel {
   }
 
   protected submit(): void {
+    this.tried.set(true);
     this.form.markAllAsTouched();
     this.form.updateValueAndValidity();
     if (this.form.invalid) return;

@@ -2,6 +2,7 @@ import { ChangeDetectionStrategy, Component, effect, ElementRef, input, viewChil
 import { forceCenter, forceLink, forceManyBody, forceSimulation, type SimulationNodeDatum } from 'd3-force';
 import { select } from 'd3-selection';
 import type { PersonDto, TieDto } from '../../../shared/api/rooms';
+import { groupStyles, shapePath, type ShapeName } from '../rooms/map/group-style';
 import { hopsShade } from './hops-shade';
 
 interface Dot extends SimulationNodeDatum {
@@ -9,6 +10,7 @@ interface Dot extends SimulationNodeDatum {
   name: string;
   hops: number | null;
   order: number | null;
+  shape: ShapeName;
 }
 
 const W = 640;
@@ -29,6 +31,7 @@ const PAD = 28;
         <span class="starter-key" aria-hidden="true"></span> starter (briefing order)
         <span class="ramp" aria-hidden="true"></span>
         <span>hears sooner &rarr; later</span>
+        <span class="shapes">shapes: groups, as on the room map</span>
       </figcaption>
     </figure>
   `,
@@ -56,11 +59,14 @@ export class PlanMap {
     const people = this.people();
     const hops = this.hops();
     const order = new Map(this.starters().map((id, i) => [id, i + 1]));
+    // Groups keep the shapes they have on the room's own map, so the two drawings read alike.
+    const styles = groupStyles([...new Set(people.map((p) => p.group).filter((g): g is string => !!g))].sort());
     const dots: Dot[] = people.map((p) => ({
       id: p.id,
       name: p.name,
       hops: hops.get(p.id) ?? null,
       order: order.get(p.id) ?? null,
+      shape: (p.group && styles.get(p.group)?.shape) || 'circle',
       x: p.x ?? undefined,
       y: p.y ?? undefined,
     }));
@@ -97,8 +103,8 @@ export class PlanMap {
       .attr('class', (d) => (d.order ? 'person starter' : 'person'))
       .attr('transform', (d) => `translate(${d.x},${d.y})`);
     nodes
-      .append('circle')
-      .attr('r', (d) => (d.order ? 11 : 7))
+      .append('path')
+      .attr('d', (d) => shapePath(d.shape, d.order ? 11 : 7))
       .attr('fill', (d) => (d.order ? '#fff' : hopsShade(d.hops, lo, hi)));
     nodes
       .filter((d) => !!d.order)

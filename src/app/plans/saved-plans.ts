@@ -1,5 +1,5 @@
 import { DatePipe, DecimalPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, input, output, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input, output, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatIconModule } from '@angular/material/icon';
@@ -7,6 +7,8 @@ import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 import type { PlanSummary } from '../../../shared/api/plans';
 import { methodLabel } from './method-label';
+
+const SHOWN = 8;
 
 /** The room's saved plans: open one, mark the chosen one, pick two to compare. */
 @Component({
@@ -25,6 +27,9 @@ export class SavedPlans {
   readonly removed = output<PlanSummary>();
 
   protected readonly picked = signal<number[]>([]);
+  protected readonly showAll = signal(false);
+  protected readonly visible = computed(() => (this.showAll() ? this.plans() : this.plans().slice(0, SHOWN)));
+  protected readonly shown = SHOWN;
   protected readonly methodLabel = methodLabel;
 
   protected togglePick(id: number, on: boolean): void {

@@ -51,7 +51,11 @@ describe('sweepSeriesFromPoints', () => {
       { k: 1, greedy: 4, widened: 4, swap: 4, mostTies: 5, random: 7, lowerBound: 3.5 },
       { k: 2, greedy: 3, widened: 2.9, swap: 2.9, mostTies: 3.6, random: null, lowerBound: 2.5 },
     ]);
-    expect(series.map((s) => s.method)).toEqual(['greedy', 'widened', 'swap', 'mostTies', 'random']);
+    expect(series.map((s) => s.method)).toEqual(['greedy', 'widened', 'swap', 'mostTies', 'random', 'lowerBound']);
+    expect(series[5].points).toEqual([
+      { k: 1, average: 3.5 },
+      { k: 2, average: 2.5 },
+    ]);
     expect(series[1].points).toEqual([
       { k: 1, average: 4 },
       { k: 2, average: 2.9 },

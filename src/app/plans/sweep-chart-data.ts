@@ -11,7 +11,10 @@ export interface SweepSeries {
 
 /** The server's sweep rows turned into one series per method (greedy, widened, swap, most ties, random). */
 export function sweepSeriesFromPoints(points: readonly KSweepPoint[]): SweepSeries[] {
-  return SWEEP_SERIES.map((method) => ({ method, points: points.map((p) => ({ k: p.k, average: p[method] })) }));
+  const series: SweepSeries[] = SWEEP_SERIES.map((method) => ({ method, points: points.map((p) => ({ k: p.k, average: p[method] })) }));
+  if (points.some((p) => p.lowerBound !== null))
+    series.push({ method: 'lowerBound', points: points.map((p) => ({ k: p.k, average: p.lowerBound })) });
+  return series;
 }
 
 /** Plain labels for the sweep's methods and baselines. */
@@ -23,6 +26,7 @@ export const SWEEP_LABELS: Record<string, string> = {
   'most-ties': 'Most ties (baseline)',
   mostTies: 'Most ties (baseline)',
   random: 'Random (baseline)',
+  lowerBound: 'No plan can beat this (proven bound)',
 };
 
 const BASELINES = new Set(['most-ties', 'mostTies', 'random']);
@@ -38,16 +42,17 @@ export function sweepChartData(series: readonly SweepSeries[]): ChartData<'line'
     const byK = new Map(s.points.map((p) => [p.k, p.average]));
     const colour = SERIES_COLOURS[i % SERIES_COLOURS.length];
     const baseline = BASELINES.has(s.method);
+    const bound = s.method === 'lowerBound';
     return {
       label: SWEEP_LABELS[s.method] ?? s.method,
       data: ks.map((k) => {
         const v = byK.get(k);
         return v === undefined || v === null || !Number.isFinite(v) ? null : Math.round(v * 1000) / 1000;
       }),
-      borderColor: colour,
-      backgroundColor: colour,
-      borderDash: baseline ? [5, 4] : undefined,
-      pointRadius: 3,
+      borderColor: bound ? '#9aa5ad' : colour,
+      backgroundColor: bound ? '#9aa5ad' : colour,
+      borderDash: baseline ? [5, 4] : bound ? [2, 3] : undefined,
+      pointRadius: bound ? 0 : 3,
       pointStyle: baseline ? 'rect' : 'circle',
       borderWidth: 2,
       spanGaps: false,
