@@ -33,6 +33,7 @@ const log = (s: string) => process.stderr.write(s + '\n');
 
 function median(fn: () => unknown, runs: number): number {
   const ts: { wall: number; cpu: number }[] = [];
+  if (runs > 1) fn(); // warm-up: the first call pays for JIT compilation
   for (let r = 0; r < runs; r++) {
     const c = process.cpuUsage();
     const t = performance.now();
