@@ -38,7 +38,7 @@ export * from './cover';
 export * from './plan-types';
 export * from './plan';
 export * from './reach-time';
-export { AbsorbingState, beats, TIE_TOLERANCE } from './dense-state';
+export { AbsorbingState, beats, tieTolerance, TIE_TOLERANCE } from './dense-state';
 export { SparseSystem } from './sparse-system';
 export {
   luFactor,

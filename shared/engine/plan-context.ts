@@ -4,7 +4,7 @@
  */
 import { coverBound, qualityRank } from './quality';
 import { vertexCover, type CoverResult } from './cover';
-import { AbsorbingState, beats } from './dense-state';
+import { AbsorbingState, beats, tieTolerance } from './dense-state';
 import { EngineError } from './errors';
 import { ergodicFromWalk, ergodicSymmetric, isReversibleErgodic, type ErgodicData } from './ergodic';
 import type { PlanMethod, PlanOptions, PlanResult } from './plan-types';
@@ -163,7 +163,7 @@ export function classPick(ctx: PlanContext, cls: number[], allowed: Uint8Array |
   for (let a = 0; a < m; a++) {
     if (allowed && !allowed[cls[a]]) continue;
     const t = worst ? -e.singleTotals[a] : e.singleTotals[a];
-    if (beats(t, cls[a], bestT, best < 0 ? -1 : cls[best])) {
+    if (beats(t, cls[a], bestT, best < 0 ? -1 : cls[best], tieTolerance(m))) {
       best = a;
       bestT = t;
     }
@@ -181,7 +181,7 @@ export function initialState(ctx: PlanContext): AbsorbingState {
   if (ctx.mustInclude.length === 0 && e) {
     let best = -1;
     for (let j = 0; j < ctx.n; j++)
-      if (ctx.allowed[j] && beats(e.singleTotals[j], j, best < 0 ? Infinity : e.singleTotals[best], best)) best = j;
+      if (ctx.allowed[j] && beats(e.singleTotals[j], j, best < 0 ? Infinity : e.singleTotals[best], best, tieTolerance(ctx.n))) best = j;
     // For k = 1 the best single starter is the optimum (identity 3 scores every candidate).
     if (ctx.k === 1) ctx.bounds.push(e.singleTotals[best]);
     return AbsorbingState.fromErgodic(e, best);

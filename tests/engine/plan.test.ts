@@ -131,6 +131,9 @@ describe('planner behaviour', () => {
     assert.deepEqual(plan(cycle(9), { k: 1, method: 'greedy' }).starters, [0]);
     assert.deepEqual(plan(complete(6), { k: 2, method: 'greedy' }).starters, [0, 1]);
     assert.deepEqual(plan(complete(6), { k: 3, method: 'exhaustive' }).starters.sort(), [0, 1, 2]);
+    // On C_400 every single starter has the same total (symmetry), and so do the two quarter points
+    // once 0 and 200 are chosen: rounding must not split these ties.
+    assert.deepEqual(plan(cycle(400), { k: 3, method: 'greedy' }).starters, [0, 200, 100]);
   });
 
   it('validation errors carry codes', () => {
