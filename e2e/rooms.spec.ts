@@ -312,3 +312,80 @@ test('frame times while dragging on a room of 300 people and 1,500 ties', async 
   await waitSaved(page);
   await keepScreenshot(page, 'rooms-map-300');
 });
+
+test('a stale save offers reload or keep mine; sharing as viewer gives a read-only room', async ({ page, browser, baseURL }) => {
+  await signIn(page, DEMO.facilitator);
+  const client = await api(page);
+  const res = await client.post('/api/rooms', {
+    name: `Shared check ${Date.now()}`,
+    people: [
+      { key: 'a', name: 'Ada Wren', group: 'North', x: 100, y: 100 },
+      { key: 'b', name: 'Bo Lark', group: 'South', x: 260, y: 120 },
+    ],
+    ties: [{ source: 'a', target: 'b', strength: 2 }],
+  });
+  expect(res.status()).toBe(201);
+  const room = (await res.json()) as { id: number; version: number };
+  await page.goto(`/rooms/${room.id}`);
+  await expect(personLocator(page, 'Ada Wren')).toBeVisible();
+
+  // Someone else changes the room: the next save meets a newer version.
+  const xsrf = decodeURIComponent((await page.context().cookies()).find((c) => c.name === 'XSRF-TOKEN')!.value);
+  const patch = await page.request.patch(`/api/rooms/${room.id}`, {
+    data: { version: room.version, description: 'Changed in another tab' },
+    headers: { 'X-XSRF-TOKEN': xsrf },
+  });
+  expect(patch.status()).toBe(200);
+  await page.getByRole('tab', { name: /People/ }).click();
+  await page.getByRole('button', { name: 'Edit Bo Lark', exact: true }).click();
+  const nameCell = page.locator('tr.rh-editing').getByRole('textbox', { name: 'Name' });
+  await nameCell.fill('Bo Lark-Ives');
+  await nameCell.press('Enter');
+  await expect(page.getByText('This room was changed elsewhere: reload or keep yours.')).toBeVisible();
+  // Nothing typed is lost while the choice is open.
+  await expect(page.getByRole('cell', { name: 'Bo Lark-Ives', exact: true })).toBeVisible();
+  await keepScreenshot(page, 'rooms-conflict');
+  await page.getByRole('button', { name: 'Keep mine' }).click();
+  await waitSaved(page);
+  await page.reload();
+  await page.getByRole('tab', { name: /People/ }).click();
+  await expect(page.getByRole('cell', { name: 'Bo Lark-Ives', exact: true })).toBeVisible();
+
+  // Share with the admin account as a viewer.
+  await page.getByRole('button', { name: 'Share' }).click();
+  const dialog = page.getByRole('dialog');
+  await dialog.getByLabel('Their e-mail').fill(DEMO.admin.email);
+  await dialog.getByRole('button', { name: 'Share' }).click();
+  await expect(dialog.getByRole('listitem')).toContainText(DEMO.admin.email);
+  await keepScreenshot(page, 'rooms-share');
+  await dialog.getByRole('button', { name: 'Done' }).click();
+
+  const other = await browser.newContext({ baseURL });
+  const viewer = await other.newPage();
+  await signIn(viewer, DEMO.admin);
+  await viewer.goto(`/rooms/${room.id}`);
+  await expect(viewer.getByText('View only')).toBeVisible();
+  await expect(personLocator(viewer, 'Ada Wren')).toBeVisible();
+  await expect(viewer.getByRole('button', { name: 'Add person' })).toHaveCount(0);
+  await expect(viewer.getByRole('button', { name: 'Import' })).toHaveCount(0);
+  await expect(viewer.getByRole('button', { name: 'Share' })).toHaveCount(0);
+  await viewer.getByRole('tab', { name: /People/ }).click();
+  await expect(viewer.getByRole('cell', { name: 'Bo Lark-Ives', exact: true })).toBeVisible();
+  await expect(viewer.getByRole('button', { name: /^Edit / })).toHaveCount(0);
+  // Dragging on a read-only map moves nobody.
+  await viewer.getByRole('tab', { name: 'Map' }).click();
+  const before = await personLocator(viewer, 'Ada Wren').getAttribute('transform');
+  const c = await centreOf(viewer, 'Ada Wren');
+  await viewer.mouse.move(c.x, c.y);
+  await viewer.mouse.down();
+  await viewer.mouse.move(c.x + 60, c.y + 40, { steps: 5 });
+  await viewer.mouse.up();
+  expect(await personLocator(viewer, 'Ada Wren').getAttribute('transform')).toBe(before);
+  await keepScreenshot(viewer, 'rooms-viewer');
+  await other.close();
+
+  // The owner revokes; the room is gone for the viewer (404, not 403).
+  await page.getByRole('button', { name: 'Share' }).click();
+  await page.getByRole('button', { name: /Stop sharing with/ }).click();
+  await expect(page.getByRole('dialog').getByText('Nobody yet.')).toBeVisible();
+});

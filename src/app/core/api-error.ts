@@ -14,6 +14,8 @@ export interface ApiError {
 }
 
 export function toApiError(err: unknown): ApiError {
+  // Already reshaped (errorInterceptor rethrows ApiError objects): keep status and details.
+  if (isApiError(err)) return err;
   if (err instanceof HttpErrorResponse) {
     const body = err.error?.error;
     if (body?.message) return { status: err.status, code: body.code, message: body.message, details: body.details };
@@ -23,4 +25,16 @@ export function toApiError(err: unknown): ApiError {
     return { status: err.status, code: 'http', message: `The server answered ${err.status} ${err.statusText}.` };
   }
   return { status: 0, code: 'client', message: (err as Error)?.message ?? 'Something went wrong.' };
+}
+
+function isApiError(err: unknown): err is ApiError {
+  const e = err as Partial<ApiError> | null;
+  return (
+    !!e &&
+    typeof e === 'object' &&
+    !(err instanceof Error) &&
+    typeof e.status === 'number' &&
+    typeof e.code === 'string' &&
+    typeof e.message === 'string'
+  );
 }

@@ -1,6 +1,8 @@
-import { provideHttpClient } from '@angular/common/http';
+import { provideHttpClient, withInterceptors } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
+import { provideRouter } from '@angular/router';
+import { errorInterceptor } from '../../core/error-interceptor';
 import type { RoomDto } from '../../../../shared/api/rooms';
 import { RoomEditor } from './room-editor';
 
@@ -20,13 +22,15 @@ const ROOM: RoomDto = {
   updatedAt: '2026-01-01T00:00:00Z',
 };
 
-/** Autosave through the batch endpoint, and the "changed elsewhere" choice after a 409. */
+/** Autosave through the batch endpoint (behind the app's error interceptor), and the "changed elsewhere" choice after a 409. */
 describe('RoomEditor saving', () => {
   let editor: RoomEditor;
   let http: HttpTestingController;
 
   beforeEach(async () => {
-    TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting(), RoomEditor] });
+    TestBed.configureTestingModule({
+      providers: [provideHttpClient(withInterceptors([errorInterceptor])), provideHttpClientTesting(), provideRouter([]), RoomEditor],
+    });
     editor = TestBed.inject(RoomEditor);
     http = TestBed.inject(HttpTestingController);
     const loading = editor.load(5);
@@ -62,18 +66,16 @@ describe('RoomEditor saving', () => {
   it('a stale version keeps the change; "keep mine" sends it again on top of the newer version', async () => {
     editor.updatePerson('p11', { name: 'Ana Lima' });
     const saving = editor.flush();
-    http
-      .expectOne('/api/rooms/5/edits')
-      .flush(
-        {
-          error: {
-            code: 'stale_version',
-            message: 'This room was changed elsewhere: reload or keep yours.',
-            details: { currentVersion: 7, yourVersion: 3, message: 'x' },
-          },
+    http.expectOne('/api/rooms/5/edits').flush(
+      {
+        error: {
+          code: 'stale_version',
+          message: 'This room was changed elsewhere: reload or keep yours.',
+          details: { currentVersion: 7, yourVersion: 3, message: 'x' },
         },
-        { status: 409, statusText: 'Conflict' },
-      );
+      },
+      { status: 409, statusText: 'Conflict' },
+    );
     await saving;
     expect(editor.saveState()).toBe('conflict');
     expect(editor.conflict()?.currentVersion).toBe(7);
