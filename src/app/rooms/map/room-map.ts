@@ -536,7 +536,7 @@ export class RoomMap implements OnDestroy {
     const ys = nodes.map((n) => n.y!);
     const [x0, x1, y0, y1] = [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
     const pad = 48;
-    const k = Math.min(3, (svg.clientWidth - pad * 2) / Math.max(x1 - x0, 1), (svg.clientHeight - pad * 2) / Math.max(y1 - y0, 1));
+    const k = Math.min(1.6, (svg.clientWidth - pad * 2) / Math.max(x1 - x0, 1), (svg.clientHeight - pad * 2) / Math.max(y1 - y0, 1));
     const t = zoomIdentity
       .translate(svg.clientWidth / 2, svg.clientHeight / 2)
       .scale(k)
