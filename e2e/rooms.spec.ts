@@ -103,6 +103,17 @@ test('build a room with the seating builder, then move and tie people on the map
   await keepScreenshot(page, 'rooms-people-table');
   await page.getByRole('tab', { name: /Ties/ }).click();
   await expect(page.getByRole('table', { name: 'Ties' })).toContainText('Robin Vale');
+  // Add a tie by picking two people, with the keyboard only.
+  const addTie = page.getByRole('form', { name: 'Add a tie' });
+  await addTie.getByLabel('Person', { exact: true }).fill('Seat 5');
+  await addTie.getByLabel('Other person').fill('Seat 5');
+  await addTie.getByLabel('Strength').fill('2');
+  await addTie.getByLabel('Strength').press('Enter');
+  await expect(addTie.getByText('A tie joins two different people.')).toBeVisible();
+  await addTie.getByLabel('Other person').fill('Seat 13');
+  await addTie.getByLabel('Strength').press('Enter');
+  await expect(page.getByText('24 people · 89 ties')).toBeVisible();
+  await waitSaved(page);
   await keepScreenshot(page, 'rooms-ties-table');
 });
 
@@ -169,6 +180,26 @@ test('import a CSV with errors, read the row errors, fix and commit; export Grap
   for (const name of ['Ada Wren', 'Bo Lark', 'Cy Fenn', 'Di Holt'])
     await expect(page.getByRole('cell', { name, exact: true })).toBeVisible();
 
+  // Node-link JSON out, and in again as a new room from the rooms list.
+  await page.getByRole('button', { name: 'Export' }).click();
+  const jsonDownload = page.waitForEvent('download');
+  await page.getByRole('menuitem', { name: 'Node-link JSON' }).click();
+  const jsonPath = `${dir}/room.json`;
+  await (await jsonDownload).saveAs(jsonPath);
+  const roomUrl = page.url();
+  await page.goto('/rooms');
+  await page.getByRole('button', { name: 'Import a file' }).click();
+  const newDialog = page.getByRole('dialog');
+  await newDialog.getByLabel('Room name').fill(`${roomName} from JSON`);
+  await newDialog.getByRole('radio', { name: 'Node-link JSON' }).check();
+  await newDialog.getByTestId('import-main').setInputFiles(jsonPath);
+  await newDialog.getByRole('button', { name: 'Check file' }).click();
+  await expect(newDialog.getByTestId('import-counts')).toContainText('4 people · 4 ties · 2 groups');
+  await newDialog.getByRole('button', { name: 'Import', exact: true }).click();
+  await page.waitForURL((u) => /\/rooms\/\d+$/.test(u.pathname) && u.href !== roomUrl);
+  await expect(page.getByText('4 people · 4 ties')).toBeVisible();
+  await expect(personLocator(page, 'Di Holt')).toBeVisible();
+
   // The PNG of the map is made in the browser.
   await page.getByRole('tab', { name: 'Map' }).click();
   await page.getByRole('button', { name: 'Export' }).click();
@@ -181,9 +212,11 @@ test('import a CSV with errors, read the row errors, fix and commit; export Grap
 
   // The rooms list finds the room; delete asks first and says everything goes.
   await page.goto('/rooms');
-  await page.getByLabel('Search rooms').fill(roomName);
-  const row = page.getByRole('row').filter({ hasText: roomName });
+  await page.getByLabel('Search rooms').fill(`${roomName} from JSON`);
+  const row = page.getByRole('row').filter({ hasText: `${roomName} from JSON` });
   await expect(row).toHaveCount(1);
+  // The server answered the search (the list is paged and filtered there).
+  await expect(page.getByRole('status').filter({ hasText: '1 – 1 of 1' })).toBeVisible();
   await keepScreenshot(page, 'rooms-list');
   await row.getByRole('button', { name: /Actions for/ }).click();
   await page.getByRole('menuitem', { name: /Delete/ }).click();

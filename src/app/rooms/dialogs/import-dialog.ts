@@ -91,6 +91,11 @@ export class ImportDialog {
     } else this.peopleFile.set(file);
   }
 
+  /** Choosing the same (fixed) file again must count as a change. */
+  protected clearInput(e: Event): void {
+    (e.target as HTMLInputElement).value = '';
+  }
+
   protected changeFormat(f: ImportFormat): void {
     this.format.set(f);
     this.report.set(null);
