@@ -77,42 +77,52 @@ export function drawFrame(f: Frame): void {
   }
   ctx.fill();
 
+  // People, batched by look: one path per kind keeps a 300-person frame to a handful of draw calls.
   const hop = Math.floor(f.t + 1e-9);
+  const heard = new Path2D();
+  const heardRing = new Path2D();
+  const justHeard = new Path2D();
+  const waiting = new Path2D();
+  const starters: number[] = [];
   for (let i = 0; i < tl.n; i++) {
     const x = px(i);
     const y = py(i);
-    if (tl.starters.has(i)) {
-      ctx.fillStyle = REPLAY_COLOURS.starter;
-      ctx.fillRect(x - r * 1.2, y - r * 1.2, r * 2.4, r * 2.4);
-      ctx.fillStyle = REPLAY_COLOURS.background;
-      ctx.font = `700 ${Math.round(r * 1.6)}px "Source Sans 3", sans-serif`;
-      ctx.textAlign = 'center';
-      ctx.textBaseline = 'middle';
-      ctx.fillText('S', x, y + 1);
-    } else if (hasHeard(tl, i, f.t)) {
-      ctx.fillStyle = REPLAY_COLOURS.heard;
-      ctx.beginPath();
-      ctx.arc(x, y, r, 0, Math.PI * 2);
-      ctx.fill();
-      ctx.strokeStyle = REPLAY_COLOURS.background;
-      ctx.lineWidth = Math.max(1.5, r * 0.25);
-      ctx.beginPath();
-      ctx.arc(x, y, r * 0.45, 0, Math.PI * 2);
-      ctx.stroke();
+    if (tl.starters.has(i)) starters.push(i);
+    else if (hasHeard(tl, i, f.t)) {
+      heard.moveTo(x + r, y);
+      heard.arc(x, y, r, 0, Math.PI * 2);
+      heardRing.moveTo(x + r * 0.45, y);
+      heardRing.arc(x, y, r * 0.45, 0, Math.PI * 2);
       if (tl.heardAt[i] === hop) {
-        ctx.strokeStyle = REPLAY_COLOURS.justHeard;
-        ctx.lineWidth = 2.5;
-        ctx.beginPath();
-        ctx.arc(x, y, r + 4, 0, Math.PI * 2);
-        ctx.stroke();
+        justHeard.moveTo(x + r + 4, y);
+        justHeard.arc(x, y, r + 4, 0, Math.PI * 2);
       }
     } else {
-      ctx.strokeStyle = REPLAY_COLOURS.waiting;
-      ctx.lineWidth = 2;
-      ctx.beginPath();
-      ctx.arc(x, y, r * 0.8, 0, Math.PI * 2);
-      ctx.stroke();
+      waiting.moveTo(x + r * 0.8, y);
+      waiting.arc(x, y, r * 0.8, 0, Math.PI * 2);
     }
+  }
+  ctx.fillStyle = REPLAY_COLOURS.heard;
+  ctx.fill(heard);
+  ctx.strokeStyle = REPLAY_COLOURS.background;
+  ctx.lineWidth = Math.max(1.5, r * 0.25);
+  ctx.stroke(heardRing);
+  ctx.strokeStyle = REPLAY_COLOURS.justHeard;
+  ctx.lineWidth = 2.5;
+  ctx.stroke(justHeard);
+  ctx.strokeStyle = REPLAY_COLOURS.waiting;
+  ctx.lineWidth = 2;
+  ctx.stroke(waiting);
+  ctx.font = `700 ${Math.round(r * 1.6)}px "Source Sans 3", sans-serif`;
+  ctx.textAlign = 'center';
+  ctx.textBaseline = 'middle';
+  for (const i of starters) {
+    const x = px(i);
+    const y = py(i);
+    ctx.fillStyle = REPLAY_COLOURS.starter;
+    ctx.fillRect(x - r * 1.2, y - r * 1.2, r * 2.4, r * 2.4);
+    ctx.fillStyle = REPLAY_COLOURS.background;
+    ctx.fillText('S', x, y + 1);
   }
   if (f.showNames) {
     ctx.font = `600 ${Math.round(Math.max(13, r * 1.3))}px "Source Sans 3", sans-serif`;

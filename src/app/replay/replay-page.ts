@@ -9,7 +9,7 @@ import {
   type OnInit,
   signal,
   viewChild,
-  afterNextRender,
+  afterRenderEffect,
 } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
@@ -67,6 +67,7 @@ export default class ReplayPage implements OnInit, OnDestroy {
   protected readonly starterNames = computed(() => (this.index()?.people ?? []).filter((p) => p.starter).map((p) => p.name));
 
   private layout: { x: Float64Array; y: Float64Array } | null = null;
+  private names: string[] = [];
   private frame = 0;
   private last = 0;
   private ctx: CanvasRenderingContext2D | null = null;
@@ -75,7 +76,15 @@ export default class ReplayPage implements OnInit, OnDestroy {
   private readonly stats = { frames: 0, drawMs: [] as number[], gaps: [] as number[] };
 
   constructor() {
-    afterNextRender(() => this.resize());
+    // The canvas appears once the data is in: size it (and draw) whenever it (re)appears.
+    let sized: HTMLCanvasElement | undefined;
+    afterRenderEffect(() => {
+      const canvas = this.canvas()?.nativeElement;
+      if (canvas && canvas !== sized && this.timeline()) {
+        sized = canvas;
+        this.resize();
+      }
+    });
   }
 
   async ngOnInit(): Promise<void> {
@@ -91,10 +100,10 @@ export default class ReplayPage implements OnInit, OnDestroy {
       const { index, samples } = await this.data.load(this.rehearsalId());
       if (!samples.length) throw new Error('This rehearsal kept no cascades to replay.');
       this.layout = replayLayout(index.people, index.ties);
+      this.names = index.people.map((p) => p.name);
       this.index.set(index);
       this.samples.set(samples);
       (window as unknown as { __replayStats: unknown }).__replayStats = this.stats;
-      queueMicrotask(() => this.resize());
     } catch (err) {
       this.error.set(toApiError(err).message);
     }
@@ -206,7 +215,7 @@ export default class ReplayPage implements OnInit, OnDestroy {
       ties: idx.ties,
       timeline: tl,
       t: this.t(),
-      names: idx.people.map((p) => p.name),
+      names: this.names,
       showNames: idx.people.length <= 40,
     });
     this.stats.frames++;

@@ -66,7 +66,9 @@ export default class WorkshopPage implements OnInit, OnDestroy {
     name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(120)] }),
     email: new FormControl('', { nonNullable: true, validators: [Validators.email] }),
   });
-  protected readonly facilitatorEmail = new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.email] });
+  protected readonly facilitatorForm = new FormGroup({
+    email: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.email] }),
+  });
   protected readonly releaseForm = new FormGroup({
     rehearsalId: new FormControl<number | null>(null, Validators.required),
     sampleRun: new FormControl(0, { nonNullable: true }),
@@ -116,9 +118,9 @@ export default class WorkshopPage implements OnInit, OnDestroy {
   }
 
   protected async addFacilitator(): Promise<void> {
-    if (this.facilitatorEmail.invalid) return;
-    this.w.set(await this.api.addFacilitator(this.workshopId, this.facilitatorEmail.value));
-    this.facilitatorEmail.reset();
+    if (this.facilitatorForm.invalid) return;
+    this.w.set(await this.api.addFacilitator(this.workshopId, this.facilitatorForm.getRawValue().email));
+    this.facilitatorForm.reset();
   }
 
   protected async removeFacilitator(userId: number): Promise<void> {
