@@ -84,6 +84,33 @@ test('build a room with the seating builder, then move and tie people on the map
   await expect(page.getByText('24 people · 88 ties')).toBeVisible();
   await waitSaved(page);
 
+  // Rubber band (Shift-drag on the background) selects a whole table; pin them all.
+  await page.getByRole('radio', { name: /Move/ }).click();
+  const table2 = Array.from({ length: 8 }, (_, i) => `Seat ${i + 9}`);
+  const boxes = await Promise.all(table2.map((n) => personLocator(page, n).locator('path.shape').boundingBox()));
+  const xs = boxes.flatMap((b) => [b!.x, b!.x + b!.width]);
+  const ys = boxes.flatMap((b) => [b!.y, b!.y + b!.height]);
+  await page.keyboard.down('Shift');
+  await page.mouse.move(Math.min(...xs) - 12, Math.min(...ys) - 12);
+  await page.mouse.down();
+  await page.mouse.move(Math.max(...xs) + 12, Math.max(...ys) + 12, { steps: 6 });
+  await page.mouse.up();
+  await page.keyboard.up('Shift');
+  const group = page.getByRole('region', { name: 'Selected people' });
+  await expect(group).toContainText('8 people selected');
+  await group.getByRole('button', { name: 'Pin all', exact: true }).click();
+  await expect(personLocator(page, 'Seat 9').locator('path.pin')).toHaveAttribute('visibility', 'visible');
+  await waitSaved(page);
+
+  // Delete a person from the map with the Delete key, then undo from the message.
+  await personLocator(page, 'Seat 24').locator('path.shape').click();
+  await expect(page.getByRole('region', { name: 'Selected person' })).toContainText('Seat 24');
+  await page.keyboard.press('Delete');
+  await expect(page.getByText('23 people · 81 ties')).toBeVisible();
+  await page.getByRole('button', { name: 'Undo' }).last().click();
+  await expect(page.getByText('24 people · 88 ties')).toBeVisible();
+  await waitSaved(page);
+
   // After a reload the moved person and the new tie are still there.
   await page.reload();
   await expect(page.getByText('24 people · 88 ties')).toBeVisible();
