@@ -369,6 +369,35 @@ test('frame times while dragging on a room of 300 people and 1,500 ties', async 
   console.log(
     `Drag handler work per move, 300 people / 1500 ties: median ${perMove.median.toFixed(2)} ms, p95 ${perMove.p95.toFixed(2)} ms, max ${perMove.max.toFixed(2)} ms`,
   );
+  // Panning the whole map (drag on the background) at the same size.
+  const mapBox = (await page.locator('app-room-map svg.rh-map-svg').boundingBox())!;
+  const px = mapBox.x + 8;
+  const py = mapBox.y + mapBox.height - 8;
+  await page.mouse.move(px, py);
+  await page.mouse.down();
+  await page.evaluate(() => {
+    const w = window as unknown as { rhFrames: number[]; rhStop: boolean };
+    w.rhFrames = [];
+    w.rhStop = false;
+    let last = performance.now();
+    const loop = (t: number) => {
+      w.rhFrames.push(t - last);
+      last = t;
+      if (!w.rhStop) requestAnimationFrame(loop);
+    };
+    requestAnimationFrame(loop);
+  });
+  for (let i = 1; i <= 60; i++) await page.mouse.move(px + i * 3, py - i * 2);
+  const pan = await page.evaluate(() => {
+    const w = window as unknown as { rhFrames: number[]; rhStop: boolean };
+    w.rhStop = true;
+    return w.rhFrames.slice(1).sort((x, y) => x - y);
+  });
+  await page.mouse.up();
+  console.log(
+    `Pan frame times, 300 people / 1500 ties: ${pan.length} frames, median ${pan[Math.floor(pan.length / 2)].toFixed(1)} ms, ` +
+      `p95 ${pan[Math.floor(pan.length * 0.95)].toFixed(1)} ms, max ${pan.at(-1)!.toFixed(1)} ms`,
+  );
   await waitSaved(page);
   await keepScreenshot(page, 'rooms-map-300');
 });

@@ -68,6 +68,7 @@ export class RoomMap implements OnDestroy {
   private highlight!: SVGCircleElement;
   private highlighted: string | null = null;
   private ready = false;
+  private gestureBase: ZoomTransform | null = null;
   private signature = '';
   private elements = new Map<string, SVGGElement>();
   private tieElements = new Map<string, SVGLineElement>();
@@ -114,11 +115,35 @@ export class RoomMap implements OnDestroy {
       .scaleExtent([0.05, 6])
       // Shift + drag on the background is the rubber band, not a pan.
       .filter((e: MouseEvent & WheelEvent) => (!e.ctrlKey || e.type === 'wheel') && !e.button && !e.shiftKey)
-      .on('zoom', (e: { transform: ZoomTransform }) => {
+      // During a pan or wheel gesture the drawing is moved as one composited layer (a CSS
+      // transform relative to where the gesture began); the SVG itself is redrawn once, at the end.
+      .on('start', (e: { sourceEvent: Event | null }) => {
+        if (!e.sourceEvent) return;
+        this.gestureBase = this.transform;
+        svg.classList.add('rh-gesture');
+        this.overlayRef().nativeElement.classList.add('rh-gesture');
+      })
+      .on('zoom', (e: { transform: ZoomTransform; sourceEvent: Event | null }) => {
         this.transform = e.transform;
-        this.viewport.setAttribute('transform', e.transform.toString());
-        this.overlayViewport.setAttribute('transform', e.transform.toString());
-        this.updateLabelVisibility();
+        const base = this.gestureBase;
+        if (base && e.sourceEvent) {
+          const s = e.transform.k / base.k;
+          const css = `translate(${e.transform.x - s * base.x}px, ${e.transform.y - s * base.y}px) scale(${s})`;
+          svg.style.transform = css;
+          this.overlayRef().nativeElement.style.transform = css;
+          return;
+        }
+        this.applyTransform();
+      })
+      .on('end', () => {
+        if (!this.gestureBase) return;
+        this.gestureBase = null;
+        const overlay = this.overlayRef().nativeElement;
+        svg.style.transform = '';
+        overlay.style.transform = '';
+        svg.classList.remove('rh-gesture');
+        overlay.classList.remove('rh-gesture');
+        this.applyTransform();
       });
     select(svg).call(this.zoomer).on('dblclick.zoom', null);
     svg.addEventListener('pointerdown', (e) => this.startBand(e));
@@ -514,6 +539,12 @@ export class RoomMap implements OnDestroy {
       l.el?.setAttribute('stroke', on ? CLAY : TIE);
       l.el?.setAttribute('stroke-width', (tieWidth(l.strength, maxStrength) + (on ? 2 : 0)).toFixed(2));
     }
+  }
+
+  private applyTransform(): void {
+    this.viewport.setAttribute('transform', this.transform.toString());
+    this.overlayViewport.setAttribute('transform', this.transform.toString());
+    this.updateLabelVisibility();
   }
 
   private updateLabelVisibility(): void {
