@@ -34,7 +34,11 @@ test('a facilitator plans, compares, rehearses, reproduces and prints the briefi
   page.on('dialog', (d) => d.accept());
   await signIn(page, DEMO.facilitator);
   const room = await workshopRoom(page);
-  await page.goto(`/rooms/${room.id}/plans`);
+  // Open the room from the rooms list, then its plan screen.
+  await page.goto('/rooms');
+  await page.getByRole('link', { name: room.name, exact: true }).click();
+  await expect(page).toHaveURL(new RegExp(`/rooms/${room.id}$`));
+  await page.getByRole('link', { name: 'Plan', exact: true }).click();
   await expect(page.getByRole('heading', { name: 'Whom to brief first' })).toBeVisible();
 
   // The budget's bounds come from the room size and are explained in the field.

@@ -28,10 +28,9 @@ const PAD = 28;
     <figure class="map-figure">
       <svg #svg [attr.viewBox]="'0 0 ' + w + ' ' + h" role="img" [attr.aria-label]="label()"></svg>
       <figcaption class="legend">
-        <span class="starter-key" aria-hidden="true"></span> starter (briefing order)
-        <span class="ramp" aria-hidden="true"></span>
-        <span>hears sooner &rarr; later</span>
-        <span class="shapes">shapes: groups, as on the room map</span>
+        <span class="item"><span class="starter-key" aria-hidden="true"></span>starter, numbered in briefing order</span>
+        <span class="item"><span class="ramp" aria-hidden="true"></span>hears sooner &rarr; later</span>
+        <span class="item">shape = group</span>
       </figcaption>
     </figure>
   `,
