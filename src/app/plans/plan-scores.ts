@@ -64,6 +64,8 @@ export class PlanScores {
     const p = this.plan();
     if (p.certified) return 'Checked against every other plan of this size: none is faster.';
     if (p.gap === null) return 'No bound is available for this plan.';
-    return `The best possible plan of this size saves at most ${p.gap.toFixed(1)} hops in total (a proven lower bound).`;
+    const share = p.gapShare !== null ? `${(p.gapShare * 100).toFixed(1)}% (` : '';
+    const close = share ? ')' : '';
+    return `No plan of this size can cut the total waiting by more than ${share}${p.gap.toFixed(1)} hops${close}: a proven bound, often loose.`;
   });
 }

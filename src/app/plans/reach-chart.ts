@@ -64,7 +64,7 @@ export class ReachChart {
         type: 'linear',
         title: { display: true, text: this.axis() === 'hop' ? 'hops after the briefing' : 'minutes after the briefing' },
       },
-      y: { min: 0, max: 100, title: { display: true, text: '% of people not briefed who have heard' } },
+      y: { min: 0, max: 100, title: { display: true, text: '% of the others who have heard' } },
     },
     plugins: {
       legend: { display: this.series().length > 1, position: 'bottom' },
