@@ -440,6 +440,21 @@ test('a stale save offers reload or keep mine; sharing as viewer gives a read-on
   await page.getByRole('tab', { name: /People/ }).click();
   await expect(page.getByRole('cell', { name: 'Bo Lark-Ives', exact: true })).toBeVisible();
 
+  // Settings: each explained; an out-of-range value is refused with a message, a valid one saves.
+  await page.getByRole('tab', { name: 'Settings' }).click();
+  await expect(page.getByText('makes every expected time finite')).toBeVisible();
+  const mixing = page.getByLabel('Background mixing');
+  await mixing.fill('0.6');
+  await mixing.blur();
+  await expect(page.getByText('From 0 to 0.5.')).toBeVisible();
+  await mixing.fill('0.05');
+  await mixing.blur();
+  await waitSaved(page);
+  await keepScreenshot(page, 'rooms-settings');
+  await page.reload();
+  await page.getByRole('tab', { name: 'Settings' }).click();
+  await expect(page.getByLabel('Background mixing')).toHaveValue('0.05');
+
   // Share with the admin account as a viewer.
   await page.getByRole('button', { name: 'Share' }).click();
   const dialog = page.getByRole('dialog');

@@ -81,7 +81,7 @@ export function settingsForm(fb: NonNullableFormBuilder, s: RoomSettings): Setti
   styles: `
     .rh-settings {
       display: grid;
-      grid-template-columns: repeat(auto-fit, minmax(260px, 1fr));
+      grid-template-columns: repeat(auto-fit, minmax(min(100%, 340px), 1fr));
       gap: 8px 24px;
     }
     .rh-setting p {
