@@ -19,7 +19,8 @@ export function createApp(): Express {
   const app = express();
   const secure = (config.PUBLIC_URL ?? '').startsWith('https://');
   app.disable('x-powered-by');
-  app.set('trust proxy', config.TRUST_PROXY);
+  // One proxy hop (the one in front of us): trusting every hop would let clients forge req.ip.
+  app.set('trust proxy', config.TRUST_PROXY ? 1 : false);
   app.set('query parser', 'simple');
 
   app.use((_req, res, next) => {

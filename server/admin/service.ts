@@ -107,15 +107,13 @@ export async function revokeInvitation(id: number, audit: AuditWriter): Promise<
 const LAST_ADMIN = 'This is the last active admin account. Make another account an admin first, so someone can still manage accounts.';
 
 export async function setStatus(actor: SignedInUser, id: number, status: 'active' | 'deactivated', audit: AuditWriter): Promise<void> {
-  if (status === 'deactivated' && id === actor.id) {
-    throw conflict('You cannot deactivate your own account. Ask another admin to do it.');
-  }
   await db.transaction(async (tx) => {
     const admins = await lockActiveAdmins(tx);
     const user = await mustFind(id, tx, true);
     if (user.status === 'invited') throw conflict(`${user.email} has not accepted the invitation yet; revoke the invitation instead.`);
     if (user.status === status) return;
     if (status === 'deactivated' && admins.includes(id) && admins.length <= 1) throw conflict(LAST_ADMIN);
+    if (status === 'deactivated' && id === actor.id) throw conflict('You cannot deactivate your own account. Ask another admin to do it.');
     await updateUser(tx, id, { status });
     if (status === 'deactivated') await revokeTokens(tx, id, 'reset');
     await audit({ action: status === 'active' ? 'account.reactivated' : 'account.deactivated', targetType: 'user', targetId: id }, tx);

@@ -59,7 +59,7 @@ export async function listAudit(q: PageQuery & { filter: string }) {
   const where = q.filter
     ? or(like(auditLog.action, contains(q.filter)), like(auditLog.actorEmail, contains(q.filter)), like(target.email, contains(q.filter)))
     : undefined;
-  const joined = eq(sql`${auditLog.targetId}`, sql`CAST(${target.id} AS CHAR)`);
+  const joined = sql`${target.id} = CAST(${auditLog.targetId} AS UNSIGNED)`;
   const rows = await db
     .select({
       id: auditLog.id,
