@@ -2,22 +2,24 @@ import type { JoinState } from '../../shared/api/workshops';
 import { db } from '../db';
 import { HttpError } from '../core/http-error';
 import { issueLink } from './links';
-import { claimName, namesOf, workshopById } from './store';
+import { claimName, namesOf, withActiveLinks, workshopById } from './store';
 
 /**
  * The join page behind the projector QR code: a participant picks their own name once and
- * gets a personal link. A taken name stays taken until the facilitator resets it.
+ * gets a personal link. A name is taken once picked, and also while its person already holds a
+ * working link (e-mailed or printed), so the QR code cannot be used to answer for them. The
+ * facilitator's reset (which revokes that person's links) frees it again.
  */
 const JOINABLE = new Set(['collecting', 'running', 'debrief']);
 
 export async function joinState(workshopId: number): Promise<JoinState> {
   const w = await workshopById(workshopId);
   if (!w) throw new HttpError(404, 'link_invalid', 'This workshop no longer exists.');
-  const names = await namesOf(workshopId);
+  const [names, linked] = await Promise.all([namesOf(workshopId), withActiveLinks(workshopId)]);
   return {
     workshopTitle: w.title,
     open: JOINABLE.has(w.status),
-    names: names.map((n) => ({ id: n.id, name: n.name, taken: n.claimedAt !== null })),
+    names: names.map((n) => ({ id: n.id, name: n.name, taken: n.claimedAt !== null || linked.has(n.id) })),
   };
 }
 
@@ -28,16 +30,17 @@ export async function claimJoinName(workshopId: number, participantId: number): 
   }
   return db.transaction(async (tx) => {
     const names = await namesOf(workshopId, tx);
+    const linked = await withActiveLinks(workshopId, tx);
     const mine = names.find((n) => n.id === participantId);
     if (!mine) throw new HttpError(400, 'unknown_name', 'That name is not on this workshop\'s list. Reload the page to see the current names.');
-    if (!(await claimName(tx, workshopId, participantId))) {
-      const allTaken = names.every((n) => n.claimedAt !== null || n.id === participantId);
+    if (linked.has(participantId) || !(await claimName(tx, workshopId, participantId))) {
+      const allTaken = names.every((n) => n.claimedAt !== null || linked.has(n.id) || n.id === participantId);
       throw new HttpError(
         409,
         allTaken ? 'all_names_taken' : 'name_taken',
         allTaken
           ? 'Every name on the list has been picked. If one of them is yours, ask your facilitator to reset it; if yours is missing, ask them to add you.'
-          : `Someone already picked “${mine.name}”. If that is you, ask your facilitator to reset it; otherwise pick your own name.`,
+          : `“${mine.name}” is already taken: picked here, or sent a personal link. If that is you, use the link you received or ask your facilitator to reset the name; otherwise pick your own.`,
       );
     }
     const { token } = await issueLink(tx, participantId, 'join', w.linkDays, false);

@@ -1,6 +1,6 @@
-import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
+import { and, asc, eq, gt, inArray, isNull } from 'drizzle-orm';
 import { users } from '../../db/schema/accounts';
-import { surveyNominations, surveyResponses, workshopFacilitators, workshopParticipants, workshops } from '../../db/schema/workshops';
+import { participantLinks, surveyNominations, surveyResponses, workshopFacilitators, workshopParticipants, workshops } from '../../db/schema/workshops';
 import type { Nomination, SurveyLevel } from '../../shared/api/workshops';
 import { db, type Tx } from '../db';
 
@@ -95,5 +95,15 @@ export async function participantsIn(workshopId: number, ids: number[], tx: Conn
     .select({ id: workshopParticipants.id })
     .from(workshopParticipants)
     .where(and(eq(workshopParticipants.workshopId, workshopId), inArray(workshopParticipants.id, ids)));
+  return new Set(rows.map((r) => r.id));
+}
+
+/** Participants who already hold a working personal link (e-mailed, printed or claimed). */
+export async function withActiveLinks(workshopId: number, tx: Conn = db): Promise<Set<number>> {
+  const rows = await tx
+    .selectDistinct({ id: participantLinks.participantId })
+    .from(participantLinks)
+    .innerJoin(workshopParticipants, eq(workshopParticipants.id, participantLinks.participantId))
+    .where(and(eq(workshopParticipants.workshopId, workshopId), isNull(participantLinks.revokedAt), gt(participantLinks.expiresAt, new Date())));
   return new Set(rows.map((r) => r.id));
 }

@@ -164,15 +164,23 @@ describe('workshop survey links', () => {
 
   it('the join page: each name once, a clear message when taken or all taken, the facilitator can reset', async () => {
     const { client } = await signedInClient(server);
-    const { id, byName } = await newWorkshop(client, [{ name: 'Fay Lindqvist' }, { name: 'Gus Harrow' }]);
+    const { id, byName } = await newWorkshop(client, [{ name: 'Fay Lindqvist' }, { name: 'Gus Harrow' }, { name: 'Hana Oort' }]);
     await client.post(`/api/workshops/${id}/status`, { to: 'collecting' });
+    // Hana already has a printed link: the QR code must not let someone else answer as her.
+    await client.post(`/api/workshops/${id}/links/sheet`, { participantIds: [byName.get('Hana Oort')], replace: true });
     const code = await client.post(`/api/workshops/${id}/join-code`);
     assert.match(code.body.qr, /^data:image\/svg\+xml;base64,/);
     const joinCode = code.body.url.split('/p/join/')[1];
     const a = server.client();
     const b = server.client();
     const state = await a.get(`/api/p/join/${joinCode}`);
-    assert.equal(state.body.names.length, 2);
+    assert.deepEqual(
+      state.body.names.map((n: { name: string; taken: boolean }) => [n.name, n.taken]),
+      [['Fay Lindqvist', false], ['Gus Harrow', false], ['Hana Oort', true]],
+    );
+    const hana = await a.post(`/api/p/join/${joinCode}/claim`, { participantId: byName.get('Hana Oort') });
+    assert.equal(hana.body.error.code, 'name_taken');
+    assert.match(hana.body.error.message, /already taken/);
     const fay = byName.get('Fay Lindqvist')!;
     const claimed = await a.post(`/api/p/join/${joinCode}/claim`, { participantId: fay });
     assert.equal(claimed.status, 201);

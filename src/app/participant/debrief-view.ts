@@ -16,10 +16,16 @@ export class DebriefView {
   /** The reach curve as an SVG path (0..100 wide, 0..50 high), plus the replayed cascade's steps. */
   protected readonly chart = computed(() => {
     const d = this.debrief();
-    const hops = Math.max(d.reachCurve.length - 1, d.replayReached.length - 1, 1);
+    // Show the hops where something happens: until 99% are expected to have heard, or the replay ended.
+    const nearlyAll = d.reachCurve.findIndex((s) => s >= 0.99);
+    const curveEnd = nearlyAll >= 0 ? nearlyAll + 1 : d.reachCurve.length - 1;
+    const hops = Math.max(Math.min(curveEnd, d.reachCurve.length - 1), d.replayReached.length - 1, d.heardAtHop ?? 0, 1);
     const x = (t: number) => (t / hops) * 100;
     const y = (share: number) => 50 - share * 50;
-    const curve = d.reachCurve.map((s, t) => `${t ? 'L' : 'M'}${x(t).toFixed(2)},${y(s).toFixed(2)}`).join(' ');
+    const curve = d.reachCurve
+      .slice(0, hops + 1)
+      .map((s, t) => `${t ? 'L' : 'M'}${x(t).toFixed(2)},${y(s).toFixed(2)}`)
+      .join(' ');
     const total = d.peopleInMap || 1;
     const steps = d.replayReached
       .map((c, t) => `${t ? 'L' : 'M'}${x(t).toFixed(2)},${y(c / total).toFixed(2)}${t < d.replayReached.length - 1 ? ` L${x(t + 1).toFixed(2)},${y(c / total).toFixed(2)}` : ''}`)

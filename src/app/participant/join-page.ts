@@ -38,7 +38,7 @@ import { ParticipantApi } from './participant-api';
                 <button mat-stroked-button type="button" [disabled]="n.taken || busy() || !s.open" (click)="claim(n.id)">
                   {{ n.name }}
                   @if (n.taken) {
-                    <span class="taken">already picked</span>
+                    <span class="taken">already taken</span>
                   }
                 </button>
               </li>

@@ -31,7 +31,9 @@ export interface Frame {
 export function drawFrame(f: Frame): void {
   const { ctx, width, height, timeline: tl } = f;
   const pad = Math.max(28, Math.min(width, height) * 0.06);
-  const px = (i: number) => pad + f.x[i] * (width - 2 * pad);
+  // Names are drawn to the right of each person: leave room for them.
+  const right = f.showNames ? Math.min(180, width * 0.2) : pad;
+  const px = (i: number) => pad + f.x[i] * (width - pad - right);
   const py = (i: number) => pad + f.y[i] * (height - 2 * pad);
   const r = Math.max(4, Math.min(14, (Math.min(width, height) / Math.sqrt(tl.n + 1)) * 0.18));
   ctx.fillStyle = REPLAY_COLOURS.background;

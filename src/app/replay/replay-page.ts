@@ -64,6 +64,8 @@ export default class ReplayPage implements OnInit, OnDestroy {
     if (!tl || !idx) return [];
     return heardAtHop(tl, this.hop()).map((i) => idx.people[i].name);
   });
+  /** At 1x a hop a second, but never longer than 40 s for the whole cascade (long tails). */
+  protected readonly hopsPerSecond = computed(() => Math.max(1, (this.timeline()?.lastHop ?? 0) / 40) * this.speed());
   protected readonly starterNames = computed(() => (this.index()?.people ?? []).filter((p) => p.starter).map((p) => p.name));
 
   private layout: { x: Float64Array; y: Float64Array } | null = null;
@@ -180,8 +182,7 @@ export default class ReplayPage implements OnInit, OnDestroy {
     const dt = Math.min(0.1, (now - this.last) / 1000);
     this.stats.gaps.push(now - this.last);
     this.last = now;
-    // One hop per second at 1x.
-    const next = clampTime(tl, this.t() + dt * this.speed());
+    const next = clampTime(tl, this.t() + dt * this.hopsPerSecond());
     this.t.set(next);
     this.draw();
     if (next >= tl.lastHop) this.playing.set(false);

@@ -10,7 +10,7 @@ import { MatRadioModule } from '@angular/material/radio';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
-import type { RehearsalSummary } from '../../../shared/api/plans';
+import { REHEARSAL_LIMITS, type RehearsalSummary } from '../../../shared/api/plans';
 import {
   BUILD_MODES,
   STATUS_LABELS,
@@ -55,6 +55,7 @@ export default class WorkshopPage implements OnInit, OnDestroy {
   protected readonly labels = STATUS_LABELS;
   protected readonly steps = WORKSHOP_STATUSES;
   protected readonly modes = BUILD_MODES;
+  protected readonly sampleChoices = Array.from({ length: REHEARSAL_LIMITS.samples }, (_, i) => i);
   protected readonly w = signal<WorkshopDetail | null>(null);
   protected readonly progress = signal<SurveyProgress | null>(null);
   protected readonly mode = signal<BuildMode>('either');
