@@ -46,6 +46,8 @@ export class RoomEditor implements OnDestroy {
   /** The version last confirmed by the server for content changes (the summary follows it). */
   readonly savedVersion = signal(0);
   readonly loadError = signal<ApiError | null>(null);
+  /** Bumps each time the room is (re)loaded from the server; forms follow it, not every edit. */
+  readonly loaded = signal(0);
 
   readonly canEdit = computed(() => {
     const r = this.room();
@@ -119,6 +121,7 @@ export class RoomEditor implements OnDestroy {
     this.saveState.set('saved');
     this.changed();
     this.selectionChanged();
+    this.loaded.update((v) => v + 1);
   }
 
   // ---- commands ----
@@ -261,7 +264,7 @@ export class RoomEditor implements OnDestroy {
       settings: { ...this.pendingPatch?.settings, ...changes.settings },
     };
     this.saveState.set('unsaved');
-    this.scheduleSave(0);
+    this.scheduleSave(SAVE_DELAY_MS);
   }
 
   selectionChanged(): void {

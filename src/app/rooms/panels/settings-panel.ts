@@ -3,7 +3,6 @@ import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { debounceTime } from 'rxjs';
 import { DEFAULT_ROOM_SETTINGS, ROOM_LIMITS, type RoomSettings } from '../../../../shared/api/rooms';
 import { RoomEditor } from '../editor/room-editor';
 import { SettingsFields, settingsForm } from './settings-fields';
@@ -49,12 +48,13 @@ export class SettingsPanel {
   protected readonly settings = settingsForm(this.fb, DEFAULT_ROOM_SETTINGS);
 
   constructor() {
-    // Follow the room (load, reload) without echoing the change back as an edit.
+    // Follow the room when it is (re)loaded, not on every edit, so typing is never overwritten.
     effect(() => {
-      const room = this.editor.room();
+      this.editor.loaded();
       const canEdit = this.editor.canEdit();
-      if (!room) return;
       untracked(() => {
+        const room = this.editor.room();
+        if (!room) return;
         this.meta.patchValue({ name: room.name, description: room.description }, { emitEvent: false });
         this.settings.patchValue(room.settings, { emitEvent: false });
         if (canEdit) {
@@ -67,7 +67,7 @@ export class SettingsPanel {
       });
     });
     const destroyRef = inject(DestroyRef);
-    this.meta.valueChanges.pipe(debounceTime(500), takeUntilDestroyed(destroyRef)).subscribe(() => {
+    this.meta.valueChanges.pipe(takeUntilDestroyed(destroyRef)).subscribe(() => {
       if (this.meta.invalid) return;
       const v = this.meta.getRawValue();
       const room = this.editor.room();
@@ -75,7 +75,7 @@ export class SettingsPanel {
         this.editor.updateRoom({ name: v.name.trim(), description: v.description });
       }
     });
-    this.settings.valueChanges.pipe(debounceTime(400), takeUntilDestroyed(destroyRef)).subscribe(() => {
+    this.settings.valueChanges.pipe(takeUntilDestroyed(destroyRef)).subscribe(() => {
       if (this.settings.invalid) return;
       const v = this.settings.getRawValue();
       const current = this.editor.room()?.settings;
