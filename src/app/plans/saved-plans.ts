@@ -22,6 +22,8 @@ export class SavedPlans {
   readonly plans = input.required<readonly PlanSummary[]>();
   readonly roomId = input.required<number>();
   readonly openId = input<number | null>(null);
+  /** Viewers of a shared room can read plans but not mark or delete them. */
+  readonly canChange = input(true);
   readonly opened = output<number>();
   readonly chosen = output<PlanSummary>();
   readonly removed = output<PlanSummary>();
