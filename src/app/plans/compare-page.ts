@@ -80,6 +80,14 @@ export default class ComparePage {
     }
   }
 
+  /** A plan as good as a certified one is itself the best possible, whatever its own bound says. */
+  protected bestNote(c: PlanComparison): string | null {
+    const same = c.a.total !== null && c.b.total !== null && Math.abs(c.a.total - c.b.total) <= 1e-9 * Math.max(1, c.a.total);
+    if (!same || !c.sameRoomVersion || c.a.certified === c.b.certified) return null;
+    const [proven, other] = c.a.certified ? ['A', 'B'] : ['B', 'A'];
+    return `${proven} is proven to be the best plan of its size, and ${other} matches it, so ${other} is the best possible too (its own gap to best is only a loose bound).`;
+  }
+
   protected nameOf(id: number): string {
     for (const p of this.details() ?? []) {
       const s = p.starters.find((x) => x.personId === id);
