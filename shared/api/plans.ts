@@ -11,6 +11,8 @@
  *   GET    /api/plans/:planId                                         -> PlanDetail (per person, reach curve, quantiles)
  *   PATCH  /api/plans/:planId                  UpdatePlanRequest      -> PlanSummary (rename, mark chosen)
  *   DELETE /api/plans/:planId                                         -> 204 (its rehearsals go with it)
+ *   POST   /api/plans/:planId/rerun                                   -> 202 PlanStarted (a computed plan that was
+ *                                                                         interrupted, cancelled or failed, on its snapshot)
  *   GET    /api/plans/compare?a=ID&b=ID                               -> PlanComparison (one endpoint, side by side)
  *   GET    /api/plans/:planId/briefing                                -> BriefingSheet (data of the printable sheet)
  *   GET    /api/plans/:planId/briefing.csv                            -> text/csv download (formula-injection safe)
@@ -41,11 +43,14 @@
  * A comment line `: heartbeat` every 15 s; the server closes the stream after a final event.
  * The first event always reports the current state (so a late subscriber sees `done` at once).
  *
+ * Plans keep a snapshot of the room they were computed on: `stale` says the room changed since;
+ * the numbers, the briefing sheet and rehearsals always use the snapshot.
+ *
  * Errors: 400 answers carry `error.code`; planner errors use the engine's EngineError codes
  * (INVALID_K, K_BELOW_CLOSED_GROUPS, MUST_INCLUDE_TOO_MANY, CONFLICTING_CONSTRAINTS,
  * NO_FEASIBLE_PLAN, EXHAUSTIVE_INFEASIBLE, UNKNOWN_PERSON, INVALID_OPTION, INVALID_STARTERS), plus
  * UNREACHABLE_PEOPLE (a hand-made plan leaves people who can never hear; `details.people`),
- * TOO_MANY_CASCADES, INVALID_SEED, ROOM_TOO_LARGE. `error.details.suggest` names another method when
+ * TOO_MANY_CASCADES, INVALID_SEED, NOT_READY (plan or rehearsal not finished), NOT_RERUNNABLE. `error.details.suggest` names another method when
  * one would work. Rooms the caller cannot see answer 404; viewers get 403 on changes.
  */
 
