@@ -1,4 +1,12 @@
-import { INVITE_HOURS, RESET_MINUTES, type AccountRole, type AccountRow, type AccountSortKey, type InvitationState, type Page } from '../../shared/api/accounts';
+import {
+  INVITE_HOURS,
+  RESET_MINUTES,
+  type AccountRole,
+  type AccountRow,
+  type AccountSortKey,
+  type InvitationState,
+  type Page,
+} from '../../shared/api/accounts';
 import type { SignedInUser } from '../types';
 import { db, type Tx } from '../db';
 import type { AuditWriter } from '../core/audit';
@@ -63,7 +71,13 @@ async function mustFind(id: number, tx: Tx | typeof db = db, lock = false): Prom
   return user;
 }
 
-export async function invite(actor: SignedInUser, email: string, name: string, role: AccountRole, audit: AuditWriter): Promise<{ id: number }> {
+export async function invite(
+  actor: SignedInUser,
+  email: string,
+  name: string,
+  role: AccountRole,
+  audit: AuditWriter,
+): Promise<{ id: number }> {
   const existing = await findUserByEmail(email);
   if (existing) {
     throw conflict(

@@ -37,7 +37,12 @@ export async function revokeTokens(tx: Conn, userId: number, purpose: TokenPurpo
     .update(accountTokens)
     .set({ revokedAt: new Date() })
     .where(
-      and(eq(accountTokens.userId, userId), eq(accountTokens.purpose, purpose), isNull(accountTokens.usedAt), isNull(accountTokens.revokedAt)),
+      and(
+        eq(accountTokens.userId, userId),
+        eq(accountTokens.purpose, purpose),
+        isNull(accountTokens.usedAt),
+        isNull(accountTokens.revokedAt),
+      ),
     );
   return (result as { affectedRows?: number }).affectedRows ?? 0;
 }

@@ -17,7 +17,9 @@ describe('admin console API', () => {
     const body = { currentPassword: account.password, newPassword: 'a-brand-new-password' };
     assert.equal((await fac.get('/api/auth/me')).body.user.id, account.id);
     assert.equal((await admin.post(`/api/admin/accounts/${account.id}/deactivate`)).status, 204);
-    const [rows] = (await pool.query("SELECT COUNT(*) AS n FROM sessions WHERE JSON_VALUE(data, '$.userId') = ?", [String(account.id)])) as any;
+    const [rows] = (await pool.query("SELECT COUNT(*) AS n FROM sessions WHERE JSON_VALUE(data, '$.userId') = ?", [
+      String(account.id),
+    ])) as any;
     assert.equal(rows[0].n, 0, 'stored sessions removed');
     assert.equal((await fac.post('/api/auth/password', body)).status, 401);
     assert.equal((await fac.get('/api/auth/me')).body.user, null);
@@ -47,7 +49,11 @@ describe('admin console API', () => {
     const self = await admin.post(`/api/admin/accounts/${me.id}/deactivate`);
     assert.equal(self.status, 409, 'still no self-deactivation');
     assert.match(self.body.error.message, /your own account/);
-    assert.equal((await admin.put(`/api/admin/accounts/${me.id}/role`, { role: 'facilitator' })).status, 204, 'with a second admin it works');
+    assert.equal(
+      (await admin.put(`/api/admin/accounts/${me.id}/role`, { role: 'facilitator' })).status,
+      204,
+      'with a second admin it works',
+    );
     assert.equal((await admin.get('/api/admin/accounts')).status, 403, 'the role change applies to the open session');
     // Two admins again, for later tests.
     await db.update(users).set({ role: 'admin' }).where(eq(users.id, me.id));
@@ -74,7 +80,9 @@ describe('admin console API', () => {
     const { client: admin } = await signedInClient(server, 'admin');
     const tag = `zeta${Date.now()}`;
     for (const n of ['c', 'a', 'b']) {
-      await db.insert(users).values({ email: `${tag}-${n}@test.ripplehall.local`, name: `${tag} ${n}`, role: 'facilitator', status: 'active' });
+      await db
+        .insert(users)
+        .values({ email: `${tag}-${n}@test.ripplehall.local`, name: `${tag} ${n}`, role: 'facilitator', status: 'active' });
     }
     const page0 = await admin.get(`/api/admin/accounts?filter=${tag}&sort=name&dir=asc&size=2&page=0`);
     assert.equal(page0.status, 200);

@@ -41,7 +41,14 @@ describe('invitation and password-reset links, through the SMTP fake', () => {
     const check = await guest.post('/api/auth/invitation/check', { token });
     assert.equal(check.status, 200);
     assert.equal(check.body.email, email);
-    assert.equal((await server.client().signIn(email, 'x').catch((e) => e)) instanceof Error, true, 'no sign-in before accepting');
+    assert.equal(
+      (await server
+        .client()
+        .signIn(email, 'x')
+        .catch((e) => e)) instanceof Error,
+      true,
+      'no sign-in before accepting',
+    );
     const weak = await guest.post('/api/auth/invitation/accept', { token, name: 'Ida Morrow', password: 'short' });
     assert.equal(weak.status, 400);
     assert.equal(weak.body.error.details.fields[0].field, 'password');
@@ -89,7 +96,11 @@ describe('invitation and password-reset links, through the SMTP fake', () => {
       .update(accountTokens)
       .set({ expiresAt: new Date(Date.now() - 1000) })
       .where(eq(accountTokens.tokenHash, hashToken(third)));
-    const expired = await guest.post('/api/auth/invitation/accept', { token: third, name: 'Tomas Field', password: 'a-good-long-password' });
+    const expired = await guest.post('/api/auth/invitation/accept', {
+      token: third,
+      name: 'Tomas Field',
+      password: 'a-good-long-password',
+    });
     assert.equal(expired.status, 410);
     const [row] = await db.select().from(users).where(eq(users.id, body.id));
     assert.equal(row.status, 'invited', 'nothing changed');

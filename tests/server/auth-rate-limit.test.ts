@@ -29,7 +29,8 @@ describe('rate limits on sign-in and password reset', () => {
     const account = await createAccount('facilitator');
     const ip = freshIp();
     const { post } = from(ip);
-    for (let i = 0; i < 3; i++) assert.equal((await post('/api/auth/sign-in', { email: account.email, password: 'guess-' + i })).status, 401);
+    for (let i = 0; i < 3; i++)
+      assert.equal((await post('/api/auth/sign-in', { email: account.email, password: 'guess-' + i })).status, 401);
     const locked = await post('/api/auth/sign-in', { email: account.email, password: account.password });
     assert.equal(locked.status, 429, 'even the right password waits');
     assert.match(locked.body.error.message, /Too many sign-in attempts for this account/);
@@ -43,7 +44,8 @@ describe('rate limits on sign-in and password reset', () => {
   it('per address: many accounts from one address are capped', async () => {
     const { post } = from(freshIp());
     const statuses: number[] = [];
-    for (let i = 0; i < 7; i++) statuses.push((await post('/api/auth/sign-in', { email: `n${i}@x.example`, password: 'whatever-1' })).status);
+    for (let i = 0; i < 7; i++)
+      statuses.push((await post('/api/auth/sign-in', { email: `n${i}@x.example`, password: 'whatever-1' })).status);
     assert.deepEqual(statuses, [401, 401, 401, 401, 401, 401, 429]);
   });
 

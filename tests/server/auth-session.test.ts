@@ -72,9 +72,14 @@ describe('sign-in, sessions, CSRF and request checks', () => {
     // A cookie the attacker made up (right shape, wrong signature) is refused even when echoed.
     const planted = server.client();
     planted.cookies.set('XSRF-TOKEN', 'nonce.forged-mac');
-    const echo = await planted.request('POST', '/api/auth/sign-in', { email: account.email, password: account.password }, {
-      headers: { 'x-xsrf-token': 'nonce.forged-mac' },
-    });
+    const echo = await planted.request(
+      'POST',
+      '/api/auth/sign-in',
+      { email: account.email, password: account.password },
+      {
+        headers: { 'x-xsrf-token': 'nonce.forged-mac' },
+      },
+    );
     assert.equal(echo.status, 403);
     assert.equal((await client.post('/api/auth/password', body)).status, 204, 'with the header it works');
   });
@@ -85,7 +90,10 @@ describe('sign-in, sessions, CSRF and request checks', () => {
     assert.equal(extra.status, 400);
     assert.match(extra.body.error.message, /remember/);
     assert.deepEqual(extra.body.error.details.fields[0].field, 'remember');
-    const bad = await c.request('POST', '/api/auth/sign-in', undefined, { raw: '{"email": ', headers: { 'content-type': 'application/json' } });
+    const bad = await c.request('POST', '/api/auth/sign-in', undefined, {
+      raw: '{"email": ',
+      headers: { 'content-type': 'application/json' },
+    });
     assert.equal(bad.status, 400);
     assert.equal(bad.body.error.code, 'bad_json');
     const huge = await c.request('POST', '/api/auth/sign-in', undefined, {
@@ -129,7 +137,10 @@ describe('sign-in, sessions, CSRF and request checks', () => {
     const short = await client.post('/api/auth/password', { currentPassword: account.password, newPassword: 'short' });
     assert.equal(short.status, 400);
     assert.match(short.body.error.message, /newPassword: Use at least 10 characters/);
-    assert.equal((await client.post('/api/auth/password', { currentPassword: account.password, newPassword: 'brand-new-password-1' })).status, 204);
+    assert.equal(
+      (await client.post('/api/auth/password', { currentPassword: account.password, newPassword: 'brand-new-password-1' })).status,
+      204,
+    );
     assert.equal((await client.get('/api/auth/me')).body.user.id, account.id);
     assert.equal((await other.get('/api/auth/me')).body.user, null);
     await server.client().signIn(account.email, 'brand-new-password-1');
