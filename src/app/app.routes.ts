@@ -5,6 +5,9 @@ import { roleGuard, signedInGuard, signedOutGuard } from './core/auth-guard';
 export const routes: Routes = [
   { path: '', pathMatch: 'full', redirectTo: 'rooms' },
   { path: 'sign-in', canActivate: [signedOutGuard], title: 'Sign in · Ripplehall', loadComponent: () => import('./account/sign-in') },
+  { path: 'account/accept', title: 'Set up your account · Ripplehall', loadComponent: () => import('./account/accept-invitation') },
+  { path: 'account/forgot-password', title: 'Forgot password · Ripplehall', loadComponent: () => import('./account/forgot-password') },
+  { path: 'account/reset-password', title: 'New password · Ripplehall', loadComponent: () => import('./account/reset-password') },
   { path: 'account', canActivate: [signedInGuard], title: 'Account · Ripplehall', loadComponent: () => import('./account/account-page') },
   { path: 'rooms', canActivate: [signedInGuard], loadChildren: () => import('./rooms/rooms.routes') },
   { path: 'rooms/:roomId/plans', canActivate: [signedInGuard], loadChildren: () => import('./plans/plans.routes') },

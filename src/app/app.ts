@@ -39,18 +39,23 @@ export class App {
   private readonly router = inject(Router);
   private readonly route = inject(ActivatedRoute);
 
-  /** Routes with data.bare (participant pages, projector replay) show no shell. */
-  protected readonly bare = toSignal(
+  private readonly navigated = toSignal(
     this.router.events.pipe(
       filter((e) => e instanceof NavigationEnd),
-      map(() => {
+      map((e) => {
         let r = this.route.snapshot;
         while (r.firstChild) r = r.firstChild;
-        return !!r.data['bare'];
+        return { bare: !!r.data['bare'], url: e.urlAfterRedirects };
       }),
     ),
-    { initialValue: true },
+    { initialValue: { bare: true, url: '' } },
   );
+
+  /** Routes with data.bare (participant pages, projector replay) show no shell. */
+  protected readonly bare = computed(() => this.navigated().bare);
+  /** The sign-in button is pointless on the sign-in page itself. */
+  protected readonly onSignIn = computed(() => this.navigated().url.startsWith('/sign-in'));
+  protected readonly year = new Date().getFullYear();
 
   protected readonly links = computed<NavLink[]>(() => {
     const user = this.auth.user();

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal, type OnInit } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -14,11 +14,15 @@ import { Auth } from '../core/auth';
   styleUrl: './account-card.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export default class SignIn {
+export default class SignIn implements OnInit {
   private readonly auth = inject(Auth);
   private readonly router = inject(Router);
   /** Where to go after signing in (from the guard). */
   readonly next = input<string>();
+  /** Set by the accept-invitation and reset pages when they send the person here. */
+  readonly email = input<string>();
+  readonly welcome = input<string>();
+  readonly reset = input<string>();
 
   protected readonly form = inject(NonNullableFormBuilder).group({
     email: ['', [Validators.required, Validators.email, Validators.maxLength(254)]],
@@ -26,6 +30,22 @@ export default class SignIn {
   });
   protected readonly error = signal<string | null>(null);
   protected readonly pending = signal(false);
+  protected readonly notice = computed(() =>
+    this.welcome()
+      ? 'Your account is active. Sign in with your new password.'
+      : this.reset()
+        ? 'Your new password is saved. Sign in with it.'
+        : null,
+  );
+
+  ngOnInit(): void {
+    this.prefill();
+  }
+
+  private prefill(): void {
+    const email = this.email();
+    if (email) this.form.controls.email.setValue(email);
+  }
 
   protected async signIn(): Promise<void> {
     if (this.form.invalid) {

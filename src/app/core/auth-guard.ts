@@ -23,8 +23,8 @@ export function roleGuard(...roles: AccountRole[]): CanActivateFn {
 
 /** Sends signed-in accounts from the sign-in page to their home. */
 export const signedOutGuard: CanActivateFn = async () => {
-  const user = await inject(Auth)
-    .load()
-    .catch(() => null);
-  return user ? inject(Router).createUrlTree(['/rooms']) : true;
+  const auth = inject(Auth);
+  const router = inject(Router); // before the await: inject() needs the injection context
+  const user = await auth.load().catch(() => null);
+  return user ? router.createUrlTree([user.role === 'admin' ? '/admin' : '/rooms']) : true;
 };
