@@ -24,7 +24,10 @@ test('an admin invites a facilitator, who sets a password from the e-mailed link
 
   // The captured e-mail, read in the outbox page (HTML in a sandboxed frame, then the text).
   await page.getByRole('tab', { name: /Outbox/ }).click();
-  await page.getByRole('row', { name: new RegExp(email) }).getByRole('button').click();
+  await page
+    .getByRole('row', { name: new RegExp(email) })
+    .getByRole('button')
+    .click();
   const frame = page.frameLocator('iframe[title="HTML part of the message"]');
   await expect(frame.getByRole('link', { name: 'Set up my account' })).toBeVisible();
   await keepScreenshot(page, 'admin-outbox');

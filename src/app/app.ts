@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, type OnInit } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -33,7 +33,7 @@ interface NavLink {
   styleUrl: './app.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class App {
+export class App implements OnInit {
   protected readonly auth = inject(Auth);
   protected readonly busy = inject(Busy);
   private readonly router = inject(Router);
@@ -67,6 +67,15 @@ export class App {
     if (user.role === 'admin') links.push({ path: '/admin', label: 'Admin', icon: 'admin_panel_settings' });
     return links;
   });
+
+  ngOnInit(): void {
+    this.checkSession();
+  }
+
+  /** Pages without a guard (accept invitation, reset) still learn who is signed in, for the toolbar. */
+  private checkSession(): void {
+    this.auth.load().catch(() => undefined);
+  }
 
   protected async signOut(): Promise<void> {
     await this.auth.signOut();

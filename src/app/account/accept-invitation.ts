@@ -25,7 +25,9 @@ import { forgetTokenInAddressBar } from './link-token';
         <p class="rh-form-error" role="alert">{{ dead() }}</p>
         <a mat-button routerLink="/sign-in">Go to sign-in</a>
       } @else if (info(); as info) {
-        <p class="rh-muted">You were invited as <strong>{{ info.email }}</strong>. Choose how your name appears and a password.</p>
+        <p class="rh-muted">
+          You were invited as <strong>{{ info.email }}</strong>. Choose how your name appears and a password.
+        </p>
         <form [formGroup]="form" (ngSubmit)="accept()" class="rh-form" novalidate>
           <mat-form-field appearance="outline">
             <mat-label>Your name</mat-label>

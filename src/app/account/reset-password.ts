@@ -23,7 +23,9 @@ import { NewPasswordFields } from './new-password-fields';
         <p class="rh-form-error" role="alert">{{ dead() }}</p>
         <a mat-button routerLink="/account/forgot-password">Ask for a new link</a>
       } @else if (info(); as info) {
-        <p class="rh-muted">For <strong>{{ info.email }}</strong>. Saving it signs this account out on every device.</p>
+        <p class="rh-muted">
+          For <strong>{{ info.email }}</strong>. Saving it signs this account out on every device.
+        </p>
         <form [formGroup]="form" (ngSubmit)="save()" class="rh-form" novalidate>
           <app-new-password-fields [group]="form" />
           @if (error()) {

@@ -166,7 +166,8 @@ export default class AccountsPage implements AfterViewInit {
         ? { title: `Reactivate ${row.name || row.email}?`, message: 'They can sign in again with their password.', confirm: 'Reactivate' }
         : {
             title: `Deactivate ${row.name || row.email}?`,
-            message: 'They are signed out everywhere at once and cannot sign in until an admin reactivates the account. Their rooms are kept.',
+            message:
+              'They are signed out everywhere at once and cannot sign in until an admin reactivates the account. Their rooms are kept.',
             confirm: 'Deactivate',
             danger: true,
           },

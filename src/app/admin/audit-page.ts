@@ -106,7 +106,9 @@ export default class AuditPage implements AfterViewInit {
       .pipe(
         startWith(null),
         switchMap(() =>
-          this.api.audit({ page: paginator.pageIndex, size: paginator.pageSize, filter: this.filter.value.trim() }).pipe(catchError(() => of(null))),
+          this.api
+            .audit({ page: paginator.pageIndex, size: paginator.pageSize, filter: this.filter.value.trim() })
+            .pipe(catchError(() => of(null))),
         ),
         takeUntilDestroyed(this.destroyRef),
       )

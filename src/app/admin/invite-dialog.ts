@@ -17,7 +17,9 @@ import { AdminApi } from './admin-api';
     <h2 mat-dialog-title>Invite a facilitator</h2>
     <form [formGroup]="form" (ngSubmit)="send()" novalidate>
       <mat-dialog-content class="rh-invite">
-        <p class="rh-muted">They get an e-mail with a link to choose their name and password. The link works once, for {{ hours }} hours.</p>
+        <p class="rh-muted">
+          They get an e-mail with a link to choose their name and password. The link works once, for {{ hours }} hours.
+        </p>
         <mat-form-field appearance="outline">
           <mat-label>E-mail</mat-label>
           <input matInput type="email" formControlName="email" autocomplete="off" required />

@@ -50,7 +50,9 @@ export default class OutboxPage implements AfterViewInit {
     this.selected.set(message);
     this.view.set(message.hasHtml ? 'html' : 'text');
     // Same-origin URL built from a numeric id only; the response itself forbids scripts.
-    this.htmlUrl.set(message.hasHtml ? this.sanitizer.bypassSecurityTrustResourceUrl(`/api/admin/outbox/${Number(message.id)}/html`) : null);
+    this.htmlUrl.set(
+      message.hasHtml ? this.sanitizer.bypassSecurityTrustResourceUrl(`/api/admin/outbox/${Number(message.id)}/html`) : null,
+    );
   }
 
   private connectTable(): void {
