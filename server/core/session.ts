@@ -20,6 +20,11 @@ export function sessionMiddleware(secure: boolean) {
   );
   // The periodic clean-up must not keep a finished process (tests, shutdown) alive.
   (store as unknown as { _expirationInterval?: NodeJS.Timeout })._expirationInterval?.unref();
+  // The store starts that interval only once it is ready (asynchronously): unref it then too.
+  void (store as unknown as { onReady(): Promise<void> }).onReady().then(
+    () => (store as unknown as { _expirationInterval?: NodeJS.Timeout })._expirationInterval?.unref(),
+    () => undefined,
+  );
   return session({
     name: SESSION_COOKIE,
     secret: config.SESSION_SECRET,
