@@ -28,7 +28,9 @@ async function mailLink(address: string): Promise<string> {
     database: process.env['DB_NAME'] ?? 'ripplehall',
   });
   try {
-    const [rows] = await conn.query('SELECT text_body FROM mail_messages WHERE envelope_to LIKE ? ORDER BY id DESC LIMIT 1', [`%${address}%`]);
+    const [rows] = await conn.query('SELECT text_body FROM mail_messages WHERE envelope_to LIKE ? ORDER BY id DESC LIMIT 1', [
+      `%${address}%`,
+    ]);
     const text = (rows as { text_body: string }[])[0]?.text_body ?? '';
     const url = /https?:\/\/\S+\/p\/[A-Za-z0-9_-]{43}/.exec(text)?.[0];
     if (!url) throw new Error(`no link in the mail to ${address}`);
@@ -202,7 +204,13 @@ test('the replay stays smooth at 300 people and keeps working offline', async ({
     const s = (window as unknown as { __replayStats: { drawMs: number[]; gaps: number[] } }).__replayStats;
     const sorted = (a: number[]) => [...a].sort((x, y) => x - y);
     const q = (a: number[], p: number) => sorted(a)[Math.min(a.length - 1, Math.floor(p * a.length))] ?? NaN;
-    return { frames: s.drawMs.length, drawMean: s.drawMs.reduce((a, b) => a + b, 0) / s.drawMs.length, drawP95: q(s.drawMs, 0.95), gapMedian: q(s.gaps, 0.5), gapP95: q(s.gaps, 0.95) };
+    return {
+      frames: s.drawMs.length,
+      drawMean: s.drawMs.reduce((a, b) => a + b, 0) / s.drawMs.length,
+      drawP95: q(s.drawMs, 0.95),
+      gapMedian: q(s.gaps, 0.5),
+      gapP95: q(s.gaps, 0.95),
+    };
   });
   // A benchmark, not a timed test: the figures are reported (60 fps leaves 16.7 ms a frame).
   console.log(`replay 300 people: ${JSON.stringify(stats)}`);

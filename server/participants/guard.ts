@@ -19,7 +19,12 @@ export const linkGuessLimit = rateLimit({
   skipSuccessfulRequests: true,
   requestWasSuccessful: (_req, res) => res.statusCode !== 404,
   statusCode: 429,
-  message: { error: { code: 'rate_limited', message: 'Too many links that do not work were tried from this address. Wait 15 minutes and try again.' } },
+  message: {
+    error: {
+      code: 'rate_limited',
+      message: 'Too many links that do not work were tried from this address. Wait 15 minutes and try again.',
+    },
+  },
   standardHeaders: 'draft-8',
   legacyHeaders: false,
 });

@@ -32,7 +32,8 @@ export async function claimJoinName(workshopId: number, participantId: number): 
     const names = await namesOf(workshopId, tx);
     const linked = await withActiveLinks(workshopId, tx);
     const mine = names.find((n) => n.id === participantId);
-    if (!mine) throw new HttpError(400, 'unknown_name', 'That name is not on this workshop\'s list. Reload the page to see the current names.');
+    if (!mine)
+      throw new HttpError(400, 'unknown_name', "That name is not on this workshop's list. Reload the page to see the current names.");
     if (linked.has(participantId) || !(await claimName(tx, workshopId, participantId))) {
       const allTaken = names.every((n) => n.claimedAt !== null || linked.has(n.id) || n.id === participantId);
       throw new HttpError(

@@ -66,11 +66,7 @@ export async function findLinkHolder(token: string): Promise<LinkHolder | undefi
     .innerJoin(workshopParticipants, eq(workshopParticipants.id, participantLinks.participantId))
     .innerJoin(workshops, eq(workshops.id, workshopParticipants.workshopId))
     .where(
-      and(
-        eq(participantLinks.tokenHash, hashToken(token)),
-        isNull(participantLinks.revokedAt),
-        gt(participantLinks.expiresAt, new Date()),
-      ),
+      and(eq(participantLinks.tokenHash, hashToken(token)), isNull(participantLinks.revokedAt), gt(participantLinks.expiresAt, new Date())),
     );
   if (!row) return undefined;
   await db.update(participantLinks).set({ lastUsedAt: new Date() }).where(eq(participantLinks.id, row.linkId));
@@ -91,6 +87,9 @@ export async function findJoinWorkshop(code: string): Promise<number | undefined
 export async function issueJoinCode(tx: Conn, workshopId: number, days: number): Promise<{ code: string; expiresAt: Date }> {
   const code = newToken();
   const expiresAt = new Date(Date.now() + days * DAY_MS);
-  await tx.update(workshops).set({ joinCodeHash: hashToken(code), joinCodeExpiresAt: expiresAt }).where(eq(workshops.id, workshopId));
+  await tx
+    .update(workshops)
+    .set({ joinCodeHash: hashToken(code), joinCodeExpiresAt: expiresAt })
+    .where(eq(workshops.id, workshopId));
   return { code, expiresAt };
 }

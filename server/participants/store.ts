@@ -1,6 +1,13 @@
 import { and, asc, eq, gt, inArray, isNull } from 'drizzle-orm';
 import { users } from '../../db/schema/accounts';
-import { participantLinks, surveyNominations, surveyResponses, workshopFacilitators, workshopParticipants, workshops } from '../../db/schema/workshops';
+import {
+  participantLinks,
+  surveyNominations,
+  surveyResponses,
+  workshopFacilitators,
+  workshopParticipants,
+  workshops,
+} from '../../db/schema/workshops';
 import type { Nomination, SurveyLevel } from '../../shared/api/workshops';
 import { db, type Tx } from '../db';
 
@@ -64,14 +71,9 @@ export async function recordConsent(participantId: number): Promise<void> {
 export async function saveAnswers(tx: Tx, participantId: number, version: number, nominations: Nomination[]): Promise<void> {
   await tx.delete(surveyNominations).where(eq(surveyNominations.participantId, participantId));
   if (nominations.length) {
-    await tx
-      .insert(surveyNominations)
-      .values(nominations.map((n) => ({ participantId, nomineeId: n.participantId, level: n.level })));
+    await tx.insert(surveyNominations).values(nominations.map((n) => ({ participantId, nomineeId: n.participantId, level: n.level })));
   }
-  await tx
-    .update(surveyResponses)
-    .set({ version, submittedAt: new Date() })
-    .where(eq(surveyResponses.participantId, participantId));
+  await tx.update(surveyResponses).set({ version, submittedAt: new Date() }).where(eq(surveyResponses.participantId, participantId));
 }
 
 /** Atomically claims an unclaimed name; false when someone was faster. */
@@ -104,6 +106,8 @@ export async function withActiveLinks(workshopId: number, tx: Conn = db): Promis
     .selectDistinct({ id: participantLinks.participantId })
     .from(participantLinks)
     .innerJoin(workshopParticipants, eq(workshopParticipants.id, participantLinks.participantId))
-    .where(and(eq(workshopParticipants.workshopId, workshopId), isNull(participantLinks.revokedAt), gt(participantLinks.expiresAt, new Date())));
+    .where(
+      and(eq(workshopParticipants.workshopId, workshopId), isNull(participantLinks.revokedAt), gt(participantLinks.expiresAt, new Date())),
+    );
   return new Set(rows.map((r) => r.id));
 }

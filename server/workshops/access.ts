@@ -17,7 +17,11 @@ export function workshopIdOf(raw: unknown): number {
   return Number(s);
 }
 
-export async function loadWorkshopFor(user: SignedInUser | undefined, rawId: unknown, need: 'run' | 'own' = 'run'): Promise<LoadedWorkshop> {
+export async function loadWorkshopFor(
+  user: SignedInUser | undefined,
+  rawId: unknown,
+  need: 'run' | 'own' = 'run',
+): Promise<LoadedWorkshop> {
   if (!user) throw notFound('That workshop');
   const found = await workshopForUser(user.id, workshopIdOf(rawId));
   if (!found) throw notFound('That workshop');

@@ -34,7 +34,10 @@ export interface DebriefInput {
 /** Pure: the snapshot from the plan's figures and one replayed cascade. */
 export function composeDebrief(input: DebriefInput, releasedAt = new Date()): DebriefSnapshot {
   const lastHop = input.people.reduce((m, p) => (p.heardAt !== null && p.heardAt > m ? p.heardAt : m), 0);
-  const replayReached = Array.from({ length: lastHop + 1 }, (_, t) => input.people.filter((p) => p.heardAt !== null && p.heardAt <= t).length);
+  const replayReached = Array.from(
+    { length: lastHop + 1 },
+    (_, t) => input.people.filter((p) => p.heardAt !== null && p.heardAt <= t).length,
+  );
   const byPerson: DebriefSnapshot['byPerson'] = {};
   for (const p of input.people) {
     byPerson[String(p.personId)] = {
@@ -62,7 +65,11 @@ export async function myDebrief(holder: LinkHolder): Promise<MyDebrief> {
   const w = await workshopById(holder.workshopId);
   const snap = w?.debrief as DebriefSnapshot | null | undefined;
   if (!w || !snap || (w.status !== 'debrief' && w.status !== 'closed')) {
-    throw new HttpError(409, 'not_released', 'Results are not released yet. Your facilitator will release them during the debrief; keep this link.');
+    throw new HttpError(
+      409,
+      'not_released',
+      'Results are not released yet. Your facilitator will release them during the debrief; keep this link.',
+    );
   }
   const mine = holder.personId === null ? undefined : snap.byPerson[holder.personId];
   return {

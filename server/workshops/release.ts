@@ -19,7 +19,8 @@ export async function releaseDebrief(
   if (w.status !== 'running' && w.status !== 'debrief') {
     throw new HttpError(409, 'status_move', 'Results can be released while the workshop is running (close the survey first).');
   }
-  if (w.roomId === null) throw new HttpError(409, 'no_room', 'Build the room from the answers, plan and rehearse before releasing results.');
+  if (w.roomId === null)
+    throw new HttpError(409, 'no_room', 'Build the room from the answers, plan and rehearse before releasing results.');
   const replay = await loadReplayForDebrief(owner, body.rehearsalId, body.sampleRun);
   if (replay.roomId !== w.roomId) {
     throw new HttpError(400, 'wrong_room', 'That rehearsal belongs to another room. Choose a rehearsal of this workshop’s room.');

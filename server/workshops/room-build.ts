@@ -19,7 +19,11 @@ import { missingMeaning, tiesFromAnswers } from './ties-from-answers';
  * else in the room are kept). Uses the rooms store, so versions and order stay consistent.
  */
 export async function missingAnswers(workshopId: number, mode: BuildMode, tx: Tx | typeof db = db): Promise<MissingAnswer[]> {
-  const [all, answered, edges] = await Promise.all([participantsById(workshopId, undefined, tx), answeredIds(workshopId, tx), nominationsOf(workshopId, tx)]);
+  const [all, answered, edges] = await Promise.all([
+    participantsById(workshopId, undefined, tx),
+    answeredIds(workshopId, tx),
+    nominationsOf(workshopId, tx),
+  ]);
   return all
     .filter((p) => !answered.has(p.id))
     .map((p) => {
@@ -33,7 +37,11 @@ export async function buildRoom(w: WorkshopRow, owner: SignedInUser, mode: Build
     // The owner's rights on the room apply: they linked it to this workshop.
     await loadRoomFor(owner, w.roomId, 'edit').catch((err: unknown) => {
       if (err instanceof HttpError && err.status === 404) {
-        throw new HttpError(409, 'room_gone', 'The room of this workshop was deleted. Unlink it in the workshop settings and build a new one.');
+        throw new HttpError(
+          409,
+          'room_gone',
+          'The room of this workshop was deleted. Unlink it in the workshop settings and build a new one.',
+        );
       }
       throw err;
     });
@@ -76,18 +84,23 @@ export async function buildRoom(w: WorkshopRow, owner: SignedInUser, mode: Build
       );
       for (let i = 0; i < toAdd.length; i++) {
         personOf.set(toAdd[i].id, ids[i]);
-        await tx.update(workshopParticipants).set({ personId: String(ids[i]) }).where(eq(workshopParticipants.id, toAdd[i].id));
+        await tx
+          .update(workshopParticipants)
+          .set({ personId: String(ids[i]) })
+          .where(eq(workshopParticipants.id, toAdd[i].id));
       }
     }
     const surveyPeople = [...personOf.values()];
-    await tx
-      .delete(ties)
-      .where(and(eq(ties.roomId, roomId), inArray(ties.sourceId, surveyPeople), inArray(ties.targetId, surveyPeople)));
+    await tx.delete(ties).where(and(eq(ties.roomId, roomId), inArray(ties.sourceId, surveyPeople), inArray(ties.targetId, surveyPeople)));
     const edges = (await nominationsOf(w.id, tx))
       .filter((e) => personOf.has(e.from) && personOf.has(e.to))
       .map((e) => ({ from: personOf.get(e.from)!, to: personOf.get(e.to)!, level: e.level as SurveyLevel }));
     const built = tiesFromAnswers(edges, mode);
-    await roomStore.insertTieRows(tx, roomId, built.map((t) => ({ sourceId: t.source, targetId: t.target, strength: t.strength })));
+    await roomStore.insertTieRows(
+      tx,
+      roomId,
+      built.map((t) => ({ sourceId: t.source, targetId: t.target, strength: t.strength })),
+    );
     if (room.directed !== directed) await roomStore.updateRoomFields(tx, roomId, { directed });
     else await roomStore.bumpVersion(tx, roomId);
     return {

@@ -20,7 +20,12 @@ const EMAIL = /^[^\s@]+@[^\s@]+\.[^\s@]+$/;
 export function parseRoster(text: string): { rows: RosterRow[]; issues: RosterIssue[] } {
   let records: string[][];
   try {
-    records = parseCsv(text.replace(/^\uFEFF/, ''), { relax_column_count: true, skip_empty_lines: true, trim: true, delimiter: [',', ';', '\t'] });
+    records = parseCsv(text.replace(/^\uFEFF/, ''), {
+      relax_column_count: true,
+      skip_empty_lines: true,
+      trim: true,
+      delimiter: [',', ';', '\t'],
+    });
   } catch (err) {
     const e = err as { lines?: number; message?: string };
     return { rows: [], issues: [{ line: e.lines ?? 1, message: `The file is not a readable CSV: ${e.message ?? 'unknown problem'}.` }] };
@@ -44,7 +49,8 @@ export function parseRoster(text: string): { rows: RosterRow[]; issues: RosterIs
     if (!name) issues.push({ line, message: 'The name is empty.' });
     else if (name.length > NAME_MAX) issues.push({ line, message: `The name is longer than ${NAME_MAX} characters.` });
     else if (email && !EMAIL.test(email)) issues.push({ line, message: `“${email}” is not an e-mail address.` });
-    else if (seen.has(name.toLowerCase())) issues.push({ line, message: `“${name}” is listed twice; names must be unique so people can find their own.` });
+    else if (seen.has(name.toLowerCase()))
+      issues.push({ line, message: `“${name}” is listed twice; names must be unique so people can find their own.` });
     else {
       seen.add(name.toLowerCase());
       rows.push({ name, email: email ? email.toLowerCase() : null });

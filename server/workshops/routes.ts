@@ -29,7 +29,12 @@ const createBody = z.strictObject({
 const patchBody = z.strictObject({
   title: z.string().trim().min(1, 'Give the workshop a title.').max(TITLE_MAX).optional(),
   sessionDate: date.optional(),
-  nominationLimit: z.number().int().min(1, 'Ask for at least one name.').max(NOMINATION_LIMIT_MAX, `At most ${NOMINATION_LIMIT_MAX} names.`).optional(),
+  nominationLimit: z
+    .number()
+    .int()
+    .min(1, 'Ask for at least one name.')
+    .max(NOMINATION_LIMIT_MAX, `At most ${NOMINATION_LIMIT_MAX} names.`)
+    .optional(),
   linkDays: z.number().int().min(1, 'Links must work for at least a day.').max(365, 'Links can work for at most a year.').optional(),
   showStarters: z.boolean().optional(),
 });
@@ -37,15 +42,29 @@ const statusBody = z.strictObject({ to: z.enum(WORKSHOP_STATUSES, 'Unknown statu
 const emailBody = z.strictObject({ email: z.string().trim().toLowerCase().email('Enter an e-mail address.').max(254) });
 const peopleBody = z.strictObject({
   people: z
-    .array(z.strictObject({ name: z.string().trim().min(1, 'A name is empty.').max(NAME_MAX), email: z.string().trim().toLowerCase().email().max(254).nullable().optional() }))
+    .array(
+      z.strictObject({
+        name: z.string().trim().min(1, 'A name is empty.').max(NAME_MAX),
+        email: z.string().trim().toLowerCase().email().max(254).nullable().optional(),
+      }),
+    )
     .min(1, 'Add at least one person.')
     .max(ROSTER_MAX),
 });
 const rosterBody = z.strictObject({ csv: z.string().min(1, 'The file is empty.').max(2_000_000, 'The file is too large for a roster.') });
-const linksBody = z.strictObject({ participantIds: z.array(z.number().int().positive()).max(ROSTER_MAX).optional(), replace: z.boolean().default(true) });
+const linksBody = z.strictObject({
+  participantIds: z.array(z.number().int().positive()).max(ROSTER_MAX).optional(),
+  replace: z.boolean().default(true),
+});
 const revokeBody = z.strictObject({ participantIds: z.array(z.number().int().positive()).min(1).max(ROSTER_MAX) });
-const buildBody = z.strictObject({ mode: z.enum(BUILD_MODES.map((m) => m.value) as ['directed', 'reciprocated', 'either'], 'Choose how to read the answers.') });
-const releaseBody = z.strictObject({ rehearsalId: z.number().int().positive(), sampleRun: z.number().int().min(0), showStarters: z.boolean() });
+const buildBody = z.strictObject({
+  mode: z.enum(BUILD_MODES.map((m) => m.value) as ['directed', 'reciprocated', 'either'], 'Choose how to read the answers.'),
+});
+const releaseBody = z.strictObject({
+  rehearsalId: z.number().int().positive(),
+  sampleRun: z.number().int().min(0),
+  showStarters: z.boolean(),
+});
 const pid = (raw: unknown) => (/^[1-9]\d{0,15}$/.test(String(raw)) ? Number(raw) : 0);
 
 async function ownerOf(ownerId: number): Promise<SignedInUser> {
@@ -64,7 +83,13 @@ workshopsRouter.post('/', signedIn(), async (req, res) => {
   if (body.roomId !== null) await loadRoomFor(req.user, body.roomId, 'edit');
   const [{ id }] = await db
     .insert(workshops)
-    .values({ ownerId: req.user!.id, title: body.title, sessionDate: body.sessionDate, roomId: body.roomId, nominationLimit: body.nominationLimit ?? 5 })
+    .values({
+      ownerId: req.user!.id,
+      title: body.title,
+      sessionDate: body.sessionDate,
+      roomId: body.roomId,
+      nominationLimit: body.nominationLimit ?? 5,
+    })
     .$returningId();
   const loaded = await loadWorkshopFor(req.user, id);
   if (body.roomId !== null) await service.participantsFromRoom(loaded.workshop, req.user!);
@@ -115,16 +140,30 @@ workshopsRouter.delete('/:id/facilitators/:userId', signedIn(), async (req, res)
 workshopsRouter.post('/:id/participants', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
   const body = parse(peopleBody, req.body);
-  res.status(201).json(await service.addParticipants(workshop, body.people.map((p) => ({ name: p.name, email: p.email ?? null, personId: null }))));
+  res.status(201).json(
+    await service.addParticipants(
+      workshop,
+      body.people.map((p) => ({ name: p.name, email: p.email ?? null, personId: null })),
+    ),
+  );
 });
 
 workshopsRouter.post('/:id/participants/roster', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
   const { rows, issues } = parseRoster(parse(rosterBody, req.body).csv);
-  const result = rows.length ? await service.addParticipants(workshop, rows.map((r) => ({ ...r, personId: null }))) : { added: 0, skipped: [] };
-  res.status(rows.length ? 201 : 400).json(
-    rows.length ? { ...result, issues } : { error: { code: 'bad_roster', message: issues[0]?.message ?? 'The roster has no names.', details: { issues } } },
-  );
+  const result = rows.length
+    ? await service.addParticipants(
+        workshop,
+        rows.map((r) => ({ ...r, personId: null })),
+      )
+    : { added: 0, skipped: [] };
+  res
+    .status(rows.length ? 201 : 400)
+    .json(
+      rows.length
+        ? { ...result, issues }
+        : { error: { code: 'bad_roster', message: issues[0]?.message ?? 'The roster has no names.', details: { issues } } },
+    );
 });
 
 workshopsRouter.post('/:id/participants/from-room', signedIn(), async (req, res) => {
@@ -148,7 +187,12 @@ workshopsRouter.post('/:id/links/email', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
   const body = parse(linksBody, req.body);
   const result = await service.emailLinks(workshop, req.user!, body.participantIds, body.replace);
-  await audit(req, { action: 'workshop.links_emailed', targetType: 'workshop', targetId: workshop.id, detail: { sent: result.sent.length } });
+  await audit(req, {
+    action: 'workshop.links_emailed',
+    targetType: 'workshop',
+    targetId: workshop.id,
+    detail: { sent: result.sent.length },
+  });
   res.json(result);
 });
 
@@ -200,7 +244,12 @@ workshopsRouter.post('/:id/build', signedIn(), async (req, res) => {
   service.assertNotClosed(workshop);
   const { mode } = parse(buildBody, req.body);
   const result = await buildRoom(workshop, await ownerOf(workshop.ownerId), mode);
-  await audit(req, { action: 'workshop.room_built', targetType: 'workshop', targetId: workshop.id, detail: { roomId: result.roomId, mode } });
+  await audit(req, {
+    action: 'workshop.room_built',
+    targetType: 'workshop',
+    targetId: workshop.id,
+    detail: { roomId: result.roomId, mode },
+  });
   res.json(result);
 });
 

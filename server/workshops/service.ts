@@ -2,13 +2,7 @@ import { and, eq } from 'drizzle-orm';
 import { users } from '../../db/schema/accounts';
 import { rooms } from '../../db/schema/rooms';
 import { workshopFacilitators, workshopParticipants, workshops } from '../../db/schema/workshops';
-import {
-  STATUS_LABELS,
-  STATUS_MOVES,
-  type IssuedLink,
-  type WorkshopDetail,
-  type WorkshopStatus,
-} from '../../shared/api/workshops';
+import { STATUS_LABELS, STATUS_MOVES, type IssuedLink, type WorkshopDetail, type WorkshopStatus } from '../../shared/api/workshops';
 import { db } from '../db';
 import { badRequest, conflict, HttpError } from '../core/http-error';
 import { sendMail } from '../mail/transport';
@@ -86,7 +80,10 @@ export async function addFacilitator(w: WorkshopRow, email: string): Promise<voi
     });
   }
   if (user.id === w.ownerId) throw conflict('That is the owner of this workshop; they are already a facilitator.');
-  await db.insert(workshopFacilitators).values({ workshopId: w.id, userId: user.id }).onDuplicateKeyUpdate({ set: { userId: user.id } });
+  await db
+    .insert(workshopFacilitators)
+    .values({ workshopId: w.id, userId: user.id })
+    .onDuplicateKeyUpdate({ set: { userId: user.id } });
 }
 
 export async function removeFacilitator(w: WorkshopRow, userId: number): Promise<void> {
@@ -107,7 +104,8 @@ export async function addParticipants(
 }
 
 export async function participantsFromRoom(w: WorkshopRow, owner: SignedInUser): Promise<{ added: number; skipped: string[] }> {
-  if (w.roomId === null) throw conflict('This workshop has no room yet: its room will be built from the survey. Add participants from a roster instead.');
+  if (w.roomId === null)
+    throw conflict('This workshop has no room yet: its room will be built from the survey. Add participants from a roster instead.');
   await loadRoomFor(owner, w.roomId, 'view');
   const folk = await roomPeople(db, w.roomId);
   return addParticipants(
@@ -132,7 +130,8 @@ export async function resetClaim(w: WorkshopRow, participantId: number): Promise
 
 async function targets(w: WorkshopRow, ids: number[] | undefined) {
   const list = await participantsById(w.id, ids);
-  if (ids && list.length !== new Set(ids).size) throw badRequest('Some of the chosen participants are not in this workshop. Reload the page.');
+  if (ids && list.length !== new Set(ids).size)
+    throw badRequest('Some of the chosen participants are not in this workshop. Reload the page.');
   if (!list.length) throw badRequest('This workshop has no participants yet.');
   return list;
 }
@@ -168,7 +167,8 @@ export async function emailLinks(
   const list = await targets(w, ids);
   const withEmail = list.filter((p) => p.email);
   const withoutEmail = list.filter((p) => !p.email).map((p) => p.name);
-  if (!withEmail.length) throw badRequest('None of the chosen participants has an e-mail address. Print a sheet of links or show the QR code instead.');
+  if (!withEmail.length)
+    throw badRequest('None of the chosen participants has an e-mail address. Print a sheet of links or show the QR code instead.');
   const links = await issueMany(w, withEmail, 'email', replace);
   const sent: string[] = [];
   const failed: string[] = [];
@@ -202,4 +202,3 @@ export async function revokeParticipantLinks(w: WorkshopRow, ids: number[]): Pro
     list.map((p) => p.id),
   );
 }
-

@@ -161,6 +161,12 @@ export async function activeLinkCount(participantId: number): Promise<number> {
   const [row] = await db
     .select({ n: count() })
     .from(participantLinks)
-    .where(and(eq(participantLinks.participantId, participantId), isNull(participantLinks.revokedAt), gt(participantLinks.expiresAt, new Date())));
+    .where(
+      and(
+        eq(participantLinks.participantId, participantId),
+        isNull(participantLinks.revokedAt),
+        gt(participantLinks.expiresAt, new Date()),
+      ),
+    );
   return Number(row?.n ?? 0);
 }

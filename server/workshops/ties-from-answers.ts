@@ -21,7 +21,8 @@ export interface BuiltTie {
 }
 
 export function tiesFromAnswers(edges: readonly NominationEdge[], mode: BuildMode): BuiltTie[] {
-  if (mode === 'directed') return edges.filter((e) => e.from !== e.to).map((e) => ({ source: e.from, target: e.to, strength: strengthOf(e.level) }));
+  if (mode === 'directed')
+    return edges.filter((e) => e.from !== e.to).map((e) => ({ source: e.from, target: e.to, strength: strengthOf(e.level) }));
   const pairs = new Map<string, { a: number; b: number; ab?: number; ba?: number }>();
   for (const e of edges) {
     if (e.from === e.to) continue;

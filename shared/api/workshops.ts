@@ -185,5 +185,4 @@ export interface JoinState {
 }
 
 /** The same answer for an expired, revoked or made-up link. */
-export const LINK_INVALID_MESSAGE =
-  'This link does not work (it may have expired or been replaced). Ask your facilitator for a new one.';
+export const LINK_INVALID_MESSAGE = 'This link does not work (it may have expired or been replaced). Ask your facilitator for a new one.';

@@ -105,7 +105,13 @@ describe('workshop room build, debrief and who may reach what', () => {
     const participant = server.client();
     const t = tokens.get('Hal Verity')!;
     assert.equal((await participant.get(`/api/p/${t}`)).status, 200);
-    for (const path of [`/api/workshops/${id}`, `/api/workshops/${id}/progress?token=${t}`, `/api/rooms/${roomId}`, `/api/rehearsals/${rehearsal.id}/samples`, '/api/workshops']) {
+    for (const path of [
+      `/api/workshops/${id}`,
+      `/api/workshops/${id}/progress?token=${t}`,
+      `/api/rooms/${roomId}`,
+      `/api/rehearsals/${rehearsal.id}/samples`,
+      '/api/workshops',
+    ]) {
       const r = await participant.request('GET', path, undefined, { headers: { authorization: `Bearer ${t}` } });
       assert.equal(r.status, 401, `participant ${path}`);
     }

@@ -23,7 +23,12 @@ export async function sheetTokens(c: TestClient, workshopId: number): Promise<Ma
 }
 
 export async function latestMailTo(address: string) {
-  const [row] = await db.select().from(mailMessages).where(like(mailMessages.envelopeTo, `%${address}%`)).orderBy(desc(mailMessages.id)).limit(1);
+  const [row] = await db
+    .select()
+    .from(mailMessages)
+    .where(like(mailMessages.envelopeTo, `%${address}%`))
+    .orderBy(desc(mailMessages.id))
+    .limit(1);
   return row;
 }
 

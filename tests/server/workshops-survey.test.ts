@@ -78,7 +78,10 @@ describe('workshop survey links', () => {
     await client.post(`/api/workshops/${id}/links/revoke`, { participantIds: [byName.get('Bram Osterfeld')] });
     const revoked = await anon.get(`/api/p/${bram}`);
     const cleo = tokens.get('Cleo Marwick')!;
-    await db.update(participantLinks).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(participantLinks.tokenHash, hashToken(cleo)));
+    await db
+      .update(participantLinks)
+      .set({ expiresAt: new Date(Date.now() - 1000) })
+      .where(eq(participantLinks.tokenHash, hashToken(cleo)));
     const expired = await anon.get(`/api/p/${cleo}`);
     const madeUp = await anon.get(`/api/p/${'A'.repeat(43)}`);
     const malformed = await anon.get('/api/p/not-a-token');
@@ -111,20 +114,29 @@ describe('workshop survey links', () => {
     const put = (nominations: unknown[], version = 0) => anon.put(`/api/p/${ada}/answers`, { version, nominations });
     const self = await put([{ participantId: me, level: 'often' }]);
     assert.equal(self.body.error.code, 'self_nomination');
-    const dup = await put([{ participantId: b, level: 'often' }, { participantId: b, level: 'weekly' }]);
+    const dup = await put([
+      { participantId: b, level: 'often' },
+      { participantId: b, level: 'weekly' },
+    ]);
     assert.equal(dup.body.error.code, 'duplicate_nomination');
     const many = await put([b, c, d, e].map((p) => ({ participantId: p, level: 'sometimes' })));
     assert.equal(many.status, 400);
     assert.match(many.body.error.message, /picked 4 people; this survey asks for at most 3\. Remove 1/);
     const other = await newWorkshop(client, [{ name: 'Outsider One' }, { name: 'Outsider Two' }], 'Another session');
     const stranger = other.byName.get('Outsider One')!;
-    const unknown = await put([{ participantId: b, level: 'often' }, { participantId: stranger, level: 'often' }]);
+    const unknown = await put([
+      { participantId: b, level: 'often' },
+      { participantId: stranger, level: 'often' },
+    ]);
     assert.equal(unknown.body.error.code, 'unknown_people');
     assert.deepEqual(unknown.body.error.details.unknown, [stranger]);
     const badLevel = await put([{ participantId: b, level: 'hourly' }]);
     assert.equal(badLevel.status, 400);
     assert.match(badLevel.body.error.message, /how often/);
-    const ok = await put([{ participantId: b, level: 'often' }, { participantId: c, level: 'weekly' }]);
+    const ok = await put([
+      { participantId: b, level: 'often' },
+      { participantId: c, level: 'weekly' },
+    ]);
     assert.equal(ok.status, 200, ok.text);
     assert.equal(ok.body.version, 1);
     assert.equal(ok.body.nominations.length, 2);
@@ -151,14 +163,23 @@ describe('workshop survey links', () => {
     const edda = tokens.get('Edda Prinn')!;
     await phone.post(`/api/p/${edda}/consent`);
     const v = (await laptop.get(`/api/p/${edda}`)).body.version;
-    const first = await phone.put(`/api/p/${edda}/answers`, { version: v, nominations: [{ participantId: byName.get('Ada Quillon'), level: 'often' }] });
+    const first = await phone.put(`/api/p/${edda}/answers`, {
+      version: v,
+      nominations: [{ participantId: byName.get('Ada Quillon'), level: 'often' }],
+    });
     assert.equal(first.status, 200);
-    const second = await laptop.put(`/api/p/${edda}/answers`, { version: v, nominations: [{ participantId: byName.get('Dov Tallis'), level: 'weekly' }] });
+    const second = await laptop.put(`/api/p/${edda}/answers`, {
+      version: v,
+      nominations: [{ participantId: byName.get('Dov Tallis'), level: 'weekly' }],
+    });
     assert.equal(second.status, 409);
     assert.equal(second.body.error.code, 'answers_changed');
     assert.match(second.body.error.message, /another browser/);
     assert.deepEqual(second.body.error.details.nominations, [{ participantId: byName.get('Ada Quillon'), level: 'often' }]);
-    const retry = await laptop.put(`/api/p/${edda}/answers`, { version: second.body.error.details.version, nominations: [{ participantId: byName.get('Dov Tallis'), level: 'weekly' }] });
+    const retry = await laptop.put(`/api/p/${edda}/answers`, {
+      version: second.body.error.details.version,
+      nominations: [{ participantId: byName.get('Dov Tallis'), level: 'weekly' }],
+    });
     assert.equal(retry.status, 200);
   });
 
@@ -176,7 +197,11 @@ describe('workshop survey links', () => {
     const state = await a.get(`/api/p/join/${joinCode}`);
     assert.deepEqual(
       state.body.names.map((n: { name: string; taken: boolean }) => [n.name, n.taken]),
-      [['Fay Lindqvist', false], ['Gus Harrow', false], ['Hana Oort', true]],
+      [
+        ['Fay Lindqvist', false],
+        ['Gus Harrow', false],
+        ['Hana Oort', true],
+      ],
     );
     const hana = await a.post(`/api/p/join/${joinCode}/claim`, { participantId: byName.get('Hana Oort') });
     assert.equal(hana.body.error.code, 'name_taken');

@@ -28,7 +28,10 @@ export class DebriefView {
       .join(' ');
     const total = d.peopleInMap || 1;
     const steps = d.replayReached
-      .map((c, t) => `${t ? 'L' : 'M'}${x(t).toFixed(2)},${y(c / total).toFixed(2)}${t < d.replayReached.length - 1 ? ` L${x(t + 1).toFixed(2)},${y(c / total).toFixed(2)}` : ''}`)
+      .map(
+        (c, t) =>
+          `${t ? 'L' : 'M'}${x(t).toFixed(2)},${y(c / total).toFixed(2)}${t < d.replayReached.length - 1 ? ` L${x(t + 1).toFixed(2)},${y(c / total).toFixed(2)}` : ''}`,
+      )
       .join(' ');
     const mine = d.heardAtHop !== null ? { x: x(d.heardAtHop), y: y((d.replayReached[d.heardAtHop] ?? 0) / total) } : null;
     const ninety = d.reachCurve.findIndex((s) => s >= 0.9);

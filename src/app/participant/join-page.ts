@@ -23,8 +23,8 @@ import { ParticipantApi } from './participant-api';
             <p class="note" role="status">This workshop is not taking participants right now. Ask your facilitator.</p>
           } @else if (allTaken()) {
             <p class="note" role="alert">
-              Every name on the list has been picked. If one of them is yours, ask your facilitator to reset it; if yours is missing,
-              ask them to add you.
+              Every name on the list has been picked. If one of them is yours, ask your facilitator to reset it; if yours is missing, ask
+              them to add you.
             </p>
           } @else {
             <p class="rh-muted">Pick only your own name: it opens your personal page, and each name can be picked once.</p>

@@ -26,6 +26,8 @@ export class ParticipantApi {
     return firstValueFrom(this.http.get<JoinState>(`/api/p/join/${encodeURIComponent(code)}`, this.own));
   }
   claim(code: string, participantId: number): Promise<{ path: string; name: string }> {
-    return firstValueFrom(this.http.post<{ path: string; name: string }>(`/api/p/join/${encodeURIComponent(code)}/claim`, { participantId }, this.own));
+    return firstValueFrom(
+      this.http.post<{ path: string; name: string }>(`/api/p/join/${encodeURIComponent(code)}/claim`, { participantId }, this.own),
+    );
   }
 }

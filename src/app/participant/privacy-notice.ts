@@ -6,16 +6,16 @@ import { ChangeDetectionStrategy, Component, input } from '@angular/core';
   template: `
     @if (short()) {
       <p>
-        Your answers are seen only by {{ names() }}, who can delete them at any time. They are kept for this workshop only. Local
-        privacy and employment rules, and any works council agreement, take precedence.
+        Your answers are seen only by {{ names() }}, who can delete them at any time. They are kept for this workshop only. Local privacy
+        and employment rules, and any works council agreement, take precedence.
       </p>
     } @else {
       <h2>Before you answer</h2>
       <ul class="notice">
         <li><strong>What is collected:</strong> the names you pick from the list and how often you talk to each. Nothing else.</li>
         <li>
-          <strong>Who sees it:</strong> only the workshop's facilitators ({{ names() }}). Other participants never see your answers;
-          they later see only the room's overall results and their own.
+          <strong>Who sees it:</strong> only the workshop's facilitators ({{ names() }}). Other participants never see your answers; they
+          later see only the room's overall results and their own.
         </li>
         <li>
           <strong>What it is for:</strong> a map of who talks to whom, used in the workshop to rehearse how news travels. It says where
@@ -26,8 +26,8 @@ import { ChangeDetectionStrategy, Component, input } from '@angular/core';
           everything in it, at any time; ask them to.
         </li>
         <li>
-          <strong>Your choice:</strong> answering is voluntary. Local privacy and employment rules, and any works council agreement
-          where you work, take precedence over this page.
+          <strong>Your choice:</strong> answering is voluntary. Local privacy and employment rules, and any works council agreement where
+          you work, take precedence over this page.
         </li>
       </ul>
     }

@@ -40,7 +40,8 @@ describe('SurveyForm', () => {
     await fixture.whenStable();
   }
 
-  const nameButton = (name: string) => [...el.querySelectorAll<HTMLButtonElement>('button.name')].find((b) => b.textContent!.includes(name))!;
+  const nameButton = (name: string) =>
+    [...el.querySelectorAll<HTMLButtonElement>('button.name')].find((b) => b.textContent!.includes(name))!;
   const send = () => el.querySelector<HTMLButtonElement>('button.send')!;
 
   afterEach(() => http.verify());
@@ -78,16 +79,18 @@ describe('SurveyForm', () => {
     nameButton('Bram Osterfeld').click();
     await fixture.whenStable();
     send().click();
-    http.expectOne(() => true).flush(
-      {
-        error: {
-          code: 'answers_changed',
-          message: 'Your answers were changed in another browser or tab since you opened this page.',
-          details: { version: 3, nominations: [{ participantId: 4, level: 'sometimes' }], savedAt: null },
+    http
+      .expectOne(() => true)
+      .flush(
+        {
+          error: {
+            code: 'answers_changed',
+            message: 'Your answers were changed in another browser or tab since you opened this page.',
+            details: { version: 3, nominations: [{ participantId: 4, level: 'sometimes' }], savedAt: null },
+          },
         },
-      },
-      { status: 409, statusText: 'Conflict' },
-    );
+        { status: 409, statusText: 'Conflict' },
+      );
     await fixture.whenStable();
     expect(el.textContent).toContain('changed in another browser');
     expect(el.querySelector('.conflict-box')!.textContent).toContain('Dov Tallis · Now and then');

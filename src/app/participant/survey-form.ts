@@ -126,6 +126,9 @@ export class SurveyForm {
     for (const [id, c] of Object.entries(this.form().controls)) c.setValue(mine.get(Number(id)) ?? '');
     this.version = theirs.version;
     this.theirs.set(null);
-    this.message.set({ kind: 'ok', text: 'These are the answers saved from your other browser. Change them and send, or leave them as they are.' });
+    this.message.set({
+      kind: 'ok',
+      text: 'These are the answers saved from your other browser. Change them and send, or leave them as they are.',
+    });
   }
 }

@@ -10,12 +10,18 @@ export interface LayoutPerson {
   y: number | null;
 }
 
-export function replayLayout(people: readonly LayoutPerson[], ties: readonly { source: number; target: number }[]): { x: Float64Array; y: Float64Array } {
+export function replayLayout(
+  people: readonly LayoutPerson[],
+  ties: readonly { source: number; target: number }[],
+): { x: Float64Array; y: Float64Array } {
   const n = people.length;
   const x = new Float64Array(n);
   const y = new Float64Array(n);
   if (n && people.every((p) => p.x !== null && p.y !== null)) {
-    people.forEach((p, i) => ((x[i] = p.x!), (y[i] = p.y!)));
+    people.forEach((p, i) => {
+      x[i] = p.x!;
+      y[i] = p.y!;
+    });
   } else if (n) {
     const nodes: SimulationNodeDatum[] = people.map((_, i) => ({ x: Math.cos(i) * i, y: Math.sin(i) * i }));
     const sim = forceSimulation(nodes)
@@ -26,12 +32,18 @@ export function replayLayout(people: readonly LayoutPerson[], ties: readonly { s
       .force('y', forceY(0).strength(0.05))
       .stop();
     sim.tick(Math.min(300, 60 + n));
-    nodes.forEach((d, i) => ((x[i] = d.x ?? 0), (y[i] = d.y ?? 0)));
+    nodes.forEach((d, i) => {
+      x[i] = d.x ?? 0;
+      y[i] = d.y ?? 0;
+    });
   }
   const norm = (a: Float64Array) => {
     let lo = Infinity;
     let hi = -Infinity;
-    for (const v of a) ((lo = Math.min(lo, v)), (hi = Math.max(hi, v)));
+    for (const v of a) {
+      lo = Math.min(lo, v);
+      hi = Math.max(hi, v);
+    }
     const span = hi - lo || 1;
     for (let i = 0; i < a.length; i++) a[i] = hi === lo ? 0.5 : (a[i] - lo) / span;
   };

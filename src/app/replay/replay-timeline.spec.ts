@@ -46,7 +46,12 @@ describe('replay timeline', () => {
   });
 
   it('waits on the last stored person when a path was cut short', () => {
-    const cut = buildTimeline({ n: 3, starters: [0], heardAt: [0, 5, null], chains: [{ person: 1, path: [1, 2], hops: 5, capped: false }] });
+    const cut = buildTimeline({
+      n: 3,
+      starters: [0],
+      heardAt: [0, 5, null],
+      chains: [{ person: 1, path: [1, 2], hops: 5, capped: false }],
+    });
     const f = chainFronts(cut, 3.2)[0];
     expect([f.from, f.to, f.along]).toEqual([2, 2, 0]);
   });

@@ -20,7 +20,9 @@ import { WorkshopsApi } from './workshops-api';
         <p class="url">{{ c.url }}</p>
         <p class="hint">Pick your own name on your phone. Each name can be picked once.</p>
         @if (progress(); as p) {
-          <p class="count" aria-live="polite"><strong>{{ p.answered }}</strong> of {{ p.participants }} have answered</p>
+          <p class="count" aria-live="polite">
+            <strong>{{ p.answered }}</strong> of {{ p.participants }} have answered
+          </p>
         }
         <p class="small">This code works until {{ c.expiresAt | date: 'd MMM, HH:mm' }}; showing it again makes a new one.</p>
       }
@@ -89,7 +91,14 @@ export default class JoinProjector implements OnInit, OnDestroy {
   async ngOnInit(): Promise<void> {
     try {
       this.code.set(await this.api.joinCode(Number(this.id())));
-      this.timer = setInterval(() => void this.api.progress(Number(this.id())).then((p) => this.progress.set(p), () => undefined), 3000);
+      this.timer = setInterval(
+        () =>
+          void this.api.progress(Number(this.id())).then(
+            (p) => this.progress.set(p),
+            () => undefined,
+          ),
+        3000,
+      );
     } catch (err) {
       this.error.set(toApiError(err).message);
     }

@@ -32,7 +32,10 @@ export default class WorkshopList implements OnInit {
     title: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(160)] }),
     sessionDate: new FormControl(new Date().toISOString().slice(0, 10), { nonNullable: true, validators: [Validators.required] }),
     roomId: new FormControl<number | null>(null),
-    nominationLimit: new FormControl(5, { nonNullable: true, validators: [Validators.required, Validators.min(1), Validators.max(NOMINATION_LIMIT_MAX)] }),
+    nominationLimit: new FormControl(5, {
+      nonNullable: true,
+      validators: [Validators.required, Validators.min(1), Validators.max(NOMINATION_LIMIT_MAX)],
+    }),
   });
 
   async ngOnInit(): Promise<void> {

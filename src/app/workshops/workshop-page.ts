@@ -207,7 +207,9 @@ export default class WorkshopPage implements OnInit, OnDestroy {
   protected async release(): Promise<void> {
     const v = this.releaseForm.getRawValue();
     if (v.rehearsalId === null) return;
-    this.w.set(await this.api.release(this.workshopId, { rehearsalId: v.rehearsalId, sampleRun: v.sampleRun, showStarters: v.showStarters }));
+    this.w.set(
+      await this.api.release(this.workshopId, { rehearsalId: v.rehearsalId, sampleRun: v.sampleRun, showStarters: v.showStarters }),
+    );
     this.snack.open('Results released: participants now see their debrief on their own link.', 'OK', { duration: 6000 });
   }
 

@@ -41,13 +41,19 @@ export class WorkshopsApi {
   addPeople = (id: number, people: { name: string; email: string | null }[]) =>
     this.post<{ added: number; skipped: string[] }>(`${this.base}/${id}/participants`, { people });
   roster = (id: number, csv: string) =>
-    this.post<{ added: number; skipped: string[]; issues: { line: number; message: string }[] }>(`${this.base}/${id}/participants/roster`, { csv });
+    this.post<{ added: number; skipped: string[]; issues: { line: number; message: string }[] }>(`${this.base}/${id}/participants/roster`, {
+      csv,
+    });
   fromRoom = (id: number) => this.post<{ added: number; skipped: string[] }>(`${this.base}/${id}/participants/from-room`);
   removeParticipant = (id: number, pid: number) => firstValueFrom(this.http.delete<void>(`${this.base}/${id}/participants/${pid}`));
   resetClaim = (id: number, pid: number) => this.post<void>(`${this.base}/${id}/participants/${pid}/reset-claim`);
   email = (id: number, participantIds?: number[]) =>
-    this.post<{ sent: string[]; withoutEmail: string[]; failed: string[] }>(`${this.base}/${id}/links/email`, { participantIds, replace: true });
-  sheet = (id: number, participantIds?: number[]) => this.post<IssuedLink[]>(`${this.base}/${id}/links/sheet`, { participantIds, replace: true });
+    this.post<{ sent: string[]; withoutEmail: string[]; failed: string[] }>(`${this.base}/${id}/links/email`, {
+      participantIds,
+      replace: true,
+    });
+  sheet = (id: number, participantIds?: number[]) =>
+    this.post<IssuedLink[]>(`${this.base}/${id}/links/sheet`, { participantIds, replace: true });
   revoke = (id: number, participantIds: number[]) => this.post<{ revoked: number }>(`${this.base}/${id}/links/revoke`, { participantIds });
   joinCode = (id: number) => this.post<{ url: string; qr: string; expiresAt: string }>(`${this.base}/${id}/join-code`);
   progress = (id: number) => this.get<SurveyProgress>(`${this.base}/${id}/progress`, true);
