@@ -13,6 +13,7 @@ import { Router, RouterLink } from '@angular/router';
 import { REHEARSAL_LIMITS, type RehearsalSummary } from '../../../shared/api/plans';
 import {
   BUILD_MODES,
+  NOMINATION_LIMIT_MAX,
   STATUS_LABELS,
   WORKSHOP_STATUSES,
   type BuildMode,
@@ -75,6 +76,14 @@ export default class WorkshopPage implements OnInit, OnDestroy {
     sampleRun: new FormControl(0, { nonNullable: true }),
     showStarters: new FormControl(false, { nonNullable: true }),
   });
+  protected readonly settingsForm = new FormGroup({
+    nominationLimit: new FormControl(5, {
+      nonNullable: true,
+      validators: [Validators.required, Validators.min(1), Validators.max(NOMINATION_LIMIT_MAX)],
+    }),
+    linkDays: new FormControl(30, { nonNullable: true, validators: [Validators.required, Validators.min(1), Validators.max(365)] }),
+  });
+  protected readonly limitMax = NOMINATION_LIMIT_MAX;
   protected readonly doneRehearsals = computed(() => this.rehearsals().filter((r) => r.status === 'done'));
   protected readonly stepIndex = computed(() => WORKSHOP_STATUSES.indexOf(this.w()?.status ?? 'draft'));
   private timer: ReturnType<typeof setInterval> | undefined;
@@ -95,6 +104,7 @@ export default class WorkshopPage implements OnInit, OnDestroy {
     const w = await this.api.detail(this.workshopId);
     this.w.set(w);
     this.releaseForm.controls.showStarters.setValue(w.showStarters);
+    this.settingsForm.setValue({ nominationLimit: w.nominationLimit, linkDays: w.linkDays });
     await Promise.all([this.poll(), this.loadMissing(), this.loadRehearsals()]);
   }
 
@@ -215,6 +225,20 @@ export default class WorkshopPage implements OnInit, OnDestroy {
 
   protected async toggleStarters(show: boolean): Promise<void> {
     this.w.set(await this.api.patch(this.workshopId, { showStarters: show }));
+  }
+
+  protected async saveSettings(): Promise<void> {
+    if (this.settingsForm.invalid) return;
+    this.w.set(await this.api.patch(this.workshopId, this.settingsForm.getRawValue()));
+    this.snack.open('Settings saved.', 'OK', { duration: 3000 });
+  }
+
+  protected async deleteWorkshop(): Promise<void> {
+    const w = this.w();
+    if (!w || !confirm(`Delete “${w.title}” with its participants, links and every survey answer? The room stays.`)) return;
+    await this.api.remove(this.workshopId);
+    this.snack.open('The workshop and all its survey data are deleted.', 'OK', { duration: 5000 });
+    await this.router.navigate(['/workshops']);
   }
 
   protected async refreshRehearsals(): Promise<void> {
