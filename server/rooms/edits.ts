@@ -29,7 +29,8 @@ type Step =
   | { kind: 'deletePeople'; ids: number[] }
   | { kind: 'addTies'; tempIds: (string | undefined)[]; rows: { source: number | string; target: number | string; strength: number }[] }
   | { kind: 'updateTie'; id: number; strength: number }
-  | { kind: 'deleteTies'; ids: number[] };
+  | { kind: 'deleteTies'; ids: number[] }
+  | { kind: 'move'; moves: { ref: number | string; x: number; y: number; pinned?: boolean }[] };
 
 export async function applyEdits(roomId: number, batch: EditBatchInput): Promise<RoomEditResult> {
   const layoutOnly = batch.ops.every((op) => op.op === 'movePeople');
@@ -179,14 +180,15 @@ async function plan(tx: Tx, roomId: number, directed: boolean, ops: EditOpInput[
         else steps.push({ kind: 'deleteTies', ids: [op.id] });
         return;
       }
-      case 'movePeople':
+      case 'movePeople': {
+        const moves: { ref: number | string; x: number; y: number; pinned?: boolean }[] = [];
         op.moves.forEach((m, j) => {
           if (!folk.has(m.id)) return err(i, `moves.${j}.id`, `Person ${m.id} is not in this room.`);
-          const set: PersonSet = { x: m.x, y: m.y };
-          if (m.pinned !== undefined) set.pinned = m.pinned;
-          steps.push({ kind: 'updatePerson', ref: m.id, set });
+          moves.push({ ref: m.id, x: m.x, y: m.y, pinned: m.pinned });
         });
+        steps.push({ kind: 'move', moves });
         return;
+      }
     }
   });
   if (errors.length > 0) failFields(errors, 'edits (nothing was saved)');
@@ -231,6 +233,13 @@ async function write(tx: Tx, roomId: number, steps: Step[]): Promise<Pick<RoomEd
         break;
       case 'deleteTies':
         await store.deleteTieRows(tx, roomId, step.ids);
+        break;
+      case 'move':
+        await store.movePeopleRows(
+          tx,
+          roomId,
+          step.moves.map((m) => ({ ...m, id: idOf(m.ref) })),
+        );
         break;
     }
   }

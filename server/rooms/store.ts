@@ -326,3 +326,32 @@ export async function insertTieRows(
   }
   return ids;
 }
+
+/** Many positions in one statement per chunk (a drag of many people is one autosave). */
+export async function movePeopleRows(
+  tx: Tx,
+  roomId: number,
+  moves: { id: number; x: number; y: number; pinned?: boolean }[],
+): Promise<void> {
+  for (let at = 0; at < moves.length; at += CHUNK) {
+    const part = moves.slice(at, at + CHUNK);
+    const caseOf = (value: (m: (typeof part)[number]) => unknown, column: SQL) =>
+      sql.join([sql`CASE ${people.id}`, ...part.map((m) => sql`WHEN ${m.id} THEN ${value(m)}`), sql`ELSE ${column} END`], sql` `);
+    await tx
+      .update(people)
+      .set({
+        x: caseOf((m) => m.x, sql`${people.x}`),
+        y: caseOf((m) => m.y, sql`${people.y}`),
+        pinned: caseOf((m) => (m.pinned === undefined ? sql`${people.pinned}` : m.pinned), sql`${people.pinned}`),
+      })
+      .where(
+        and(
+          eq(people.roomId, roomId),
+          inArray(
+            people.id,
+            part.map((m) => m.id),
+          ),
+        ),
+      );
+  }
+}

@@ -26,6 +26,6 @@ export function upload(
 ) {
   const form = new FormData();
   for (const [k, v] of Object.entries(fields)) form.set(k, v);
-  for (const [field, f] of Object.entries(files)) form.set(field, new Blob([f.content]), f.name);
+  for (const [field, f] of Object.entries(files)) form.set(field, new Blob([f.content as BlobPart]), f.name);
   return client.request('POST', path, undefined, { raw: form });
 }
