@@ -32,6 +32,11 @@ export async function startTestServer(): Promise<TestServer> {
       await new Promise<void>((resolve) => server.close(() => resolve()));
       await stopMail();
       await pool.end();
+      // Safety net: a handle left open by a library must not hang the suite after its tests passed.
+      setTimeout(() => {
+        console.error('test server: handles still open 3 s after stop; exiting the test process');
+        process.exit(process.exitCode ?? 0);
+      }, 3000).unref();
     },
   };
 }
