@@ -24,7 +24,7 @@ export function simulationPool(): SimulationPool {
 }
 
 function plans(): Piscina {
-  planPool ??= new Piscina({ filename: workerFile(), minThreads: 1, maxThreads: config.WORKERS, idleTimeout: 60_000 });
+  planPool ??= new Piscina({ filename: workerFile(), minThreads: config.WORKERS, maxThreads: config.WORKERS, idleTimeout: 60_000 });
   return planPool;
 }
 

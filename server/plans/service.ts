@@ -19,6 +19,8 @@ import { prepared, type ComputeOutcome, type PlanComputation, type PlannerTask, 
 import { parseResults, parseSnapshot, planDetail, planSummary, type StoredPlanResults } from './dto';
 import type { NewPlan, PlanRow } from './store';
 import * as store from './store';
+import { config } from '../config';
+import { mergeSweeps } from './sweep';
 import { checkHandMade, checkPlannerRequest, indicesOfPeople, planError } from './validate';
 
 export type LoadedPlan = PlanRow & { createdByName: string };
@@ -297,7 +299,18 @@ export async function sweep(user: SignedInUser, roomId: number, maxK: number, se
       { maxK, cap },
     );
   }
-  const out = await runInPlanPool({ kind: 'sweep', snapshot, maxK, seed }, { hardLimitMs: 180_000 });
-  if ('error' in out) throw planError(out.error.code, out.error.message, out.error.detail);
-  return out.ok as KSweepResult;
+  // Split the values of k over the pool's threads (larger k cost more, so deal them round-robin).
+  const started = performance.now();
+  const lanes = Math.max(1, Math.min(config.WORKERS, maxK));
+  const ks = Array.from({ length: lanes }, (_, lane) =>
+    Array.from({ length: maxK }, (_, i) => i + 1).filter((k) => (k - 1) % lanes === lane),
+  );
+  const outs = await Promise.all(
+    ks.map((part) => runInPlanPool({ kind: 'sweep', snapshot, maxK, ks: part, seed }, { hardLimitMs: 180_000 })),
+  );
+  const parts = outs.map((out) => {
+    if ('error' in out) throw planError(out.error.code, out.error.message, out.error.detail);
+    return out.ok as KSweepResult;
+  });
+  return mergeSweeps(parts, performance.now() - started);
 }

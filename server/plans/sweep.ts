@@ -8,11 +8,29 @@ import type { KSweepPoint, KSweepResult } from '../../shared/api/plans';
 import { prepared, type RoomSnapshot } from './compute';
 
 export const RANDOM_DRAWS = 20;
+const NO_PLAN_NOTE = 'No plan exists where k is below the number of closed groups (each needs its own starter).';
+const PARTIAL_RANDOM_NOTE = 'partial-random';
+
+/** Joins the parts of a sweep computed in parallel. */
+export function mergeSweeps(parts: KSweepResult[], elapsedMs: number): KSweepResult {
+  const points = parts.flatMap((p) => p.points).sort((a, b) => a.k - b.k);
+  const notes = new Set<string>();
+  let partial = 0;
+  for (const n of parts.flatMap((p) => p.notes)) {
+    if (n.startsWith(`${PARTIAL_RANDOM_NOTE}:`)) partial += Number(n.slice(PARTIAL_RANDOM_NOTE.length + 1));
+    else notes.add(n);
+  }
+  if (partial > 0)
+    notes.add(`For ${partial} values of k some random draws left people who can never hear; the random baseline averages the others.`);
+  return { ...parts[0], points, notes: [...notes], elapsedMs };
+}
 
 export interface SweepTask {
   kind: 'sweep';
   snapshot: RoomSnapshot;
   maxK: number;
+  /** The values of k this task computes (a sweep is split over the pool's threads). */
+  ks: number[];
   seed: string;
 }
 
@@ -66,7 +84,7 @@ export function runSweep(task: SweepTask): KSweepResult {
   const points: KSweepPoint[] = [];
   const notes: string[] = [];
   let partialRandom = 0;
-  for (let k = 1; k <= task.maxK; k++) {
+  for (const k of task.ks) {
     const g = planned(room, k, 'greedy');
     const w = planned(room, k, 'widened');
     const s = planned(room, k, 'swap');
@@ -82,12 +100,8 @@ export function runSweep(task: SweepTask): KSweepResult {
       lowerBound: g ? Math.max(g.lowerBound, w?.lowerBound ?? 0, s?.lowerBound ?? 0) : null,
     });
   }
-  if (points.some((p) => p.greedy === null))
-    notes.push('No plan exists where k is below the number of closed groups (each needs its own starter).');
-  if (partialRandom > 0)
-    notes.push(
-      `For ${partialRandom} values of k some random draws left people who can never hear; the random baseline averages the others.`,
-    );
+  if (points.some((p) => p.greedy === null)) notes.push(NO_PLAN_NOTE);
+  if (partialRandom > 0) notes.push(`${PARTIAL_RANDOM_NOTE}:${partialRandom}`);
   return {
     roomVersion: task.snapshot.version,
     people: room.n,

@@ -147,6 +147,26 @@ describe('plans API', () => {
     );
   });
 
+  it('k-sweep on a room with closed groups: no plan below their number, and a note says why', async () => {
+    const two: RoomGraph = {
+      ids: ['a', 'b', 'c', 'd', 'e', 'f'],
+      directed: false,
+      ties: [
+        { source: 0, target: 1, strength: 1 },
+        { source: 1, target: 2, strength: 1 },
+        { source: 3, target: 4, strength: 1 },
+        { source: 4, target: 5, strength: 1 },
+      ],
+    };
+    const room = await makeRoom(client, two, 'Two parts');
+    const s = (await client.post<KSweepResult>(`/api/rooms/${room.id}/plans/sweep`, { maxK: 4 })).body;
+    assert.equal(s.points[0].greedy, null);
+    assert.equal(s.points[0].mostTies, null, 'one starter cannot reach both parts');
+    assert.ok(s.points[1].greedy! > 0);
+    assert.ok(s.notes.some((n) => /closed groups/.test(n)));
+    assert.ok(s.notes.some((n) => /^For \d+ values of k some random draws/.test(n)));
+  });
+
   it('big or exhaustive plans run as background jobs with progress over SSE; a cancelled one can be re-run', async () => {
     const room = await makeRoom(client, karateClub(), 'Karate exhaustive');
     const r = await client.post(`/api/rooms/${room.id}/plans`, { k: 3, method: 'exhaustive' });
