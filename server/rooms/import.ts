@@ -44,7 +44,10 @@ export function receiveUpload(req: Request, res: Response, next: NextFunction): 
         ),
       );
     }
-    next(err);
+    if (e.code?.startsWith('LIMIT_'))
+      return next(new HttpError(400, 'bad_upload', `The upload was refused (${e.code}): send one room file and at most one people file.`));
+    // busboy's errors (a cut-off or malformed multipart body) are the client's, not ours.
+    next(new HttpError(400, 'bad_upload', 'The upload arrived incomplete or malformed: choose the file again and retry.'));
   });
 }
 

@@ -151,6 +151,12 @@ describe('rooms: import', () => {
     const xlsx = await dry({ file: { name: 'room.csv', content: Uint8Array.from([0x50, 0x4b, 3, 4, 0, 0, 1]) } });
     assert.equal(xlsx.status, 415);
     assert.match(xlsx.body.error.message, /CSV UTF-8/);
+    const cut = await client.request('POST', '/api/rooms/import', undefined, {
+      headers: { 'content-type': 'multipart/form-data; boundary=xyz' },
+      raw: '--xyz\r\nContent-Disposition: form-data; name="file"; filename="t.csv"\r\n\r\nsource,target\na,b',
+    });
+    assert.equal(cut.status, 400);
+    assert.match(cut.body.error.message, /incomplete or malformed/);
     const none = await upload(client, '/api/rooms/import', {});
     assert.equal(none.status, 400);
     assert.match(none.body.error.message, /Choose a file/);
