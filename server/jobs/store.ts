@@ -1,5 +1,5 @@
 /** Data access for job rows (the truth about every background job). */
-import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray } from 'drizzle-orm';
 import { jobs, plans } from '../../db/schema/plans';
 import { db, type Tx } from '../db';
 
@@ -84,5 +84,3 @@ export async function recoverOpenJobs(): Promise<number> {
   await db.update(plans).set({ status: 'interrupted', error: INTERRUPTED_MESSAGE }).where(eq(plans.status, 'computing'));
   return res.affectedRows;
 }
-
-export const nowMinus = (ms: number) => sql`(NOW(3) - INTERVAL ${ms * 1000} MICROSECOND)`;
