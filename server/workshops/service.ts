@@ -11,6 +11,7 @@ import { loadRoomFor } from '../rooms/access';
 import { roomPeople } from '../rooms/store';
 import type { SignedInUser } from '../types';
 import type { DebriefSnapshot } from './debrief';
+import { shareWorkshopRoom } from './co-facilitators';
 import { surveyLinkMail } from './mail';
 import { qrDataUrl } from './qr';
 import { facilitatorsOf, insertParticipants, participantRows, participantsById, type WorkshopRow } from './store';
@@ -84,6 +85,7 @@ export async function addFacilitator(w: WorkshopRow, email: string): Promise<voi
     .insert(workshopFacilitators)
     .values({ workshopId: w.id, userId: user.id })
     .onDuplicateKeyUpdate({ set: { userId: user.id } });
+  await shareWorkshopRoom(w.id, w.roomId);
 }
 
 export async function removeFacilitator(w: WorkshopRow, userId: number): Promise<void> {

@@ -96,6 +96,13 @@ describe('workshop room build, debrief and who may reach what', () => {
       assert.equal((await stranger.get(path)).status, 404, `another facilitator ${path}`);
       assert.equal((await server.client().get(path)).status, 401, `no session ${path}`);
     }
+    // Co-facilitators get editor access to the workshop's room (here built from the survey).
+    const workshopRoom = (await owner.get(`/api/workshops/${id}`)).body.roomId;
+    assert.ok(workshopRoom, 'the workshop has its room');
+    const coRoom = await co.get(`/api/rooms/${workshopRoom}`);
+    assert.equal(coRoom.status, 200, 'co-facilitator opens the workshop room');
+    assert.equal(coRoom.body.access, 'editor');
+    assert.equal((await stranger.get(`/api/rooms/${workshopRoom}`)).status, 404, 'another facilitator cannot');
     assert.equal((await stranger.post(`/api/workshops/${id}/links/sheet`, {})).status, 404);
     assert.equal((await stranger.post(`/api/workshops/${id}/status`, { to: 'closed' })).status, 404);
     assert.equal((await co.delete(`/api/workshops/${id}`)).status, 403, 'only the owner deletes');
