@@ -47,7 +47,11 @@ const cases: [string, string[], RegExp][] = [
   ['JSON syntax error names the line', ['cover', '--graph', f['syntax.json']], /syntax\.json: json line 3: not valid JSON/],
   ['duplicate person names the element', ['cover', '--graph', f['dup.json']], /json nodes\[1\], id: person "a" is listed twice/],
   ['empty room', ['cover', '--graph', f['empty.json']], /the room has no people/],
-  ['room over the size limit', ['cover', '--graph', f['ok.json'], '--max-people', '2'], /json nodes\[2\], id: the room has more than 2 people, the most allowed/],
+  [
+    'room over the size limit',
+    ['cover', '--graph', f['ok.json'], '--max-people', '2'],
+    /json nodes\[2\], id: the room has more than 2 people, the most allowed/,
+  ],
   ['non-numeric strength names line and column', ['cover', '--graph', f['strength.csv']], /ties line 3, strength: "heavy" is not a number/],
   ['zero strength', ['cover', '--graph', f['zero.csv']], /ties line 2, strength: 0 is not positive/],
   ['enormous strength', ['cover', '--graph', f['huge.csv']], /ties line 2, strength: 1e\+300 is too large/],

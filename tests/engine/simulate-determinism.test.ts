@@ -119,7 +119,10 @@ describe('the same seed gives the same rehearsal', () => {
     assert.deepEqual(a, b);
     // keeping sample cascades does not change the numbers
     assert.deepEqual(simulate(graph, starters, 1500, 9, { samples: 0 }).mean, a.mean);
-    assert.deepEqual(simulate(graph, starters, 1500, 9, { samples: 0, laziness: 0.1 }).mean, simulate(graph, starters, 1500, 9, { samples: 5, laziness: 0.1 }).mean);
+    assert.deepEqual(
+      simulate(graph, starters, 1500, 9, { samples: 0, laziness: 0.1 }).mean,
+      simulate(graph, starters, 1500, 9, { samples: 5, laziness: 0.1 }).mean,
+    );
     assert.notDeepEqual(simulate(graph, starters, 1500, 10).mean, a.mean);
   });
 
