@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, inject, input, signal, type OnInit } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, input, type OnInit } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -6,11 +6,10 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router, RouterLink } from '@angular/router';
 import { NAME_MAX, type LinkInfo } from '../../../shared/api/accounts';
-import { toApiError } from '../core/api-error';
 import { AccountApi } from './account-api';
 import { newPasswordGroup } from './new-password';
 import { NewPasswordFields } from './new-password-fields';
-import { forgetTokenInAddressBar } from './link-token';
+import { EmailedLink } from './link-token';
 
 /** /account/accept?token=…: the invited person chooses a name and password. */
 @Component({
@@ -19,12 +18,12 @@ import { forgetTokenInAddressBar } from './link-token';
   template: `
     <section class="rh-account-card">
       <h1>Set up your account</h1>
-      @if (checking()) {
+      @if (link.checking()) {
         <mat-progress-bar mode="indeterminate" aria-label="Checking the link" />
-      } @else if (dead()) {
-        <p class="rh-form-error" role="alert">{{ dead() }}</p>
+      } @else if (link.dead()) {
+        <p class="rh-form-error" role="alert">{{ link.dead() }}</p>
         <a mat-button routerLink="/sign-in">Go to sign-in</a>
-      } @else if (info(); as info) {
+      } @else if (link.info(); as info) {
         <p class="rh-muted">
           You were invited as <strong>{{ info.email }}</strong>. Choose how your name appears and a password.
         </p>
@@ -39,10 +38,10 @@ import { forgetTokenInAddressBar } from './link-token';
             }
           </mat-form-field>
           <app-new-password-fields [group]="form.controls.secret" label="Password" />
-          @if (error()) {
-            <p class="rh-form-error" role="alert">{{ error() }}</p>
+          @if (link.error()) {
+            <p class="rh-form-error" role="alert">{{ link.error() }}</p>
           }
-          <button mat-flat-button type="submit" [disabled]="pending()">Activate my account</button>
+          <button mat-flat-button type="submit" [disabled]="link.pending()">Activate my account</button>
         </form>
       }
     </section>
@@ -61,29 +60,15 @@ export default class AcceptInvitation implements OnInit {
     name: ['', [Validators.required, Validators.maxLength(NAME_MAX)]],
     secret: newPasswordGroup(this.fb),
   });
-  protected readonly checking = signal(true);
-  protected readonly info = signal<LinkInfo | null>(null);
-  protected readonly dead = signal<string | null>(null);
-  protected readonly error = signal<string | null>(null);
-  protected readonly pending = signal(false);
-  private linkToken = '';
+  protected readonly link = new EmailedLink<LinkInfo>();
 
   ngOnInit(): void {
-    void this.checkLink();
+    void this.open();
   }
 
-  private async checkLink(): Promise<void> {
-    this.linkToken = this.token();
-    forgetTokenInAddressBar();
-    try {
-      const info = await this.api.checkInvitation(this.linkToken);
-      this.info.set(info);
-      this.form.controls.name.setValue(info.name);
-    } catch (err) {
-      this.dead.set(toApiError(err).message);
-    } finally {
-      this.checking.set(false);
-    }
+  private async open(): Promise<void> {
+    const info = await this.link.open(this.token(), (t) => this.api.checkInvitation(t));
+    if (info) this.form.controls.name.setValue(info.name);
   }
 
   protected async accept(): Promise<void> {
@@ -91,18 +76,8 @@ export default class AcceptInvitation implements OnInit {
       this.form.markAllAsTouched();
       return;
     }
-    this.pending.set(true);
-    this.error.set(null);
-    try {
-      const { name, secret } = this.form.getRawValue();
-      const { email } = await this.api.acceptInvitation(this.linkToken, name.trim(), secret.password);
-      await this.router.navigate(['/sign-in'], { queryParams: { email, welcome: 1 } });
-    } catch (err) {
-      const e = toApiError(err);
-      if (e.code === 'link_invalid') this.dead.set(e.message);
-      else this.error.set(e.message);
-    } finally {
-      this.pending.set(false);
-    }
+    const { name, secret } = this.form.getRawValue();
+    const done = await this.link.submit((t) => this.api.acceptInvitation(t, name.trim(), secret.password));
+    if (done) await this.router.navigate(['/sign-in'], { queryParams: { email: done.email, welcome: 1 } });
   }
 }
