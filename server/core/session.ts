@@ -12,19 +12,13 @@ export function sessionMiddleware(secure: boolean) {
   const store = new MySQLStore(
     {
       createDatabaseTable: false,
-      clearExpired: true,
-      checkExpirationInterval: 15 * 60 * 1000,
+      // The store's own clean-up timer keeps finished processes alive; ours below does not.
+      clearExpired: false,
       schema: { tableName: 'sessions', columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' } },
     },
     pool as never,
   );
-  // The periodic clean-up must not keep a finished process (tests, shutdown) alive.
-  (store as unknown as { _expirationInterval?: NodeJS.Timeout })._expirationInterval?.unref();
-  // The store starts that interval only once it is ready (asynchronously): unref it then too.
-  void (store as unknown as { onReady(): Promise<void> }).onReady().then(
-    () => (store as unknown as { _expirationInterval?: NodeJS.Timeout })._expirationInterval?.unref(),
-    () => undefined,
-  );
+  setInterval(() => store.clearExpiredSessions().catch(() => undefined), 15 * 60 * 1000).unref();
   return session({
     name: SESSION_COOKIE,
     secret: config.SESSION_SECRET,
