@@ -1,6 +1,6 @@
 /** Rooms used by the engine tests: classic graphs, open data sets shipped in npm packages, seeded random rooms. */
 import { createRequire } from 'node:module';
-import Graph from 'graphology';
+import Graph, { UndirectedGraph } from 'graphology';
 import type { RoomGraph, RoomTie } from '../../shared/engine/index';
 
 const require = createRequire(import.meta.url);
@@ -51,7 +51,7 @@ export function hypercube(d: number): RoomGraph {
 /** Zachary's karate club (Zachary 1977), as shipped by graphology-generators. 34 people, 78 ties. */
 export function karateClub(): RoomGraph {
   const karate = require('graphology-generators/social/karate-club.js') as (c: unknown) => Graph;
-  const g = karate(Graph.UndirectedGraph);
+  const g = karate(UndirectedGraph);
   const nodes = g.nodes();
   const idx = new Map(nodes.map((x, i) => [x, i]));
   return {
