@@ -1,12 +1,13 @@
 #!/usr/bin/env bash
 # One-time and every-time set-up shared by `npm start` and `npm test`:
-# Debian packages, node_modules, the private MariaDB, migrations.
+# Debian packages, node_modules, the private MariaDB and Redis, migrations.
 # Usage: scripts/setup.sh [--with-browser]
 set -euo pipefail
 cd "$(dirname "$0")/.."
 
 need_pkgs=()
 command -v mariadbd >/dev/null 2>&1 || need_pkgs+=(mariadb-server)
+command -v redis-server >/dev/null 2>&1 || need_pkgs+=(redis-server)
 if [ "${1:-}" = "--with-browser" ]; then
   [ -x /usr/bin/chromium ] || need_pkgs+=(chromium)
 fi
@@ -20,7 +21,9 @@ if [ ${#need_pkgs[@]} -gt 0 ]; then
   apt-get update -qq
   apt-get install -y -qq --no-install-recommends "${need_pkgs[@]}" >/dev/null
   # The Debian package starts a system server on 3306; ours runs privately, so stop that one.
+  # The same for Redis on 6379.
   (service mariadb stop >/dev/null 2>&1 || true)
+  (service redis-server stop >/dev/null 2>&1 || true)
 fi
 
 # npm ci when node_modules is missing or was installed from another lock file.
@@ -31,5 +34,6 @@ if [ ! -f node_modules/.ripplehall-lock ] || [ "$(cat node_modules/.ripplehall-l
   echo "$lock_hash" > node_modules/.ripplehall-lock
 fi
 
+bash scripts/redis.sh start
 bash scripts/db.sh ensure "${DB_NAME:-ripplehall}"
 npx tsx db/migrate.ts

@@ -47,6 +47,27 @@ const schema = z.object({
   MAX_JOBS_PER_USER: z.coerce.number().int().positive().default(2),
   WORKERS: z.coerce.number().int().min(1).max(16).default(2),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  /** The job queue's Redis (BullMQ); the default is the private one of scripts/redis.sh on REDIS_PORT. */
+  REDIS_URL: z
+    .string()
+    .regex(/^rediss?:\/\//, 'use redis://host:port (or rediss:// for TLS)')
+    .optional(),
+  REDIS_PORT: z.coerce.number().int().min(1).max(65535).default(6389),
+  /** true: this process serves HTTP only and runs no jobs (start worker processes with npm run worker). */
+  WEB_ONLY: z
+    .enum(['true', 'false'])
+    .default('false')
+    .transform((v) => v === 'true'),
+  /** A worker that stops renewing its lock for this long is taken for dead; its job is retried elsewhere. */
+  JOB_LOCK_SECONDS: z.coerce.number().int().min(2).max(600).default(30),
+  /** Tries per job and per rehearsal chunk before it is marked failed (database or queue faults). */
+  JOB_ATTEMPTS: z.coerce.number().int().min(1).max(50).default(8),
+  /** Jobs one user may have queued or running at once (plans and rehearsals together). */
+  MAX_OPEN_JOBS_PER_USER: z.coerce.number().int().positive().default(10),
+  /** Cascades one user may have queued or running at once, over all their rehearsals. */
+  MAX_OPEN_CASCADES_PER_USER: z.coerce.number().int().positive().default(500000),
+  /** Plans one user may keep stored (delete old ones to make room). */
+  MAX_PLANS_PER_USER: z.coerce.number().int().positive().default(500),
 });
 
 export type Config = z.infer<typeof schema>;
@@ -65,6 +86,10 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
 }
 
 export const config: Config = loadConfig();
+
+export function redisUrl(): string {
+  return config.REDIS_URL ?? `redis://127.0.0.1:${config.REDIS_PORT}`;
+}
 
 export function publicUrl(): string {
   return config.PUBLIC_URL ?? `http://${config.HOST === '0.0.0.0' ? '127.0.0.1' : config.HOST}:${config.PORT}`;

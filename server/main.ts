@@ -1,13 +1,17 @@
+/**
+ * A web process: serves HTTP and, unless WEB_ONLY=true, also runs jobs (the same workers as
+ * `npm run worker`, so one machine needs one process and several machines use the same code).
+ */
 import { createServer } from 'node:http';
 import { config, publicUrl } from './config';
 import { createApp } from './app';
 import { logger } from './core/logging';
+import { installProcessGuards } from './core/process-guards';
 import { pool } from './db';
 import { startMail, stopMail } from './mail/transport';
 import { startJobs, stopJobs } from './jobs/index';
 
-await startMail();
-await startJobs();
+installProcessGuards();
 const server = createServer(createApp());
 
 server.on('error', (err: NodeJS.ErrnoException) => {
@@ -19,19 +23,23 @@ server.on('error', (err: NodeJS.ErrnoException) => {
   process.exit(1);
 });
 
+await startMail();
+// Jobs start only once the port is ours: a second server started on a taken port exits before
+// it has touched any job, and a live server's jobs are never recovered by someone else.
 server.listen(config.PORT, config.HOST, () => {
-  logger.info(`Ripplehall is serving ${publicUrl()}`);
+  logger.info(`Ripplehall is serving ${publicUrl()}${config.WEB_ONLY ? ' (web only: jobs run in worker processes)' : ''}`);
+  startJobs(!config.WEB_ONLY).catch((err: unknown) => logger.error({ err }, 'the job system did not start'));
 });
 
 let stopping = false;
 async function stop(signal: string) {
   if (stopping) return;
   stopping = true;
-  logger.info(`${signal}: finishing open requests, then stopping.`);
+  logger.info(`${signal}: finishing open requests, handing running jobs back to the queue, then stopping.`);
   server.close();
   server.closeIdleConnections();
-  setTimeout(() => process.exit(0), 5000).unref();
-  await stopJobs();
+  setTimeout(() => process.exit(0), 10_000).unref();
+  await stopJobs().catch((err: unknown) => logger.warn({ err }, 'stopping the jobs failed'));
   await stopMail();
   await pool.end();
   process.exit(0);

@@ -1,31 +1,37 @@
-/** Wires the job kinds to their handlers and exposes start-up recovery and shutdown. */
+/** Wires the job kinds to their handlers; starts and stops this process's part of the job system. */
 import { logger } from '../core/logging';
 import { planJobHandler } from '../plans/service';
-import { rehearsalJobHandler } from '../rehearsals/service';
+import { rehearsalJobHandler } from '../rehearsals/job';
+import { closeEvents, startEvents } from './events';
+import { registerHandler } from './handlers';
 import { closePools, warmPools } from './pools';
+import { closeProgress } from './progress';
+import { closeQueues } from './queues';
 import { jobRunner } from './runner';
-import { recoverOpenJobs } from './store';
+import { startWorkers, stopWorkers } from './workers';
 
-jobRunner.register('plan', planJobHandler);
-jobRunner.register('rehearsal', rehearsalJobHandler);
+registerHandler('plan', planJobHandler);
+registerHandler('rehearsal', rehearsalJobHandler);
 
 export { jobRunner };
 
-/** On server start: recovery, then the worker pools are started so the first request does not wait for them. */
-export async function startJobs(): Promise<void> {
-  await recoverJobs();
-  void warmPools().catch((err: unknown) => logger.warn({ err }, 'warming the worker pools failed'));
+/**
+ * Every process hears job events (for its SSE streams); with runWorkers it also runs jobs, and
+ * its thread pools are started so the first job does not wait for them.
+ */
+export async function startJobs(runWorkers: boolean): Promise<void> {
+  startEvents();
+  if (!runWorkers) return;
+  await startWorkers();
+  void warmPools().catch((err: unknown) => {
+    // A stop during the warm-up ends its tasks; that is no failure.
+    if (!/Terminating worker thread/.test((err as Error)?.message ?? '')) logger.warn({ err }, 'warming the worker pools failed');
+  });
 }
 
-/** Jobs left queued or running by a previous process become interrupted. */
-export async function recoverJobs(): Promise<number> {
-  const n = await recoverOpenJobs();
-  if (n > 0) logger.warn(`${n} background job${n === 1 ? ' was' : 's were'} left open by the last run and marked interrupted.`);
-  return n;
-}
-
-/** On shutdown: open jobs of this process become interrupted, then the worker pools stop. */
+/** Hands running work back to the queue, then closes the thread pools and every Redis connection. */
 export async function stopJobs(): Promise<void> {
-  await jobRunner.interruptAll('The server was stopped while this job was open; nothing partial was kept. Run it again.');
+  await stopWorkers();
   await closePools();
+  await Promise.all([closeQueues(), closeEvents(), closeProgress()]);
 }

@@ -1,26 +1,41 @@
 /**
- * The two worker pools (created on first use): planners and k-sweeps in a piscina pool of
- * plan-worker.ts, rehearsals in the engine's SimulationPool. Both have config.WORKERS threads.
- * The engine is synchronous, so nothing heavy ever runs on the request thread.
+ * The two thread pools of a process that runs jobs (created on first use): planners and k-sweeps
+ * in a piscina pool of plan-worker.ts, rehearsal runs in a piscina pool of the engine's chunk
+ * worker. Both have config.WORKERS threads. The engine is synchronous, so nothing heavy ever runs
+ * on the request thread.
  */
 import { setMaxListeners } from 'node:events';
 import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
-import { SimulationPool } from '../../shared/engine/simulate/pool';
+import type { SimPartial } from '../../shared/engine/simulate/partial';
+import type { SimTask } from '../../shared/engine/simulate/pool';
+import { prepareRoom } from '../../shared/engine/room';
 import { config } from '../config';
 import type { PlanPoolResult, PlanPoolTask } from './plan-worker';
 
 let planPool: Piscina | undefined;
-let simPool: SimulationPool | undefined;
+let simPool: Piscina | undefined;
 
 function workerFile(): string {
   const here = import.meta.url;
   return new URL(here.endsWith('.ts') ? './plan-worker.ts' : './plan-worker.js', here).href;
 }
 
-export function simulationPool(): SimulationPool {
-  simPool ??= new SimulationPool(config.WORKERS);
+function simWorkerFile(): string {
+  const here = import.meta.url;
+  const file = here.endsWith('.ts') ? 'worker.ts' : 'worker.js';
+  return new URL(`../../shared/engine/simulate/${file}`, here).href;
+}
+
+function sims(): Piscina {
+  simPool ??= new Piscina({ filename: simWorkerFile(), minThreads: config.WORKERS, maxThreads: config.WORKERS, idleTimeout: 30_000 });
   return simPool;
+}
+
+/** Runs one range of runs in a thread of the rehearsal pool; an abort ends the task. */
+export async function runSimTask(task: SimTask, signal?: AbortSignal): Promise<SimPartial> {
+  if (signal) setMaxListeners(64, signal);
+  return (await sims().run(task, signal ? { signal } : {})) as SimPartial;
 }
 
 function plans(): Piscina {
@@ -81,9 +96,10 @@ export async function warmPools(): Promise<void> {
     settings: { directed: false, minutesPerHop: 1, laziness: 0, mixing: 0 },
     version: 0,
   };
+  const room = prepareRoom(graph, {});
   await Promise.all([
     runInPlanPool({ kind: 'planner', snapshot, k: 1, method: 'greedy', mustInclude: [], exclude: [] }, { hardLimitMs: 60_000 }),
-    simulationPool().simulate(graph, [1], 4, 'warm-up', { samples: 0 }),
+    runSimTask({ room, starters: [1], options: { samples: 0 }, seed: 'warm-up', runFrom: 0, runTo: 4 }),
   ]);
 }
 
@@ -92,5 +108,5 @@ export async function closePools(): Promise<void> {
   const s = simPool;
   planPool = undefined;
   simPool = undefined;
-  await Promise.all([p?.destroy(), s?.close()]);
+  await Promise.all([p?.destroy(), s?.destroy()]);
 }

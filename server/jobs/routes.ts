@@ -19,7 +19,7 @@ jobsRouter.get('/limits', signedIn(), (_req, res) => {
 
 jobsRouter.get('/:jobId', signedIn(), async (req, res) => {
   const job = await loadJobFor(req.user, req.params['jobId'], 'view');
-  res.json(jobDto(job, jobRunner.positionOf(job.id)));
+  res.json(jobDto(job, await jobRunner.positionOf(job)));
 });
 
 jobsRouter.get('/:jobId/events', signedIn(), async (req, res) => {
@@ -31,5 +31,5 @@ jobsRouter.post('/:jobId/cancel', signedIn(), async (req, res) => {
   const job = await loadJobFor(req.user, req.params['jobId'], 'edit');
   await jobRunner.cancel(job);
   const fresh = (await findJob(job.id))!;
-  res.json(jobDto(fresh, jobRunner.positionOf(fresh.id)));
+  res.json(jobDto(fresh, await jobRunner.positionOf(fresh)));
 });

@@ -1,19 +1,20 @@
 /**
  * Server-sent events for one job: the current state first (so a late subscriber sees `done` at
- * once), then every change; a `: heartbeat` comment every 15 s; the stream ends after a final event
+ * once), then every change, whichever process's worker made it (Redis pub/sub, events.ts); a `: heartbeat` comment every 15 s; the stream ends after a final event
  * or when the client goes away.
  */
 import type { Request, Response } from 'express';
 import type { JobEvent, JobEventType } from '../../shared/api/plans';
 import { jobDto } from './dto';
-import { jobRunner } from './runner';
+import { onJobEvent } from './events';
+import { queuePosition } from './positions';
 import { findJob, type JobRow } from './store';
 
 export const HEARTBEAT_MS = 15_000;
 const FINAL: readonly JobEventType[] = ['done', 'failed', 'cancelled', 'interrupted'];
 
-function currentEvent(row: JobRow): JobEvent {
-  const position = jobRunner.positionOf(row.id);
+async function currentEvent(row: JobRow): Promise<JobEvent> {
+  const position = await queuePosition(row);
   const job = jobDto(row, position);
   switch (row.status) {
     case 'queued':
@@ -34,25 +35,30 @@ export async function streamJob(req: Request, res: Response, jobId: number): Pro
   });
   res.flushHeaders();
   let closed = false;
+  // Workers report chunks out of order: progress only ever moves forward on one stream.
+  let shown = -1;
   const send = (event: JobEvent) => {
     if (closed) return;
+    if (event.type === 'progress') {
+      if ((event.fraction ?? 0) < shown) return;
+      shown = event.fraction ?? 0;
+    }
     res.write(`event: ${event.type}\ndata: ${JSON.stringify(event)}\n\n`);
     if (FINAL.includes(event.type)) finish();
   };
-  const channel = `job:${jobId}`;
   const heartbeat = setInterval(() => !closed && res.write(': heartbeat\n\n'), HEARTBEAT_MS);
   function finish() {
     if (closed) return;
     closed = true;
     clearInterval(heartbeat);
-    jobRunner.events.off(channel, send);
+    unsubscribe();
     res.end();
   }
   // Subscribe before reading the row, so no change between the read and the subscription is lost.
-  jobRunner.events.on(channel, send);
+  const unsubscribe = onJobEvent(jobId, send);
   req.on('close', finish);
   res.write('retry: 3000\n\n');
   const row = await findJob(jobId);
   if (!row) return finish();
-  send(currentEvent(row));
+  send(await currentEvent(row));
 }

@@ -1,6 +1,7 @@
 /** Data access for job rows (the truth about every background job). */
-import { and, asc, eq, inArray } from 'drizzle-orm';
-import { jobs, plans } from '../../db/schema/plans';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { users } from '../../db/schema/accounts';
+import { jobs, plans, rehearsals } from '../../db/schema/plans';
 import { db, type Tx } from '../db';
 
 export type JobRow = typeof jobs.$inferSelect;
@@ -32,15 +33,6 @@ export async function updateJob(id: number, patch: Partial<NewJob>, tx: Tx | typ
   await tx.update(jobs).set(patch).where(eq(jobs.id, id));
 }
 
-/** queued -> running; false when the job was cancelled meanwhile. */
-export async function markRunning(id: number): Promise<boolean> {
-  const [res] = await db
-    .update(jobs)
-    .set({ status: 'running', startedAt: new Date() })
-    .where(and(eq(jobs.id, id), eq(jobs.status, 'queued')));
-  return res.affectedRows === 1;
-}
-
 /** Ends a job that is still open (queued or running); false when it had already ended. */
 export async function endJob(
   id: number,
@@ -69,18 +61,90 @@ export async function queuedJobsOf(userId: number): Promise<JobRow[]> {
     .orderBy(asc(jobs.id));
 }
 
-export const INTERRUPTED_MESSAGE = 'The server stopped while this job was open; nothing partial was kept. Run it again.';
+/** Progress only grows (two workers may report chunks out of order). */
+export async function raiseProgress(id: number, fraction: number): Promise<void> {
+  await db
+    .update(jobs)
+    .set({ progress: sql`GREATEST(${jobs.progress}, ${fraction})` })
+    .where(and(eq(jobs.id, id), eq(jobs.status, 'running')));
+}
+
+export type Admission = 'admitted' | 'resumed' | 'wait' | 'ended';
 
 /**
- * Start-up recovery: every job still queued or running belonged to a process that is gone. They
- * become interrupted (results are only ever written together with 'done', so none are half there),
- * and plans still computing become interrupted too. Returns the number of jobs marked.
+ * queued -> running when the user has a free slot (config.MAX_JOBS_PER_USER), first come first
+ * served per user. The user's row is locked as a mutex, so two workers never admit past the limit.
+ * 'resumed': the job was already running (its worker died and the queue handed it to another one).
  */
-export async function recoverOpenJobs(): Promise<number> {
-  const [res] = await db
-    .update(jobs)
-    .set({ status: 'interrupted', message: INTERRUPTED_MESSAGE, finishedAt: new Date() })
-    .where(inArray(jobs.status, ['queued', 'running']));
-  await db.update(plans).set({ status: 'interrupted', error: INTERRUPTED_MESSAGE }).where(eq(plans.status, 'computing'));
-  return res.affectedRows;
+export async function admitJob(id: number, maxRunning: number): Promise<Admission> {
+  return db.transaction(async (tx) => {
+    const [job] = await tx.select({ status: jobs.status, userId: jobs.userId }).from(jobs).where(eq(jobs.id, id));
+    if (!job) return 'ended';
+    if (job.status === 'running') return 'resumed';
+    if (job.status !== 'queued') return 'ended';
+    await tx.select({ id: users.id }).from(users).where(eq(users.id, job.userId)).for('update');
+    const [row] = await tx
+      .select({
+        running: sql<number>`SUM(${jobs.status} = 'running')`,
+        before: sql<number>`SUM(${jobs.status} = 'queued' AND ${jobs.id} < ${id})`,
+      })
+      .from(jobs)
+      .where(and(eq(jobs.userId, job.userId), inArray(jobs.status, ['queued', 'running'])));
+    if (Number(row?.running ?? 0) + Number(row?.before ?? 0) >= maxRunning) return 'wait';
+    const [res] = await tx
+      .update(jobs)
+      .set({ status: 'running', startedAt: new Date() })
+      .where(and(eq(jobs.id, id), eq(jobs.status, 'queued')));
+    return res.affectedRows === 1 ? 'admitted' : 'ended';
+  });
+}
+
+/** Counts for the queue position of a queued job: the user's running jobs and queued ones up to it. */
+export async function queueCounts(userId: number, jobId: number): Promise<{ running: number; upTo: number }> {
+  const [row] = await db
+    .select({
+      running: sql<number>`SUM(${jobs.status} = 'running')`,
+      upTo: sql<number>`SUM(${jobs.status} = 'queued' AND ${jobs.id} <= ${jobId})`,
+    })
+    .from(jobs)
+    .where(and(eq(jobs.userId, userId), inArray(jobs.status, ['queued', 'running'])));
+  return { running: Number(row?.running ?? 0), upTo: Number(row?.upTo ?? 0) };
+}
+
+/** The user's open jobs (queued or running), oldest first. */
+export async function openJobsOf(userId: number): Promise<JobRow[]> {
+  return db
+    .select()
+    .from(jobs)
+    .where(and(eq(jobs.userId, userId), inArray(jobs.status, ['queued', 'running'])))
+    .orderBy(asc(jobs.id));
+}
+
+/** Every open job, oldest first (the queue reconciler checks each has its queue entry). */
+export async function openJobs(limit = 1000): Promise<JobRow[]> {
+  return db
+    .select()
+    .from(jobs)
+    .where(inArray(jobs.status, ['queued', 'running']))
+    .orderBy(asc(jobs.id))
+    .limit(limit);
+}
+
+/** What a user has open now: jobs queued or running, and the cascades of those that are rehearsals. */
+export async function openLoadOf(userId: number, tx: Tx | typeof db = db): Promise<{ jobs: number; cascades: number }> {
+  const [row] = await tx
+    .select({ jobs: sql<number>`COUNT(*)`, cascades: sql<number>`COALESCE(SUM(${rehearsals.runs}), 0)` })
+    .from(jobs)
+    .leftJoin(rehearsals, eq(rehearsals.id, jobs.rehearsalId))
+    .where(and(eq(jobs.userId, userId), inArray(jobs.status, ['queued', 'running'])));
+  return { jobs: Number(row?.jobs ?? 0), cascades: Number(row?.cascades ?? 0) };
+}
+
+/** Plans a user keeps stored. */
+export async function plansStoredBy(userId: number): Promise<number> {
+  const [row] = await db
+    .select({ n: sql<number>`COUNT(*)` })
+    .from(plans)
+    .where(eq(plans.createdBy, userId));
+  return Number(row?.n ?? 0);
 }

@@ -11,6 +11,7 @@ import { db } from '../db';
 import { roomAccess, idOf } from '../jobs/access';
 import { jobDto } from '../jobs/dto';
 import { runInPlanPool } from '../jobs/pools';
+import { checkJobQuota, checkPlanQuota } from '../jobs/quotas';
 import { JobFailure, jobRunner, type JobHandler } from '../jobs/runner';
 import { findJob, insertJob } from '../jobs/store';
 import { loadRoomGraph, type RoomNeed } from '../rooms/access';
@@ -117,6 +118,7 @@ export async function createPlan(
     starters = indicesOfPeople(snapshot, body.starters!, 'Starters');
     checkHandMade(room, snapshot, starters);
   } else checkPlannerRequest(room, snapshot, body, must, exclude);
+  await checkPlanQuota(user.id);
   const k = handMade ? starters.length : body.k!;
   const method = handMade ? 'hand-made' : (body.method ?? 'auto');
   const base: NewPlan = {
@@ -139,6 +141,7 @@ export async function createPlan(
     warnings: [],
   };
   if (runsInBackground(body, room.n)) {
+    await checkJobQuota(user.id);
     const { planId, jobId } = await db.transaction(async (tx) => {
       const planId = await store.insertPlan(base, tx);
       const jobId = await insertJob({ userId: user.id, roomId, kind: 'plan', planId }, tx);
@@ -146,9 +149,9 @@ export async function createPlan(
       return { planId, jobId };
     });
     const job = (await findJob(jobId))!;
-    jobRunner.enqueue(job);
+    await jobRunner.enqueue(job);
     const plan = (await store.findPlan(planId))!;
-    return { status: 202, body: { plan: planSummary(plan, snapshot.version), job: jobDto(job, jobRunner.positionOf(jobId)) } };
+    return { status: 202, body: { plan: planSummary(plan, snapshot.version), job: jobDto(job, await jobRunner.positionOf(job)) } };
   }
   const task = handMade
     ? { kind: 'hand-made' as const, snapshot, starters }
@@ -208,15 +211,16 @@ export async function rerunPlan(user: SignedInUser, plan: LoadedPlan): Promise<P
       plan.status === 'computing' ? 'This plan is still being computed.' : 'Only a computed plan that did not finish can be run again.',
     );
   }
+  await checkJobQuota(user.id);
   const jobId = await db.transaction(async (tx) => {
     const jobId = await insertJob({ userId: user.id, roomId: plan.roomId, kind: 'plan', planId: plan.id }, tx);
     await store.updatePlan(plan.id, { status: 'computing', jobId, error: null }, tx);
     return jobId;
   });
   const job = (await findJob(jobId))!;
-  jobRunner.enqueue(job);
+  await jobRunner.enqueue(job);
   const version = (await store.roomVersion(plan.roomId)) ?? plan.roomVersion;
-  return { plan: planSummary((await store.findPlan(plan.id))!, version), job: jobDto(job, jobRunner.positionOf(jobId)) };
+  return { plan: planSummary((await store.findPlan(plan.id))!, version), job: jobDto(job, await jobRunner.positionOf(job)) };
 }
 
 export async function getPlan(plan: LoadedPlan): Promise<PlanDetail> {

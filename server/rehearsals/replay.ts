@@ -7,7 +7,8 @@ import { db } from '../db';
 import { parseSnapshot } from '../plans/dto';
 import { findPlan } from '../plans/store';
 import { planError } from '../plans/validate';
-import type { LoadedRehearsal, StoredSample } from './service';
+import type { StoredSample } from './results';
+import type { LoadedRehearsal } from './service';
 
 function samplesOf(row: LoadedRehearsal): StoredSample[] {
   if (row.job.status !== 'done' || !row.rehearsal.samples)

@@ -58,7 +58,7 @@ roomRehearsalsRouter.get('/:roomId/rehearsals', signedIn(), async (req, res) => 
   const q = parse(listSchema, req.query, 'filters');
   const roomId = roomIdOf(req.params['roomId']);
   await roomAccess(req.user, roomId, 'view', 'That room');
-  res.json((await listRehearsals(roomId, q)).map(service.summaryOf));
+  res.json(await service.summaries(await listRehearsals(roomId, q)));
 });
 
 /** Mounted at /api/rehearsals. */

@@ -1,7 +1,7 @@
 /**
- * Rehearsals: start R seeded cascades for a plan (idempotent, capped, queued per user), the job
- * that runs them in the engine's worker pool, results written once when complete, the verdict,
- * history, re-run from the seed, cancel.
+ * Rehearsals: start R seeded cascades for a plan (idempotent, capped, within the user's quotas,
+ * queued per user), results shown once complete, the verdict, history, re-run from the seed,
+ * cancel. The job itself (chunks shared by the workers) is in job.ts.
  */
 import { randomBytes } from 'node:crypto';
 import {
@@ -12,42 +12,26 @@ import {
   type RehearsalSummary,
   type StartRehearsalRequest,
 } from '../../shared/api/plans';
-import { Z99, type SimulationSummary } from '../../shared/engine/index';
+import { Z99 } from '../../shared/engine/index';
 import { config } from '../config';
 import { conflict, notFound } from '../core/http-error';
 import { db } from '../db';
 import { idOf, roomAccess } from '../jobs/access';
 import { jobDto } from '../jobs/dto';
-import { simulationPool } from '../jobs/pools';
-import { JobFailure, jobRunner, type JobHandler } from '../jobs/runner';
+import { queuePositions } from '../jobs/positions';
+import { checkJobQuota } from '../jobs/quotas';
+import { jobRunner } from '../jobs/runner';
 import { clearJobKey, findJob, findJobByKey, insertJob, updateJob } from '../jobs/store';
-import { parseResults, parseSnapshot } from '../plans/dto';
+import { parseSnapshot } from '../plans/dto';
 import type { LoadedPlan } from '../plans/service';
 import { findPlan } from '../plans/store';
 import { planError } from '../plans/validate';
 import type { RoomNeed } from '../rooms/access';
 import type { SignedInUser } from '../types';
+import type { StoredRehearsalResults } from './results';
 import * as store from './store';
-import { verdictOf } from './verdict';
 
 export const SEED_PATTERN = new RegExp(REHEARSAL_LIMITS.seedPattern);
-export const SAMPLE_PATH_CAP = 500;
-
-/** What is stored per rehearsal (engine order), written in one go when the job is done. */
-export interface StoredRehearsalResults {
-  mean: number[];
-  sd: number[];
-  stderr: number[];
-  low95: number[];
-  high95: number[];
-  capped: number[];
-  walked: number[];
-  analytic: (number | null)[];
-  inside99: number[];
-  reachSimulated: number[];
-  reachAnalytic: number[];
-}
-
 export type LoadedRehearsal = NonNullable<Awaited<ReturnType<typeof store.findRehearsal>>>;
 
 export async function loadRehearsalFor(user: SignedInUser | undefined, raw: unknown, need: RoomNeed): Promise<LoadedRehearsal> {
@@ -125,10 +109,12 @@ export async function startRehearsal(
         ) {
           throw conflict('That idempotency key was already used for a different rehearsal: send a new key.');
         }
-        return { rehearsal: summaryOf(row), job: jobDto(row.job, jobRunner.positionOf(row.job.id)), reused: true };
+        const position = await jobRunner.positionOf(row.job);
+        return { rehearsal: summaryOf(row, position), job: jobDto(row.job, position), reused: true };
       }
       await clearJobKey(existing.id);
     }
+    await checkJobQuota(user.id, body.runs);
     const rehearsalId = await db.transaction(async (tx) => {
       const jobId = await insertJob({ userId: user.id, roomId: plan.roomId, kind: 'rehearsal', planId: plan.id, idempotencyKey: key }, tx);
       const id = await store.insertRehearsal(
@@ -139,108 +125,15 @@ export async function startRehearsal(
       return id;
     });
     const row = (await store.findRehearsal(rehearsalId))!;
-    jobRunner.enqueue(row.job);
+    await jobRunner.enqueue(row.job);
     const fresh = (await store.findRehearsal(rehearsalId))!;
-    return { rehearsal: summaryOf(fresh), job: jobDto(fresh.job, jobRunner.positionOf(fresh.job.id)), reused: false };
+    const position = await jobRunner.positionOf(fresh.job);
+    return { rehearsal: summaryOf(fresh, position), job: jobDto(fresh.job, position), reused: false };
   });
 }
 
-function starterIndices(plan: LoadedPlan): number[] {
-  const snap = parseSnapshot(plan);
-  const index = new Map(snap.personIds.map((id, i) => [id, i]));
-  return (plan.starters ?? []).map((s) => index.get(s.personId)!);
-}
-
-function storedResults(
-  s: SimulationSummary,
-  analytic: (number | null)[],
-  analyticCurve: number[],
-  inside: Uint8Array,
-): StoredRehearsalResults {
-  return {
-    mean: Array.from(s.mean),
-    sd: Array.from(s.variance, (v) => Math.sqrt(v)),
-    stderr: Array.from(s.stderr),
-    low95: Array.from(s.low95),
-    high95: Array.from(s.high95),
-    capped: Array.from(s.cappedByPerson),
-    walked: Array.from(s.walked),
-    analytic,
-    inside99: Array.from(inside),
-    reachSimulated: s.reachCurve,
-    reachAnalytic: analyticCurve,
-  };
-}
-
-function storedSamples(s: SimulationSummary) {
-  return s.samples.map((c) => ({
-    run: c.run,
-    people: Array.from(c.people),
-    hops: Array.from(c.hops),
-    capped: Array.from(c.capped),
-    truncated: Array.from(c.truncated),
-    pathStart: Array.from(c.pathStart),
-    path: Array.from(c.path),
-  }));
-}
-export type StoredSample = ReturnType<typeof storedSamples>[number];
-
-/** The rehearsal job: cascades in the engine's pool; results and verdict written only when complete. */
-export const rehearsalJobHandler: JobHandler = {
-  async run(job, ctx) {
-    const r = await store.findRehearsalByJob(job.id);
-    if (!r) throw new JobFailure('The rehearsal was deleted.');
-    const plan = await findPlan(r.planId);
-    if (!plan) throw new JobFailure('The plan was deleted.');
-    const snap = parseSnapshot(plan);
-    const planResults = parseResults(plan)!;
-    const started = performance.now();
-    const summary = await simulationPool().simulate(
-      snap.graph,
-      starterIndices(plan),
-      r.runs,
-      r.seed,
-      { laziness: snap.settings.laziness, mixing: snap.settings.mixing, samples: REHEARSAL_LIMITS.samples, samplePathCap: SAMPLE_PATH_CAP },
-      { signal: ctx.signal, onProgress: (done, of) => ctx.progress(done / of, done, of) },
-    );
-    const elapsedMs = performance.now() - started;
-    const analyticAverage = plan.average!;
-    const verdict = verdictOf({
-      mean: summary.mean,
-      stderr: summary.stderr,
-      walked: summary.walked,
-      analytic: planResults.h,
-      average: summary.average,
-      averageStderr: summary.averageStderr,
-      analyticAverage,
-      runs: summary.runs,
-      capped: summary.capped,
-    });
-    const { inside, ...verdictDto } = verdict;
-    const results = JSON.stringify(storedResults(summary, planResults.h, planResults.curve.byHop, inside));
-    const samples = JSON.stringify(storedSamples(summary));
-    return async (tx) =>
-      store.updateRehearsal(
-        r.id,
-        {
-          average: summary.average,
-          averageStderr: summary.averageStderr,
-          analyticAverage,
-          capped: summary.capped,
-          hops: summary.hops,
-          hopCap: summary.hopCap,
-          elapsedMs,
-          verdict: verdictDto,
-          results,
-          samples,
-          finishedAt: new Date(),
-        },
-        tx,
-      );
-  },
-};
-
-export function summaryOf(row: LoadedRehearsal | store.RehearsalListRow): RehearsalSummary {
+/** A rehearsal for lists and answers; `position` is its job's queue position (queuePosition). */
+export function summaryOf(row: LoadedRehearsal | store.RehearsalListRow, position: number | null = null): RehearsalSummary {
   const r = row.rehearsal;
   const done = row.job.status === 'done';
   return {
@@ -253,7 +146,7 @@ export function summaryOf(row: LoadedRehearsal | store.RehearsalListRow): Rehear
     seed: r.seed,
     jobId: r.jobId,
     progress: row.job.progress,
-    queuePosition: jobRunner.positionOf(r.jobId),
+    queuePosition: row.job.status === 'queued' ? position : null,
     average: done ? r.average : null,
     averageStderr: done ? r.averageStderr : null,
     analyticAverage: r.analyticAverage,
@@ -271,7 +164,7 @@ export function summaryOf(row: LoadedRehearsal | store.RehearsalListRow): Rehear
 export async function rehearsalDetail(row: LoadedRehearsal): Promise<RehearsalDetail> {
   const plan = await findPlan(row.rehearsal.planId);
   const snap = parseSnapshot(plan!);
-  const base = summaryOf(row);
+  const base = summaryOf(row, await jobRunner.positionOf(row.job));
   const mph = snap.settings.minutesPerHop;
   const results = row.job.status === 'done' && row.rehearsal.results ? (JSON.parse(row.rehearsal.results) as StoredRehearsalResults) : null;
   if (!results) return { ...base, people: [], reach: null, hopCap: null, hops: null, samples: 0, minutesPerHop: mph };
@@ -311,11 +204,18 @@ export async function rehearsalDetail(row: LoadedRehearsal): Promise<RehearsalDe
 export async function cancelRehearsal(row: LoadedRehearsal): Promise<RehearsalSummary> {
   const job = await findJob(row.rehearsal.jobId);
   if (job) await jobRunner.cancel(job);
-  return summaryOf((await store.findRehearsal(row.rehearsal.id))!);
+  const fresh = (await store.findRehearsal(row.rehearsal.id))!;
+  return summaryOf(fresh, await jobRunner.positionOf(fresh.job));
 }
 
 export async function deleteRehearsal(row: LoadedRehearsal): Promise<void> {
   const job = await findJob(row.rehearsal.jobId);
   if (job && (job.status === 'queued' || job.status === 'running')) await jobRunner.cancel(job);
   await store.deleteRehearsal(row.rehearsal.id);
+}
+
+/** The room's history, with queue positions of the waiting ones. */
+export async function summaries(rows: store.RehearsalListRow[]): Promise<RehearsalSummary[]> {
+  const positions = await queuePositions(rows.map((r) => r.job));
+  return rows.map((r) => summaryOf(r, positions.get(r.job.id) ?? null));
 }

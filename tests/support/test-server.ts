@@ -5,12 +5,14 @@ import { users, type AccountRole } from '../../db/schema/accounts';
 import { createApp } from '../../server/app';
 import { hashPassword } from '../../server/auth/passwords';
 import { db, pool } from '../../server/db';
+import { startJobs, stopJobs } from '../../server/jobs/index';
 import { startMail, stopMail } from '../../server/mail/transport';
 import { TestClient } from './http-client';
 
 /**
  * Starts the real app (real MariaDB, real mail fake over SMTP) on a loopback port.
- * The database is the one named by DB_NAME, reset and migrated by scripts/test.sh.
+ * The database is the one named by DB_NAME, reset and migrated by scripts/test.sh; jobs run in
+ * this process on the Redis of REDIS_URL / REDIS_PORT (scripts/redis.sh).
  */
 export interface TestServer {
   url: string;
@@ -21,6 +23,7 @@ export interface TestServer {
 export async function startTestServer(): Promise<TestServer> {
   if (process.env['NODE_ENV'] !== 'test') throw new Error('Run server tests with NODE_ENV=test (npm run test:server does).');
   await startMail();
+  await startJobs(true);
   const server: Server = createServer(createApp());
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', () => resolve()));
   const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
@@ -30,6 +33,8 @@ export async function startTestServer(): Promise<TestServer> {
     stop: async () => {
       server.closeAllConnections();
       await new Promise<void>((resolve) => server.close(() => resolve()));
+      // Jobs first: nothing may still write once the pool is closed.
+      await stopJobs();
       await stopMail();
       await pool.end();
       // Safety net: a handle left open by a library must not hang the suite after its tests passed.
