@@ -8,6 +8,7 @@ import { createApp } from './app';
 import { logger } from './core/logging';
 import { installProcessGuards } from './core/process-guards';
 import { pool } from './db';
+import { closeLimiterStore } from './auth/limiter-store';
 import { startMail, stopMail } from './mail/transport';
 import { startJobs, stopJobs } from './jobs/index';
 
@@ -40,6 +41,7 @@ async function stop(signal: string) {
   server.closeIdleConnections();
   setTimeout(() => process.exit(0), 10_000).unref();
   await stopJobs().catch((err: unknown) => logger.warn({ err }, 'stopping the jobs failed'));
+  await closeLimiterStore();
   await stopMail();
   await pool.end();
   process.exit(0);

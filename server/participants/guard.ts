@@ -2,6 +2,7 @@ import type { NextFunction, Request, Response } from 'express';
 import { rateLimit } from 'express-rate-limit';
 import { LINK_INVALID_MESSAGE } from '../../shared/api/workshops';
 import { config } from '../config';
+import { createLimiterStore } from '../auth/limiter-store';
 import { HttpError } from '../core/http-error';
 import { findJoinWorkshop, findLinkHolder, type LinkHolder } from './links';
 
@@ -14,6 +15,8 @@ export const linkInvalid = () => new HttpError(404, 'link_invalid', LINK_INVALID
  * refused for the window (OWASP Authentication Cheat Sheet, "Protect against automated attacks").
  */
 export const linkGuessLimit = rateLimit({
+  store: createLimiterStore('link-guess'),
+  passOnStoreError: true,
   windowMs: 15 * 60 * 1000,
   limit: config.RATE_LIMIT_LINK_PER_15MIN,
   skipSuccessfulRequests: true,

@@ -5,6 +5,7 @@ import { users, type AccountRole } from '../../db/schema/accounts';
 import { createApp } from '../../server/app';
 import { hashPassword } from '../../server/auth/passwords';
 import { db, pool } from '../../server/db';
+import { closeLimiterStore } from '../../server/auth/limiter-store';
 import { startJobs, stopJobs } from '../../server/jobs/index';
 import { startMail, stopMail } from '../../server/mail/transport';
 import { TestClient } from './http-client';
@@ -35,6 +36,7 @@ export async function startTestServer(): Promise<TestServer> {
       await new Promise<void>((resolve) => server.close(() => resolve()));
       // Jobs first: nothing may still write once the pool is closed.
       await stopJobs();
+      await closeLimiterStore();
       await stopMail();
       await pool.end();
       // Safety net: a handle left open by a library must not hang the suite after its tests passed.
