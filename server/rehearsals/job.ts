@@ -3,7 +3,7 @@
  * (seed, run range) and its runs are the engine's own chunks (chunkRanges), computed in this
  * process's threads and folded in run order; the job's merge folds the chunks in run order too.
  * The cut depends only on the run count and the room size, so the stored numbers are the same
- * for any number of workers and machines; up to 64 engine chunks it is exactly the engine's own
+ * for any number of workers and machines; up to 128 engine chunks it is exactly the engine's own
  * fold, so a rehearsal of that size equals simulate() in one thread.
  */
 import { REHEARSAL_LIMITS } from '../../shared/api/plans';
@@ -24,7 +24,7 @@ import * as store from './store';
 import { verdictOf } from './verdict';
 
 /** At most this many queue chunks per rehearsal (each holds n numbers three times over in Redis). */
-export const MAX_QUEUE_CHUNKS = 64;
+export const MAX_QUEUE_CHUNKS = 128;
 
 /** Groups the engine's chunks into at most MAX_QUEUE_CHUNKS consecutive queue chunks. */
 export function queueChunks(runs: number, n: number): RunRange[][] {
