@@ -32,7 +32,8 @@ export const MIN_STRENGTH = 1e-100;
 export function readStrength(raw: unknown, maxStrength: number, decimalComma = false): StrengthReading {
   if (raw === undefined) return { value: 1 };
   if (typeof raw === 'string' && raw.trim() === '') return { value: 1, empty: true };
-  if (raw === null) return { problem: 'the strength is null; write a positive number, or leave the field out (a missing strength means 1)' };
+  if (raw === null)
+    return { problem: 'the strength is null; write a positive number, or leave the field out (a missing strength means 1)' };
   let value: number;
   if (typeof raw === 'number') {
     value = raw;
@@ -69,7 +70,8 @@ export function readStrength(raw: unknown, maxStrength: number, decimalComma = f
 
 /** A value for a message; readers may pass `{ shown }` for values they describe themselves. */
 function shownValue(raw: unknown): string {
-  if (typeof raw === 'object' && raw !== null && typeof (raw as { shown?: unknown }).shown === 'string') return (raw as { shown: string }).shown;
+  if (typeof raw === 'object' && raw !== null && typeof (raw as { shown?: unknown }).shown === 'string')
+    return (raw as { shown: string }).shown;
   return clip(JSON.stringify(raw) ?? String(raw));
 }
 
