@@ -168,7 +168,8 @@ class Reader {
     if (c === 34) return this.string();
     if (c === 45 || (c >= 48 && c <= 57)) {
       NUMBER.lastIndex = this.i;
-      const m = NUMBER.exec(this.text)!;
+      const m = NUMBER.exec(this.text);
+      if (!m) return this.fail('a malformed number');
       const after = this.text.charCodeAt(this.i + m[0].length);
       if (m[0] === '-' || after === 46 || after === 101 || after === 69 || (after >= 48 && after <= 57)) this.fail('a malformed number');
       this.i += m[0].length;

@@ -253,7 +253,7 @@ export class RoomBuilder {
     const ratio = (weak.strength / strong.strength).toPrecision(2);
     this.issues.error(
       'strength-range',
-      `strength ${weak.strength} is ${ratio} times the strongest tie (${strong.strength}, ${placeOf(strong.where)}); ` +
+      `${weak.strength} is ${ratio} times the strongest tie (${strong.strength}, ${placeOf(strong.where)}); ` +
         `below ${MIN_STRENGTH_RATIO} times, double precision cannot carry it: drop the weak tie or narrow the strengths`,
       { ...weak.where, field: 'strength' },
     );
