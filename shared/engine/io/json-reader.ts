@@ -17,8 +17,10 @@ export class JsonNumber {
 
 /** A JSON object: its keys in file order (a repeated key: the last one counts, as in JSON.parse). */
 export class JsonObject {
-  readonly keys: string[] = [];
-  readonly values: JsonValue[] = [];
+  constructor(
+    readonly keys: string[] = [],
+    readonly values: JsonValue[] = [],
+  ) {}
   get(key: string): JsonValue | undefined {
     for (let i = this.keys.length - 1; i >= 0; i--) if (this.keys[i] === key) return this.values[i];
     return undefined;
@@ -55,12 +57,13 @@ export type JsonReadResult = { readonly value: JsonValue; readonly error?: undef
 
 export const JSON_MAX_DEPTH = 64;
 
+/** An open container. Its items wait in the reader's shared scratch list from `start` on. */
 interface Frame {
-  readonly list?: JsonValue[];
-  readonly object?: JsonObject;
-  readonly isObject: boolean;
-  readonly open: number;
-  key?: string;
+  isObject: boolean;
+  build: boolean;
+  open: number;
+  start: number;
+  key: string;
 }
 
 class Stop extends Error {
@@ -73,10 +76,23 @@ class Stop extends Error {
   }
 }
 
-const NUMBER = /-?(?:0|[1-9]\d*)(?:\.\d+)?(?:[eE][+-]?\d+)?/y;
+function digits(text: string, k: number): number {
+  let c = text.charCodeAt(k);
+  while (c >= 48 && c <= 57) c = text.charCodeAt(++k);
+  return k;
+}
+
 const WORD = /true|false|null/y;
-/** The plain run of a string: no quote, backslash or control character. */
-const PLAIN = /[^"\\\x00-\x1f]*/y;
+/** Where the plain run of a string from `at` ends: at a quote, backslash, control character or the end. */
+function plainEnd(text: string, at: number): number {
+  const len = text.length;
+  while (at < len) {
+    const c = text.charCodeAt(at);
+    if (c === 34 || c === 92 || c < 0x20) return at;
+    at++;
+  }
+  return at;
+}
 const ESCAPES: Record<string, string> = { '"': '"', '\\': '\\', '/': '/', b: '\b', f: '\f', n: '\n', r: '\r', t: '\t' };
 
 export function readJson(input: string, options: JsonReadOptions = {}): JsonReadResult {
@@ -96,6 +112,9 @@ export function readJson(input: string, options: JsonReadOptions = {}): JsonRead
 class Reader {
   private i = 0;
   private readonly stack: Frame[] = [];
+  /** Frames are reused by depth, and items gather in one scratch list: few short-lived objects. */
+  private readonly frames: Frame[] = [];
+  private readonly scratch: (JsonValue | string)[] = [];
 
   constructor(
     private readonly text: string,
@@ -130,7 +149,7 @@ class Reader {
     if (c === close) {
       this.i++;
       this.stack.pop();
-      return top.object ?? top.list ?? new JsonSkipped(top.isObject ? 'object' : 'list');
+      return this.close(top);
     }
     if (c !== 44) {
       if (this.i >= this.text.length) this.unclosed(top);
@@ -142,10 +161,29 @@ class Reader {
   }
 
   private attach(top: Frame, value: JsonValue): void {
-    if (top.object) {
-      top.object.keys.push(top.key!);
-      top.object.values.push(value);
-    } else if (top.list) top.list.push(value);
+    if (!top.build) return;
+    if (top.isObject) this.scratch.push(top.key, value);
+    else this.scratch.push(value);
+  }
+
+  /** The finished container, built in exact-size arrays from the scratch list. */
+  private close(top: Frame): JsonValue {
+    if (!top.build) return new JsonSkipped(top.isObject ? 'object' : 'list');
+    const scratch = this.scratch;
+    const start = top.start;
+    let out: JsonValue;
+    if (top.isObject) {
+      const n = (scratch.length - start) / 2;
+      const keys = new Array<string>(n);
+      const values = new Array<JsonValue>(n);
+      for (let k = 0; k < n; k++) {
+        keys[k] = scratch[start + 2 * k] as string;
+        values[k] = scratch[start + 2 * k + 1] as JsonValue;
+      }
+      out = new JsonObject(keys, values);
+    } else out = scratch.slice(start) as JsonValue[];
+    scratch.length = start;
+    return out;
   }
 
   private key(top: Frame): void {
@@ -166,15 +204,7 @@ class Reader {
     const c = this.text.charCodeAt(this.i);
     if (c === 123 || c === 91) return this.open(c === 123);
     if (c === 34) return this.string();
-    if (c === 45 || (c >= 48 && c <= 57)) {
-      NUMBER.lastIndex = this.i;
-      const m = NUMBER.exec(this.text);
-      if (!m) return this.fail('a malformed number');
-      const after = this.text.charCodeAt(this.i + m[0].length);
-      if (m[0] === '-' || after === 46 || after === 101 || after === 69 || (after >= 48 && after <= 57)) this.fail('a malformed number');
-      this.i += m[0].length;
-      return new JsonNumber(m[0]);
-    }
+    if (c === 45 || (c >= 48 && c <= 57)) return this.number();
     WORD.lastIndex = this.i;
     const w = WORD.exec(this.text);
     if (w) {
@@ -184,25 +214,55 @@ class Reader {
     return this.fail('expected a value');
   }
 
+  /** A number (RFC 8259 grammar), kept as its text. */
+  private number(): JsonNumber {
+    const text = this.text;
+    const start = this.i;
+    let k = start;
+    if (text.charCodeAt(k) === 45) k++;
+    const first = text.charCodeAt(k);
+    if (first === 48) k++;
+    else if (first >= 49 && first <= 57) k = digits(text, k);
+    else this.fail('a malformed number');
+    if (text.charCodeAt(k) === 46) {
+      const d = digits(text, k + 1);
+      if (d === k + 1) this.fail('a malformed number');
+      k = d;
+    }
+    const e = text.charCodeAt(k);
+    if (e === 101 || e === 69) {
+      let j = k + 1;
+      const sign = text.charCodeAt(j);
+      if (sign === 43 || sign === 45) j++;
+      const d = digits(text, j);
+      if (d === j) this.fail('a malformed number');
+      k = d;
+    }
+    const after = text.charCodeAt(k);
+    if (after >= 48 && after <= 57) this.fail('a malformed number');
+    this.i = k;
+    return new JsonNumber(text.slice(start, k));
+  }
+
   private open(isObject: boolean): JsonValue | typeof NONE {
     const depth = this.stack.length + 1;
     if (depth > this.maxDepth) {
       throw new Stop(this.i, `nested more than ${this.maxDepth} levels deep; a room file needs only a few levels`, true);
     }
     const build = depth <= this.buildDepth;
-    const frame: Frame = {
-      isObject,
-      open: this.i,
-      list: build && !isObject ? [] : undefined,
-      object: build && isObject ? new JsonObject() : undefined,
-      key: undefined,
-    };
+    const open = this.i;
     this.i++;
     this.ws();
     if (this.text.charCodeAt(this.i) === (isObject ? 125 : 93)) {
       this.i++;
-      return frame.object ?? frame.list ?? new JsonSkipped(isObject ? 'object' : 'list');
+      return !build ? new JsonSkipped(isObject ? 'object' : 'list') : isObject ? new JsonObject() : [];
     }
+    let frame = this.frames[depth];
+    if (!frame) frame = this.frames[depth] = { isObject, build, open: 0, start: 0, key: '' };
+    frame.isObject = isObject;
+    frame.build = build;
+    frame.open = open;
+    frame.start = this.scratch.length;
     this.stack.push(frame);
     return NONE;
   }
@@ -210,9 +270,7 @@ class Reader {
   private string(): string {
     const text = this.text;
     const start = this.i;
-    PLAIN.lastIndex = start + 1;
-    PLAIN.test(text);
-    let at = PLAIN.lastIndex;
+    let at = plainEnd(text, start + 1);
     if (text.charCodeAt(at) === 34) {
       this.i = at + 1;
       return text.slice(start + 1, at);
@@ -238,10 +296,9 @@ class Reader {
         out += ESCAPES[e];
         at += 2;
       } else this.fail('a bad escape after a backslash');
-      PLAIN.lastIndex = at;
-      PLAIN.test(text);
-      out += text.slice(at, PLAIN.lastIndex);
-      at = PLAIN.lastIndex;
+      const end = plainEnd(text, at);
+      out += text.slice(at, end);
+      at = end;
     }
     this.i = at + 1;
     return out;
