@@ -8,6 +8,8 @@ import { execFile, execFileSync } from 'node:child_process';
 import { symlinkSync, writeFileSync, mkdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { describe, it } from 'node:test';
+import { REHEARSAL_LIMITS } from '../../shared/api/plans';
+import { CLI_SEED_PATTERN } from '../../shared/engine/cli/simulate';
 import { cli, fixtures, ROOT, type CliRun } from './cli-helpers';
 
 const IDS = ['12345678901234567891', '12345678901234567892', '1.0', '1e3', '__proto__', 'constructor', ' lead', 'a,b'];
@@ -147,6 +149,10 @@ describe('seeds reproduce', () => {
     assert.notEqual(a['total'], b['total']);
     const again = json(await cli([...base, '--seed', String(b['seed'])]));
     assert.equal(again['total'], b['total']);
+  });
+
+  it('accepts exactly the seeds the web accepts', () => {
+    assert.equal(CLI_SEED_PATTERN, REHEARSAL_LIMITS.seedPattern);
   });
 
   it('refuses seeds the web would refuse, with the rule', async () => {

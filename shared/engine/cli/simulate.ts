@@ -2,7 +2,6 @@
 import { SIMULATE_DEFAULTS } from '../simulate/plan';
 import { simulate } from '../simulate/run-local';
 import type { SimulationSummary } from '../simulate/summary';
-import { REHEARSAL_LIMITS } from '../../api/plans';
 import { CliError, clipText, integerFlag, type Flags } from './args';
 import {
   ms,
@@ -120,7 +119,9 @@ ${UNREACHABLE_HELP}`,
   },
 };
 
-const SEED = new RegExp(REHEARSAL_LIMITS.seedPattern);
+/** The seeds the web accepts (REHEARSAL_LIMITS.seedPattern; a test keeps the two equal). */
+export const CLI_SEED_PATTERN = '^[A-Za-z0-9_-]{1,64}$';
+const SEED = new RegExp(CLI_SEED_PATTERN);
 
 /** The seed as used: a number only when printing that number gives back the same text (7, not 07). */
 export function printedSeed(seed: string): string | number {
