@@ -21,6 +21,45 @@ export default tseslint.config(
     files: ['server/**/*.ts', 'tests/**/*.ts', 'db/**/*.ts', 'shared/**/*.ts', 'seed-data/**/*.ts', 'e2e/**/*.ts'],
     rules: { '@typescript-eslint/no-namespace': 'off' },
   },
+  // Layer boundaries (DEVELOPERS.md, "The layout"): a crossing fails the lint suite.
+  {
+    files: ['src/**/*.ts'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            {
+              group: ['**/server/**', '**/db/**'],
+              message: 'The client talks to the server over HTTP only; shared types live in shared/api.',
+            },
+          ],
+        },
+      ],
+    },
+  },
+  {
+    files: ['shared/engine/**/*.ts'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            {
+              group: ['**/server/**', '**/db/**', '**/src/**', '**/api/**', '**/seating/**'],
+              message: 'The engine imports nothing of the project outside shared/engine.',
+            },
+          ],
+        },
+      ],
+    },
+  },
+  {
+    files: ['server/**/store.ts', 'server/**/*-store.ts'],
+    rules: {
+      'no-restricted-imports': ['error', { paths: [{ name: 'express', message: 'Stores hold SQL only; HTTP belongs in routes.' }] }],
+    },
+  },
   {
     files: ['src/**/*.html'],
     extends: [...angular.configs.templateRecommended, ...angular.configs.templateAccessibility],
