@@ -72,7 +72,7 @@ export function readStrength(raw: unknown, maxStrength: number, decimalComma = f
 function shownValue(raw: unknown): string {
   if (typeof raw === 'object' && raw !== null && typeof (raw as { shown?: unknown }).shown === 'string')
     return (raw as { shown: string }).shown;
-  return clip(JSON.stringify(raw) ?? String(raw));
+  return clip(JSON.stringify(raw) ?? typeof raw);
 }
 
 export function clip(text: string, max = 40): string {
