@@ -77,9 +77,9 @@ export class CsvReader {
     let started = false;
     const it = chunks[Symbol.iterator]();
     for (let final = false; !final;) {
-      const step = it.next();
+      const step: IteratorResult<string, unknown> = it.next();
       final = step.done === true;
-      if (!final) pending += started || pending.length > 0 ? step.value : stripBom(step.value);
+      if (!step.done) pending += started || pending.length > 0 ? step.value : stripBom(step.value);
       if (!started) {
         if (!final && !/[\r\n]/.test(pending) && pending.length < MAX_CSV_ROW_CHARS) continue;
         this.delimiter = detectDelimiter(pending);

@@ -114,7 +114,7 @@ class Reader {
   private readonly stack: Frame[] = [];
   /** Frames are reused by depth, and items gather in one scratch list: few short-lived objects. */
   private readonly frames: Frame[] = [];
-  private readonly scratch: (JsonValue | string)[] = [];
+  private readonly scratch: JsonValue[] = [];
 
   constructor(
     private readonly text: string,
@@ -178,10 +178,10 @@ class Reader {
       const values = new Array<JsonValue>(n);
       for (let k = 0; k < n; k++) {
         keys[k] = scratch[start + 2 * k] as string;
-        values[k] = scratch[start + 2 * k + 1] as JsonValue;
+        values[k] = scratch[start + 2 * k + 1];
       }
       out = new JsonObject(keys, values);
-    } else out = scratch.slice(start) as JsonValue[];
+    } else out = scratch.slice(start);
     scratch.length = start;
     return out;
   }
