@@ -29,7 +29,11 @@ await startMail();
 // it has touched any job, and a live server's jobs are never recovered by someone else.
 server.listen(config.PORT, config.HOST, () => {
   logger.info(`Ripplehall is serving ${publicUrl()}${config.WEB_ONLY ? ' (web only: jobs run in worker processes)' : ''}`);
-  startJobs(!config.WEB_ONLY).catch((err: unknown) => logger.error({ err }, 'the job system did not start'));
+  try {
+    startJobs(!config.WEB_ONLY);
+  } catch (err) {
+    logger.error({ err }, 'the job system did not start');
+  }
 });
 
 let stopping = false;

@@ -10,7 +10,7 @@ import { pool } from './db';
 import { startJobs, stopJobs } from './jobs/index';
 
 installProcessGuards();
-await startJobs(true);
+startJobs(true);
 logger.info(
   `Ripplehall worker ${process.pid} is taking jobs from ${redisUrl().replace(/\/\/[^@]*@/, '//')} with ${config.WORKERS} threads`,
 );

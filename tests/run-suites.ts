@@ -23,6 +23,12 @@ const suites: Suite[] = [
     count: (_o, code) => (code === 0 ? { passed: 1, failed: 0 } : { passed: 0, failed: 1 }),
   },
   {
+    // tsx strips types without checking them, so a type error in the server would pass the other suites.
+    name: 'types',
+    command: 'npx tsc -p tsconfig.server.json --noEmit',
+    count: (_o, code) => (code === 0 ? { passed: 1, failed: 0 } : { passed: 0, failed: 1 }),
+  },
+  {
     name: 'engine',
     command: "node --import tsx --test --test-reporter=tap $(find tests/engine -name '*.test.ts' | sort)",
     count: nodeTap,
@@ -30,6 +36,12 @@ const suites: Suite[] = [
   {
     name: 'server',
     command: `DB_NAME=${dbName} bash scripts/test-db.sh && node --import tsx --test --test-concurrency=1 --test-reporter=tap $(find tests/server -name '*.test.ts' | sort)`,
+    count: nodeTap,
+  },
+  {
+    // Its own MariaDB, Redis and ports (scripts/faults.sh); kill -9 of every kind of process.
+    name: 'faults',
+    command: 'FAULTS_REPORTER=tap bash scripts/faults.sh',
     count: nodeTap,
   },
   {

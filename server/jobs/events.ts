@@ -66,8 +66,8 @@ export function onCancel(listener: (jobId: number) => void): () => void {
 }
 
 export async function closeEvents(): Promise<void> {
-  const conns = [pub, sub];
+  const conns = [pub, sub].filter((c): c is Redis => c !== undefined);
   pub = undefined;
   sub = undefined;
-  await Promise.all(conns.map((c) => c?.quit().catch(() => c.disconnect())));
+  await Promise.all(conns.map(async (c) => c.quit().catch(() => c.disconnect())));
 }

@@ -19,10 +19,10 @@ export { jobRunner };
  * Every process hears job events (for its SSE streams); with runWorkers it also runs jobs, and
  * its thread pools are started so the first job does not wait for them.
  */
-export async function startJobs(runWorkers: boolean): Promise<void> {
+export function startJobs(runWorkers: boolean): void {
   startEvents();
   if (!runWorkers) return;
-  await startWorkers();
+  startWorkers();
   void warmPools().catch((err: unknown) => {
     // A stop during the warm-up ends its tasks; that is no failure.
     if (!/Terminating worker thread/.test((err as Error)?.message ?? '')) logger.warn({ err }, 'warming the worker pools failed');

@@ -226,7 +226,7 @@ function makeWorker<T>(name: string, processor: (job: Job<T>, token?: string) =>
   return w;
 }
 
-export async function startWorkers(): Promise<void> {
+export function startWorkers(): void {
   if (workers.length) return;
   stopping = false;
   stopCancels = onCancel((jobId) => {

@@ -38,9 +38,12 @@ interface Proc {
 }
 
 function spawnProc(name: string, file: string, env: Record<string, string>): Proc {
-  const proc = spawn(process.execPath, ['--import', 'tsx', file], { env: { ...process.env, ...env }, stdio: ['ignore', 'ignore', 'pipe'] });
+  // The servers are no test processes: they must not inherit the test runner's context.
+  const { NODE_TEST_CONTEXT: _context, ...inherited } = process.env;
+  const proc = spawn(process.execPath, ['--import', 'tsx', file], { env: { ...inherited, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
   let log = '';
   proc.stderr!.on('data', (d: Buffer) => (log += d.toString()));
+  proc.stdout!.on('data', (d: Buffer) => (log += d.toString()));
   return { name, proc, log: () => log, alive: () => proc.exitCode === null && proc.signalCode === null };
 }
 
@@ -89,7 +92,7 @@ describe('faults during a shared rehearsal', () => {
     try {
       await Promise.all([healthy(PORT_A), healthy(PORT_B)]);
     } catch (err) {
-      for (const p of procs) console.error(`--- ${p.name} ---\n${p.log()}`);
+      for (const p of procs) console.error(`--- ${p.name} (exit ${p.proc.exitCode}, signal ${p.proc.signalCode}) ---\n${p.log()}`);
       throw err;
     }
     const account = await createAccount('facilitator');

@@ -24,7 +24,7 @@ export interface TestServer {
 export async function startTestServer(): Promise<TestServer> {
   if (process.env['NODE_ENV'] !== 'test') throw new Error('Run server tests with NODE_ENV=test (npm run test:server does).');
   await startMail();
-  await startJobs(true);
+  startJobs(true);
   const server: Server = createServer(createApp());
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', () => resolve()));
   const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
