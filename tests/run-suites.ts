@@ -39,12 +39,6 @@ const suites: Suite[] = [
     count: nodeTap,
   },
   {
-    // Its own MariaDB, Redis and ports (scripts/faults.sh); kill -9 of every kind of process.
-    name: 'faults',
-    command: 'FAULTS_REPORTER=tap bash scripts/faults.sh',
-    count: nodeTap,
-  },
-  {
     name: 'client (Karma)',
     command: 'npx ng test --watch=false --no-progress',
     count: (output, code) => {

@@ -1,7 +1,7 @@
 /**
  * The BullMQ queues (Redis): `jobs` holds plans and rehearsals, `chunks` the pieces of
  * rehearsals. A queue entry carries only the job row's id; the row in MariaDB is the truth.
- * Entry ids are derived from row ids, so adding the same job twice adds it once.
+ * Entry ids are derived from the rows (bullId), so adding the same job twice adds it once.
  */
 import { Job, Queue, type ConnectionOptions, type JobsOptions } from 'bullmq';
 import { config, redisUrl } from '../config';
@@ -30,8 +30,12 @@ export interface ChunkData {
 export const JOBS_QUEUE = 'jobs';
 export const CHUNKS_QUEUE = 'chunks';
 
-export const bullId = (jobId: number) => `job-${jobId}`;
-export const chunkId = (jobId: number, index: number) => `job-${jobId}-chunk-${index}`;
+/**
+ * Entry ids come from the row's id and creation time: adding a job twice adds it once, and a
+ * database recreated with the same ids (tests, a restore) never meets the entries of the old one.
+ */
+export const bullId = (row: Pick<JobRow, 'id' | 'createdAt'>) => `job-${row.id}-${row.createdAt.getTime()}`;
+export const chunkId = (parentEntryId: string, index: number) => `${parentEntryId}-chunk-${index}`;
 
 export function connection(purpose: string): ConnectionOptions {
   const { maxRetriesPerRequest, connectionName, retryStrategy } = redisOptions(purpose);
@@ -67,7 +71,7 @@ export function queue(name: string): Queue {
 export async function enqueueJob(row: JobRow): Promise<void> {
   const data: JobData = { jobId: row.id, step: 'start' };
   try {
-    await within(3000, 'The job queue', queue(JOBS_QUEUE).add(row.kind, data, { ...entryOptions(), jobId: bullId(row.id) }));
+    await within(3000, 'The job queue', queue(JOBS_QUEUE).add(row.kind, data, { ...entryOptions(), jobId: bullId(row) }));
   } catch (err) {
     logger.warn({ err: (err as Error).message, jobId: row.id }, 'queueing a job failed; it is queued again when Redis answers');
   }
@@ -79,7 +83,7 @@ export async function wakeUser(userId: number): Promise<void> {
   try {
     for (const row of await openJobsOf(userId)) {
       if (row.status !== 'queued') continue;
-      const entry = await Job.fromId(queue(JOBS_QUEUE), bullId(row.id));
+      const entry = await Job.fromId(queue(JOBS_QUEUE), bullId(row));
       if (entry && (await entry.isDelayed())) await entry.promote().catch(() => undefined);
       await emitJob('queued', row);
     }
@@ -95,7 +99,7 @@ export async function cancelJob(row: JobRow): Promise<void> {
   void wakeUser(fresh.userId);
   // A waiting entry is dropped; a running one ends itself when its worker hears the cancel.
   void queue(JOBS_QUEUE)
-    .remove(bullId(row.id))
+    .remove(bullId(row))
     .catch(() => undefined);
 }
 

@@ -20,12 +20,12 @@ export async function reconcileOnce(now = Date.now()): Promise<{ requeued: numbe
   const out = { requeued: 0, failed: 0 };
   for (const row of await openJobs()) {
     if (now - row.createdAt.getTime() < GRACE_MS) continue;
-    const state = await queue(JOBS_QUEUE).getJobState(bullId(row.id));
+    const state = await queue(JOBS_QUEUE).getJobState(bullId(row));
     if (state === 'unknown') {
       await enqueueJob(row);
       out.requeued++;
     } else if (state === 'failed' || state === 'completed') {
-      const entry = await queue(JOBS_QUEUE).getJob(bullId(row.id));
+      const entry = await queue(JOBS_QUEUE).getJob(bullId(row));
       const reason = entry?.failedReason ? ` (${entry.failedReason})` : '';
       if (await endOpenJob(row, 'failed', `The job could not be finished${reason}; nothing partial was kept. Run it again.`)) out.failed++;
     }

@@ -130,7 +130,7 @@ async function addChunks(bull: Job<JobData>, token: string | undefined, row: Job
     ranges.map((r, index) => ({
       name: 'chunk',
       data: { jobId: row.id, index, from: r.from, to: r.to, of } satisfies ChunkData,
-      opts: { ...entryOptions(), jobId: chunkId(row.id, index), parent, failParentOnFailure: true },
+      opts: { ...entryOptions(), jobId: chunkId(bull.id!, index), parent, failParentOnFailure: true },
     })),
   );
   await bull.updateData({ ...bull.data, step: 'merge', chunks: ranges.length });
