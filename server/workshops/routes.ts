@@ -116,7 +116,7 @@ workshopsRouter.patch('/:id', signedIn(), async (req, res) => {
 workshopsRouter.delete('/:id', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id'], 'own');
   await db.delete(workshops).where(eq(workshops.id, workshop.id));
-  await audit(req, { action: 'workshop.deleted', targetType: 'workshop', targetId: workshop.id });
+  await audit(req, { action: 'workshop.deleted', targetType: 'workshop', targetId: workshop.id, detail: { title: workshop.title } });
   res.status(204).end();
 });
 
