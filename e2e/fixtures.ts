@@ -1,11 +1,37 @@
 import { mkdirSync } from 'node:fs';
-import { test as base, expect, type Page } from '@playwright/test';
+import { test as base, expect, type BrowserContext, type Page } from '@playwright/test';
+import { AxeWatch } from './accessibility';
 
 /**
  * Every page in every test is watched: a Content-Security-Policy violation or a request to
- * any host other than the app's fails the test (nothing may load from outside the machine).
+ * any host other than the app's fails the test (nothing may load from outside the machine),
+ * and so does a serious or critical accessibility violation on any page visited, in any
+ * browser context the test opens (see accessibility.ts).
  */
-export const test = base.extend<{ guard: void }>({
+export const test = base.extend<{ guard: void; axe: void }>({
+  axe: [
+    async ({ context, browser }, use) => {
+      const watch = new AxeWatch();
+      const contexts: BrowserContext[] = [context];
+      const follow = (ctx: BrowserContext) => {
+        ctx.pages().forEach((p) => watch.watch(p));
+        ctx.on('page', (p) => watch.watch(p));
+      };
+      follow(context);
+      const newContext = browser.newContext.bind(browser);
+      browser.newContext = async (...args: Parameters<typeof newContext>) => {
+        const ctx = await newContext(...args);
+        contexts.push(ctx);
+        follow(ctx);
+        return ctx;
+      };
+      await use();
+      browser.newContext = newContext;
+      await watch.finish(contexts.flatMap((c) => c.pages()));
+      expect(watch.violations, `accessibility (axe-core), serious or critical:\n${watch.violations.join('\n')}`).toEqual([]);
+    },
+    { auto: true },
+  ],
   guard: [
     async ({ page, baseURL }, use) => {
       const problems: string[] = [];
