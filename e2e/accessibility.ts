@@ -15,9 +15,7 @@ const QUIET_MS = 300;
 const SETTLE_LIMIT_MS = 5000;
 
 export const pageKey = (url: string, width: number) => {
-  const path = new URL(url).pathname
-    .replace(/\/[A-Za-z0-9_-]{43}(?=\/|$)/g, '/:token')
-    .replace(/\/\d+(?=\/|$)/g, '/:id');
+  const path = new URL(url).pathname.replace(/\/[A-Za-z0-9_-]{43}(?=\/|$)/g, '/:token').replace(/\/\d+(?=\/|$)/g, '/:id');
   return `${path} @${width <= 600 ? 'phone' : 'desktop'}`;
 };
 
