@@ -23,6 +23,9 @@ export class AxeWatch {
   readonly violations: string[] = [];
   private readonly pending = new Set<Promise<void>>();
 
+  /** `spent(ms)` is told how long each check took, so the test's own time budget can grow by it. */
+  constructor(private readonly spent: (ms: number) => void = () => undefined) {}
+
   watch(page: Page): void {
     let inflight = 0;
     const waiters = new Set<() => void>();
@@ -69,6 +72,7 @@ export class AxeWatch {
     await settled();
     if (page.isClosed() || page.url() !== url || checked.has(key)) return;
     checked.add(key);
+    const started = Date.now();
     try {
       // Frames are left out: the outbox's sandboxed mail preview runs no script, so axe could never
       // answer from inside it (the message itself is plain generated mail, not a page of ours).
@@ -80,7 +84,9 @@ export class AxeWatch {
           .join('\n');
         this.violations.push(`${key}: [${v.impact}] ${v.id}: ${v.help} (${v.nodes.length} places)\n${where}`);
       }
+      this.spent(Date.now() - started);
     } catch (err) {
+      this.spent(Date.now() - started);
       // The test moved on (navigation, closed page) while axe ran: check this page on its next visit.
       checked.delete(key);
       if (!/closed|destroyed|navigat/i.test(String(err))) throw err;

@@ -10,8 +10,9 @@ import { AxeWatch } from './accessibility';
  */
 export const test = base.extend<{ guard: void; axe: void }>({
   axe: [
-    async ({ context, browser }, use) => {
-      const watch = new AxeWatch();
+    async ({ context, browser }, use, testInfo) => {
+      // The checks run beside the test; the time they take is added to its timeout, not taken from it.
+      const watch = new AxeWatch((ms) => testInfo.setTimeout(testInfo.timeout + ms));
       const contexts: BrowserContext[] = [context];
       const follow = (ctx: BrowserContext) => {
         ctx.pages().forEach((p) => watch.watch(p));
@@ -30,7 +31,7 @@ export const test = base.extend<{ guard: void; axe: void }>({
       await watch.finish(contexts.flatMap((c) => c.pages()));
       expect(watch.violations, `accessibility (axe-core), serious or critical:\n${watch.violations.join('\n')}`).toEqual([]);
     },
-    { auto: true },
+    { auto: true, timeout: 120_000 },
   ],
   guard: [
     async ({ page, baseURL }, use) => {

@@ -140,15 +140,15 @@ workshopsRouter.delete('/:id/facilitators/:userId', signedIn(), async (req, res)
   res.status(204).end();
 });
 
+/** Answers with the workshop as it now is, so the page shows the new row without asking again. */
 workshopsRouter.post('/:id/participants', signedIn(), async (req, res) => {
-  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  const { workshop, owner } = await loadWorkshopFor(req.user, req.params['id']);
   const body = parse(peopleBody, req.body);
-  res.status(201).json(
-    await service.addParticipants(
-      workshop,
-      body.people.map((p) => ({ name: p.name, email: p.email ?? null, personId: null })),
-    ),
+  const result = await service.addParticipants(
+    workshop,
+    body.people.map((p) => ({ name: p.name, email: p.email ?? null, personId: null })),
   );
+  res.status(201).json({ ...result, workshop: await service.workshopDetail(workshop, owner) });
 });
 
 workshopsRouter.post('/:id/participants/roster', signedIn(), async (req, res) => {

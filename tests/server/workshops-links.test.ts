@@ -80,7 +80,7 @@ describe('stable participant links', () => {
   });
 
   it('reissue needs confirmation and ends only the chosen links', async () => {
-    const { client } = await signedInClient(server);
+    const { client, account } = await signedInClient(server);
     const { id, byName } = await newWorkshop(client, ROSTER);
     const tokens = await sheetTokens(client, id);
     const ines = byName.get('Ines Varga')!;
@@ -104,6 +104,13 @@ describe('stable participant links', () => {
     }
     const sheet = await sheetTokens(client, id);
     assert.equal(sheet.get('Ines Varga'), fresh, 'the next sheet shows the reissued link');
+    // The audit log names the workshop and the account it belongs to.
+    const { client: admin } = await signedInClient(server, 'admin');
+    const log = await admin.get('/api/admin/audit?filter=links_reissued&size=5');
+    const entry = log.body.items.find((r: { targetId: string }) => r.targetId === String(id));
+    assert.equal(entry.targetLabel, 'Spring onboarding day');
+    assert.equal(entry.targetEmail, account.email);
+    assert.equal(entry.actorEmail, account.email);
   });
 
   it('a failed e-mail leaves the links a person already holds working', async () => {

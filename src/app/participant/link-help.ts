@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
-import { FormControl, ReactiveFormsModule } from '@angular/forms';
+import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
@@ -24,10 +24,10 @@ const JOIN = /\/p\/join\/([A-Za-z0-9_-]{43})(?:[/?#]|$)/;
           <li>a QR code on the projector, where you pick your own name.</li>
         </ul>
         <p>Open it from there, or paste the whole link here:</p>
-        <form (ngSubmit)="open()" class="paste">
+        <form [formGroup]="form" (ngSubmit)="open()" class="paste">
           <mat-form-field appearance="outline" subscriptSizing="dynamic">
             <mat-label>Your link</mat-label>
-            <input matInput [formControl]="link" autocomplete="off" spellcheck="false" />
+            <input matInput formControlName="link" autocomplete="off" spellcheck="false" />
           </mat-form-field>
           @if (problem(); as p) {
             <p class="note error" role="alert">{{ p }}</p>
@@ -43,11 +43,11 @@ const JOIN = /\/p\/join\/([A-Za-z0-9_-]{43})(?:[/?#]|$)/;
 })
 export default class LinkHelp {
   private readonly router = inject(Router);
-  protected readonly link = new FormControl('', { nonNullable: true });
+  protected readonly form = new FormGroup({ link: new FormControl('', { nonNullable: true }) });
   protected readonly problem = signal<string | null>(null);
 
   protected async open(): Promise<void> {
-    const text = this.link.value.trim();
+    const text = this.form.controls.link.value.trim();
     const join = JOIN.exec(text);
     const mine = PERSONAL.exec(text);
     if (join) await this.router.navigateByUrl(`/p/join/${join[1]}`);

@@ -186,7 +186,9 @@ export default class WorkshopPage implements OnInit, OnDestroy {
     const r = await this.api.addPeople(this.workshopId, [{ name, email: email || null }]);
     if (r.skipped.length) this.snack.open(`${r.skipped.join(', ')} is already on the list.`, 'OK', { duration: 5000 });
     this.personForm.reset();
-    await this.refreshParticipants();
+    this.show(r.workshop);
+    void this.poll();
+    void this.loadMissing().catch(() => undefined);
   }
 
   protected async uploadRoster(input: HTMLInputElement): Promise<void> {

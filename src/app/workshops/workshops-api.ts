@@ -39,7 +39,7 @@ export class WorkshopsApi {
   addFacilitator = (id: number, email: string) => this.post<WorkshopDetail>(`${this.base}/${id}/facilitators`, { email });
   removeFacilitator = (id: number, userId: number) => firstValueFrom(this.http.delete<void>(`${this.base}/${id}/facilitators/${userId}`));
   addPeople = (id: number, people: { name: string; email: string | null }[]) =>
-    this.post<{ added: number; skipped: string[] }>(`${this.base}/${id}/participants`, { people });
+    this.post<{ added: number; skipped: string[]; workshop: WorkshopDetail }>(`${this.base}/${id}/participants`, { people });
   roster = (id: number, csv: string) =>
     this.post<{ added: number; skipped: string[]; issues: { line: number; message: string }[] }>(`${this.base}/${id}/participants/roster`, {
       csv,
