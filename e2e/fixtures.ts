@@ -11,27 +11,23 @@ import { AxeWatch } from './accessibility';
 export const test = base.extend<{ guard: void; axe: void }>({
   axe: [
     async ({ context, browser }, use, testInfo) => {
-      // The checks run beside the test; the time they take is added to its timeout, not taken from it.
+      // The time the checks take is added to the test's timeout, not taken from it.
       const watch = new AxeWatch((ms) => testInfo.setTimeout(testInfo.timeout + ms));
       const contexts: BrowserContext[] = [context];
-      const follow = (ctx: BrowserContext) => {
-        ctx.pages().forEach((p) => watch.watch(p));
-        ctx.on('page', (p) => watch.watch(p));
-      };
-      follow(context);
+      watch.watchContext(context);
       const newContext = browser.newContext.bind(browser);
       browser.newContext = async (...args: Parameters<typeof newContext>) => {
         const ctx = await newContext(...args);
         contexts.push(ctx);
-        follow(ctx);
+        watch.watchContext(ctx);
         return ctx;
       };
       await use();
       browser.newContext = newContext;
-      await watch.finish(contexts.flatMap((c) => c.pages()));
+      await watch.finish(contexts);
       expect(watch.violations, `accessibility (axe-core), serious or critical:\n${watch.violations.join('\n')}`).toEqual([]);
     },
-    { auto: true, timeout: 120_000 },
+    { auto: true, timeout: 180_000 },
   ],
   guard: [
     async ({ page, baseURL }, use) => {
