@@ -114,6 +114,10 @@ test('a facilitator runs a workshop from survey links to the debrief', async ({ 
   await expect(page.getByText(`${new URL(page.url()).origin}${adaPath}`)).toBeVisible();
   await keepScreenshot(page, 'workshop-link-sheet');
   await page.getByRole('link', { name: 'Back' }).click();
+  // Edda's printed slip is not handed out: her link is ended, so she can pick her name by QR code.
+  await page.getByRole('button', { name: 'End the link of Edda Prinn' }).click();
+  await page.getByRole('dialog').getByRole('button', { name: 'End the link' }).click();
+  await expect(page.getByRole('row', { name: /Edda Prinn/ })).toContainText('none yet');
   await page.getByRole('button', { name: 'E-mail links' }).click();
   await expect(page.getByText(/Sent to 4\./)).toBeVisible();
   expect(await mailLink('ada.quillon@example.test')).toBe(adaPath);
