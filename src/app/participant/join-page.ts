@@ -41,18 +41,20 @@ import { ParticipantApi } from './participant-api';
           @if (problem(); as p) {
             <p class="note error" role="alert">{{ p }}</p>
           }
-          <ul class="names" [hidden]="!s.open">
-            @for (n of s.names; track n.id) {
-              <li>
-                <button mat-stroked-button type="button" [disabled]="n.taken || busy() || !s.open" (click)="claim(n.id)">
-                  {{ n.name }}
-                  @if (n.taken) {
-                    <span class="taken">already taken</span>
-                  }
-                </button>
-              </li>
-            }
-          </ul>
+          @if (s.open) {
+            <ul class="names">
+              @for (n of s.names; track n.id) {
+                <li>
+                  <button mat-stroked-button type="button" [disabled]="n.taken || busy() || !s.open" (click)="claim(n.id)">
+                    {{ n.name }}
+                    @if (n.taken) {
+                      <span class="taken">already taken</span>
+                    }
+                  </button>
+                </li>
+              }
+            </ul>
+          }
         } @else {
           <p role="status">Opening…</p>
         }
