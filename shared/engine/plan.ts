@@ -18,16 +18,11 @@ import { lazyGreedyPlan } from './plan-lazy';
 import { swapPolish } from './plan-swap';
 import type { PlanMethod, PlanOptions, PlanResult } from './plan-types';
 import { widenedState } from './plan-widened';
+import { addQuickBounds } from './plan-bounds';
 import { exactReach, DEFAULT_DENSE_LIMIT } from './reach';
 import type { RoomInput } from './room';
 
 export const PLAN_METHODS = ['greedy', 'widened', 'swap', 'exhaustive', 'auto', 'lazy-greedy'] as const;
-
-function binomial(n: number, k: number): number {
-  let r = 1;
-  for (let i = 1; i <= k; i++) r = (r * (n - k + i)) / i;
-  return r;
-}
 
 function finalTotal(ctx: PlanContext, starters: number[], stateTotal: number): number {
   // Re-solve small rooms from scratch so every method reports the same, freshly factored value.
@@ -37,6 +32,15 @@ function finalTotal(ctx: PlanContext, starters: number[], stateTotal: number): n
 
 function finishState(ctx: PlanContext, method: PlanMethod, s: AbsorbingState, extra: { certified?: boolean } = {}): PlanResult {
   return finishPlan(ctx, method, [...s.starters], finalTotal(ctx, s.starters, s.total), extra);
+}
+
+/** Rooms up to this size get branch and bound after the heuristics under auto. */
+const SEARCH_LIMIT = 400;
+
+/** A heuristic plan with the cheap proven bounds of docs/bounds.md added. */
+function quick(ctx: PlanContext, method: PlanMethod, s: AbsorbingState): PlanResult {
+  addQuickBounds(ctx);
+  return finishState(ctx, method, s);
 }
 
 export function plan(input: RoomInput, options: PlanOptions): PlanResult {
@@ -66,11 +70,11 @@ export function plan(input: RoomInput, options: PlanOptions): PlanResult {
   }
   switch (method) {
     case 'greedy':
-      return finishState(ctx, 'greedy', greedyState(ctx));
+      return quick(ctx, 'greedy', greedyState(ctx));
     case 'swap':
-      return finishState(ctx, 'swap', swapPolish(ctx, greedyState(ctx)));
+      return quick(ctx, 'swap', swapPolish(ctx, greedyState(ctx)));
     case 'widened':
-      return finishState(ctx, 'widened', widenedState(ctx, greedyState(ctx)));
+      return quick(ctx, 'widened', widenedState(ctx, greedyState(ctx)));
     case 'exhaustive':
       return runExhaustive(ctx);
     default:
@@ -78,14 +82,36 @@ export function plan(input: RoomInput, options: PlanOptions): PlanResult {
   }
 }
 
-function runExhaustive(ctx: PlanContext): PlanResult {
-  const start = swapPolish(ctx, greedyState(ctx));
+/** The heuristic incumbent of every search: widened greedy, then swap polish. */
+function heuristicState(ctx: PlanContext): AbsorbingState {
+  return swapPolish(ctx, widenedState(ctx, greedyState(ctx)));
+}
+
+/**
+ * Branch and bound from the heuristic plan. `method` names the result: 'exhaustive' when asked
+ * for, otherwise the heuristic's own name unless the search found a strictly better set.
+ */
+function runSearch(ctx: PlanContext, start: AbsorbingState, method: PlanMethod): PlanResult {
   const out = exhaustiveSearch(ctx, start);
-  if (!out.complete)
-    ctx.warnings.push(`Time limit reached after ${out.nodes} search nodes: the best plan found is returned with a proven gap.`);
-  else ctx.notes.push(`Branch and bound visited ${out.nodes} nodes.`);
+  const improved = out.state.total < start.total * (1 - 1e-12);
+  const name: PlanMethod = method === 'exhaustive' || improved ? 'exhaustive' : method;
+  const left = `${(100 * out.searchLeft).toPrecision(2)} % of the search space`;
+  if (out.stopped) ctx.warnings.push(`The search was stopped after ${out.nodes} steps with ${left} still open: the best plan found is returned with its proven gap.`);
+  else if (!out.complete)
+    ctx.warnings.push(`Time limit reached after ${out.nodes} search steps with ${left} still open: the best plan found is returned with its proven gap.`);
+  else ctx.notes.push(`Branch and bound checked every plan of this size (${out.nodes} search steps): proven best.`);
   const total = finalTotal(ctx, out.state.starters, out.state.total);
-  return finishPlan(ctx, 'exhaustive', out.state.starters, total, { certified: out.complete });
+  return finishPlan(ctx, name, out.state.starters, total, {
+    certified: out.complete,
+    lowerBound: out.lowerBound,
+    stopped: out.stopped,
+    nodes: out.nodes,
+    searchLeft: out.searchLeft,
+  });
+}
+
+function runExhaustive(ctx: PlanContext): PlanResult {
+  return runSearch(ctx, heuristicState(ctx), 'exhaustive');
 }
 
 function auto(ctx: PlanContext): PlanResult {
@@ -99,16 +125,14 @@ function auto(ctx: PlanContext): PlanResult {
       return finishState(ctx, 'greedy', s);
     }
   }
-  const free = n - ctx.exclude.length - ctx.mustInclude.length;
-  const sets = binomial(free, k - ctx.mustInclude.length);
-  if ((n <= 150 && sets <= 2e6) || (n <= 40 && k <= 6) || k === 1) return runExhaustive(ctx);
-  const g = greedyState(ctx);
-  if (n <= 400) {
-    const w = widenedState(ctx, g);
-    const s = swapPolish(ctx, w);
-    ctx.notes.push('Widened greedy, then swap polish.');
-    return finishState(ctx, 'swap', s);
+  if (n <= SEARCH_LIMIT) {
+    // Widened greedy and swap polish, then branch and bound for the rest of the time budget:
+    // certified, or the heuristic plan with the proven gap the search reached.
+    ctx.notes.push('Widened greedy, then swap polish, then branch and bound.');
+    return runSearch(ctx, heuristicState(ctx), 'swap');
   }
+  const g = greedyState(ctx);
+  addQuickBounds(ctx);
   ctx.notes.push('Greedy, then swap polish.');
   return finishState(ctx, 'swap', swapPolish(ctx, g));
 }
