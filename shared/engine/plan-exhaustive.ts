@@ -19,6 +19,7 @@
  * completion. Cost O(n^2) per expanded node plus O(|C| r) per child; exponential in the worst case.
  */
 import { AbsorbingState } from './dense-state';
+import { CandState } from './plan-branch-state';
 import type { PlanContext } from './plan-context';
 import { firstStarterBounds } from './plan-bounds';
 import { SearchMeter, binomialTable } from './plan-search-meter';
@@ -41,25 +42,23 @@ interface Root {
   readonly bound: number;
 }
 
-/** Per-depth scratch arrays of one node. */
+/** Per-depth scratch of one node: its state, the candidates by decreasing gain, the child bounds. */
 interface Level {
-  state: AbsorbingState | null;
-  order: Int32Array;
-  gain: Float64Array;
-  childLb: Float64Array;
-  suffixMin: Float64Array;
+  readonly state: CandState;
+  readonly order: Int32Array;
+  readonly gain: Float64Array;
+  readonly childLb: Float64Array;
+  readonly suffixMin: Float64Array;
   /** Position of the child being explored (for the pending lower bound). */
   at: number;
   size: number;
 }
 
 export function exhaustiveSearch(ctx: PlanContext, incumbent: { starters: number[]; rawTotal: number; scale: number }): ExhaustiveOutcome {
-  const search = new BranchSearch(ctx, incumbent);
-  return search.run();
+  return new BranchSearch(ctx, incumbent).run();
 }
 
 class BranchSearch {
-  private readonly n: number;
   private readonly k: number;
   private readonly scale: number;
   private best: number;
@@ -71,34 +70,35 @@ class BranchSearch {
   private roots: Root[] = [];
   private rootAt = 0;
   private readonly buf: Float64Array;
-  private readonly gainOf: Float64Array;
   private readonly idx: number[] = [];
+  private readonly trip: Record<'col' | 'row' | 'diag' | 'h' | 'c' | 'g' | 'sufMax', Float64Array>;
 
   constructor(
     private readonly ctx: PlanContext,
     incumbent: { starters: number[]; rawTotal: number; scale: number },
   ) {
-    this.n = ctx.n;
+    const n = ctx.n;
     this.k = ctx.k;
     this.scale = incumbent.scale;
     this.best = incumbent.rawTotal;
     this.bestSet = [...incumbent.starters];
-    this.floor = ctx.n - ctx.k; // raw hops: every non-starter needs at least one (identity 6)
-    this.binom = binomialTable(ctx.n, ctx.k);
+    this.floor = n - ctx.k; // raw hops: every non-starter needs at least one (identity 6)
+    this.binom = binomialTable(n, ctx.k);
     this.meter = new SearchMeter(
       ctx,
       () => this.pendingBound() * this.scale,
       () => this.best * this.scale,
     );
     this.buf = new Float64Array(ctx.k + 1);
-    this.gainOf = new Float64Array(ctx.n);
+    const vec = () => new Float64Array(n + 1);
+    this.trip = { col: vec(), row: vec(), diag: vec(), h: vec(), c: vec(), g: vec(), sufMax: vec() };
     for (let d = 0; d <= ctx.k; d++)
       this.levels.push({
-        state: null,
-        order: new Int32Array(ctx.n),
-        gain: new Float64Array(ctx.n),
-        childLb: new Float64Array(ctx.n),
-        suffixMin: new Float64Array(ctx.n + 1),
+        state: new CandState(n),
+        order: new Int32Array(n),
+        gain: new Float64Array(n),
+        childLb: new Float64Array(n),
+        suffixMin: new Float64Array(n + 1),
         at: 0,
         size: 0,
       });
@@ -120,35 +120,17 @@ class BranchSearch {
   }
 
   run(): ExhaustiveOutcome {
-    this.roots = buildRoots(this.ctx, this.k);
+    const roots = buildRoots(this.ctx, this.k);
     let space = 0;
-    for (const r of this.roots) space += this.sets(r.cand.length, this.k - r.set.length);
+    for (const r of roots) space += this.sets(r.cand.length, this.k - r.set.length);
     this.meter.begin(space);
-    const order = this.roots.map((_, q) => q).sort((a, b) => this.roots[a].bound - this.roots[b].bound || a - b);
-    const sortedRoots = order.map((q) => this.roots[q]);
-    this.roots = sortedRoots;
-    const e = this.ctx.ergodic();
+    // Roots in order of their bound, so the pending lower bound rises as they are closed.
+    this.roots = roots
+      .map((_, q) => q)
+      .sort((a, b) => roots[a].bound - roots[b].bound || a - b)
+      .map((q) => roots[q]);
     for (this.rootAt = 0; this.rootAt < this.roots.length; this.rootAt++) {
-      const root = this.roots[this.rootAt];
-      const r = this.k - root.set.length;
-      const size = this.sets(root.cand.length, r);
-      if (this.pruneAt(Math.max(this.floor, root.bound)) || size === 0) {
-        this.meter.close(size);
-        continue;
-      }
-      let s: AbsorbingState;
-      try {
-        s = e && root.set.length === 1 ? AbsorbingState.fromErgodic(e, root.set[0]) : AbsorbingState.fromStarters(this.ctx.room, root.set);
-      } catch {
-        this.meter.close(size);
-        continue;
-      }
-      if (r === 0) {
-        this.leaf(s.rawTotal, () => [...s.starters]);
-        this.meter.close(1);
-        continue;
-      }
-      this.node(s, root.cand, root.cand.length, r, 0);
+      this.root(this.roots[this.rootAt]);
       if (this.meter.halted) break;
     }
     const complete = !this.meter.halted;
@@ -164,6 +146,29 @@ class BranchSearch {
     };
   }
 
+  private root(root: Root): void {
+    const r = this.k - root.set.length;
+    const size = this.sets(root.cand.length, r);
+    if (size === 0 || this.pruneAt(Math.max(this.floor, root.bound))) {
+      this.meter.close(size);
+      return;
+    }
+    const e = this.ctx.ergodic();
+    let s: AbsorbingState;
+    try {
+      s = e && root.set.length === 1 ? AbsorbingState.fromErgodic(e, root.set[0]) : AbsorbingState.fromStarters(this.ctx.room, root.set);
+    } catch {
+      this.meter.close(size); // a singular system: some people cannot reach this set
+      return;
+    }
+    if (r === 0) {
+      this.leaf(s.rawTotal, () => [...s.starters]);
+      this.meter.close(1);
+      return;
+    }
+    this.node(this.levels[0].state.load(s, root.cand), r, 0);
+  }
+
   /** Smallest bound over everything not yet decided (raw): pending roots and pending children on the stack. */
   private pendingBound(): number {
     let lb = this.best;
@@ -175,69 +180,120 @@ class BranchSearch {
     return Math.max(this.floor, lb);
   }
 
-  /** Gains at s over the candidates, sorted by decreasing gain (ties: earlier person first). */
-  private orderCandidates(s: AbsorbingState, cand: Int32Array, m: number, lv: Level): void {
-    const g = this.gainOf;
+  /** Local candidates sorted by decreasing gain at S (ties: earlier person first). */
+  private orderCandidates(s: CandState, lv: Level): void {
+    const m = s.m;
+    const g = this.trip.g;
     const idx = this.idx;
     idx.length = m;
     for (let q = 0; q < m; q++) {
-      const x = cand[q];
-      idx[q] = x;
-      g[x] = Math.max(0, s.rawGain(x));
+      idx[q] = q;
+      g[q] = Math.max(0, s.gain(q));
     }
-    idx.sort((a, b) => g[b] - g[a] || a - b);
+    idx.sort((a, b) => g[b] - g[a] || s.ids[a] - s.ids[b]);
     for (let q = 0; q < m; q++) {
       lv.order[q] = idx[q];
       lv.gain[q] = g[idx[q]];
     }
   }
 
-  private node(s: AbsorbingState, cand: Int32Array, m: number, r: number, depth: number): void {
+  private node(s: CandState, r: number, depth: number): void {
     if (this.meter.tick()) return;
     const lv = this.levels[depth];
-    this.orderCandidates(s, cand, m, lv);
-    const F = s.rawTotal;
+    const m = s.m;
+    this.orderCandidates(s, lv);
     if (r === 1) {
-      for (let q = 0; q < m; q++) this.leaf(F - lv.gain[q], () => [...s.starters, lv.order[q]]);
+      for (let q = 0; q < m; q++) this.leaf(s.F - lv.gain[q], () => [...s.starters, s.ids[lv.order[q]]]);
       this.meter.close(m);
       return;
     }
-    this.childBounds(s, lv, m, r);
+    this.childBounds(s, lv, r);
     lv.size = m;
-    let child: AbsorbingState | null = null;
     for (let p = 0; p < m; p++) {
       lv.at = p;
       const rest = m - p - 1;
       const size = this.sets(rest, r - 1);
       if (size === 0) break;
-      const lb = Math.max(this.floor, lv.childLb[p]);
-      if (this.pruneAt(lb)) {
+      if (this.pruneAt(Math.max(this.floor, lv.childLb[p]))) {
         this.meter.close(size);
         continue;
       }
-      const x = lv.order[p];
-      if (r === 2) {
-        this.pairLeaves(s, lv, p, m);
-        this.meter.close(size);
+      if (r === 2) this.pairLeaves(s, lv, p);
+      else if (r === 3) this.tripleLeaves(s, lv, p);
+      else {
+        const next = this.levels[depth + 1];
+        s.childInto(next.state, lv.order[p], lv.gain[p], lv.order, p + 1, m);
+        this.node(next.state, r - 1, depth + 1);
+        next.size = 0;
+        if (this.meter.halted) return;
         continue;
       }
-      const next = this.levels[depth + 1];
-      child = next.state ? next.state.copyFrom(s) : (next.state = s.clone());
-      child.add(x);
-      this.node(child, lv.order.subarray(p + 1, m), rest, r - 1, depth + 1);
-      next.size = 0;
-      if (this.meter.halted) return;
+      this.meter.close(size);
+      if (r === 3 && this.meter.tick()) return;
     }
     lv.size = 0;
   }
 
   /** Exact totals of S + x + y for every later y (r = 2): F - ρ_x(S) - ρ_y(S + x). */
-  private pairLeaves(s: AbsorbingState, lv: Level, p: number, m: number): void {
+  private pairLeaves(s: CandState, lv: Level, p: number): void {
     const x = lv.order[p];
-    const base = s.rawTotal - lv.gain[p];
-    for (let q = p + 1; q < m; q++) {
+    const base = s.F - lv.gain[p];
+    for (let q = p + 1; q < s.m; q++) {
       const y = lv.order[q];
-      this.leaf(base - pairGain(s, x, y), () => [...s.starters, x, y]);
+      const t = base - s.pairGain(x, y);
+      if (t < this.best - 1e-12 * Math.abs(this.best)) this.leaf(t, () => [...s.starters, s.ids[x], s.ids[y]]);
+    }
+  }
+
+  /**
+   * r = 3: every completion S + x + y + z with x = order[p] and y, z later, evaluated in O(1)
+   * each (identity 1 applied twice to the entries of y and z), skipping y when even the largest
+   * later ρ_z(S + x) cannot bring the total below the best (supermodularity: ρ_z(S + x + y) <= ρ_z(S + x)).
+   */
+  private tripleLeaves(s: CandState, lv: Level, p: number): void {
+    const { N, h, c, m } = s;
+    const x = lv.order[p];
+    const rx = x * m;
+    const nxx = N[rx + x];
+    const t = this.trip;
+    const len = m - p - 1;
+    // Entries of the state after adding x, for the later candidates (index q - p - 1).
+    for (let q = 0; q < len; q++) {
+      const a = lv.order[p + 1 + q];
+      const fa = N[a * m + x] / nxx;
+      t.col[q] = fa;
+      t.row[q] = N[rx + a];
+      t.diag[q] = N[a * m + a] - fa * N[rx + a];
+      t.h[q] = h[a] - fa * h[x];
+      t.c[q] = c[a] - (c[x] * N[rx + a]) / nxx;
+      t.sufMax[q] = Math.max(0, (t.h[q] * t.c[q]) / t.diag[q]);
+    }
+    let run = 0;
+    for (let q = len - 1; q >= 0; q--) {
+      const g = t.sufMax[q];
+      t.sufMax[q] = run; // now: largest ρ_z(S + x) over z after q
+      t.g[q] = g;
+      run = Math.max(run, g);
+    }
+    const base = s.F - lv.gain[p];
+    const ids = s.ids;
+    for (let qy = 0; qy + 1 < len; qy++) {
+      const after = base - t.g[qy];
+      if (this.pruneAt(Math.max(this.floor, after - t.sufMax[qy]))) continue;
+      const y = lv.order[p + 1 + qy];
+      const dy = t.diag[qy];
+      const hy = t.h[qy];
+      const cy = t.c[qy];
+      const ry = y * m;
+      for (let qz = qy + 1; qz < len; qz++) {
+        const z = lv.order[p + 1 + qz];
+        const nzy = N[z * m + y] - t.col[qz] * t.row[qy];
+        const nyz = N[ry + z] - t.col[qy] * t.row[qz];
+        const f = nzy / dy;
+        const gz = ((t.h[qz] - f * hy) * (t.c[qz] - (cy * nyz) / dy)) / (t.diag[qz] - f * nyz);
+        const total = after - gz;
+        if (total < this.best - 1e-12 * Math.abs(this.best)) this.leaf(total, () => [...s.starters, ids[x], ids[y], ids[z]]);
+      }
     }
   }
 
@@ -246,8 +302,8 @@ class BranchSearch {
    * suffixMin[p] = min over children p.. of childLb. The scan of later candidates stops once
    * the r - 1 kept values are all at least the next ρ_y(S) (gains are sorted, and ρ_y(S + x) <= ρ_y(S)).
    */
-  private childBounds(s: AbsorbingState, lv: Level, m: number, r: number): void {
-    const F = s.rawTotal;
+  private childBounds(s: CandState, lv: Level, r: number): void {
+    const m = s.m;
     const want = r - 1;
     const buf = this.buf;
     for (let p = 0; p < m; p++) {
@@ -257,7 +313,7 @@ class BranchSearch {
       for (let q = p + 1; q < m; q++) {
         const cap = lv.gain[q];
         if (kept === want && buf[kept - 1] >= cap) break;
-        const v = Math.min(cap, Math.max(0, pairGain(s, x, lv.order[q])));
+        const v = Math.min(cap, Math.max(0, s.pairGain(x, lv.order[q])));
         if (kept < want) {
           let at = kept++;
           while (at > 0 && buf[at - 1] < v) {
@@ -276,27 +332,11 @@ class BranchSearch {
           buf[at] = v;
         }
       }
-      lv.childLb[p] = kept < want ? Infinity : F - lv.gain[p] - sum;
+      lv.childLb[p] = kept < want ? Infinity : s.F - lv.gain[p] - sum;
     }
     lv.suffixMin[m] = Infinity;
     for (let p = m - 1; p >= 0; p--) lv.suffixMin[p] = Math.min(lv.suffixMin[p + 1], lv.childLb[p]);
   }
-}
-
-/**
- * ρ_y(S + x), the gain of y after x joins S, from the state of S in O(1) (identity 1 on the
- * entries of y): N'_yy = N_yy - N_yx N_xy / N_xx, h'_y = h_y - N_yx h_x / N_xx,
- * c'_y = c_y - c_x N_xy / N_xx, and ρ_y = h'_y c'_y / N'_yy (identity 2).
- */
-export function pairGain(s: AbsorbingState, x: number, y: number): number {
-  const { N, h, c, n } = s;
-  const nxx = N[x * n + x];
-  const nyx = N[y * n + x];
-  const nxy = N[x * n + y];
-  const nyy = N[y * n + y] - (nyx * nxy) / nxx;
-  const hy = h[y] - (nyx * h[x]) / nxx;
-  const cy = c[y] - (c[x] * nxy) / nxx;
-  return (hy * cy) / nyy;
 }
 
 /**
