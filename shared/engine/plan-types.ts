@@ -119,4 +119,6 @@ export interface NoShowReport {
   /** Exact over all 2^k subsets, or sampled (with the stated standard error). */
   readonly exact: boolean;
   readonly standardError: number;
+  /** True when every plan of this size was scored on the expected total (exhaustive). */
+  readonly provenBest?: boolean;
 }

@@ -19,6 +19,7 @@ import { swapPolish } from './plan-swap';
 import type { PlanMethod, PlanOptions, PlanResult } from './plan-types';
 import { widenedState } from './plan-widened';
 import { addQuickBounds } from './plan-bounds';
+import { NO_SHOW_EXACT_LIMIT, noShowExhaustive, noShowGreedy, noShowReport, noShowSwap, requireNoShowRoom } from './plan-noshow';
 import { exactReach, DEFAULT_DENSE_LIMIT } from './reach';
 import type { RoomInput } from './room';
 
@@ -63,6 +64,11 @@ export function plan(input: RoomInput, options: PlanOptions): PlanResult {
       `Exhaustive search is limited to rooms of at most ${limit} people (this room has ${ctx.n}); use greedy, auto or lazy-greedy.`,
     );
   }
+  if (options.noShow !== undefined) {
+    if (big || method === 'lazy-greedy')
+      throw new EngineError('INVALID_OPTION', `No-show plans are computed for rooms of at most ${limit} people with dense methods.`);
+    return noShowPlan(ctx, method, options.noShow);
+  }
   if (big || method === 'lazy-greedy') {
     if (big && method !== 'auto' && method !== 'lazy-greedy')
       ctx.warnings.push(`The room has ${ctx.n} people, above the dense limit of ${limit}: lazy greedy was used instead of ${method}.`);
@@ -96,9 +102,14 @@ function runSearch(ctx: PlanContext, start: AbsorbingState, method: PlanMethod):
   const improved = out.state.total < start.total * (1 - 1e-12);
   const name: PlanMethod = method === 'exhaustive' || improved ? 'exhaustive' : method;
   const left = `${(100 * out.searchLeft).toPrecision(2)} % of the search space`;
-  if (out.stopped) ctx.warnings.push(`The search was stopped after ${out.nodes} steps with ${left} still open: the best plan found is returned with its proven gap.`);
+  if (out.stopped)
+    ctx.warnings.push(
+      `The search was stopped after ${out.nodes} steps with ${left} still open: the best plan found is returned with its proven gap.`,
+    );
   else if (!out.complete)
-    ctx.warnings.push(`Time limit reached after ${out.nodes} search steps with ${left} still open: the best plan found is returned with its proven gap.`);
+    ctx.warnings.push(
+      `Time limit reached after ${out.nodes} search steps with ${left} still open: the best plan found is returned with its proven gap.`,
+    );
   else ctx.notes.push(`Branch and bound checked every plan of this size (${out.nodes} search steps): proven best.`);
   const total = finalTotal(ctx, out.state.starters, out.state.total);
   return finishPlan(ctx, name, out.state.starters, total, {
@@ -135,4 +146,41 @@ function auto(ctx: PlanContext): PlanResult {
   addQuickBounds(ctx);
   ctx.notes.push('Greedy, then swap polish.');
   return finishState(ctx, 'swap', swapPolish(ctx, g));
+}
+
+/**
+ * Plans under a no-show chance (plan-noshow.ts): greedy, then swap polish (all methods but
+ * greedy), then every k-set when exhaustive is asked and affordable. Above 12 starters the
+ * plan is chosen for full attendance and the expectation is sampled.
+ */
+function noShowPlan(ctx: PlanContext, method: string, p: number): PlanResult {
+  requireNoShowRoom(ctx, p);
+  let set: number[];
+  let used: PlanMethod = method === 'greedy' ? 'greedy' : method === 'exhaustive' ? 'exhaustive' : 'swap';
+  let certified = false;
+  if (ctx.k > NO_SHOW_EXACT_LIMIT) {
+    set = [...heuristicState(ctx).starters];
+    used = 'swap';
+    ctx.notes.push(`With more than ${NO_SHOW_EXACT_LIMIT} starters the plan is chosen for full attendance; the expected total is sampled.`);
+  } else {
+    set = noShowGreedy(ctx, p);
+    if (method !== 'greedy') {
+      const polished = noShowSwap(ctx, set, p);
+      set = polished.set;
+      if (method === 'exhaustive') {
+        const all = noShowExhaustive(ctx, p, polished);
+        if (all) {
+          set = all.set;
+          certified = true;
+          ctx.notes.push('Every plan of this size was scored on the expected total: proven best for this no-show chance.');
+        } else {
+          used = 'swap';
+          ctx.warnings.push('Too many plans of this size to score each on the expected total: greedy and swap polish were used.');
+        }
+      }
+    }
+  }
+  const report = noShowReport(ctx, set, p);
+  const total = exactReach(ctx.room, set, { solver: 'dense' }).total;
+  return { ...finishPlan(ctx, used, set, total), noShow: { ...report, provenBest: certified } };
 }
