@@ -241,6 +241,7 @@ export function finishPlan(ctx: PlanContext, method: PlanMethod, starters: numbe
     ...(extra.searchLeft !== undefined ? { searchLeft: certified ? 0 : extra.searchLeft } : {}),
     ...(single ? { bestSingle: single } : {}),
     fewestForOneHop: cover.size,
+    fewestToReachAll: fewestToReachAll(ctx),
     gainShare: gainShare(total, lowerBound, single?.total),
     elapsedMs: performance.now() - ctx.started,
     coverSize: cover.size,
@@ -258,4 +259,10 @@ function bestSingle(ctx: PlanContext): { person: number; total: number } | undef
   for (let j = 0; j < ctx.n; j++)
     if (beats(e.singleTotals[j], j, best < 0 ? Infinity : e.singleTotals[best], best, tieTolerance(ctx.n))) best = j;
   return best >= 0 && Number.isFinite(e.singleTotals[best]) ? { person: best, total: e.singleTotals[best] } : undefined;
+}
+
+/** Required people plus one starter for every closed group that holds none of them. */
+function fewestToReachAll(ctx: PlanContext): number {
+  const must = new Set(ctx.mustInclude);
+  return must.size + ctx.classes.closedClasses.filter((cls) => !cls.some((p) => must.has(p))).length;
 }

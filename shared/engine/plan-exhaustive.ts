@@ -54,6 +54,9 @@ interface Level {
   size: number;
 }
 
+/** Rooms up to this size are split into two-starter pieces before the search (memory O(n^3)). */
+const SPLIT_LIMIT = 150;
+
 export function exhaustiveSearch(ctx: PlanContext, incumbent: { starters: number[]; rawTotal: number; scale: number }): ExhaustiveOutcome {
   return new BranchSearch(ctx, incumbent).run();
 }
@@ -124,15 +127,13 @@ class BranchSearch {
     let space = 0;
     for (const r of roots) space += this.sets(r.cand.length, this.k - r.set.length);
     this.meter.begin(space);
-    // Roots in order of their bound, so the pending lower bound rises as they are closed.
-    this.roots = roots
+    const items = this.ctx.n <= SPLIT_LIMIT ? this.split(roots) : roots;
+    // Items in order of their bound, so the pending lower bound rises as they are closed.
+    this.roots = items
       .map((_, q) => q)
-      .sort((a, b) => roots[a].bound - roots[b].bound || a - b)
-      .map((q) => roots[q]);
-    for (this.rootAt = 0; this.rootAt < this.roots.length; this.rootAt++) {
-      this.root(this.roots[this.rootAt]);
-      if (this.meter.halted) break;
-    }
+      .sort((a, b) => items[a].bound - items[b].bound || a - b)
+      .map((q) => items[q]);
+    for (this.rootAt = 0; this.rootAt < this.roots.length && !this.meter.halted; this.rootAt++) this.root(this.roots[this.rootAt]);
     const complete = !this.meter.halted;
     const lowerRaw = complete ? this.best : Math.min(this.best, this.pendingBound());
     this.meter.finish();
@@ -146,6 +147,63 @@ class BranchSearch {
     };
   }
 
+  /** The state of a root or item set (ergodic data for the first starter, then downdates). */
+  private stateOf(set: readonly number[]): AbsorbingState | null {
+    const e = this.ctx.ergodic();
+    try {
+      if (e && e.pi[set[0]] > 0) {
+        const s = AbsorbingState.fromErgodic(e, set[0]);
+        for (let q = 1; q < set.length; q++) s.add(set[q]);
+        return s;
+      }
+      return AbsorbingState.fromStarters(this.ctx.room, set);
+    } catch {
+      return null; // a singular system: some people cannot reach this set
+    }
+  }
+
+  /**
+   * Splits every root with at least three starters to add into its children (one more starter,
+   * the child bound of node()), so the search closes many small pieces in order of their bound
+   * and the pending lower bound rises steadily. O(|C|^2 r) per root.
+   */
+  private split(roots: Root[]): Root[] {
+    const out: Root[] = [];
+    const lv = this.levels[0];
+    for (const root of roots) {
+      const r = this.k - root.set.length;
+      const size = this.sets(root.cand.length, r);
+      if (r < 3 || size === 0) {
+        if (size > 0) out.push(root);
+        continue;
+      }
+      if (this.pruneAt(Math.max(this.floor, root.bound))) {
+        this.meter.close(size);
+        continue;
+      }
+      const full = this.stateOf(root.set);
+      if (!full) {
+        this.meter.close(size);
+        continue;
+      }
+      const s = lv.state.load(full, root.cand);
+      this.orderCandidates(s, lv);
+      this.childBounds(s, lv, r);
+      for (let p = 0; p < s.m; p++) {
+        const part = this.sets(s.m - p - 1, r - 1);
+        if (part === 0) break;
+        if (this.pruneAt(Math.max(this.floor, lv.childLb[p]))) {
+          this.meter.close(part);
+          continue;
+        }
+        const cand = new Int32Array(s.m - p - 1);
+        for (let q = p + 1; q < s.m; q++) cand[q - p - 1] = s.ids[lv.order[q]];
+        out.push({ set: [...root.set, s.ids[lv.order[p]]], cand, bound: lv.childLb[p] });
+      }
+    }
+    return out;
+  }
+
   private root(root: Root): void {
     const r = this.k - root.set.length;
     const size = this.sets(root.cand.length, r);
@@ -153,12 +211,9 @@ class BranchSearch {
       this.meter.close(size);
       return;
     }
-    const e = this.ctx.ergodic();
-    let s: AbsorbingState;
-    try {
-      s = e && root.set.length === 1 ? AbsorbingState.fromErgodic(e, root.set[0]) : AbsorbingState.fromStarters(this.ctx.room, root.set);
-    } catch {
-      this.meter.close(size); // a singular system: some people cannot reach this set
+    const s = this.stateOf(root.set);
+    if (!s) {
+      this.meter.close(size);
       return;
     }
     if (r === 0) {
@@ -180,20 +235,21 @@ class BranchSearch {
     return Math.max(this.floor, lb);
   }
 
-  /** Local candidates sorted by decreasing gain at S (ties: earlier person first). */
+  /** Local candidates sorted by decreasing gain at S (ties: earlier person first); insertion sort, m <= n. */
   private orderCandidates(s: CandState, lv: Level): void {
     const m = s.m;
-    const g = this.trip.g;
-    const idx = this.idx;
-    idx.length = m;
+    const { order, gain } = lv;
+    const ids = s.ids;
     for (let q = 0; q < m; q++) {
-      idx[q] = q;
-      g[q] = Math.max(0, s.gain(q));
-    }
-    idx.sort((a, b) => g[b] - g[a] || s.ids[a] - s.ids[b]);
-    for (let q = 0; q < m; q++) {
-      lv.order[q] = idx[q];
-      lv.gain[q] = g[idx[q]];
+      const v = Math.max(0, s.gain(q));
+      let at = q;
+      while (at > 0 && (gain[at - 1] < v || (gain[at - 1] === v && ids[order[at - 1]] > ids[q]))) {
+        gain[at] = gain[at - 1];
+        order[at] = order[at - 1];
+        at--;
+      }
+      gain[at] = v;
+      order[at] = q;
     }
   }
 
@@ -306,12 +362,27 @@ class BranchSearch {
     const m = s.m;
     const want = r - 1;
     const buf = this.buf;
+    const gain = lv.gain;
+    // Cheap bound first: with gains at S (sorted), child p's bound is at least
+    // F - (gain[p] + ... + gain[p + r - 1]), which only grows with p; once it prunes, all later children are pruned.
+    let window = 0;
+    for (let q = 0; q < Math.min(r, m); q++) window += gain[q];
     for (let p = 0; p < m; p++) {
+      if (p > 0) window += (p + r - 1 < m ? gain[p + r - 1] : 0) - gain[p - 1];
+      if (p + r > m) {
+        lv.childLb[p] = Infinity;
+        continue;
+      }
+      const cheap = s.F - window;
+      if (this.pruneAt(cheap)) {
+        for (let q = p; q < m; q++) lv.childLb[q] = cheap;
+        break;
+      }
       const x = lv.order[p];
       let kept = 0;
       let sum = 0;
       for (let q = p + 1; q < m; q++) {
-        const cap = lv.gain[q];
+        const cap = gain[q];
         if (kept === want && buf[kept - 1] >= cap) break;
         const v = Math.min(cap, Math.max(0, s.pairGain(x, lv.order[q])));
         if (kept < want) {
@@ -332,7 +403,7 @@ class BranchSearch {
           buf[at] = v;
         }
       }
-      lv.childLb[p] = kept < want ? Infinity : s.F - lv.gain[p] - sum;
+      lv.childLb[p] = kept < want ? Infinity : s.F - gain[p] - sum;
     }
     lv.suffixMin[m] = Infinity;
     for (let p = m - 1; p >= 0; p--) lv.suffixMin[p] = Math.min(lv.suffixMin[p + 1], lv.childLb[p]);

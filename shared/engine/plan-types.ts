@@ -94,6 +94,11 @@ export interface PlanResult {
    */
   readonly fewestForOneHop: number;
   /**
+   * Fewest starters with whom everyone can hear at all (one per closed group, plus required
+   * people): 1 in a connected room, whatever the speed.
+   */
+  readonly fewestToReachAll: number;
+  /**
    * Share of the possible saving over the best single starter that this plan achieves:
    * (bestSingle.total - total) / (bestSingle.total - lowerBound), clamped to [0, 1]; 1 = proven
    * best of its size. Unlike rank it separates good plans of the same size (see quality.ts).
