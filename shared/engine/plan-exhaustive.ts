@@ -35,7 +35,7 @@ export interface ExhaustiveOutcome {
   readonly searchLeft: number;
 }
 
-interface Root {
+export interface Root {
   readonly set: number[];
   readonly cand: Int32Array;
   /** Proven bound (raw) on every set below this root. */
@@ -57,11 +57,31 @@ interface Level {
 /** Rooms up to this size are split into two-starter pieces before the search (memory O(n^3)). */
 const SPLIT_LIMIT = 150;
 
-export function exhaustiveSearch(ctx: PlanContext, incumbent: { starters: number[]; rawTotal: number; scale: number }): ExhaustiveOutcome {
-  return new BranchSearch(ctx, incumbent).run();
+export interface Incumbent {
+  readonly starters: readonly number[];
+  readonly rawTotal: number;
+  readonly scale: number;
 }
 
-class BranchSearch {
+/**
+ * What a search running on several threads shares (parallel/parallel-branch.ts): the best raw
+ * total of all threads, and this thread's pending bound, closed share and node count.
+ */
+export interface SearchLink {
+  best(): number;
+  offer(raw: number): void;
+  publish(pendingRaw: number, closed: number, nodes: number): void;
+}
+
+export function exhaustiveSearch(ctx: PlanContext, incumbent: Incumbent): ExhaustiveOutcome {
+  const search = new BranchSearch(ctx, incumbent);
+  const items = search.prepare();
+  let next = 0;
+  search.searchItems(items, () => (next < items.length ? next++ : -1));
+  return search.outcome();
+}
+
+export class BranchSearch {
   private readonly k: number;
   private readonly scale: number;
   private best: number;
@@ -78,7 +98,8 @@ class BranchSearch {
 
   constructor(
     private readonly ctx: PlanContext,
-    incumbent: { starters: number[]; rawTotal: number; scale: number },
+    incumbent: Incumbent,
+    private readonly link?: SearchLink,
   ) {
     const n = ctx.n;
     this.k = ctx.k;
@@ -119,21 +140,56 @@ class BranchSearch {
     if (total < this.best - 1e-12 * Math.abs(this.best)) {
       this.best = total;
       this.bestSet = set();
+      this.link?.offer(total);
     }
   }
 
-  run(): ExhaustiveOutcome {
+  /** Takes the other threads' best total and publishes this thread's state. */
+  private sync(): void {
+    if (!this.link) return;
+    this.best = Math.min(this.best, this.link.best());
+    this.link.publish(this.pendingBound(), this.meter.closedSets(), this.meter.nodes);
+  }
+
+  closedSets(): number {
+    return this.meter.closedSets();
+  }
+
+  space(): number {
+    return this.meter.spaceSize();
+  }
+
+  get halted(): boolean {
+    return this.meter.halted;
+  }
+
+  /** Roots, split into pieces on small rooms, sorted by bound (so the pending bound rises as they close). */
+  prepare(): Root[] {
     const roots = buildRoots(this.ctx, this.k);
     let space = 0;
     for (const r of roots) space += this.sets(r.cand.length, this.k - r.set.length);
     this.meter.begin(space);
     const items = this.ctx.n <= SPLIT_LIMIT ? this.split(roots) : roots;
-    // Items in order of their bound, so the pending lower bound rises as they are closed.
-    this.roots = items
+    return items
       .map((_, q) => q)
       .sort((a, b) => items[a].bound - items[b].bound || a - b)
       .map((q) => items[q]);
-    for (this.rootAt = 0; this.rootAt < this.roots.length && !this.meter.halted; this.rootAt++) this.root(this.roots[this.rootAt]);
+  }
+
+  /** Searches items[take()] until take() returns -1 or the search halts. */
+  searchItems(items: Root[], take: () => number): void {
+    this.roots = items;
+    for (;;) {
+      const q = this.meter.halted ? -1 : take();
+      if (q < 0) break;
+      this.rootAt = q;
+      this.root(items[q]);
+      this.sync();
+    }
+    this.rootAt = this.link ? items.length : this.rootAt;
+  }
+
+  outcome(): ExhaustiveOutcome {
     const complete = !this.meter.halted;
     const lowerRaw = complete ? this.best : Math.min(this.best, this.pendingBound());
     this.meter.finish();
@@ -225,9 +281,10 @@ class BranchSearch {
   }
 
   /** Smallest bound over everything not yet decided (raw): pending roots and pending children on the stack. */
-  private pendingBound(): number {
+  pendingBound(): number {
     let lb = this.best;
-    for (let q = this.rootAt + 1; q < this.roots.length; q++) lb = Math.min(lb, this.roots[q].bound);
+    // Alone, the items after the current one are pending too (with a link, the caller tracks them).
+    if (!this.link) for (let q = this.rootAt + 1; q < this.roots.length; q++) lb = Math.min(lb, this.roots[q].bound);
     for (const lv of this.levels) {
       if (lv.size === 0) break;
       lb = Math.min(lb, lv.suffixMin[lv.at + 1]);
@@ -255,6 +312,7 @@ class BranchSearch {
 
   private node(s: CandState, r: number, depth: number): void {
     if (this.meter.tick()) return;
+    if ((this.meter.nodes & 255) === 0) this.sync();
     const lv = this.levels[depth];
     const m = s.m;
     this.orderCandidates(s, lv);

@@ -31,6 +31,15 @@ export class SearchMeter {
     this.closed += sets;
   }
 
+  spaceSize(): number {
+    return this.space;
+  }
+
+  /** Number of k-sets decided so far. */
+  closedSets(): number {
+    return this.closed;
+  }
+
   /** Share of the search space not decided, 0..1. */
   left(): number {
     return Math.min(1, Math.max(0, 1 - this.closed / this.space));

@@ -12,7 +12,7 @@
 import { AbsorbingState } from './dense-state';
 import { EngineError } from './errors';
 import { finishPlan, planContext, type PlanContext } from './plan-context';
-import { exhaustiveSearch } from './plan-exhaustive';
+import { exhaustiveSearch, type ExhaustiveOutcome } from './plan-exhaustive';
 import { extendGreedy, greedyState } from './plan-greedy';
 import { lazyGreedyPlan } from './plan-lazy';
 import { swapPolish } from './plan-swap';
@@ -44,7 +44,22 @@ function quick(ctx: PlanContext, method: PlanMethod, s: AbsorbingState): PlanRes
   return finishState(ctx, method, s);
 }
 
+/** A plan that still needs its branch and bound: the context, the heuristic start and the result's name. */
+export interface PendingSearch {
+  readonly ctx: PlanContext;
+  readonly start: AbsorbingState;
+  readonly method: PlanMethod;
+}
+
 export function plan(input: RoomInput, options: PlanOptions): PlanResult {
+  const step = planStart(input, options);
+  if ('result' in step) return step.result;
+  return planFinish(step, exhaustiveSearch(step.ctx, step.start));
+}
+
+/** Everything before the search: a finished plan, or the search still to run (planFinish completes it). */
+export function planStart(input: RoomInput, options: PlanOptions): { result: PlanResult } | PendingSearch {
+  const done = (result: PlanResult) => ({ result });
   const method = options.method ?? 'auto';
   if (!(PLAN_METHODS as readonly string[]).includes(method)) {
     throw new EngineError('INVALID_OPTION', `Unknown method "${String(method)}": use one of ${PLAN_METHODS.join(', ')}.`);
@@ -67,22 +82,22 @@ export function plan(input: RoomInput, options: PlanOptions): PlanResult {
   if (options.noShow !== undefined) {
     if (big || method === 'lazy-greedy')
       throw new EngineError('INVALID_OPTION', `No-show plans are computed for rooms of at most ${limit} people with dense methods.`);
-    return noShowPlan(ctx, method, options.noShow);
+    return done(noShowPlan(ctx, method, options.noShow));
   }
   if (big || method === 'lazy-greedy') {
     if (big && method !== 'auto' && method !== 'lazy-greedy')
       ctx.warnings.push(`The room has ${ctx.n} people, above the dense limit of ${limit}: lazy greedy was used instead of ${method}.`);
-    return lazyGreedyPlan(ctx);
+    return done(lazyGreedyPlan(ctx));
   }
   switch (method) {
     case 'greedy':
-      return quick(ctx, 'greedy', greedyState(ctx));
+      return done(quick(ctx, 'greedy', greedyState(ctx)));
     case 'swap':
-      return quick(ctx, 'swap', swapPolish(ctx, greedyState(ctx)));
+      return done(quick(ctx, 'swap', swapPolish(ctx, greedyState(ctx))));
     case 'widened':
-      return quick(ctx, 'widened', widenedState(ctx, greedyState(ctx)));
+      return done(quick(ctx, 'widened', widenedState(ctx, greedyState(ctx))));
     case 'exhaustive':
-      return runExhaustive(ctx);
+      return { ctx, start: heuristicState(ctx), method: 'exhaustive' };
     default:
       return auto(ctx);
   }
@@ -97,8 +112,8 @@ function heuristicState(ctx: PlanContext): AbsorbingState {
  * Branch and bound from the heuristic plan. `method` names the result: 'exhaustive' when asked
  * for, otherwise the heuristic's own name unless the search found a strictly better set.
  */
-function runSearch(ctx: PlanContext, start: AbsorbingState, method: PlanMethod): PlanResult {
-  const out = exhaustiveSearch(ctx, start);
+export function planFinish(pending: PendingSearch, out: ExhaustiveOutcome): PlanResult {
+  const { ctx, start, method } = pending;
   const improved = out.state.total < start.total * (1 - 1e-12);
   const name: PlanMethod = method === 'exhaustive' || improved ? 'exhaustive' : method;
   const left = `${(100 * out.searchLeft).toPrecision(2)} % of the search space`;
@@ -121,11 +136,7 @@ function runSearch(ctx: PlanContext, start: AbsorbingState, method: PlanMethod):
   });
 }
 
-function runExhaustive(ctx: PlanContext): PlanResult {
-  return runSearch(ctx, heuristicState(ctx), 'exhaustive');
-}
-
-function auto(ctx: PlanContext): PlanResult {
+function auto(ctx: PlanContext): { result: PlanResult } | PendingSearch {
   const { n, k } = ctx;
   const cover = ctx.cover();
   if (ctx.room.mixing === 0 && cover.size <= k && !cover.cover.some((p) => !ctx.allowed[p])) {
@@ -133,19 +144,19 @@ function auto(ctx: PlanContext): PlanResult {
     if (set.length <= k) {
       const s = extendGreedy(ctx, AbsorbingState.fromStarters(ctx.room, set), k);
       ctx.notes.push(`A vertex cover of ${cover.size} people fits within k: every other person hears in one hop.`);
-      return finishState(ctx, 'greedy', s);
+      return { result: finishState(ctx, 'greedy', s) };
     }
   }
   if (n <= SEARCH_LIMIT) {
     // Widened greedy and swap polish, then branch and bound for the rest of the time budget:
     // certified, or the heuristic plan with the proven gap the search reached.
     ctx.notes.push('Widened greedy, then swap polish, then branch and bound.');
-    return runSearch(ctx, heuristicState(ctx), 'swap');
+    return { ctx, start: heuristicState(ctx), method: 'swap' };
   }
   const g = greedyState(ctx);
   addQuickBounds(ctx);
   ctx.notes.push('Greedy, then swap polish.');
-  return finishState(ctx, 'swap', swapPolish(ctx, g));
+  return { result: finishState(ctx, 'swap', swapPolish(ctx, g)) };
 }
 
 /**

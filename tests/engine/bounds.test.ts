@@ -140,3 +140,21 @@ describe('no-show plans (property-based, seeded)', () => {
     );
   });
 });
+
+describe('branch and bound on worker threads', () => {
+  it('planWithWorkers certifies the same optimum as the one-thread search and reports progress', async () => {
+    const { planWithWorkers } = await import('../../shared/engine/parallel/index');
+    const g = randomRoom(36, 50, false, 31);
+    const one = plan(g, { k: 6, method: 'exhaustive' });
+    const fractions: number[] = [];
+    const two = await planWithWorkers(
+      g,
+      { k: 6, method: 'exhaustive', onProgress: (p) => p.fraction !== undefined && fractions.push(p.fraction) },
+      2,
+    );
+    assert.ok(one.certified && two.certified);
+    assert.ok(relClose(one.total, two.total, 1e-9));
+    assert.equal(two.lowerBound, two.total);
+    assert.ok(fractions.length > 0);
+  });
+});
