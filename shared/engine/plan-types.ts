@@ -29,6 +29,11 @@ export interface PlanOptions extends WalkOptions {
   readonly nu?: number;
   /** Exhaustive (and auto): time budget in milliseconds (default 10 000). */
   readonly timeLimitMs?: number;
+  /**
+   * Greedy, widened and swap: milliseconds of branch and bound run after the heuristic only to
+   * prove a lower bound (default 0: cheap bounds only). Rooms up to 400 people.
+   */
+  readonly boundMs?: number;
   /** People who must be briefed (indices). */
   readonly mustInclude?: readonly number[];
   /** People who cannot be briefed (indices). */

@@ -158,3 +158,17 @@ describe('branch and bound on worker threads', () => {
     assert.ok(fractions.length > 0);
   });
 });
+
+describe('bounding search after a heuristic plan', () => {
+  it('boundMs keeps the heuristic plan and raises its proven bound to the certified optimum on a small room', () => {
+    const g = randomRoom(30, 40, false, 12);
+    const plain = plan(g, { k: 4, method: 'greedy' });
+    const bounded = plan(g, { k: 4, method: 'greedy', boundMs: 5000 });
+    const best = plan(g, { k: 4, method: 'exhaustive' });
+    assert.deepEqual(bounded.starters, plain.starters);
+    assert.ok(best.certified);
+    assert.ok(relClose(bounded.lowerBound, Math.min(best.total, bounded.total), 1e-9));
+    assert.ok(bounded.lowerBound >= plain.lowerBound);
+    assert.throws(() => plan(g, { k: 4, method: 'greedy', boundMs: -1 }), /bounding time/);
+  });
+});

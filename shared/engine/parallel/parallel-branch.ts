@@ -19,7 +19,7 @@ function workerFile(): URL {
   return new URL(here.endsWith('.ts') ? './branch-worker.ts' : './branch-worker.js', here);
 }
 
-const SOLO_MS = 300;
+const SOLO_MS = 1000;
 
 export async function exhaustiveParallel(ctx: PlanContext, start: AbsorbingState, threads: number): Promise<ExhaustiveOutcome> {
   const main = new BranchSearch(ctx, start);
