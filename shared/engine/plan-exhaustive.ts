@@ -16,7 +16,9 @@
  * (bound 2 of docs/bounds.md). ρ_y(S + x) for every pair (x, y) costs O(1) from the N, h, c of
  * S (identity 1 applied to one entry), so all child bounds of a node cost O(|C|^2) and no child
  * state is built for a pruned child; at r = 2 the same formula gives the exact totals of every
- * completion. Cost O(n^2) per expanded node plus O(|C| r) per child; exponential in the worst case.
+ * completion. Big subtrees also get the dual bound (bound 4: greedy completion Y, then
+ * F(S ∪ Y) - top_r gains at S ∪ Y). Cost O(|C|^2) per expanded node plus O(|C| r) per child;
+ * exponential in the worst case.
  */
 import { AbsorbingState } from './dense-state';
 import { CandState } from './plan-branch-state';
@@ -56,6 +58,8 @@ interface Level {
 
 /** Rooms up to this size are split into two-starter pieces before the search (memory O(n^3)). */
 const SPLIT_LIMIT = 150;
+/** Nodes with at least this many k-sets below them also get the dual bound (O(r m^2)). */
+const DUAL_MIN = 5000;
 
 export interface Incumbent {
   readonly starters: readonly number[];
@@ -93,7 +97,8 @@ export class BranchSearch {
   private roots: Root[] = [];
   private rootAt = 0;
   private readonly buf: Float64Array;
-  private readonly idx: number[] = [];
+  private readonly scratch: CandState;
+  private readonly picked: Uint8Array;
   private readonly trip: Record<'col' | 'row' | 'diag' | 'h' | 'c' | 'g' | 'sufMax', Float64Array>;
 
   constructor(
@@ -114,6 +119,8 @@ export class BranchSearch {
       () => this.best * this.scale,
     );
     this.buf = new Float64Array(ctx.k + 1);
+    this.scratch = new CandState(n);
+    this.picked = new Uint8Array(n);
     const vec = () => new Float64Array(n + 1);
     this.trip = { col: vec(), row: vec(), diag: vec(), h: vec(), c: vec(), g: vec(), sufMax: vec() };
     for (let d = 0; d <= ctx.k; d++)
@@ -244,7 +251,10 @@ export class BranchSearch {
       }
       const s = lv.state.load(full, root.cand);
       this.orderCandidates(s, lv);
-      this.childBounds(s, lv, r);
+      if (!this.nodeBounds(s, lv, r)) {
+        this.meter.close(size);
+        continue;
+      }
       for (let p = 0; p < s.m; p++) {
         const part = this.sets(s.m - p - 1, r - 1);
         if (part === 0) break;
@@ -321,7 +331,10 @@ export class BranchSearch {
       this.meter.close(m);
       return;
     }
-    this.childBounds(s, lv, r);
+    if (!this.nodeBounds(s, lv, r)) {
+      this.meter.close(this.sets(m, r));
+      return;
+    }
     lv.size = m;
     for (let p = 0; p < m; p++) {
       lv.at = p;
@@ -409,6 +422,21 @@ export class BranchSearch {
         if (total < this.best - 1e-12 * Math.abs(this.best)) this.leaf(total, () => [...s.starters, ids[x], ids[y], ids[z]]);
       }
     }
+  }
+
+  /**
+   * Child bounds, raised by the node's dual bound (bound 4 of docs/bounds.md) on big subtrees;
+   * false when the dual bound prunes the whole node.
+   */
+  private nodeBounds(s: CandState, lv: Level, r: number): boolean {
+    this.childBounds(s, lv, r);
+    if (r < 4 || this.sets(s.m, r) < DUAL_MIN) return true;
+    const dual = s.dualBound(r, this.scratch, this.picked);
+    if (this.pruneAt(Math.max(this.floor, dual))) return false;
+    const m = s.m;
+    for (let p = 0; p < m; p++) if (lv.childLb[p] < dual) lv.childLb[p] = dual;
+    for (let p = m - 1; p >= 0; p--) lv.suffixMin[p] = Math.min(lv.suffixMin[p + 1], lv.childLb[p]);
+    return true;
   }
 
   /**
