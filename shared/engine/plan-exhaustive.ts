@@ -23,7 +23,8 @@
 import { AbsorbingState } from './dense-state';
 import { CandState } from './plan-branch-state';
 import type { PlanContext } from './plan-context';
-import { firstStarterBounds } from './plan-bounds';
+import { childBounds, tripleLeaves, type Level, type TripleScratch } from './plan-branch-steps';
+import { buildRoots, type Root } from './plan-roots';
 import { SearchMeter, binomialTable } from './plan-search-meter';
 
 export interface ExhaustiveOutcome {
@@ -35,25 +36,6 @@ export interface ExhaustiveOutcome {
   readonly lowerBound: number;
   /** Share of the k-sets not decided (0 when complete). */
   readonly searchLeft: number;
-}
-
-export interface Root {
-  readonly set: number[];
-  readonly cand: Int32Array;
-  /** Proven bound (raw) on every set below this root. */
-  readonly bound: number;
-}
-
-/** Per-depth scratch of one node: its state, the candidates by decreasing gain, the child bounds. */
-interface Level {
-  readonly state: CandState;
-  readonly order: Int32Array;
-  readonly gain: Float64Array;
-  readonly childLb: Float64Array;
-  readonly suffixMin: Float64Array;
-  /** Position of the child being explored (for the pending lower bound). */
-  at: number;
-  size: number;
 }
 
 /** Rooms up to this size are split into two-starter pieces before the search (memory O(n^3)). */
@@ -90,7 +72,7 @@ export class BranchSearch {
   private readonly scale: number;
   private best: number;
   private bestSet: number[];
-  private readonly floor: number;
+  readonly floor: number;
   private readonly levels: Level[] = [];
   private readonly binom: Float64Array[];
   private readonly meter: SearchMeter;
@@ -99,7 +81,7 @@ export class BranchSearch {
   private readonly buf: Float64Array;
   private readonly scratch: CandState;
   private readonly picked: Uint8Array;
-  private readonly trip: Record<'col' | 'row' | 'diag' | 'h' | 'c' | 'g' | 'sufMax', Float64Array>;
+  private readonly trip: TripleScratch;
 
   constructor(
     private readonly ctx: PlanContext,
@@ -139,11 +121,15 @@ export class BranchSearch {
     return r < 0 || m < r ? 0 : this.binom[m][r];
   }
 
-  private pruneAt(lb: number): boolean {
+  pruneAt(lb: number): boolean {
     return lb >= this.best - 1e-11 * Math.abs(this.best);
   }
 
-  private leaf(total: number, set: () => number[]): void {
+  improves(total: number): boolean {
+    return total < this.best - 1e-12 * Math.abs(this.best);
+  }
+
+  leaf(total: number, set: () => number[]): void {
     if (total < this.best - 1e-12 * Math.abs(this.best)) {
       this.best = total;
       this.bestSet = set();
@@ -346,7 +332,7 @@ export class BranchSearch {
         continue;
       }
       if (r === 2) this.pairLeaves(s, lv, p);
-      else if (r === 3) this.tripleLeaves(s, lv, p);
+      else if (r === 3) tripleLeaves(s, lv, p, this.trip, this);
       else {
         const next = this.levels[depth + 1];
         s.childInto(next.state, lv.order[p], lv.gain[p], lv.order, p + 1, m);
@@ -373,63 +359,11 @@ export class BranchSearch {
   }
 
   /**
-   * r = 3: every completion S + x + y + z with x = order[p] and y, z later, evaluated in O(1)
-   * each (identity 1 applied twice to the entries of y and z), skipping y when even the largest
-   * later ρ_z(S + x) cannot bring the total below the best (supermodularity: ρ_z(S + x + y) <= ρ_z(S + x)).
-   */
-  private tripleLeaves(s: CandState, lv: Level, p: number): void {
-    const { N, h, c, m } = s;
-    const x = lv.order[p];
-    const rx = x * m;
-    const nxx = N[rx + x];
-    const t = this.trip;
-    const len = m - p - 1;
-    // Entries of the state after adding x, for the later candidates (index q - p - 1).
-    for (let q = 0; q < len; q++) {
-      const a = lv.order[p + 1 + q];
-      const fa = N[a * m + x] / nxx;
-      t.col[q] = fa;
-      t.row[q] = N[rx + a];
-      t.diag[q] = N[a * m + a] - fa * N[rx + a];
-      t.h[q] = h[a] - fa * h[x];
-      t.c[q] = c[a] - (c[x] * N[rx + a]) / nxx;
-      t.sufMax[q] = Math.max(0, (t.h[q] * t.c[q]) / t.diag[q]);
-    }
-    let run = 0;
-    for (let q = len - 1; q >= 0; q--) {
-      const g = t.sufMax[q];
-      t.sufMax[q] = run; // now: largest ρ_z(S + x) over z after q
-      t.g[q] = g;
-      run = Math.max(run, g);
-    }
-    const base = s.F - lv.gain[p];
-    const ids = s.ids;
-    for (let qy = 0; qy + 1 < len; qy++) {
-      const after = base - t.g[qy];
-      if (this.pruneAt(Math.max(this.floor, after - t.sufMax[qy]))) continue;
-      const y = lv.order[p + 1 + qy];
-      const dy = t.diag[qy];
-      const hy = t.h[qy];
-      const cy = t.c[qy];
-      const ry = y * m;
-      for (let qz = qy + 1; qz < len; qz++) {
-        const z = lv.order[p + 1 + qz];
-        const nzy = N[z * m + y] - t.col[qz] * t.row[qy];
-        const nyz = N[ry + z] - t.col[qy] * t.row[qz];
-        const f = nzy / dy;
-        const gz = ((t.h[qz] - f * hy) * (t.c[qz] - (cy * nyz) / dy)) / (t.diag[qz] - f * nyz);
-        const total = after - gz;
-        if (total < this.best - 1e-12 * Math.abs(this.best)) this.leaf(total, () => [...s.starters, ids[x], ids[y], ids[z]]);
-      }
-    }
-  }
-
-  /**
    * Child bounds, raised by the node's dual bound (bound 4 of docs/bounds.md) on big subtrees;
    * false when the dual bound prunes the whole node.
    */
   private nodeBounds(s: CandState, lv: Level, r: number): boolean {
-    this.childBounds(s, lv, r);
+    childBounds(s, lv, r, this.buf, this);
     if (r < 4 || this.sets(s.m, r) < DUAL_MIN) return true;
     const dual = s.dualBound(r, this.scratch, this.picked);
     if (this.pruneAt(Math.max(this.floor, dual))) return false;
@@ -438,105 +372,4 @@ export class BranchSearch {
     for (let p = m - 1; p >= 0; p--) lv.suffixMin[p] = Math.min(lv.suffixMin[p + 1], lv.childLb[p]);
     return true;
   }
-
-  /**
-   * childLb[p] = F - ρ_x(S) - top_{r-1} { min(ρ_y(S + x), ρ_y(S)) : y after x }, x = order[p];
-   * suffixMin[p] = min over children p.. of childLb. The scan of later candidates stops once
-   * the r - 1 kept values are all at least the next ρ_y(S) (gains are sorted, and ρ_y(S + x) <= ρ_y(S)).
-   */
-  private childBounds(s: CandState, lv: Level, r: number): void {
-    const m = s.m;
-    const want = r - 1;
-    const buf = this.buf;
-    const gain = lv.gain;
-    // Cheap bound first: with gains at S (sorted), child p's bound is at least
-    // F - (gain[p] + ... + gain[p + r - 1]), which only grows with p; once it prunes, all later children are pruned.
-    let window = 0;
-    for (let q = 0; q < Math.min(r, m); q++) window += gain[q];
-    for (let p = 0; p < m; p++) {
-      if (p > 0) window += (p + r - 1 < m ? gain[p + r - 1] : 0) - gain[p - 1];
-      if (p + r > m) {
-        lv.childLb[p] = Infinity;
-        continue;
-      }
-      const cheap = s.F - window;
-      if (this.pruneAt(cheap)) {
-        for (let q = p; q < m; q++) lv.childLb[q] = cheap;
-        break;
-      }
-      const x = lv.order[p];
-      let kept = 0;
-      let sum = 0;
-      for (let q = p + 1; q < m; q++) {
-        const cap = gain[q];
-        if (kept === want && buf[kept - 1] >= cap) break;
-        const v = Math.min(cap, Math.max(0, s.pairGain(x, lv.order[q])));
-        if (kept < want) {
-          let at = kept++;
-          while (at > 0 && buf[at - 1] < v) {
-            buf[at] = buf[at - 1];
-            at--;
-          }
-          buf[at] = v;
-          sum += v;
-        } else if (v > buf[kept - 1]) {
-          sum += v - buf[kept - 1];
-          let at = kept - 1;
-          while (at > 0 && buf[at - 1] < v) {
-            buf[at] = buf[at - 1];
-            at--;
-          }
-          buf[at] = v;
-        }
-      }
-      lv.childLb[p] = kept < want ? Infinity : s.F - gain[p] - sum;
-    }
-    lv.suffixMin[m] = Infinity;
-    for (let p = m - 1; p >= 0; p--) lv.suffixMin[p] = Math.min(lv.suffixMin[p + 1], lv.childLb[p]);
-  }
-}
-
-/**
- * Root nodes. One closed class holding everybody (ergodic data with pi > 0 everywhere) and no
- * required people: every first starter a, ordered by its single total, with the later people as
- * candidates; its bound comes from all pair totals (identity 4, bound 2 with S = {}). Otherwise:
- * the required people plus one representative per open closed group (its earliest member in
- * the set), with the later members of each group and everyone else as candidates.
- */
-function buildRoots(ctx: PlanContext, k: number): Root[] {
-  const { n, allowed } = ctx;
-  const isMust = new Uint8Array(n);
-  for (const p of ctx.mustInclude) isMust[p] = 1;
-  const first = ctx.mustInclude.length === 0 ? firstStarterBounds(ctx, k) : null;
-  if (first) {
-    return first.order.map((a, p) => ({ set: [a], cand: Int32Array.from(first.order.slice(p + 1)), bound: first.bound[p] }));
-  }
-  const openClasses = ctx.classes.closedClasses.filter((c) => !c.some((p) => isMust[p]));
-  const classOf = new Int32Array(n).fill(-1);
-  openClasses.forEach((c, q) => c.forEach((p) => (classOf[p] = q)));
-  const out: Root[] = [];
-  const choices = openClasses.map((c) => c.filter((p) => allowed[p]));
-  const cur: number[] = [];
-  const rec = (q: number) => {
-    if (q === choices.length) {
-      const set = [...ctx.mustInclude, ...cur];
-      const inSet = new Set(set);
-      const cand: number[] = [];
-      for (let x = 0; x < n; x++) {
-        if (inSet.has(x) || !allowed[x]) continue;
-        const c = classOf[x];
-        if (c >= 0 && x < cur[c]) continue;
-        cand.push(x);
-      }
-      out.push({ set, cand: Int32Array.from(cand), bound: -Infinity });
-      return;
-    }
-    for (const p of choices[q]) {
-      cur.push(p);
-      rec(q + 1);
-      cur.pop();
-    }
-  };
-  rec(0);
-  return out;
 }

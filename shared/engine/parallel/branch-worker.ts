@@ -5,7 +5,8 @@
  */
 import type { ErgodicData } from '../ergodic';
 import { planContext } from '../plan-context';
-import { BranchSearch, type Root } from '../plan-exhaustive';
+import { BranchSearch } from '../plan-exhaustive';
+import type { Root } from '../plan-roots';
 import type { PreparedRoom } from '../room';
 import { SharedSearchState } from './branch-shared';
 
