@@ -18,7 +18,7 @@ import { allPairsTotals } from './pairs';
 import type { PlanContext } from './plan-context';
 
 /** Rooms up to this size get bound 2 after a heuristic plan (it needs all pair totals). */
-export const PAIR_BOUND_LIMIT = 600;
+export const PAIR_BOUND_LIMIT = 300;
 
 export interface FirstStarterBound {
   /** First starters in the enumeration order (ascending single total, then input order). */
