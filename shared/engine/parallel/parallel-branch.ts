@@ -19,20 +19,39 @@ function workerFile(): URL {
   return new URL(here.endsWith('.ts') ? './branch-worker.ts' : './branch-worker.js', here);
 }
 
-const SOLO_MS = 1000;
+const SOLO_MS = 2000;
 
-export async function exhaustiveParallel(ctx: PlanContext, start: AbsorbingState, threads: number): Promise<ExhaustiveOutcome> {
+let poolCache: { pool: Piscina; threads: number } | undefined;
+
+/** One pool per process, reused across searches (idle workers are unref'd and leave after a minute). */
+function branchPool(threads: number): Piscina {
+  if (!poolCache || poolCache.threads !== threads) {
+    void poolCache?.pool.destroy();
+    poolCache = {
+      pool: new Piscina({ filename: workerFile().href, minThreads: 0, maxThreads: threads, idleTimeout: 60_000 }),
+      threads,
+    };
+  }
+  return poolCache.pool;
+}
+
+export async function exhaustiveParallel(
+  ctx: PlanContext,
+  start: AbsorbingState,
+  threads: number,
+  soloMs = SOLO_MS,
+): Promise<ExhaustiveOutcome> {
   const main = new BranchSearch(ctx, start);
   const items = main.prepare();
   const t0 = performance.now();
   let next = 0;
-  main.searchItems(items, () => (next < items.length && performance.now() - t0 < SOLO_MS ? next++ : -1));
+  main.searchItems(items, () => (next < items.length && performance.now() - t0 < soloMs ? next++ : -1));
   if (next >= items.length || main.halted) return main.outcome();
   const solo = main.outcome();
   const preClosed = main.closedSets();
   const space = main.space();
   const soloRaw = solo.state.total / start.scale;
-  const shared = SharedSearchState.create(threads, soloRaw, next);
+  const state = SharedSearchState.create(threads, soloRaw, next);
   const incumbent = { starters: [...solo.state.starters], rawTotal: soloRaw, scale: start.scale };
   const remaining = Math.max(1, ctx.deadline - performance.now());
   const base: Omit<BranchWorkerData, 'slot'> = {
@@ -44,29 +63,29 @@ export async function exhaustiveParallel(ctx: PlanContext, start: AbsorbingState
     items,
     incumbent,
     timeLimitMs: remaining,
-    sab: shared.sab,
+    sab: state.sab,
     threads,
   };
   const lowerRaw = (): number => {
-    let lb = shared.best();
-    const from = Math.max(0, Math.min(items.length, shared.taken()) - threads);
+    let lb = state.best();
+    const from = Math.max(0, Math.min(items.length, state.taken()) - threads);
     if (from < items.length) lb = Math.min(lb, items[from].bound);
-    for (let t = 0; t < threads; t++) lb = Math.min(lb, shared.slot(t)[0]);
+    for (let t = 0; t < threads; t++) lb = Math.min(lb, state.slot(t)[0]);
     return Math.max(ctx.n - ctx.k, lb);
   };
   const status = () => {
     let closed = preClosed;
     let nodes = 0;
     for (let t = 0; t < threads; t++) {
-      closed += shared.slot(t)[1];
-      nodes += shared.slot(t)[2];
+      closed += state.slot(t)[1];
+      nodes += state.slot(t)[2];
     }
     return { closed, nodes };
   };
   const timer = setInterval(() => {
-    if (shouldStop(ctx) || performance.now() > ctx.deadline) shared.requestStop();
+    if (shouldStop(ctx) || performance.now() > ctx.deadline) state.requestStop();
     const { closed, nodes } = status();
-    const best = shared.best() * start.scale;
+    const best = state.best() * start.scale;
     const lb = Math.min(best, lowerRaw() * start.scale);
     ctx.options.onProgress?.({
       stage: 'exhaustive',
@@ -80,12 +99,11 @@ export async function exhaustiveParallel(ctx: PlanContext, start: AbsorbingState
     });
   }, 100);
   let results: BranchWorkerResult[];
-  const pool = new Piscina({ filename: workerFile().href, minThreads: threads, maxThreads: threads });
+  const pool = branchPool(threads);
   try {
     results = (await Promise.all(Array.from({ length: threads }, (_, slot) => pool.run({ ...base, slot })))) as BranchWorkerResult[];
   } finally {
     clearInterval(timer);
-    await pool.destroy();
   }
   const stopped = shouldStop(ctx);
   const halted = results.some((r) => r.halted);
