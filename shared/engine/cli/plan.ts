@@ -1,8 +1,9 @@
 /** `plan`: choose k starters (shared/engine/plan.ts) with total, rank, proven bound and certification. */
 import type { NoShowReport, PlanMethodChoice } from '../plan-types';
-import { CliError, idList, integerFlag, numberFlag, type Flags } from './args';
-import { ms, ROOM_FLAGS, ROOM_HELP, WALK_FLAGS, WALK_HELP, walkOptions, warningNotes, type Command } from './command';
+import { CliError, integerFlag, numberFlag, type Flags } from './args';
+import { clipId, ID_LIST_HELP, ms, ROOM_FLAGS, ROOM_HELP, WALK_FLAGS, WALK_HELP, walkOptions, warningNotes, type Command } from './command';
 import { loadRoom } from './load-room';
+import { idsFromFlags } from './read-file';
 import type { RoomGraph } from '../graph';
 
 export const planCommand: Command = {
@@ -17,11 +18,13 @@ export const planCommand: Command = {
     'no-show': {},
     include: {},
     exclude: {},
+    'include-file': {},
+    'exclude-file': {},
     ...WALK_FLAGS,
   },
   help: `Usage: npm run -s cli -- plan --graph FILE --k K --method greedy|widened|swap|exhaustive|auto
                              [--nu X] [--time-limit SECONDS] [--laziness A] [--mixing B]
-                             [--include IDS] [--exclude IDS] [--no-show P]
+                             [--include IDS | --include-file F] [--exclude IDS | --exclude-file F] [--no-show P]
 
 Prints {"method", "k", "starters": [ids in the order chosen], "total", "average", "rank",
 "lowerBound", "certified", "elapsedMs", "gap", "coverSize", "notes", "warnings"}.
@@ -48,9 +51,12 @@ ${ROOM_HELP}
   --time-limit S      exhaustive and auto: time budget in seconds (default 10)
   --include IDS       people who must be briefed (ids separated by commas)
   --exclude IDS       people who cannot be briefed
+  --include-file F    --exclude-file F: the same, one id per line
   --no-show P         chance that a starter does not show up, 0 <= P <= 0.5: the plan minimises
                       the expected total (exact over all attendance subsets up to 12 starters)
 ${WALK_HELP}
+
+${ID_LIST_HELP}
 
 Rooms where some people cannot reach any starter need at least one starter in each closed
 group; when K is too small for that, the command says so (exit status 2).`,
@@ -122,9 +128,9 @@ function noShowFields(graph: RoomGraph, ns: NoShowReport): Record<string, unknow
 
 function people(graph: RoomGraph, flags: Flags, name: string, file: string): number[] {
   const index = new Map(graph.ids.map((id, i) => [id, i]));
-  return idList(flags, name).map((id) => {
+  return (idsFromFlags(flags, name) ?? []).map((id) => {
     const i = index.get(id);
-    if (i === undefined) throw new CliError(`--${name}: "${id}" is not a person in ${file}`);
+    if (i === undefined) throw new CliError(`--${name}: "${clipId(id)}" is not a person in ${file}`);
     return i;
   });
 }
