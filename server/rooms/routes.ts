@@ -12,6 +12,7 @@ import { exportRoom } from './export';
 import { importRouter } from './import-routes';
 import * as schemas from './schemas';
 import { createRoom, duplicateRoom, roomDto, updateRoom } from './service';
+import { idOf } from '../core/ids';
 import { addShare, changeShare, listShares, revokeShare } from './shares';
 import * as store from './store';
 import { summarize } from './summary';
@@ -102,7 +103,7 @@ roomsRouter.post('/:id/shares', signedIn(), async (req, res) => {
   res.status(201).json(share);
 });
 
-const userIdOf = (raw: unknown) => parse(z.coerce.number().int().positive('Give the account id as a number.'), raw, 'account id');
+const userIdOf = (raw: unknown) => idOf(raw, 'That share');
 
 roomsRouter.patch('/:id/shares/:userId', signedIn(), async (req, res) => {
   const { room } = await loadRoomFor(req.user, req.params.id, 'own');

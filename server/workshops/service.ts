@@ -4,14 +4,13 @@ import { rooms } from '../../db/schema/rooms';
 import { workshopFacilitators, workshopParticipants, workshops } from '../../db/schema/workshops';
 import { STATUS_LABELS, STATUS_MOVES, type IssuedLink, type WorkshopDetail, type WorkshopStatus } from '../../shared/api/workshops';
 import { db } from '../db';
-import { badRequest, conflict, HttpError } from '../core/http-error';
+import { badRequest, conflict, HttpError, notFound } from '../core/http-error';
 import { sendMail } from '../mail/transport';
 import { issueLink, participantUrl, revokeLinks, type LinkChannel } from '../participants/links';
 import { loadRoomFor } from '../rooms/access';
 import { roomPeople } from '../rooms/store';
 import type { SignedInUser } from '../types';
 import type { DebriefSnapshot } from './debrief';
-import { shareWorkshopRoom } from './co-facilitators';
 import { surveyLinkMail } from './mail';
 import { qrDataUrl } from './qr';
 import { facilitatorsOf, insertParticipants, participantRows, participantsById, type WorkshopRow } from './store';
@@ -73,7 +72,8 @@ export async function moveStatus(w: WorkshopRow, to: WorkshopStatus): Promise<vo
   await db.update(workshops).set({ status: to }).where(eq(workshops.id, w.id));
 }
 
-export async function addFacilitator(w: WorkshopRow, email: string): Promise<void> {
+/** Adds a co-facilitator; returns their id (the route audits the change and its room access). */
+export async function addFacilitator(w: WorkshopRow, email: string): Promise<number> {
   const [user] = await db.select().from(users).where(eq(users.email, email.trim().toLowerCase()));
   if (!user || user.status !== 'active') {
     throw badRequest('No active Ripplehall account uses that e-mail address. Ask an admin to invite them first.', {
@@ -85,11 +85,14 @@ export async function addFacilitator(w: WorkshopRow, email: string): Promise<voi
     .insert(workshopFacilitators)
     .values({ workshopId: w.id, userId: user.id })
     .onDuplicateKeyUpdate({ set: { userId: user.id } });
-  await shareWorkshopRoom(w.id, w.roomId);
+  return user.id;
 }
 
 export async function removeFacilitator(w: WorkshopRow, userId: number): Promise<void> {
-  await db.delete(workshopFacilitators).where(and(eq(workshopFacilitators.workshopId, w.id), eq(workshopFacilitators.userId, userId)));
+  const [result] = await db
+    .delete(workshopFacilitators)
+    .where(and(eq(workshopFacilitators.workshopId, w.id), eq(workshopFacilitators.userId, userId)));
+  if (!(result as { affectedRows?: number }).affectedRows) throw notFound('That co-facilitator');
 }
 
 /** Adds participants, skipping names already on the list (case-insensitive). */
@@ -118,7 +121,10 @@ export async function participantsFromRoom(w: WorkshopRow, owner: SignedInUser):
 
 export async function removeParticipant(w: WorkshopRow, participantId: number): Promise<void> {
   assertNotClosed(w);
-  await db.delete(workshopParticipants).where(and(eq(workshopParticipants.workshopId, w.id), eq(workshopParticipants.id, participantId)));
+  const [result] = await db
+    .delete(workshopParticipants)
+    .where(and(eq(workshopParticipants.workshopId, w.id), eq(workshopParticipants.id, participantId)));
+  if (!(result as { affectedRows?: number }).affectedRows) throw notFound('That participant');
 }
 
 export async function resetClaim(w: WorkshopRow, participantId: number): Promise<void> {
