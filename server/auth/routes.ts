@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { EMAIL_MAX, NAME_MAX, RESET_REQUEST_ANSWER } from '../../shared/api/accounts';
 import { publicAccess, signedIn } from '../core/access';
 import { audit, auditFor } from '../core/audit';
+import { rotateCsrf } from '../core/csrf';
 import { HttpError } from '../core/http-error';
 import { parse } from '../core/validate';
 import { endSessionsOf, SESSION_COOKIE } from '../core/session';
@@ -57,6 +58,7 @@ authRouter.post('/sign-in', publicAccess, signInPerIp, signInPerAccount, async (
   req.session.signedInAt = Date.now();
   await updateUser(db, row.id, { lastSignInAt: new Date() });
   req.user = { id: row.id, email: row.email, name: row.name, role: row.role };
+  rotateCsrf(req, res); // bound to the new session id
   await audit(req, { action: 'account.sign_in', targetType: 'user', targetId: row.id });
   res.json({ user: req.user });
 });
@@ -65,6 +67,7 @@ authRouter.post('/sign-out', publicAccess, async (req, res) => {
   if (req.user) await audit(req, { action: 'account.sign_out', targetType: 'user', targetId: req.user.id });
   await new Promise<void>((resolve) => (req.session ? req.session.destroy(() => resolve()) : resolve()));
   res.clearCookie(SESSION_COOKIE, { path: '/' });
+  rotateCsrf(req, res);
   res.status(204).end();
 });
 
