@@ -36,7 +36,10 @@ const schema = z.object({
     .transform((v) => v === 'true'),
   ADMIN_EMAIL: z.string().email().default('admin@ripplehall.local'),
   ADMIN_PASSWORD: z.string().min(10).default('admin-demo-2026'),
+  /** Failed sign-ins per account (or known device) before the back-off starts. */
   RATE_LIMIT_SIGNIN_PER_15MIN: z.coerce.number().int().positive().default(10),
+  /** Failed sign-ins per account in 15 minutes, over all addresses (NIST SP 800-63B 5.2.2: at most 100). */
+  SIGNIN_ACCOUNT_MAX_FAILURES: z.coerce.number().int().min(1).max(100).default(100),
   RATE_LIMIT_IP_PER_15MIN: z.coerce.number().int().positive().default(100),
   /** Password-reset requests per account and address (the per-address cap is RATE_LIMIT_IP_PER_15MIN). */
   RATE_LIMIT_RESET_PER_15MIN: z.coerce.number().int().positive().default(5),
@@ -68,4 +71,17 @@ export const config: Config = loadConfig();
 
 export function publicUrl(): string {
   return config.PUBLIC_URL ?? `http://${config.HOST === '0.0.0.0' ? '127.0.0.1' : config.HOST}:${config.PORT}`;
+}
+
+/** Settings that work but probably not as meant: printed once at start-up. */
+export function startupWarnings(c: Config = config): string[] {
+  const warnings: string[] = [];
+  if ((c.PUBLIC_URL ?? '').startsWith('https://') && !c.TRUST_PROXY) {
+    warnings.push(
+      `PUBLIC_URL is ${c.PUBLIC_URL}, so session cookies are marked Secure, but TRUST_PROXY is not true: this server ` +
+        'speaks plain http and browsers reaching it directly will not keep the session cookie (sign-in appears to do nothing). ' +
+        'Put a TLS proxy in front and set TRUST_PROXY=true, or use an http:// PUBLIC_URL.',
+    );
+  }
+  return warnings;
 }

@@ -1,11 +1,12 @@
 import { createServer } from 'node:http';
-import { config, publicUrl } from './config';
+import { config, publicUrl, startupWarnings } from './config';
 import { createApp } from './app';
 import { logger } from './core/logging';
 import { pool } from './db';
 import { startMail, stopMail } from './mail/transport';
 import { startJobs, stopJobs } from './jobs/index';
 
+for (const warning of startupWarnings()) logger.warn(warning);
 await startMail();
 await startJobs();
 const server = createServer(createApp());
