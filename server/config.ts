@@ -16,6 +16,12 @@ const schema = z.object({
     .string()
     .regex(/^[A-Za-z0-9_]+$/)
     .default('ripplehall'),
+  /** Pooled database connections per process. */
+  DB_POOL_SIZE: z.coerce.number().int().min(2).max(200).default(20),
+  /** How long a request waits for a free database connection before answering 503. */
+  DB_ACQUIRE_TIMEOUT_MS: z.coerce.number().int().min(100).default(5000),
+  /** MariaDB max_statement_time for every pooled connection, in seconds (0 = no limit). */
+  DB_STATEMENT_SECONDS: z.coerce.number().min(0).default(10),
   SESSION_SECRET: z.string().min(16).default('dev-only-session-secret-change-me'),
   SESSION_IDLE_MINUTES: z.coerce.number().positive().default(30),
   SESSION_MAX_HOURS: z.coerce.number().positive().default(8),

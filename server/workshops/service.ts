@@ -3,7 +3,7 @@ import { users } from '../../db/schema/accounts';
 import { rooms } from '../../db/schema/rooms';
 import { workshopFacilitators, workshopParticipants, workshops } from '../../db/schema/workshops';
 import { STATUS_LABELS, STATUS_MOVES, type IssuedLink, type WorkshopDetail, type WorkshopStatus } from '../../shared/api/workshops';
-import { db } from '../db';
+import { db, transaction } from '../db';
 import { badRequest, conflict, HttpError, notFound } from '../core/http-error';
 import { sendMail } from '../mail/transport';
 import { issueLink, participantUrl, revokeLinks, type LinkChannel } from '../participants/links';
@@ -13,7 +13,7 @@ import type { SignedInUser } from '../types';
 import type { DebriefSnapshot } from './debrief';
 import { surveyLinkMail } from './mail';
 import { qrDataUrl } from './qr';
-import { facilitatorsOf, insertParticipants, participantRows, participantsById, type WorkshopRow } from './store';
+import { facilitatorsOf, insertParticipants, lockWorkshop, participantRows, participantsById, type WorkshopRow } from './store';
 
 /** Workshops domain: status moves, facilitators, participants and their links. */
 
@@ -130,7 +130,8 @@ export async function removeParticipant(w: WorkshopRow, participantId: number): 
 export async function resetClaim(w: WorkshopRow, participantId: number): Promise<void> {
   const [p] = await participantsById(w.id, [participantId]);
   if (!p) throw new HttpError(404, 'not_found', 'That participant was not found.');
-  await db.transaction(async (tx) => {
+  await transaction(async (tx) => {
+    await lockWorkshop(tx, w.id);
     await tx.update(workshopParticipants).set({ claimedAt: null }).where(eq(workshopParticipants.id, p.id));
     await revokeLinks(tx, [p.id]);
   });
@@ -153,7 +154,9 @@ export async function sheetLinks(w: WorkshopRow, ids: number[] | undefined, repl
 
 async function issueMany(w: WorkshopRow, list: Awaited<ReturnType<typeof participantsById>>, channel: LinkChannel, replace: boolean) {
   const out: IssuedLink[] = [];
-  await db.transaction(async (tx) => {
+  await transaction(async (tx) => {
+    out.length = 0; // a retried transaction starts over
+    await lockWorkshop(tx, w.id);
     for (const p of list) {
       const { token, expiresAt } = await issueLink(tx, p.id, channel, w.linkDays, replace);
       const url = participantUrl(token);
@@ -205,8 +208,11 @@ export async function emailLinks(
 
 export async function revokeParticipantLinks(w: WorkshopRow, ids: number[]): Promise<number> {
   const list = await targets(w, ids);
-  return revokeLinks(
-    db,
-    list.map((p) => p.id),
-  );
+  return transaction(async (tx) => {
+    await lockWorkshop(tx, w.id);
+    return revokeLinks(
+      tx,
+      list.map((p) => p.id),
+    );
+  });
 }
