@@ -51,7 +51,12 @@ const schema = z.object({
   RATE_LIMIT_RESET_PER_15MIN: z.coerce.number().int().positive().default(5),
   /** Failed participant-link lookups per address (made-up, expired or revoked links). */
   RATE_LIMIT_LINK_PER_15MIN: z.coerce.number().int().positive().default(30),
-  MAX_ROOM_PEOPLE: z.coerce.number().int().positive().default(5000),
+  /** People in one imported room (rooms built by hand keep the lower limit of the screens). */
+  MAX_ROOM_PEOPLE: z.coerce.number().int().positive().default(100000),
+  /** Ties in one imported room. */
+  MAX_ROOM_TIES: z.coerce.number().int().positive().default(1000000),
+  /** Edit batches, imports and rooms created with content that one account may run at once. */
+  MAX_HEAVY_WRITES_PER_USER: z.coerce.number().int().min(1).default(2),
   MAX_CASCADES: z.coerce.number().int().positive().default(100000),
   MAX_JOBS_PER_USER: z.coerce.number().int().positive().default(2),
   WORKERS: z.coerce.number().int().min(1).max(16).default(2),

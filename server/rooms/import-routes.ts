@@ -10,6 +10,7 @@ import { signedIn } from '../core/access';
 import { audit } from '../core/audit';
 import { HttpError, notFound } from '../core/http-error';
 import { parse } from '../core/validate';
+import { heavyWrite } from '../core/heavy-writes';
 import { db } from '../db';
 import { loadRoomFor, type LoadedRoom } from './access';
 import { contentOf, formatFor, readImport, receiveUpload, reportOf, uploadedFiles, type ParsedImport } from './import';
@@ -54,7 +55,7 @@ function refuseErrors(report: ImportReport): void {
   );
 }
 
-importRouter.post('/import', signedIn(), receiveUpload, async (req, res) => {
+importRouter.post('/import', signedIn(), heavyWrite, receiveUpload, async (req, res) => {
   const { dryRun, f, parsed, fileName } = read(req);
   const report = reportOf(parsed, dryRun);
   if (dryRun) return void res.json(report);
@@ -80,7 +81,7 @@ importRouter.post('/import', signedIn(), receiveUpload, async (req, res) => {
   res.status(201).json({ ...report, committed: true, roomId, version: 1 } satisfies ImportReport);
 });
 
-importRouter.post('/:id/import', signedIn(), editableRoom, receiveUpload, async (req, res) => {
+importRouter.post('/:id/import', signedIn(), editableRoom, heavyWrite, receiveUpload, async (req, res) => {
   const loaded = res.locals['room'] as LoadedRoom;
   const { dryRun, f, parsed } = read(req, loaded.room.directed);
   const report: ImportReport = { ...reportOf(parsed, dryRun), replaces: await store.countContent(db, loaded.room.id) };
