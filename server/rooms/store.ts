@@ -6,7 +6,7 @@ import { users } from '../../db/schema/accounts';
 import { people, roomShares, rooms, ties } from '../../db/schema/rooms';
 import { db, type Tx } from '../db';
 import type { RoomRow } from './access';
-import { workshopEditorOf } from './grants';
+import { workshopRoomIdsOf } from './grants';
 
 type Q = Tx | typeof db;
 const CHUNK = 1000;
@@ -167,7 +167,8 @@ const iso = (d: Date) => d.toISOString();
 
 export async function listRooms(userId: number, p: ListParams<string> & { scope: 'all' | 'mine' | 'shared' }): Promise<Page<RoomListItem>> {
   const mine = eq(rooms.ownerId, userId);
-  const helper = workshopEditorOf(userId);
+  const helperRooms = await workshopRoomIdsOf(userId);
+  const helper = helperRooms.length ? inArray(rooms.id, helperRooms) : sql`FALSE`;
   const sharedWithMe = or(
     exists(
       db
@@ -194,7 +195,7 @@ export async function listRooms(userId: number, p: ListParams<string> & { scope:
       room: rooms,
       ownerName: users.name,
       shareRole: roomShares.role,
-      helper,
+      helper: sql<number>`${helper}`,
       people: peopleCount,
       ties: tieCount,
     })
