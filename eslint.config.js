@@ -21,6 +21,17 @@ export default tseslint.config(
     files: ['server/**/*.ts', 'tests/**/*.ts', 'db/**/*.ts', 'shared/**/*.ts', 'seed-data/**/*.ts', 'e2e/**/*.ts'],
     rules: { '@typescript-eslint/no-namespace': 'off' },
   },
+  // Type-aware rules where tsx would hide the mistake (an unawaited promise ends a process on rejection).
+  {
+    files: ['server/**/*.ts', 'shared/**/*.ts', 'db/**/*.ts'],
+    ignores: ['**/*.spec.ts'],
+    extends: [...tseslint.configs.recommendedTypeChecked],
+    languageOptions: { parserOptions: { project: './tsconfig.server.json', tsconfigRootDir: import.meta.dirname } },
+    rules: {
+      '@typescript-eslint/no-explicit-any': 'off',
+      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
+    },
+  },
   // Layer boundaries (DEVELOPERS.md, "The layout"): a crossing fails the lint suite.
   {
     files: ['src/**/*.ts'],

@@ -23,10 +23,12 @@ const tooMany = (prefix: string, message: string) => ({
   store: createLimiterStore(prefix),
 });
 
-const accountAndIp = (prefix: string) => (req: Request) =>
-  `${prefix}|${String(req.body?.email ?? '')
-    .trim()
-    .toLowerCase()}|${ipKeyGenerator(req.ip ?? '')}`;
+const emailOf = (req: Request): string => {
+  const email = (req.body as { email?: unknown } | undefined)?.email;
+  return typeof email === 'string' ? email : '';
+};
+
+const accountAndIp = (prefix: string) => (req: Request) => `${prefix}|${emailOf(req).trim().toLowerCase()}|${ipKeyGenerator(req.ip ?? '')}`;
 
 export const resetPerIp = rateLimit({
   limit: config.RATE_LIMIT_IP_PER_15MIN,
@@ -43,6 +45,6 @@ export const resetPerAccount = rateLimit({
 /** Invitation and reset links: dead links (410) count; a good link is never refused. */
 export const linkLimit = (purpose: TokenPurpose) =>
   linkGuard(async (req) => {
-    const token = req.body?.token;
+    const token: unknown = (req.body as { token?: unknown } | undefined)?.token;
     return typeof token === 'string' && !!(await findUsableToken(db, token, purpose));
   }, 410);

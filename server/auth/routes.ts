@@ -71,7 +71,11 @@ authRouter.post('/sign-in', publicAccess, async (req, res) => {
   }
   await signInSucceeded(attempt, res, secureCookies);
   // A fresh session id at sign-in defeats session fixation.
-  await new Promise<void>((resolve, reject) => req.session.regenerate((err) => (err ? reject(err) : resolve())));
+  await new Promise<void>((resolve, reject) =>
+    req.session.regenerate((err: unknown) =>
+      err ? reject(err instanceof Error ? err : new Error('could not start a new session')) : resolve(),
+    ),
+  );
   req.session.userId = row.id;
   req.session.signedInAt = Date.now();
   await updateUser(db, row.id, { lastSignInAt: new Date() });
@@ -119,7 +123,7 @@ authRouter.post('/invitation/accept', publicAccess, linkLimit('invite'), async (
 });
 
 // Password reset by e-mail.
-authRouter.post('/password-reset', publicAccess, resetPerIp, resetPerAccount, async (req, res) => {
+authRouter.post('/password-reset', publicAccess, resetPerIp, resetPerAccount, (req, res) => {
   const body = parse(resetRequestBody, req.body);
   // Answer first, then do the work: the answer and its timing are the same whether or not
   // an account uses the address (the lookup, token and mail happen after the reply).

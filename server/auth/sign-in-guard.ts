@@ -36,7 +36,7 @@ const deviceMac = (email: string, nonce: string) =>
 
 /** The device id if the request carries a device cookie for this account. */
 function knownDevice(req: Request, email: string): string | undefined {
-  const raw = req.cookies?.[DEVICE_COOKIE];
+  const raw: unknown = req.cookies?.[DEVICE_COOKIE];
   if (typeof raw !== 'string' || raw.length > 200) return undefined;
   const [nonce, mac] = raw.split('.');
   if (!nonce || !mac) return undefined;

@@ -42,7 +42,7 @@ export function createCsrf(secret: string, secure: boolean): Csrf {
   };
   const middleware = (req: Request, res: Response, next: NextFunction) => {
     const binding = bindingOf(req);
-    const cookie = req.cookies?.[CSRF_COOKIE];
+    const cookie: unknown = req.cookies?.[CSRF_COOKIE];
     const good = valid(cookie, binding);
     if (!good) rotate(req, res);
     if (SAFE.has(req.method)) return next();

@@ -18,7 +18,7 @@ export function sessionMiddleware(secure: boolean) {
     },
     pool as never,
   );
-  setInterval(() => store.clearExpiredSessions().catch(() => undefined), 15 * 60 * 1000).unref();
+  setInterval(() => void store.clearExpiredSessions().catch(() => undefined), 15 * 60 * 1000).unref();
   throttleTouch(store);
   return session({
     name: SESSION_COOKIE,
