@@ -57,8 +57,6 @@ const schema = z.object({
   MAX_ROOM_TIES: z.coerce.number().int().positive().default(1000000),
   /** Memory cap of the thread that reads one upload, in MB. */
   IMPORT_WORKER_MB: z.coerce.number().int().min(32).default(512),
-  /** Deepest nesting accepted in an uploaded JSON or GraphML file. */
-  IMPORT_MAX_DEPTH: z.coerce.number().int().min(4).default(64),
   /** Edit batches, imports and rooms created with content that one account may run at once. */
   MAX_HEAVY_WRITES_PER_USER: z.coerce.number().int().min(1).default(2),
   MAX_CASCADES: z.coerce.number().int().positive().default(100000),

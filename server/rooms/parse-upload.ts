@@ -1,9 +1,9 @@
 /**
  * Uploads are read in worker threads (a small piscina pool), never on the request thread: a
  * deeply nested or huge file cannot stall other requests or the health probe. Each thread has a
- * memory cap (IMPORT_WORKER_MB, worker resourceLimits); a file that needs more, or nests deeper
- * than IMPORT_MAX_DEPTH levels, answers 400 naming the limit. A thread that ran out of memory is
- * replaced by the pool.
+ * memory cap (IMPORT_WORKER_MB, worker resourceLimits); a file that needs more answers 400 naming
+ * the cap (the readers themselves refuse nesting deeper than 64 levels). A thread that ran out of
+ * memory is replaced by the pool.
  */
 import { Piscina } from 'piscina';
 import type { ImportFormat } from '../../shared/api/rooms';
@@ -33,20 +33,12 @@ export async function parseUpload(
   format: ImportFormat,
   directed: boolean | undefined,
 ): Promise<ParsedImport> {
-  const task: ParseTask = { file, people, format, directed, maxDepth: config.IMPORT_MAX_DEPTH };
+  const task: ParseTask = { file, people, format, directed };
   let outcome: ParseOutcome;
   try {
     outcome = (await workers().run(task)) as ParseOutcome;
   } catch (err) {
     throw uploadFailure(err, file.name);
-  }
-  if (!outcome.ok) {
-    throw new HttpError(
-      400,
-      'too_deep',
-      `"${file.name}" nests more than ${config.IMPORT_MAX_DEPTH} levels deep (the limit for one file); a room file needs only a few. Export it again from the program that made it.`,
-      { limit: config.IMPORT_MAX_DEPTH },
-    );
   }
   return outcome.parsed;
 }
