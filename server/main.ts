@@ -1,11 +1,17 @@
 import { createServer } from 'node:http';
-import { config, publicUrl } from './config';
+import { config, publicUrl, startupWarnings } from './config';
 import { createApp } from './app';
 import { logger } from './core/logging';
-import { pool } from './db';
+import { checkDatabase, pool } from './db';
 import { startMail, stopMail } from './mail/transport';
 import { startJobs, stopJobs } from './jobs/index';
 
+for (const warning of startupWarnings()) logger.warn(warning);
+const unreachable = await checkDatabase();
+if (unreachable) {
+  console.error(unreachable);
+  process.exit(1);
+}
 await startMail();
 await startJobs();
 const server = createServer(createApp());

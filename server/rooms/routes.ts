@@ -12,6 +12,8 @@ import { exportRoom } from './export';
 import { importRouter } from './import-routes';
 import * as schemas from './schemas';
 import { createRoom, duplicateRoom, roomDto, updateRoom } from './service';
+import { idOf } from '../core/ids';
+import { clientGoneSignal, heavyWrite } from '../core/heavy-writes';
 import { addShare, changeShare, listShares, revokeShare } from './shares';
 import * as store from './store';
 import { summarize } from './summary';
@@ -26,7 +28,7 @@ roomsRouter.get('/', signedIn(), async (req, res) => {
   res.json(await store.listRooms(me(req).id, q));
 });
 
-roomsRouter.post('/', signedIn(), async (req, res) => {
+roomsRouter.post('/', signedIn(), heavyWrite, async (req, res) => {
   const body = parse(schemas.createRoomBody, req.body);
   const id = await createRoom(me(req).id, body);
   await audit(req, { action: 'room.create', targetType: 'room', targetId: id, detail: { people: body.people?.length ?? 0 } });
@@ -51,7 +53,7 @@ roomsRouter.delete('/:id', signedIn(), async (req, res) => {
   res.status(204).end();
 });
 
-roomsRouter.post('/:id/duplicate', signedIn(), async (req, res) => {
+roomsRouter.post('/:id/duplicate', signedIn(), heavyWrite, async (req, res) => {
   const loaded = await loadRoomFor(req.user, req.params.id, 'view');
   const body = parse(schemas.duplicateBody, req.body ?? {});
   const id = await duplicateRoom(loaded, me(req).id, body.name);
@@ -59,10 +61,10 @@ roomsRouter.post('/:id/duplicate', signedIn(), async (req, res) => {
   res.status(201).json(await roomDto(await loadRoomFor(req.user, id, 'view')));
 });
 
-roomsRouter.post('/:id/edits', signedIn(), async (req, res) => {
+roomsRouter.post('/:id/edits', signedIn(), heavyWrite, async (req, res) => {
   const { room } = await loadRoomFor(req.user, req.params.id, 'edit');
   const body = parse(schemas.editBatchBody, req.body, 'edits');
-  res.json(await applyEdits(room.id, body));
+  res.json(await applyEdits(room.id, body, clientGoneSignal(res)));
 });
 
 roomsRouter.get('/:id/people', signedIn(), async (req, res) => {
@@ -102,7 +104,7 @@ roomsRouter.post('/:id/shares', signedIn(), async (req, res) => {
   res.status(201).json(share);
 });
 
-const userIdOf = (raw: unknown) => parse(z.coerce.number().int().positive('Give the account id as a number.'), raw, 'account id');
+const userIdOf = (raw: unknown) => idOf(raw, 'That share');
 
 roomsRouter.patch('/:id/shares/:userId', signedIn(), async (req, res) => {
   const { room } = await loadRoomFor(req.user, req.params.id, 'own');

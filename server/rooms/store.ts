@@ -6,6 +6,7 @@ import { users } from '../../db/schema/accounts';
 import { people, roomShares, rooms, ties } from '../../db/schema/rooms';
 import { db, type Tx } from '../db';
 import type { RoomRow } from './access';
+import { workshopRoomIdsOf } from './grants';
 
 type Q = Tx | typeof db;
 const CHUNK = 1000;
@@ -166,11 +167,16 @@ const iso = (d: Date) => d.toISOString();
 
 export async function listRooms(userId: number, p: ListParams<string> & { scope: 'all' | 'mine' | 'shared' }): Promise<Page<RoomListItem>> {
   const mine = eq(rooms.ownerId, userId);
-  const sharedWithMe = exists(
-    db
-      .select({ one: sql`1` })
-      .from(roomShares)
-      .where(and(eq(roomShares.roomId, rooms.id), eq(roomShares.userId, userId))),
+  const helperRooms = await workshopRoomIdsOf(userId);
+  const helper = helperRooms.length ? inArray(rooms.id, helperRooms) : sql`FALSE`;
+  const sharedWithMe = or(
+    exists(
+      db
+        .select({ one: sql`1` })
+        .from(roomShares)
+        .where(and(eq(roomShares.roomId, rooms.id), eq(roomShares.userId, userId))),
+    ),
+    helper,
   );
   const scope = p.scope === 'mine' ? mine : p.scope === 'shared' ? sharedWithMe : or(mine, sharedWithMe);
   const filters: (SQL | undefined)[] = [scope];
@@ -189,6 +195,7 @@ export async function listRooms(userId: number, p: ListParams<string> & { scope:
       room: rooms,
       ownerName: users.name,
       shareRole: roomShares.role,
+      helper: sql<number>`${helper}`,
       people: peopleCount,
       ties: tieCount,
     })
@@ -207,7 +214,7 @@ export async function listRooms(userId: number, p: ListParams<string> & { scope:
       id: r.room.id,
       name: r.room.name,
       description: r.room.description,
-      access: r.room.ownerId === userId ? 'owner' : (r.shareRole ?? 'viewer'),
+      access: r.room.ownerId === userId ? 'owner' : Number(r.helper) ? 'editor' : (r.shareRole ?? 'viewer'),
       ownerName: r.ownerName,
       people: Number(r.people),
       ties: Number(r.ties),

@@ -18,6 +18,8 @@ import * as service from './service';
 import { listWorkshops, participantCounts } from './store';
 import type { SignedInUser } from '../types';
 import { findUserById } from '../auth/store';
+import { idOf } from '../core/ids';
+import { coFacilitatorIds, roomAccessNote } from './co-facilitators';
 
 const date = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-05-14.');
 const createBody = z.strictObject({
@@ -68,7 +70,7 @@ const releaseBody = z.strictObject({
   sampleRun: z.number().int().min(0),
   showStarters: z.boolean(),
 });
-const pid = (raw: unknown) => (/^[1-9]\d{0,15}$/.test(String(raw)) ? Number(raw) : 0);
+const pid = (raw: unknown) => idOf(raw, 'That participant');
 
 async function ownerOf(ownerId: number): Promise<SignedInUser> {
   const row = await findUserById(ownerId);
@@ -115,8 +117,15 @@ workshopsRouter.patch('/:id', signedIn(), async (req, res) => {
 
 workshopsRouter.delete('/:id', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id'], 'own');
+  const helpers = await coFacilitatorIds(workshop.id);
   await db.delete(workshops).where(eq(workshops.id, workshop.id));
-  await audit(req, { action: 'workshop.deleted', targetType: 'workshop', targetId: workshop.id, detail: { title: workshop.title } });
+  // Their editor access to the workshop's room ended with the workshop (server/rooms/grants.ts).
+  await audit(req, {
+    action: 'workshop.deleted',
+    targetType: 'workshop',
+    targetId: workshop.id,
+    detail: { roomId: workshop.roomId, roomAccessEnded: workshop.roomId === null ? [] : helpers },
+  });
   res.status(204).end();
 });
 
@@ -130,13 +139,28 @@ workshopsRouter.post('/:id/status', signedIn(), async (req, res) => {
 
 workshopsRouter.post('/:id/facilitators', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id'], 'own');
-  await service.addFacilitator(workshop, parse(emailBody, req.body).email);
+  const userId = await service.addFacilitator(workshop, parse(emailBody, req.body).email);
+  const room = await roomAccessNote(workshop, userId);
+  await audit(req, {
+    action: 'workshop.facilitator_added',
+    targetType: 'workshop',
+    targetId: workshop.id,
+    detail: { userId, ...room, roomAccess: room.roomId === null ? 'none' : 'editor while co-facilitating' },
+  });
   res.status(201).json(await service.workshopDetail(workshop, true));
 });
 
 workshopsRouter.delete('/:id/facilitators/:userId', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id'], 'own');
-  await service.removeFacilitator(workshop, pid(req.params['userId']));
+  const userId = pid(req.params['userId']);
+  await service.removeFacilitator(workshop, userId);
+  const room = await roomAccessNote(workshop, userId);
+  await audit(req, {
+    action: 'workshop.facilitator_removed',
+    targetType: 'workshop',
+    targetId: workshop.id,
+    detail: { userId, ...room, roomAccess: room.directShare ?? 'none' },
+  });
   res.status(204).end();
 });
 

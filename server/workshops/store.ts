@@ -178,3 +178,12 @@ export async function activeLinkCount(participantId: number): Promise<number> {
     );
   return Number(row?.n ?? 0);
 }
+
+/**
+ * Takes the workshop's row lock first in every transaction that changes its participants' links
+ * or claims (sheets, e-mails, reset-claim, revoke): they queue on one row in one order instead of
+ * deadlocking on each other's link rows.
+ */
+export async function lockWorkshop(tx: Tx, workshopId: number): Promise<void> {
+  await tx.select({ id: workshops.id }).from(workshops).where(eq(workshops.id, workshopId)).for('update');
+}
