@@ -19,7 +19,7 @@ import { RoomEditor } from '../editor/room-editor';
 import type { Move } from '../editor/room-model';
 import { groupStyles, NO_GROUP_STYLE, shapePath, tieWidth } from './group-style';
 import { LABEL_FONT, labelWidth } from './label-font';
-import { placeLabels } from './label-placement';
+import { placeLabels } from '../../core/label-placement';
 import { createSimulation, layoutMode, type LayoutMode, type MapLink, type MapNode, placeUnplaced } from './map-layout';
 
 export type MapTool = 'select' | 'tie';

@@ -29,25 +29,33 @@ export interface Box {
   y1: number;
 }
 
+/** Height of a name's box for the map's 11px type; the replay passes its own. */
 export const LABEL_HEIGHT = 13;
 
+export interface PlaceOptions {
+  /** Height of a label's box (about 1.2 times the font size). */
+  height?: number;
+  /** Labels must stay inside this box (the drawing's edges). */
+  bounds?: Box;
+}
+
 /** Candidate spots, in order of preference: below, above, right, left, then the four corners, then farther out. */
-function candidates(r: number, w: number): Omit<LabelSpot, 'box'>[] {
+function candidates(r: number, w: number, h: number): Omit<LabelSpot, 'box'>[] {
   const gap = 3;
-  const below = r + gap + LABEL_HEIGHT - 3;
+  const below = r + gap + h - 3;
   const above = -(r + gap + 2);
   const side = r + gap;
   const base: Omit<LabelSpot, 'box'>[] = [
     { dx: 0, dy: below, anchor: 'middle' },
     { dx: 0, dy: above, anchor: 'middle' },
-    { dx: side, dy: 4, anchor: 'start' },
-    { dx: -side, dy: 4, anchor: 'end' },
+    { dx: side, dy: h / 3, anchor: 'start' },
+    { dx: -side, dy: h / 3, anchor: 'end' },
     { dx: side - 2, dy: below - 2, anchor: 'start' },
     { dx: -(side - 2), dy: below - 2, anchor: 'end' },
     { dx: side - 2, dy: above + 2, anchor: 'start' },
     { dx: -(side - 2), dy: above + 2, anchor: 'end' },
   ];
-  const far = LABEL_HEIGHT;
+  const far = h;
   return [
     ...base,
     { dx: 0, dy: below + far, anchor: 'middle' },
@@ -57,12 +65,17 @@ function candidates(r: number, w: number): Omit<LabelSpot, 'box'>[] {
   ];
 }
 
-function boxOf(x: number, y: number, spot: Omit<LabelSpot, 'box'>, w: number): Box {
+function boxOf(x: number, y: number, spot: Omit<LabelSpot, 'box'>, w: number, h: number): Box {
   const ax = x + spot.dx;
   const x0 = spot.anchor === 'start' ? ax : spot.anchor === 'end' ? ax - w : ax - w / 2;
   // The anchor is the text's baseline: most of the box lies above it.
   const baseline = y + spot.dy;
-  return { x0, y0: baseline - LABEL_HEIGHT + 3, x1: x0 + w, y1: baseline + 3 };
+  const descent = Math.round(h * 0.23);
+  return { x0, y0: baseline - h + descent, x1: x0 + w, y1: baseline + descent };
+}
+
+function inside(b: Box, bounds: Box | undefined): boolean {
+  return !bounds || (b.x0 >= bounds.x0 && b.y0 >= bounds.y0 && b.x1 <= bounds.x1 && b.y1 <= bounds.y1);
 }
 
 export function overlaps(a: Box, b: Box): boolean {
@@ -99,14 +112,15 @@ class Grid {
  * every shape counts as an obstacle. People are labelled in input order, so the result is
  * the same on every run.
  */
-export function placeLabels(items: readonly LabelInput[], r: number): (LabelSpot | null)[] {
-  const grid = new Grid(64);
+export function placeLabels(items: readonly LabelInput[], r: number, options: PlaceOptions = {}): (LabelSpot | null)[] {
+  const h = options.height ?? LABEL_HEIGHT;
+  const grid = new Grid(Math.max(64, h * 5));
   const pad = 1.5;
   for (const it of items) grid.add({ x0: it.x - r - pad, y0: it.y - r - pad, x1: it.x + r + pad, y1: it.y + r + pad });
   return items.map((it) => {
-    for (const c of candidates(r, it.width)) {
-      const box = boxOf(it.x, it.y, c, it.width);
-      if (grid.hits(box)) continue;
+    for (const c of candidates(r, it.width, h)) {
+      const box = boxOf(it.x, it.y, c, it.width, h);
+      if (!inside(box, options.bounds) || grid.hits(box)) continue;
       grid.add(box);
       return { ...c, box };
     }
