@@ -27,6 +27,7 @@ export type IssueCode =
   | 'no-ties'
   | 'isolated-person'
   | 'ignored-column'
+  | 'reporting-cycle'
   | 'too-many-issues';
 
 export interface Issue {
