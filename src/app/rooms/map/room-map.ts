@@ -31,6 +31,10 @@ const TIE = '#8a96a3';
 const SVG_NS = 'http://www.w3.org/2000/svg';
 /** Above this many people names are not placed one by one (they are hidden until zoomed in). */
 const LABEL_PLACEMENT_MAX = 400;
+/** Up to this many people each is a Tab stop; above, the keyboard path is "Find a person". */
+const KEYBOARD_STOPS_MAX = 400;
+/** Arrow keys move the selection this far (with Shift, five times as far). */
+const KEY_STEP = 10;
 
 /**
  * The communication map: d3-force layout, drawn in SVG with presentation attributes (so the
@@ -153,6 +157,7 @@ export class RoomMap implements OnDestroy {
       });
     select(svg).call(this.zoomer).on('dblclick.zoom', null);
     svg.addEventListener('pointerdown', (e) => this.startBand(e));
+    svg.addEventListener('keydown', (e) => this.personKey(e));
     svg.addEventListener('click', (e) => this.backgroundClick(e));
     this.ready = true;
   }
@@ -266,10 +271,31 @@ export class RoomMap implements OnDestroy {
   private drawPeople(people: ReturnType<RoomEditor['people']>, styles: ReturnType<typeof groupStyles>): void {
     const frag = document.createDocumentFragment();
     const editable = this.editor.canEdit();
+    const keyboard = people.length <= KEYBOARD_STOPS_MAX;
     for (const p of people) {
       const n = this.nodes.get(p.lid)!;
       const style = styles.get(p.group ?? '') ?? NO_GROUP_STYLE;
-      const g = el('g', { class: 'person', 'data-lid': p.lid, 'data-name': p.name });
+      const g = el('g', {
+        class: 'person',
+        'data-lid': p.lid,
+        'data-name': p.name,
+        // Keyboard: Tab reaches each person (up to KEYBOARD_STOPS_MAX; larger rooms use Find), Enter selects, arrows move.
+        tabindex: keyboard ? 0 : -1,
+        role: 'button',
+        'aria-label': p.group ? `${p.name}, ${p.group}` : p.name,
+        'aria-pressed': 'false',
+      });
+      g.append(
+        el('circle', {
+          r: R + 6,
+          fill: 'none',
+          stroke: INK,
+          'stroke-width': 2,
+          'stroke-dasharray': '4 3',
+          class: 'focus-ring',
+          visibility: 'hidden',
+        }),
+      );
       g.append(el('path', { d: shapePath(style.shape, R), fill: style.fill, stroke: INK, 'stroke-width': 1.4, class: 'shape' }));
       if (style.hollow) g.append(el('circle', { r: R * 0.38, fill: '#ffffff', stroke: INK, 'stroke-width': 1 }));
       g.append(el('path', { d: 'M5,-17h7l-3.5,6z', fill: INK, class: 'pin', visibility: p.pinned ? 'visible' : 'hidden' }));
@@ -337,7 +363,9 @@ export class RoomMap implements OnDestroy {
     if (!this.ready || nodes.length > LABEL_PLACEMENT_MAX) return;
     const spots = placeLabels(
       nodes.map((n) => ({ x: n.x ?? 0, y: n.y ?? 0, width: labelWidth(this.editor.model.people.get(n.lid)?.name ?? '') })),
-      R + 2,
+      // The largest shapes (star, triangle) reach about 1.35 R from the centre.
+      R * 1.4,
+      { height: 15 },
     );
     nodes.forEach((n, i) => {
       const label = n.el?.querySelector('.label');
@@ -523,6 +551,43 @@ export class RoomMap implements OnDestroy {
     return best;
   }
 
+  /** Enter or Space selects the focused person (Shift adds to the selection); arrow keys move the selection. */
+  private personKey(e: KeyboardEvent): void {
+    const g = (e.target as Element).closest?.('g.person');
+    const lid = g?.getAttribute('data-lid');
+    if (!lid || !this.nodes.has(lid)) return;
+    const s = this.editor.selection;
+    if (e.key === 'Enter' || e.key === ' ') {
+      e.preventDefault();
+      if (e.shiftKey) s.toggle(lid);
+      else s.only(lid);
+      this.editor.selectionChanged();
+      return;
+    }
+    const step = KEY_STEP * (e.shiftKey ? 5 : 1);
+    const delta: Record<string, [number, number]> = {
+      ArrowLeft: [-step, 0],
+      ArrowRight: [step, 0],
+      ArrowUp: [0, -step],
+      ArrowDown: [0, step],
+    };
+    const d = delta[e.key];
+    if (!d || !this.editor.canEdit()) return;
+    e.preventDefault();
+    if (!s.has(lid)) {
+      s.only(lid);
+      this.editor.selectionChanged();
+    }
+    const moves = s
+      .ids()
+      .map((id) => this.nodes.get(id))
+      .filter((n): n is MapNode => !!n)
+      .map((n) => ({ lid: n.lid, x: Math.round((n.x ?? 0) + d[0]), y: Math.round((n.y ?? 0) + d[1]), pinned: n.pinned }));
+    this.sim?.stop();
+    this.layoutRunning.set(false);
+    this.editor.movePeople(moves);
+  }
+
   private toGraph(e: MouseEvent): [number, number] {
     const rect = this.svgRef().nativeElement.getBoundingClientRect();
     return this.transform.invert([e.clientX - rect.left, e.clientY - rect.top]);
@@ -583,6 +648,7 @@ export class RoomMap implements OnDestroy {
       shape.setAttribute('stroke', on ? CLAY : INK);
       shape.setAttribute('stroke-width', on ? '3.5' : '1.4');
       n.el!.classList.toggle('selected', on);
+      n.el!.setAttribute('aria-pressed', String(on));
     }
     const maxStrength = this.links.reduce((m, l) => Math.max(m, l.strength), 0);
     for (const l of this.links) {

@@ -1,5 +1,5 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, untracked } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, signal, untracked } from '@angular/core';
+import { FormsModule, NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatAutocompleteModule } from '@angular/material/autocomplete';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -12,7 +12,7 @@ import { groupProblem, personNameProblem, problemValidator, strengthProblem } fr
 /** Edits what is selected on the map: one person, several people, or one tie. */
 @Component({
   selector: 'app-map-inspector',
-  imports: [ReactiveFormsModule, MatAutocompleteModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule],
+  imports: [FormsModule, ReactiveFormsModule, MatAutocompleteModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule],
   templateUrl: './map-inspector.html',
   styleUrl: './map-inspector.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -46,6 +46,20 @@ export class MapInspector {
     }
     if (s.size > 1) return { kind: 'many' as const, count: s.size, pinned: s.ids().filter((l) => m.people.get(l)?.pinned).length };
     return { kind: 'none' as const };
+  });
+
+  /** "Tie to": the keyboard (and menu) way to draw a tie from the selected person. */
+  protected readonly tieQuery = signal('');
+  protected readonly tieCandidates = computed(() => {
+    const st = this.state();
+    if (st.kind !== 'person') return [];
+    const q = this.tieQuery().trim().toLowerCase();
+    const directed = !!this.editor.room()?.settings.directed;
+    return this.editor
+      .people()
+      .filter((p) => p.lid !== st.person.lid && !this.editor.model.findTie(st.person.lid, p.lid, directed))
+      .filter((p) => !q || p.name.toLowerCase().includes(q) || (p.group ?? '').toLowerCase().includes(q))
+      .slice(0, 30);
   });
 
   /**
@@ -99,6 +113,21 @@ export class MapInspector {
     if (group !== p.group) changes.group = group;
     if (Object.keys(changes).length) this.editor.updatePerson(p.lid, changes, changes.name ? `Rename ${p.name}` : 'Change group');
   }
+
+  protected tieTo(target: string): void {
+    const from = this.personLid;
+    if (!from) return;
+    this.editor.addTie(from, target);
+    this.tieQuery.set('');
+    const a = this.editor.model.people.get(from)?.name;
+    const b = this.editor.model.people.get(target)?.name;
+    this.snack
+      .open(`Tie added: ${a} and ${b}.`, 'Undo', { duration: 5000 })
+      .onAction()
+      .subscribe(() => this.editor.undo());
+  }
+
+  protected readonly noName = (): string => '';
 
   protected saveGroupForMany(): void {
     if (this.many.invalid) return;
