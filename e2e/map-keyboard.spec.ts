@@ -15,7 +15,7 @@ async function openDemoRoom(page: Page) {
   const copy = await page.request.post(`/api/rooms/${demo.id}/duplicate`, { data: {}, headers: { 'X-XSRF-TOKEN': xsrf } });
   expect(copy.status(), await copy.text()).toBe(201);
   await page.goto(`/rooms/${((await copy.json()) as { id: number }).id}`);
-  await expect(page.locator('g.person')).toHaveCount(60);
+  await expect(page.locator('g.person')).toHaveCount(60, { timeout: 30_000 });
   await page.evaluate(() => document.fonts.ready);
 }
 
