@@ -78,7 +78,7 @@ function refuseErrors(report: OrgChartReport): void {
 }
 
 async function editableRoom(req: Request, res: Response, next: NextFunction) {
-  res.locals['room'] = await loadRoomFor(req.user, req.params['id'] as string, 'edit');
+  res.locals['room'] = await loadRoomFor(req.user, req.params['id'], 'edit');
   next();
 }
 
