@@ -106,7 +106,7 @@ async function replaceContent(req: Request, loaded: LoadedRoom, parsed: ParsedIm
     const content = contentOf(parsed);
     await store.clearContent(tx, room.id);
     await store.insertContent(tx, room.id, content.people, content.ties);
-    await store.updateRoomFields(tx, room.id, { directed: parsed.graph.directed });
+    await store.updateRoomFields(tx, room.id, { directed: parsed.graph.directed, orgChart: null });
     await audit(
       req,
       { action: 'room.import', targetType: 'room', targetId: room.id, detail: { format: parsed.format, people: content.people.length } },

@@ -8,8 +8,10 @@ import { audit } from '../core/audit';
 import { parse } from '../core/validate';
 import { loadRoomFor, loadRoomGraph } from './access';
 import { applyEdits } from './edits';
-import { exportRoom } from './export';
+import { exportRoom, fileStem } from './export';
 import { importRouter } from './import-routes';
+import { writeRoomOrgChart } from './org-chart';
+import { orgChartRouter } from './org-chart-routes';
 import * as schemas from './schemas';
 import { createRoom, duplicateRoom, roomDto, updateRoom } from './service';
 import { idOf } from '../core/ids';
@@ -21,6 +23,7 @@ import { summarize } from './summary';
 export const roomsRouter = Router();
 const me = (req: Request) => req.user!;
 
+roomsRouter.use(orgChartRouter);
 roomsRouter.use(importRouter);
 
 roomsRouter.get('/', signedIn(), async (req, res) => {
@@ -87,6 +90,15 @@ const exportQuery = z.strictObject({ format: z.enum(EXPORT_FORMATS, `format must
 roomsRouter.get('/:id/export', signedIn(), async (req, res) => {
   const { room } = await loadRoomFor(req.user, req.params.id, 'view');
   const { format } = parse(exportQuery, req.query, 'query');
+  if (format === 'org-chart-csv') {
+    const body = '\uFEFF' + writeRoomOrgChart(await store.orgChartPeople(db, room.id), await store.roomOrgChart(db, room.id));
+    res
+      .set('Cache-Control', 'no-store')
+      .attachment(`${fileStem(room.name)}-org-chart.csv`)
+      .type('text/csv; charset=utf-8')
+      .send(body);
+    return;
+  }
   const file = exportRoom(format, room.name, await loadRoomGraph(room.id), await store.roomPeople(db, room.id));
   res.set('Cache-Control', 'no-store').attachment(file.filename).type(file.contentType).send(file.body);
 });

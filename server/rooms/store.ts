@@ -22,6 +22,8 @@ export interface PersonRowInput {
   x: number | null;
   y: number | null;
   pinned: boolean;
+  /** From an org-chart import: the manager's person key. */
+  managerKey?: string | null;
 }
 
 export interface TieRowInput {
@@ -60,6 +62,7 @@ export async function insertContent(
       x: p.x,
       y: p.y,
       pinned: p.pinned,
+      managerKey: p.managerKey ?? null,
       orderIndex: firstOrder + at + i,
     }));
     const got = await tx.insert(people).values(rows).$returningId();
@@ -106,6 +109,11 @@ export async function updateRoomFields(tx: Q, roomId: number, set: Partial<typeo
     .where(eq(rooms.id, roomId));
 }
 
+/** Notes the org-chart headers of a room just created from one (not a content change: no version bump). */
+export async function setOrgChart(tx: Q, roomId: number, saved: string | null): Promise<void> {
+  await tx.update(rooms).set({ orgChart: saved }).where(eq(rooms.id, roomId));
+}
+
 export async function deleteRoom(roomId: number): Promise<void> {
   await db.delete(rooms).where(eq(rooms.id, roomId));
 }
@@ -123,6 +131,23 @@ const personColumns = {
 
 export async function roomPeople(tx: Q, roomId: number): Promise<PersonDto[]> {
   return tx.select(personColumns).from(people).where(eq(people.roomId, roomId)).orderBy(asc(people.orderIndex), asc(people.id));
+}
+
+/** People with their manager keys, in room order, for the org-chart export. */
+export async function orgChartPeople(
+  tx: Q,
+  roomId: number,
+): Promise<{ key: string; name: string; group: string | null; managerKey: string | null }[]> {
+  return tx
+    .select({ key: people.personKey, name: people.name, group: people.groupName, managerKey: people.managerKey })
+    .from(people)
+    .where(eq(people.roomId, roomId))
+    .orderBy(asc(people.orderIndex), asc(people.id));
+}
+
+export async function roomOrgChart(tx: Q, roomId: number): Promise<string | null> {
+  const [row] = await tx.select({ orgChart: rooms.orgChart }).from(rooms).where(eq(rooms.id, roomId));
+  return row?.orgChart ?? null;
 }
 
 export async function roomTies(tx: Q, roomId: number): Promise<TieDto[]> {

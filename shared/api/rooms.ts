@@ -249,7 +249,7 @@ export interface ImportReport {
   version?: number;
 }
 
-export const EXPORT_FORMATS = ['json', 'graphml', 'people-csv', 'ties-csv'] as const;
+export const EXPORT_FORMATS = ['json', 'graphml', 'people-csv', 'ties-csv', 'org-chart-csv'] as const;
 export type ExportFormat = (typeof EXPORT_FORMATS)[number];
 
 // ---- sharing ----
