@@ -25,6 +25,10 @@ export interface PlanOptions extends WalkOptions {
   readonly exclude?: readonly number[];
   /** Largest room handled with dense matrices (default 2500); larger rooms use lazy greedy. */
   readonly denseLimit?: number;
+  /** Undirected rooms from this size on use the sparse exact greedy for method greedy (default 300). */
+  readonly sparseFrom?: number;
+  /** Largest sparse factor (nonzeros) before the iterative path is used (default 4e7). */
+  readonly maxFill?: number;
   /** Lazy greedy: people checked exactly per choice (default 3). */
   readonly lazyChecks?: number;
   /** Widened greedy: most seed sets extended (default 64). */
@@ -57,4 +61,8 @@ export interface PlanResult {
   readonly rankScale: { readonly worst: number; readonly best: number };
   readonly notes: string[];
   readonly warnings: string[];
+  /** Which linear algebra ran: dense matrices, a sparse LDL^T factor, or an iterative solver (estimates stated in notes). */
+  readonly solverPath?: 'dense' | 'sparse-factor' | 'iterative';
+  /** Nonzeros of the sparse factor when solverPath is 'sparse-factor'. */
+  readonly fill?: number;
 }

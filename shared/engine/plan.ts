@@ -15,11 +15,15 @@ import { finishPlan, planContext, type PlanContext } from './plan-context';
 import { exhaustiveSearch } from './plan-exhaustive';
 import { extendGreedy, greedyState } from './plan-greedy';
 import { lazyGreedyPlan } from './plan-lazy';
+import { sparseGreedyEligible, sparseGreedyPlan } from './plan-sparse-greedy';
 import { swapPolish } from './plan-swap';
 import type { PlanMethod, PlanOptions, PlanResult } from './plan-types';
 import { widenedState } from './plan-widened';
 import { exactReach, DEFAULT_DENSE_LIMIT } from './reach';
 import type { RoomInput } from './room';
+
+/** Undirected rooms of at least this many people run method greedy on the sparse factor. */
+export const SPARSE_GREEDY_FROM = 300;
 
 export const PLAN_METHODS = ['greedy', 'widened', 'swap', 'exhaustive', 'auto', 'lazy-greedy'] as const;
 
@@ -59,13 +63,14 @@ export function plan(input: RoomInput, options: PlanOptions): PlanResult {
       `Exhaustive search is limited to rooms of at most ${limit} people (this room has ${ctx.n}); use greedy, auto or lazy-greedy.`,
     );
   }
-  if (big || method === 'lazy-greedy') {
-    if (big && method !== 'auto' && method !== 'lazy-greedy')
-      ctx.warnings.push(`The room has ${ctx.n} people, above the dense limit of ${limit}: lazy greedy was used instead of ${method}.`);
-    return lazyGreedyPlan(ctx);
-  }
+  if (method === 'lazy-greedy') return { ...lazyGreedyPlan(ctx), solverPath: 'iterative' };
+  if (big) return largeRoom(ctx, method, limit);
   switch (method) {
     case 'greedy':
+      if (ctx.n >= (options.sparseFrom ?? SPARSE_GREEDY_FROM) && sparseGreedyEligible(ctx)) {
+        const sparse = sparseGreedyPlan(ctx, options.maxFill);
+        if (sparse) return sparse;
+      }
       return finishState(ctx, 'greedy', greedyState(ctx));
     case 'swap':
       return finishState(ctx, 'swap', swapPolish(ctx, greedyState(ctx)));
@@ -76,6 +81,26 @@ export function plan(input: RoomInput, options: PlanOptions): PlanResult {
     default:
       return auto(ctx);
   }
+}
+
+/**
+ * Rooms above the dense limit: the sparse exact greedy for undirected rooms whose factor fits;
+ * otherwise (directed rooms, or too much fill) lazy greedy on iterative solves, which says
+ * where it estimates.
+ */
+function largeRoom(ctx: PlanContext, method: string, limit: number): PlanResult {
+  if (sparseGreedyEligible(ctx)) {
+    const sparse = sparseGreedyPlan(ctx, ctx.options.maxFill);
+    if (sparse) {
+      if (method !== 'auto' && method !== 'greedy')
+        sparse.warnings.push(`The room has ${ctx.n} people, above the dense limit of ${limit}: exact greedy was used instead of ${method}.`);
+      return sparse;
+    }
+    ctx.notes.push('The sparse factor of this room would be too large (fill estimate before factoring): iterative solves were used.');
+  }
+  if (method !== 'auto' && method !== 'greedy')
+    ctx.warnings.push(`The room has ${ctx.n} people, above the dense limit of ${limit}: lazy greedy was used instead of ${method}.`);
+  return { ...lazyGreedyPlan(ctx), solverPath: 'iterative' };
 }
 
 function runExhaustive(ctx: PlanContext): PlanResult {

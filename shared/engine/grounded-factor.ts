@@ -1,0 +1,116 @@
+/**
+ * The grounded system of an undirected room as a sparse LDL^T factor (docs/engine.md
+ * section 7): K = D_T - gamma W_TT on the people T not grounded, with gamma = 1 without
+ * background mixing (K = L_TT, the grounded Laplacian) and gamma = 1 - b with mixing b (the
+ * rank-one part is handled by the caller, Sherman-Morrison). Grounded people keep a unit
+ * diagonal and no ties, so one fill-reducing order of the whole room serves every starter set.
+ * Solves can be refined: x += K^-1 (b - K x) with the residual summed in compensated
+ * (Neumaier) arithmetic, which recovers digits lost to ill-conditioning.
+ */
+import type { Csr } from './graph';
+import { amdOrder } from './linalg/amd';
+import { analyse, factor, ldlSolve, type LdlFactor, type SpdMatrix, type Symbolic } from './linalg/sparse-ldl';
+import { inverseDiagonal } from './linalg/selected-inverse';
+
+export function fillReducingOrder(csr: Csr): Int32Array {
+  return amdOrder({ n: csr.n, rowStart: csr.rowStart, col: csr.col });
+}
+
+export function groundedMatrix(csr: Csr, grounded: Uint8Array, gamma: number): SpdMatrix {
+  const { n, rowStart, col, weight, outStrength } = csr;
+  const start = new Int32Array(n + 1);
+  for (let i = 0; i < n; i++) {
+    let c = 0;
+    if (!grounded[i]) for (let e = rowStart[i]; e < rowStart[i + 1]; e++) if (col[e] !== i && !grounded[col[e]]) c++;
+    start[i + 1] = start[i] + c;
+  }
+  const cols = new Int32Array(start[n]);
+  const val = new Float64Array(start[n]);
+  const diag = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    if (grounded[i]) {
+      diag[i] = 1;
+      continue;
+    }
+    let q = start[i];
+    let self = 0;
+    for (let e = rowStart[i]; e < rowStart[i + 1]; e++) {
+      const j = col[e];
+      if (j === i) self += weight[e];
+      else if (!grounded[j]) {
+        cols[q] = j;
+        val[q++] = -gamma * weight[e];
+      }
+    }
+    diag[i] = outStrength[i] - gamma * self;
+  }
+  return { n, rowStart: start, col: cols, val, diag };
+}
+
+export class GroundedFactor {
+  readonly matrix: SpdMatrix;
+  readonly sym: Symbolic;
+  private f: LdlFactor | null = null;
+  private readonly work: Float64Array;
+
+  constructor(csr: Csr, order: Int32Array, grounded: Uint8Array, gamma: number) {
+    this.matrix = groundedMatrix(csr, grounded, gamma);
+    this.sym = analyse(this.matrix, order);
+    this.work = new Float64Array(csr.n);
+  }
+
+  /** Numeric factorisation (call after checking `sym.nnz`, the fill estimate). */
+  factorise(): this {
+    this.f = factor(this.matrix, this.sym);
+    return this;
+  }
+
+  get ldl(): LdlFactor {
+    if (!this.f) this.factorise();
+    return this.f!;
+  }
+
+  solve(b: Float64Array, out?: Float64Array): Float64Array {
+    return ldlSolve(this.ldl, b, out, this.work);
+  }
+
+  /** diag(K^-1) by selected inversion. */
+  inverseDiagonal(): Float64Array {
+    return inverseDiagonal(this.ldl);
+  }
+
+  /** Solve with `steps` rounds of refinement; returns x and the final relative residual. */
+  solveRefined(b: Float64Array, steps = 2): { x: Float64Array; residual: number } {
+    const x = this.solve(b);
+    let residual = this.residual(b, x);
+    for (let s = 0; s < steps && residual.norm > 1e-17 * residual.bnorm; s++) {
+      const dx = this.solve(residual.r);
+      for (let i = 0; i < x.length; i++) x[i] += dx[i];
+      residual = this.residual(b, x);
+    }
+    return { x, residual: residual.norm / (residual.bnorm || 1) };
+  }
+
+  /** r = b - K x, each entry summed with Neumaier's compensated summation. */
+  private residual(b: Float64Array, x: Float64Array): { r: Float64Array; norm: number; bnorm: number } {
+    const a = this.matrix;
+    const r = new Float64Array(a.n);
+    let nr = 0;
+    let nb = 0;
+    for (let i = 0; i < a.n; i++) {
+      let s = b[i];
+      let c = 0;
+      const add = (t: number) => {
+        const u = s + t;
+        c += Math.abs(s) >= Math.abs(t) ? s - u + t : t - u + s;
+        s = u;
+      };
+      add(-a.diag[i] * x[i]);
+      for (let p = a.rowStart[i]; p < a.rowStart[i + 1]; p++) add(-a.val[p] * x[a.col[p]]);
+      r[i] = s + c;
+      nr += r[i] * r[i];
+      nb += b[i] * b[i];
+    }
+    return { r, norm: Math.sqrt(nr), bnorm: Math.sqrt(nb) };
+  }
+}
