@@ -93,7 +93,9 @@ function largeRoom(ctx: PlanContext, method: string, limit: number): PlanResult 
     const sparse = sparseGreedyPlan(ctx, ctx.options.maxFill);
     if (sparse) {
       if (method !== 'auto' && method !== 'greedy')
-        sparse.warnings.push(`The room has ${ctx.n} people, above the dense limit of ${limit}: exact greedy was used instead of ${method}.`);
+        sparse.warnings.push(
+          `The room has ${ctx.n} people, above the dense limit of ${limit}: exact greedy was used instead of ${method}.`,
+        );
       return sparse;
     }
     ctx.notes.push('The sparse factor of this room would be too large (fill estimate before factoring): iterative solves were used.');

@@ -41,7 +41,11 @@ export function firstStarters(ctx: PlanContext, order: Int32Array, maxFill: numb
   const d = room.csr.outStrength;
   const b1 = new Float64Array(n);
   const bd = new Float64Array(n);
-  for (let i = 0; i < n; i++) if (!grounded[i]) ((b1[i] = 1), (bd[i] = d[i]));
+  for (let i = 0; i < n; i++)
+    if (!grounded[i]) {
+      b1[i] = 1;
+      bd[i] = d[i];
+    }
   const x1 = f.solve(b1);
   const xdv = f.solve(bd);
   for (let i = 0; i < n; i++) if (grounded[i]) xd[i] = x1[i] = xdv[i] = 0;
@@ -55,7 +59,13 @@ export function firstStarters(ctx: PlanContext, order: Int32Array, maxFill: numb
 }
 
 /** The best allowed single starter of a part (tie-break of docs/engine.md) and the worst single total. */
-function scorePart(ctx: PlanContext, cls: number[], xd: Float64Array, x1: Float64Array, xdv: Float64Array): { best: number; worst: number } {
+function scorePart(
+  ctx: PlanContext,
+  cls: number[],
+  xd: Float64Array,
+  x1: Float64Array,
+  xdv: Float64Array,
+): { best: number; worst: number } {
   const d = ctx.room.csr.outStrength;
   const m = cls.length;
   if (m === 1) return { best: cls[0], worst: 0 };

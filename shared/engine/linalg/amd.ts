@@ -74,10 +74,18 @@ export function amdOrder(g: SymmetricPattern): Int32Array {
     stamp++;
     lp.length = 0;
     mark[p] = stamp;
-    for (const v of vars[p]) if (!gone[v] && mark[v] !== stamp) ((mark[v] = stamp), lp.push(v));
+    for (const v of vars[p])
+      if (!gone[v] && mark[v] !== stamp) {
+        mark[v] = stamp;
+        lp.push(v);
+      }
     for (const e of elts[p]) {
       if (absorbed[e]) continue;
-      for (const v of members[e]!) if (!gone[v] && mark[v] !== stamp) ((mark[v] = stamp), lp.push(v));
+      for (const v of members[e]!)
+        if (!gone[v] && mark[v] !== stamp) {
+          mark[v] = stamp;
+          lp.push(v);
+        }
       absorbed[e] = 1;
       members[e] = null;
     }
@@ -88,7 +96,10 @@ export function amdOrder(g: SymmetricPattern): Int32Array {
     for (const i of lp) {
       for (const e of elts[i]) {
         if (absorbed[e]) continue;
-        if (wStamp[e] !== stamp) ((wStamp[e] = stamp), (wVal[e] = members[e]!.length));
+        if (wStamp[e] !== stamp) {
+          wStamp[e] = stamp;
+          wVal[e] = members[e]!.length;
+        }
         wVal[e]--;
       }
     }
@@ -124,4 +135,3 @@ export function amdOrder(g: SymmetricPattern): Int32Array {
   for (const i of late) out[top++] = i;
   return out;
 }
-
