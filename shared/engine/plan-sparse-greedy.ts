@@ -135,15 +135,40 @@ function bestCandidate(s: GreedyState, allowed: Uint8Array, totalOf: (sigma: num
   return best;
 }
 
-/** Sum of the r largest gains total(A) - total(A + j) among allowed people in T. */
+/** Sum of the r largest gains total(A) - total(A + j) among allowed people in T (a bounded min-heap). */
 function topGains(s: GreedyState, allowed: Uint8Array, r: number, totalOf: (sigma: number) => number): number {
   const base = totalOf(s.sigma);
-  const g: number[] = [];
-  for (let j = 0; j < s.inT.length; j++) if (s.inT[j] && allowed[j]) g.push(base - totalOf(s.sigma - (s.u[j] * s.v[j]) / s.dg[j]));
-  if (g.length > r) g.sort((a, b) => b - a);
+  const heap = new Float64Array(Math.max(1, r));
+  let size = 0;
+  for (let j = 0; j < s.inT.length; j++) {
+    if (!s.inT[j] || !allowed[j]) continue;
+    const g = base - totalOf(s.sigma - (s.u[j] * s.v[j]) / s.dg[j]);
+    if (size < r) {
+      let i = size++;
+      while (i > 0 && heap[(i - 1) >> 1] > g) {
+        heap[i] = heap[(i - 1) >> 1];
+        i = (i - 1) >> 1;
+      }
+      heap[i] = g;
+    } else if (r > 0 && g > heap[0]) siftDown(heap, size, g);
+  }
   let t = 0;
-  for (let q = 0; q < Math.min(r, g.length); q++) t += g[q];
+  for (let q = 0; q < size; q++) t += heap[q];
   return t;
+}
+
+/** Replaces the heap's smallest entry by g and restores the min-heap order. */
+function siftDown(heap: Float64Array, size: number, g: number): void {
+  let i = 0;
+  for (;;) {
+    const l = 2 * i + 1;
+    if (l >= size) break;
+    const c = l + 1 < size && heap[l + 1] < heap[l] ? l + 1 : l;
+    if (heap[c] >= g) break;
+    heap[i] = heap[c];
+    i = c;
+  }
+  heap[i] = g;
 }
 
 /** Column j of the current G: one solve with the first factor, minus the picked columns. */

@@ -29,6 +29,7 @@ export function amdOrder(g: SymmetricPattern): Int32Array {
     }
   }
   const vars: Int32Array[] = new Array(n);
+  const varLen = new Int32Array(n);
   const elts: number[][] = new Array(n);
   const members: (Int32Array | null)[] = new Array(n).fill(null);
   const deg = new Int32Array(n);
@@ -54,6 +55,7 @@ export function amdOrder(g: SymmetricPattern): Int32Array {
     const vs: number[] = [];
     for (let e = g.rowStart[i]; e < g.rowStart[i + 1]; e++) if (!gone[g.col[e]] && g.col[e] !== i) vs.push(g.col[e]);
     vars[i] = Int32Array.from(vs);
+    varLen[i] = vs.length;
     elts[i] = [];
     deg[i] = vs.length;
     live++;
@@ -74,11 +76,14 @@ export function amdOrder(g: SymmetricPattern): Int32Array {
     stamp++;
     lp.length = 0;
     mark[p] = stamp;
-    for (const v of vars[p])
+    const vp = vars[p];
+    for (let q = 0; q < varLen[p]; q++) {
+      const v = vp[q];
       if (!gone[v] && mark[v] !== stamp) {
         mark[v] = stamp;
         lp.push(v);
       }
+    }
     for (const e of elts[p]) {
       if (absorbed[e]) continue;
       for (const v of members[e]!)
@@ -90,7 +95,7 @@ export function amdOrder(g: SymmetricPattern): Int32Array {
       members[e] = null;
     }
     members[p] = Int32Array.from(lp);
-    vars[p] = new Int32Array(0);
+    varLen[p] = 0;
     elts[p] = [];
     // w(e) = |L_e \ L_p| for every element next to L_p.
     for (const i of lp) {
@@ -107,25 +112,28 @@ export function amdOrder(g: SymmetricPattern): Int32Array {
     for (const i of lp) {
       unlink(i);
       let ext = 0;
-      const keep: number[] = [p];
-      for (const e of elts[i]) {
+      const es = elts[i];
+      let ne = 0;
+      for (let q = 0; q < es.length; q++) {
+        const e = es[q];
         if (absorbed[e] || e === p) continue;
         if (wVal[e] === 0) {
           absorbed[e] = 1; // aggressive absorption: L_e lies inside L_p
           members[e] = null;
           continue;
         }
-        keep.push(e);
+        es[ne++] = e;
         ext += wVal[e];
       }
-      elts[i] = keep;
+      es.length = ne;
+      es.push(p);
       const vs = vars[i];
       let nv = 0;
-      for (let q = 0; q < vs.length; q++) {
+      for (let q = 0; q < varLen[i]; q++) {
         const v = vs[q];
         if (!gone[v] && mark[v] !== stamp) vs[nv++] = v;
       }
-      vars[i] = nv === vs.length ? vs : vs.slice(0, nv);
+      varLen[i] = nv;
       const d = Math.min(remaining - 1, deg[i] + lp.length - 1, nv + lp.length - 1 + ext);
       deg[i] = Math.max(0, d);
       insert(i);
