@@ -4,12 +4,13 @@
  * background mixing (K = L_TT, the grounded Laplacian) and gamma = 1 - b with mixing b (the
  * rank-one part is handled by the caller, Sherman-Morrison). Grounded people keep a unit
  * diagonal and no ties, so one fill-reducing order of the whole room serves every starter set.
- * Solves can be refined: x += K^-1 (b - K x) with the residual summed in compensated
- * (Neumaier) arithmetic, which recovers digits lost to ill-conditioning.
+ * Solves can be refined: x += K^-1 (b - K x) with double-double residuals formed from the ties
+ * (linalg/refine.ts), which recovers digits lost to ill-conditioning.
  */
 import type { Csr } from './graph';
 import { amdOrder } from './linalg/amd';
 import { analyse, factor, ldlSolve, type LdlFactor, type SpdMatrix, type Symbolic } from './linalg/sparse-ldl';
+import { refine, type Refined } from './linalg/refine';
 import { inverseDiagonal } from './linalg/selected-inverse';
 
 export function fillReducingOrder(csr: Csr): Int32Array {
@@ -53,7 +54,15 @@ export class GroundedFactor {
   private f: LdlFactor | null = null;
   private readonly work: Float64Array;
 
-  constructor(csr: Csr, order: Int32Array, grounded: Uint8Array, gamma: number) {
+  private readonly inT: Uint8Array;
+
+  constructor(
+    private readonly csr: Csr,
+    order: Int32Array,
+    grounded: Uint8Array,
+    private readonly gamma: number,
+  ) {
+    this.inT = grounded.map((g) => (g ? 0 : 1));
     this.matrix = groundedMatrix(csr, grounded, gamma);
     this.sym = analyse(this.matrix, order);
     this.work = new Float64Array(csr.n);
@@ -79,38 +88,8 @@ export class GroundedFactor {
     return inverseDiagonal(this.ldl);
   }
 
-  /** Solve with `steps` rounds of refinement; returns x and the final relative residual. */
-  solveRefined(b: Float64Array, steps = 2): { x: Float64Array; residual: number } {
-    const x = this.solve(b);
-    let residual = this.residual(b, x);
-    for (let s = 0; s < steps && residual.norm > 1e-17 * residual.bnorm; s++) {
-      const dx = this.solve(residual.r);
-      for (let i = 0; i < x.length; i++) x[i] += dx[i];
-      residual = this.residual(b, x);
-    }
-    return { x, residual: residual.norm / (residual.bnorm || 1) };
-  }
-
-  /** r = b - K x, each entry summed with Neumaier's compensated summation. */
-  private residual(b: Float64Array, x: Float64Array): { r: Float64Array; norm: number; bnorm: number } {
-    const a = this.matrix;
-    const r = new Float64Array(a.n);
-    let nr = 0;
-    let nb = 0;
-    for (let i = 0; i < a.n; i++) {
-      let s = b[i];
-      let c = 0;
-      const add = (t: number) => {
-        const u = s + t;
-        c += Math.abs(s) >= Math.abs(t) ? s - u + t : t - u + s;
-        s = u;
-      };
-      add(-a.diag[i] * x[i]);
-      for (let p = a.rowStart[i]; p < a.rowStart[i + 1]; p++) add(-a.val[p] * x[a.col[p]]);
-      r[i] = s + c;
-      nr += r[i] * r[i];
-      nb += b[i] * b[i];
-    }
-    return { r, norm: Math.sqrt(nr), bnorm: Math.sqrt(nb) };
+  /** Solve with refinement on double-double residuals of the ties (linalg/refine.ts). */
+  solveRefined(b: Float64Array, target = 1e-13): Refined {
+    return refine(this.csr, this.inT, this.gamma, b, this.solve(b), (r) => this.solve(r), target);
   }
 }

@@ -90,7 +90,7 @@ export function sparseGreedyPlan(ctx: PlanContext, maxFill = DEFAULT_MAX_FILL): 
   const total = totalOf(sigma) * scale;
   ctx.notes.push(
     `Exact greedy on a sparse LDL^T factor (${f.sym.nnz} nonzeros; first starter ${first.scoredAll ? 'from the pseudo-inverse diagonal' : 'per closed group'}); ` +
-      `final total from a refined solve (relative residual ${sol.residual.toExponential(1)}).`,
+      `final total from a refined solve (last correction ${sol.lastCorrection.toExponential(1)} relative).`,
   );
   return { ...finishPlan(ctx, 'greedy', starters, total), solverPath: 'sparse-factor', fill: f.sym.nnz };
 }
