@@ -2,7 +2,7 @@
 import type { ErgodicData } from './ergodic';
 import type { WalkOptions } from './graph';
 
-export type PlanMethod = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy';
+export type PlanMethod = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy' | 'screen';
 export type PlanMethodChoice = PlanMethod | 'auto';
 
 export interface PlanProgress {
@@ -29,6 +29,8 @@ export interface PlanOptions extends WalkOptions {
   readonly sparseFrom?: number;
   /** Largest sparse factor (nonzeros) before the iterative path is used (default 4e7). */
   readonly maxFill?: number;
+  /** Bottleneck screen: candidate sets evaluated exactly at most (default 200); its time budget is timeLimitMs (default 8 min). */
+  readonly screenKeep?: number;
   /** Lazy greedy: people checked exactly per choice (default 3). */
   readonly lazyChecks?: number;
   /** Widened greedy: most seed sets extended (default 64). */

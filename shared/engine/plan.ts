@@ -3,7 +3,9 @@
  * chosen method and reports total, room average, quality rank, proven lower bound, gap and
  * whether the plan is certified optimal.
  *
- * `auto` chooses by size: rooms above the dense limit use lazy greedy; small searches
+ * `auto` chooses by size: rooms above the dense limit use the sparse exact greedy when the
+ * room is undirected and its factor fits, lazy greedy otherwise; `screen` is the bottleneck
+ * screen for very large rooms (plan-screen.ts); small searches
  * (n <= 150 with at most ~2e6 k-sets, n <= 40 with k <= 6, or k = 1) use exhaustive branch
  * and bound under the time limit; rooms up to 400 people use widened greedy followed by swap polish; larger
  * dense rooms use greedy followed by swap polish. When the cover fits within k (and there is
@@ -15,6 +17,7 @@ import { finishPlan, planContext, type PlanContext } from './plan-context';
 import { exhaustiveSearch } from './plan-exhaustive';
 import { extendGreedy, greedyState } from './plan-greedy';
 import { lazyGreedyPlan } from './plan-lazy';
+import { screenPlan } from './plan-screen';
 import { sparseGreedyEligible, sparseGreedyPlan } from './plan-sparse-greedy';
 import { swapPolish } from './plan-swap';
 import type { PlanMethod, PlanOptions, PlanResult } from './plan-types';
@@ -25,7 +28,7 @@ import type { RoomInput } from './room';
 /** Undirected rooms of at least this many people run method greedy on the sparse factor. */
 export const SPARSE_GREEDY_FROM = 300;
 
-export const PLAN_METHODS = ['greedy', 'widened', 'swap', 'exhaustive', 'auto', 'lazy-greedy'] as const;
+export const PLAN_METHODS = ['greedy', 'widened', 'swap', 'exhaustive', 'auto', 'lazy-greedy', 'screen'] as const;
 
 function binomial(n: number, k: number): number {
   let r = 1;
@@ -63,6 +66,7 @@ export function plan(input: RoomInput, options: PlanOptions): PlanResult {
       `Exhaustive search is limited to rooms of at most ${limit} people (this room has ${ctx.n}); use greedy, auto or lazy-greedy.`,
     );
   }
+  if (method === 'screen') return screenPlan(ctx);
   if (method === 'lazy-greedy') return { ...lazyGreedyPlan(ctx), solverPath: 'iterative' };
   if (big) return largeRoom(ctx, method, limit);
   switch (method) {
