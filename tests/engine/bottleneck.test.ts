@@ -12,6 +12,7 @@ import { denseWalk, exactReach, plan, prepareRoom, type RoomGraph, type RoomTie 
 import { bottleneckRatio, cutOf, stationaryBound } from '../../shared/engine/bottleneck';
 import { rng } from '../bench/bench-rooms';
 import { gridEdges, roomFromEdges } from '../bench/large-rooms';
+import { cli, fixtures } from './cli-helpers';
 
 function weightedPath(n: number, seed: number): RoomGraph {
   const r = rng(seed);
@@ -115,5 +116,19 @@ describe('bottleneck ratio and the screen', () => {
     assert.equal(seen[0], 0);
     assert.ok(seen.length >= 2 && seen.every((v, i) => i === 0 || v === seen[i - 1] + 1));
     assert.match(r.notes.join(' '), /evaluated exactly/);
+  });
+
+  it('plan --method screen on the command line: exact total, progress on stderr, the path that ran', async () => {
+    const lines = ['source,target,strength'];
+    for (let i = 0; i < 30; i++) lines.push(`q${i},q${(i + 1) % 30},${1 + (i % 3)}`, `q${i},q${(i + 7) % 30},0.5`);
+    const f = fixtures({ 'ring.csv': lines.join('\n') + '\n' });
+    const run = await cli(['plan', '--graph', f['ring.csv'], '--k', '3', '--method', 'screen']);
+    assert.equal(run.code, 0, run.stderr);
+    const out = JSON.parse(run.stdout);
+    assert.equal(out.method, 'screen');
+    assert.equal(out.solverPath, 'iterative');
+    assert.equal(out.starters.length, 3);
+    assert.match(run.stderr, /screen \d+\/\d+/);
+    assert.ok(out.lowerBound <= out.total);
   });
 });
