@@ -29,7 +29,7 @@ const fields = z.strictObject({
 
 /** Checks the room before the upload is read, so a room of someone else costs nothing and says 404. */
 async function editableRoom(req: Request, res: Response, next: NextFunction) {
-  res.locals['room'] = await loadRoomFor(req.user, req.params['id'] as string, 'edit');
+  res.locals['room'] = await loadRoomFor(req.user, req.params['id'], 'edit');
   next();
 }
 

@@ -203,7 +203,7 @@ export class RoomBuilder {
     if (typeof raw === 'number' && Number.isFinite(raw)) return String(raw);
     if (typeof raw === 'string' && raw.trim() !== '') return this.trimIds ? raw.trim() : raw;
     const shown =
-      raw === undefined ? 'missing' : raw === '' ? 'empty' : `${clip(JSON.stringify(raw) ?? String(raw))}, not a name or number`;
+      raw === undefined ? 'missing' : raw === '' ? 'empty' : `${clip(JSON.stringify(raw) ?? typeof raw)}, not a name or number`;
     this.issues.error('bad-id', `the person id is ${shown}; every person needs an id`, { ...where, field: where.field ?? 'id' });
     return undefined;
   }
