@@ -28,10 +28,10 @@ export function amdOrder(g: SymmetricPattern): Int32Array {
       gone[i] = 1;
     }
   }
-  const vars: Int32Array[] = new Array(n);
+  const vars = new Array<Int32Array>(n);
   const varLen = new Int32Array(n);
-  const elts: number[][] = new Array(n);
-  const members: (Int32Array | null)[] = new Array(n).fill(null);
+  const elts = new Array<number[]>(n);
+  const members = new Array<Int32Array | null>(n).fill(null);
   const deg = new Int32Array(n);
   const head = new Int32Array(n + 1).fill(-1);
   const next = new Int32Array(n).fill(-1);

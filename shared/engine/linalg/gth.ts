@@ -27,7 +27,7 @@ export interface GthFactor {
  */
 export function gthFactor(w: Float64Array, g: Float64Array, f: number): GthFactor {
   const pivot = new Float64Array(f);
-  const below: Int32Array[] = new Array(f);
+  const below = new Array<Int32Array>(f);
   const list = new Int32Array(f);
   for (let k = 0; k < f; k++) {
     const rk = k * f;
