@@ -115,7 +115,7 @@ describe('bottleneck ratio and the screen', () => {
     assert.equal(r.starters.length, 6);
     assert.equal(seen[0], 0);
     assert.ok(seen.length >= 2 && seen.every((v, i) => i === 0 || v === seen[i - 1] + 1));
-    assert.match(r.notes.join(' '), /evaluated exactly/);
+    assert.match(r.notes.join(' '), /evaluated by exact solves/);
   });
 
   it('plan --method screen on the command line: exact total, progress on stderr, the path that ran', async () => {
