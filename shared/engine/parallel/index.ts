@@ -11,7 +11,7 @@ import {
   symmetricErgodicMatrix,
   type ErgodicData,
 } from '../ergodic';
-import { plan } from '../plan';
+import { plan, SPARSE_GREEDY_FROM } from '../plan';
 import type { PlanOptions, PlanResult } from '../plan-types';
 import { classStructure } from '../reachability';
 import { DEFAULT_DENSE_LIMIT } from '../reach';
@@ -41,7 +41,9 @@ export async function planWithWorkers(input: RoomInput, options: PlanOptions, th
   const room = prepareRoom(input, options);
   const started = performance.now();
   const dense = room.n <= (options.denseLimit ?? DEFAULT_DENSE_LIMIT);
-  const ergodic = dense && room.n >= 300 && threads > 1 ? await ergodicDataParallel(room, {}, threads) : null;
+  // Method greedy on undirected rooms from SPARSE_GREEDY_FROM people runs on a sparse factor: no dense ergodic step.
+  const sparse = options.method === 'greedy' && !room.directed && room.n >= (options.sparseFrom ?? SPARSE_GREEDY_FROM);
+  const ergodic = dense && !sparse && room.n >= 300 && threads > 1 ? await ergodicDataParallel(room, {}, threads) : null;
   const result = plan(room, ergodic ? { ...options, ergodic } : options);
   return { ...result, elapsedMs: performance.now() - started };
 }
