@@ -13,6 +13,14 @@ import { analyse, factor, ldlSolve, type LdlFactor, type SpdMatrix, type Symboli
 import { refine, type Refined } from './linalg/refine';
 import { inverseDiagonal } from './linalg/selected-inverse';
 
+/** Largest factorisation work (sum of squared column counts) before the iterative path is used: about a minute here. */
+export const MAX_FACTOR_WORK = 3e10;
+
+/** The symbolic step's verdict: does a factor of this size and work fit? */
+export function factorFits(sym: { nnz: number; flops: number }, maxFill: number): boolean {
+  return sym.nnz <= maxFill && sym.flops <= MAX_FACTOR_WORK;
+}
+
 export function fillReducingOrder(csr: Csr): Int32Array {
   return amdOrder({ n: csr.n, rowStart: csr.rowStart, col: csr.col });
 }

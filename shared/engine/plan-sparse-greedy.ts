@@ -12,14 +12,13 @@
  * Cost: two or three factorisations, then per pick O(fill + n k).
  */
 import { beats, tieTolerance } from './dense-state';
-import { GroundedFactor, fillReducingOrder } from './grounded-factor';
+import { GroundedFactor, factorFits, fillReducingOrder } from './grounded-factor';
 import { finishPlan, type PlanContext } from './plan-context';
 import type { PlanResult } from './plan-types';
 import { firstStarters } from './sparse-first-pick';
 
 /** Largest factor (nonzeros below the diagonal) the sparse path builds; about 20 bytes each. */
 export const DEFAULT_MAX_FILL = 40_000_000;
-
 export function sparseGreedyEligible(ctx: PlanContext): boolean {
   const { room } = ctx;
   if (room.directed) return false;
@@ -51,7 +50,7 @@ export function sparseGreedyPlan(ctx: PlanContext, maxFill = DEFAULT_MAX_FILL): 
   const inT = new Uint8Array(n).fill(1);
   for (const a of first.set) inT[a] = 0;
   const f = new GroundedFactor(room.csr, order, invert(inT), gamma);
-  if (f.sym.nnz > maxFill) return null;
+  if (!factorFits(f.sym, maxFill)) return null;
   f.factorise();
   progress?.({ stage: 'factor', done: 1, of: 1 });
   const d = room.csr.outStrength;

@@ -11,7 +11,7 @@
  * an ordinary greedy step and nothing is done here.
  */
 import { beats, tieTolerance } from './dense-state';
-import { GroundedFactor } from './grounded-factor';
+import { factorFits, GroundedFactor } from './grounded-factor';
 import type { PlanContext } from './plan-context';
 
 export interface FirstStarters {
@@ -35,7 +35,7 @@ export function firstStarters(ctx: PlanContext, order: Int32Array, maxFill: numb
   const grounded = new Uint8Array(n);
   for (const cls of classes) grounded[cls.reduce((r, p) => (pinv[p] > pinv[r] ? p : r), cls[0])] = 1;
   const f = new GroundedFactor(room.csr, order, grounded, 1);
-  if (f.sym.nnz > maxFill) return null;
+  if (!factorFits(f.sym, maxFill)) return null;
   f.factorise();
   const xd = f.inverseDiagonal();
   const d = room.csr.outStrength;
