@@ -17,8 +17,8 @@ import { inverseDiagonal } from './linalg/selected-inverse';
 export const MAX_FACTOR_WORK = 3e10;
 
 /** The symbolic step's verdict: does a factor of this size and work fit? */
-export function factorFits(sym: { nnz: number; flops: number }, maxFill: number): boolean {
-  return sym.nnz <= maxFill && sym.flops <= MAX_FACTOR_WORK;
+export function factorFits(sym: { nnz: number; flops: number }, maxFill: number, maxWork = MAX_FACTOR_WORK): boolean {
+  return sym.nnz <= maxFill && sym.flops <= maxWork;
 }
 
 export function fillReducingOrder(csr: Csr): Int32Array {

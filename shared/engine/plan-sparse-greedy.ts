@@ -12,7 +12,7 @@
  * Cost: two or three factorisations, then per pick O(fill + n k).
  */
 import { beats, tieTolerance } from './dense-state';
-import { GroundedFactor, factorFits, fillReducingOrder } from './grounded-factor';
+import { GroundedFactor, factorFits, fillReducingOrder, MAX_FACTOR_WORK } from './grounded-factor';
 import { finishPlan, type PlanContext } from './plan-context';
 import type { PlanResult } from './plan-types';
 import { firstStarters } from './sparse-first-pick';
@@ -36,8 +36,12 @@ interface GreedyState {
   sigma: number;
 }
 
-/** Returns null when the factor would exceed `maxFill` (the caller then takes the iterative path). */
-export function sparseGreedyPlan(ctx: PlanContext, maxFill = DEFAULT_MAX_FILL): PlanResult | null {
+/**
+ * Returns null when the factor would exceed `maxFill` or `maxWork` (the caller then takes the
+ * dense or iterative path). With a dense alternative, pass about n^3 / 8: the sparse path costs
+ * some seven factorisations' work, the dense greedy about n^3.
+ */
+export function sparseGreedyPlan(ctx: PlanContext, maxFill = DEFAULT_MAX_FILL, maxWork = MAX_FACTOR_WORK): PlanResult | null {
   const { room, n, k } = ctx;
   const progress = ctx.options.onProgress;
   const beta = room.mixing / n;
@@ -45,12 +49,12 @@ export function sparseGreedyPlan(ctx: PlanContext, maxFill = DEFAULT_MAX_FILL): 
   const scale = 1 / (1 - room.laziness);
   const order = fillReducingOrder(room.csr);
   progress?.({ stage: 'ordering', done: 1, of: 1 });
-  const first = firstStarters(ctx, order, maxFill);
+  const first = firstStarters(ctx, order, maxFill, maxWork);
   if (!first) return null;
   const inT = new Uint8Array(n).fill(1);
   for (const a of first.set) inT[a] = 0;
   const f = new GroundedFactor(room.csr, order, invert(inT), gamma);
-  if (!factorFits(f.sym, maxFill)) return null;
+  if (!factorFits(f.sym, maxFill, maxWork)) return null;
   f.factorise();
   progress?.({ stage: 'factor', done: 1, of: 1 });
   const d = room.csr.outStrength;

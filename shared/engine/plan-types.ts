@@ -25,7 +25,8 @@ export interface PlanOptions extends WalkOptions {
   readonly exclude?: readonly number[];
   /** Largest room handled with dense matrices (default 2500); larger rooms use lazy greedy. */
   readonly denseLimit?: number;
-  /** Undirected rooms from this size on use the sparse exact greedy for method greedy (default 300). */
+  /** Undirected rooms from this size on use the sparse exact greedy for method greedy (default 300, and then only when its
+   *  factor's work is below the dense greedy's; an explicit value forces the sparse path whenever the factor fits). */
   readonly sparseFrom?: number;
   /** Largest sparse factor (nonzeros) before the iterative path is used (default 4e7). */
   readonly maxFill?: number;

@@ -18,6 +18,7 @@ import { exhaustiveSearch } from './plan-exhaustive';
 import { extendGreedy, greedyState } from './plan-greedy';
 import { lazyGreedyPlan } from './plan-lazy';
 import { screenPlan } from './plan-screen';
+import { MAX_FACTOR_WORK } from './grounded-factor';
 import { sparseGreedyEligible, sparseGreedyPlan } from './plan-sparse-greedy';
 import { swapPolish } from './plan-swap';
 import type { PlanMethod, PlanOptions, PlanResult } from './plan-types';
@@ -72,7 +73,9 @@ export function plan(input: RoomInput, options: PlanOptions): PlanResult {
   switch (method) {
     case 'greedy':
       if (ctx.n >= (options.sparseFrom ?? SPARSE_GREEDY_FROM) && sparseGreedyEligible(ctx)) {
-        const sparse = sparseGreedyPlan(ctx, options.maxFill);
+        // By default the sparse path must also beat the dense greedy's work; an explicit sparseFrom forces it.
+        const work = options.sparseFrom === undefined ? Math.min(MAX_FACTOR_WORK, ctx.n ** 3 / 8) : MAX_FACTOR_WORK;
+        const sparse = sparseGreedyPlan(ctx, options.maxFill, work);
         if (sparse) return sparse;
       }
       return finishState(ctx, 'greedy', greedyState(ctx));

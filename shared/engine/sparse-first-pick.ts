@@ -22,7 +22,7 @@ export interface FirstStarters {
   readonly worst?: number;
 }
 
-export function firstStarters(ctx: PlanContext, order: Int32Array, maxFill: number): FirstStarters | null {
+export function firstStarters(ctx: PlanContext, order: Int32Array, maxFill: number, maxWork: number): FirstStarters | null {
   const { room, n } = ctx;
   const set = [...ctx.mustInclude];
   const isIn = new Uint8Array(n);
@@ -35,7 +35,7 @@ export function firstStarters(ctx: PlanContext, order: Int32Array, maxFill: numb
   const grounded = new Uint8Array(n);
   for (const cls of classes) grounded[cls.reduce((r, p) => (pinv[p] > pinv[r] ? p : r), cls[0])] = 1;
   const f = new GroundedFactor(room.csr, order, grounded, 1);
-  if (!factorFits(f.sym, maxFill)) return null;
+  if (!factorFits(f.sym, maxFill, maxWork)) return null;
   f.factorise();
   const xd = f.inverseDiagonal();
   const d = room.csr.outStrength;
