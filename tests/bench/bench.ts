@@ -13,6 +13,7 @@ import { planWithWorkers } from '../../shared/engine/parallel/index';
 import { plainCg, referenceSolveMs } from './bench-reference';
 import { sparseRoom } from './bench-rooms';
 import { sparseBench } from './bench-sparse';
+import { certifyTables } from './bench-certify';
 
 interface Row {
   case: string;
@@ -69,6 +70,10 @@ async function main(): Promise<void> {
       .map((x) => x.toFixed(1))
       .join(' / ');
   log(`Ripplehall engine benchmark (Node ${process.version}, ${availableParallelism()} cores, load average ${load()})`);
+  if (process.env.BENCH_ONLY === 'certify') {
+    await certifyTables();
+    return;
+  }
 
   // 1. Exact reach, n = 300, dense.
   for (const directed of [false, true]) {
@@ -370,6 +375,7 @@ async function main(): Promise<void> {
     });
   }
   printTable('Scaling', scale);
+  await certifyTables();
   sparseBench();
   log(`bench total ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 }
