@@ -56,7 +56,9 @@ function compare(g: RoomGraph | ReturnType<typeof roomFromEdges>, o: PlanOptions
   assert.equal(sparse.solverPath, 'sparse-factor', label);
   assert.deepEqual(sparse.starters, dense.starters, label);
   assert.ok(Math.abs(sparse.total - dense.total) <= 1e-9 * dense.total, `${label}: ${sparse.total} vs ${dense.total}`);
-  assert.ok(Math.abs(sparse.lowerBound - dense.lowerBound) <= 1e-9 * dense.total, `${label}: bound`);
+  // The dense planner may add further proven bounds (pair bounds, a short search); the sparse path's
+  // identity-6 and cover bounds must stay proven: never above the plan both found.
+  assert.ok(sparse.lowerBound <= dense.total * (1 + 1e-9), `${label}: bound`);
   assert.ok(Math.abs(sparse.rank - dense.rank) <= 1e-9, `${label}: rank ${sparse.rank} vs ${dense.rank}`);
 }
 
