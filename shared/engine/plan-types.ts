@@ -2,7 +2,7 @@
 import type { ErgodicData } from './ergodic';
 import type { WalkOptions } from './graph';
 
-export type PlanMethod = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy';
+export type PlanMethod = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy' | 'screen';
 export type PlanMethodChoice = PlanMethod | 'auto';
 
 export interface PlanProgress {
@@ -40,6 +40,13 @@ export interface PlanOptions extends WalkOptions {
   readonly exclude?: readonly number[];
   /** Largest room handled with dense matrices (default 2500); larger rooms use lazy greedy. */
   readonly denseLimit?: number;
+  /** Undirected rooms from this size on use the sparse exact greedy for method greedy (default 300, and then only when its
+   *  factor's work is below the dense greedy's; an explicit value forces the sparse path whenever the factor fits). */
+  readonly sparseFrom?: number;
+  /** Largest sparse factor (nonzeros) before the iterative path is used (default 4e7). */
+  readonly maxFill?: number;
+  /** Bottleneck screen: candidate sets evaluated exactly at most (default 200); its time budget is timeLimitMs (default 8 min). */
+  readonly screenKeep?: number;
   /** Lazy greedy: people checked exactly per choice (default 3). */
   readonly lazyChecks?: number;
   /** Widened greedy: most seed sets extended (default 64). */
@@ -113,6 +120,10 @@ export interface PlanResult {
   readonly noShow?: NoShowReport;
   readonly notes: string[];
   readonly warnings: string[];
+  /** Which linear algebra ran: dense matrices, a sparse LDL^T factor, or an iterative solver (estimates stated in notes). */
+  readonly solverPath?: 'dense' | 'sparse-factor' | 'iterative';
+  /** Nonzeros of the sparse factor when solverPath is 'sparse-factor'. */
+  readonly fill?: number;
 }
 
 export interface NoShowReport {

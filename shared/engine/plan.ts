@@ -14,7 +14,10 @@ import { EngineError } from './errors';
 import { finishPlan, planContext, type PlanContext } from './plan-context';
 import { exhaustiveSearch, type ExhaustiveOutcome } from './plan-exhaustive';
 import { extendGreedy, greedyState } from './plan-greedy';
+import { MAX_FACTOR_WORK } from './grounded-factor';
 import { lazyGreedyPlan } from './plan-lazy';
+import { screenPlan } from './plan-screen';
+import { sparseGreedyEligible, sparseGreedyPlan } from './plan-sparse-greedy';
 import { swapPolish } from './plan-swap';
 import type { PlanMethod, PlanOptions, PlanResult } from './plan-types';
 import { widenedState } from './plan-widened';
@@ -23,7 +26,10 @@ import { NO_SHOW_EXACT_LIMIT, noShowExhaustive, noShowGreedy, noShowReport, noSh
 import { exactReach, DEFAULT_DENSE_LIMIT } from './reach';
 import type { RoomInput } from './room';
 
-export const PLAN_METHODS = ['greedy', 'widened', 'swap', 'exhaustive', 'auto', 'lazy-greedy'] as const;
+/** Undirected rooms of at least this many people run method greedy on the sparse factor. */
+export const SPARSE_GREEDY_FROM = 300;
+
+export const PLAN_METHODS = ['greedy', 'widened', 'swap', 'exhaustive', 'auto', 'lazy-greedy', 'screen'] as const;
 
 function finalTotal(ctx: PlanContext, starters: number[], stateTotal: number): number {
   // Re-solve small rooms from scratch so every method reports the same, freshly factored value.
@@ -102,13 +108,17 @@ export function planStart(input: RoomInput, options: PlanOptions): { result: Pla
       throw new EngineError('INVALID_OPTION', `No-show plans are computed for rooms of at most ${limit} people with dense methods.`);
     return done(noShowPlan(ctx, method, options.noShow));
   }
-  if (big || method === 'lazy-greedy') {
-    if (big && method !== 'auto' && method !== 'lazy-greedy')
-      ctx.warnings.push(`The room has ${ctx.n} people, above the dense limit of ${limit}: lazy greedy was used instead of ${method}.`);
-    return done(lazyGreedyPlan(ctx));
-  }
+  if (method === 'screen') return done(screenPlan(ctx));
+  if (method === 'lazy-greedy') return done({ ...lazyGreedyPlan(ctx), solverPath: 'iterative' });
+  if (big) return done(largeRoom(ctx, method, limit));
   switch (method) {
     case 'greedy':
+      if (ctx.n >= (options.sparseFrom ?? SPARSE_GREEDY_FROM) && sparseGreedyEligible(ctx)) {
+        // By default the sparse path must also beat the dense greedy's work; an explicit sparseFrom forces it.
+        const work = options.sparseFrom === undefined ? Math.min(MAX_FACTOR_WORK, ctx.n ** 3 / 8) : MAX_FACTOR_WORK;
+        const sparse = sparseGreedyPlan(ctx, options.maxFill, work);
+        if (sparse) return done(sparse);
+      }
       return done(quick(ctx, 'greedy', greedyState(ctx)));
     case 'swap':
       return done(quick(ctx, 'swap', swapPolish(ctx, greedyState(ctx))));
@@ -122,6 +132,28 @@ export function planStart(input: RoomInput, options: PlanOptions): { result: Pla
 }
 
 /** The heuristic incumbent of every search: widened greedy, then swap polish. */
+/**
+ * Rooms above the dense limit: the sparse exact greedy for undirected rooms whose factor fits;
+ * otherwise (directed rooms, or too much fill) lazy greedy on iterative solves, which says
+ * where it estimates.
+ */
+function largeRoom(ctx: PlanContext, method: string, limit: number): PlanResult {
+  if (sparseGreedyEligible(ctx)) {
+    const sparse = sparseGreedyPlan(ctx, ctx.options.maxFill);
+    if (sparse) {
+      if (method !== 'auto' && method !== 'greedy')
+        sparse.warnings.push(
+          `The room has ${ctx.n} people, above the dense limit of ${limit}: exact greedy was used instead of ${method}.`,
+        );
+      return sparse;
+    }
+    ctx.notes.push('The sparse factor of this room would be too large (fill estimate before factoring): iterative solves were used.');
+  }
+  if (method !== 'auto' && method !== 'greedy')
+    ctx.warnings.push(`The room has ${ctx.n} people, above the dense limit of ${limit}: lazy greedy was used instead of ${method}.`);
+  return { ...lazyGreedyPlan(ctx), solverPath: 'iterative' };
+}
+
 function heuristicState(ctx: PlanContext): AbsorbingState {
   return swapPolish(ctx, widenedState(ctx, greedyState(ctx)));
 }

@@ -12,6 +12,7 @@ import { SimulationPool } from '../../shared/engine/simulate/pool';
 import { planWithWorkers } from '../../shared/engine/parallel/index';
 import { plainCg, referenceSolveMs } from './bench-reference';
 import { sparseRoom } from './bench-rooms';
+import { sparseBench } from './bench-sparse';
 import { certifyTables } from './bench-certify';
 
 interface Row {
@@ -375,6 +376,7 @@ async function main(): Promise<void> {
   }
   printTable('Scaling', scale);
   await certifyTables();
+  sparseBench();
   log(`bench total ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 }
 

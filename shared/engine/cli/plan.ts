@@ -1,5 +1,5 @@
 /** `plan`: choose k starters (shared/engine/plan.ts) with total, rank, proven bound and certification. */
-import type { NoShowReport, PlanMethodChoice } from '../plan-types';
+import type { NoShowReport, PlanMethodChoice, PlanProgress } from '../plan-types';
 import { CliError, integerFlag, numberFlag, type Flags } from './args';
 import { clipId, ID_LIST_HELP, ms, ROOM_FLAGS, ROOM_HELP, WALK_FLAGS, WALK_HELP, walkOptions, warningNotes, type Command } from './command';
 import { loadRoom } from './load-room';
@@ -22,12 +22,12 @@ export const planCommand: Command = {
     'exclude-file': {},
     ...WALK_FLAGS,
   },
-  help: `Usage: npm run -s cli -- plan --graph FILE --k K --method greedy|widened|swap|exhaustive|auto
+  help: `Usage: npm run -s cli -- plan --graph FILE --k K --method greedy|widened|swap|exhaustive|auto|screen
                              [--nu X] [--time-limit SECONDS] [--laziness A] [--mixing B]
                              [--include IDS | --include-file F] [--exclude IDS | --exclude-file F] [--no-show P]
 
 Prints {"method", "k", "starters": [ids in the order chosen], "total", "average", "rank",
-"lowerBound", "certified", "elapsedMs", "gap", "coverSize", "notes", "warnings"}.
+"lowerBound", "certified", "elapsedMs", "gap", "coverSize", "solverPath", "notes", "warnings"}.
 "total" is the sum of expected hops to hear over the people who are not starters, "average"
 is total / (n - k), "rank" the quality rank (0 = as good as the worst single starter, 1 = the
 cover bound), "lowerBound" a proven lower bound on the best total of any plan of size k
@@ -46,9 +46,11 @@ ${ROOM_HELP}
   --k K               number of starters, 1 <= K < number of people
   --method M          greedy, widened (widened greedy), swap (greedy then swap polish),
                       exhaustive (branch and bound, certified or with a proven gap at the time
-                      limit), auto (chooses by size; the default), lazy-greedy (large rooms)
+                      limit), auto (chooses by size; the default), lazy-greedy (large rooms),
+                      screen (bottleneck screen for very large rooms: candidate sets ranked by
+                      cut sizes, the best few hundred evaluated exactly within the time limit)
   --nu X              widened: keep small sets of quality rank >= X, 0 <= X <= 1 (default 0.9)
-  --time-limit S      exhaustive and auto: time budget in seconds (default 10)
+  --time-limit S      exhaustive and auto: time budget in seconds (default 10); screen: (default 480)
   --include IDS       people who must be briefed (ids separated by commas)
   --exclude IDS       people who cannot be briefed
   --include-file F    --exclude-file F: the same, one id per line
@@ -82,6 +84,8 @@ group; when K is too small for that, the command says so (exit status 2).`,
       ...(noShow !== undefined ? { noShow } : {}),
       mustInclude: people(graph, argv, 'include', file),
       exclude: people(graph, argv, 'exclude', file),
+      // The screen of a very large room runs for minutes: one progress line per evaluated set on stderr.
+      ...(method === 'screen' ? { onProgress: (p: PlanProgress) => process.stderr.write(`${p.stage} ${p.done}/${p.of}\n`) } : {}),
     });
     const finite = (v: number) => (Number.isFinite(v) ? v : null);
     return {
@@ -97,6 +101,7 @@ group; when K is too small for that, the command says so (exit status 2).`,
         elapsedMs: ms(start),
         gap: finite(r.gap),
         coverSize: r.coverSize,
+        solverPath: r.solverPath ?? 'dense',
         relativeGap: finite(r.relativeGap),
         searchLeft: r.searchLeft ?? 0,
         nodes: r.nodes ?? 0,

@@ -11,7 +11,7 @@ import {
   symmetricErgodicMatrix,
   type ErgodicData,
 } from '../ergodic';
-import { planFinish, planStart } from '../plan';
+import { planFinish, planStart, SPARSE_GREEDY_FROM } from '../plan';
 import { exhaustiveSearch } from '../plan-exhaustive';
 import { exhaustiveParallel } from './parallel-branch';
 import type { PlanOptions, PlanResult } from '../plan-types';
@@ -48,7 +48,9 @@ export async function planWithWorkers(input: RoomInput, options: PlanOptions, th
   const room = prepareRoom(input, options);
   const started = performance.now();
   const dense = room.n <= (options.denseLimit ?? DEFAULT_DENSE_LIMIT);
-  const ergodic = dense && room.n >= 300 && threads > 1 ? await ergodicDataParallel(room, {}, threads) : null;
+  // Method greedy on undirected rooms from SPARSE_GREEDY_FROM people runs on a sparse factor: no dense ergodic step.
+  const sparse = options.method === 'greedy' && !room.directed && room.n >= (options.sparseFrom ?? SPARSE_GREEDY_FROM);
+  const ergodic = dense && !sparse && room.n >= 300 && threads > 1 ? await ergodicDataParallel(room, {}, threads) : null;
   const step = planStart(room, ergodic ? { ...options, ergodic } : options);
   const result =
     'result' in step
