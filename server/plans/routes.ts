@@ -2,6 +2,7 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import { PLAN_LIMITS, PLAN_METHOD_CHOICES } from '../../shared/api/plans';
+import { NO_SHOW_LIMITS } from '../../shared/api/plan-rules';
 import { signedIn } from '../core/access';
 import { parse } from '../core/validate';
 import { roomIdOf } from '../rooms/access';
@@ -21,6 +22,7 @@ const createSchema = z
     cannotBrief: personIds.optional(),
     starters: personIds.optional(),
     background: z.boolean().optional(),
+    noShow: z.number().min(NO_SHOW_LIMITS.min, 'The no-show chance is 0 to 50 %.').max(NO_SHOW_LIMITS.max, 'The no-show chance is 0 to 50 %.').optional(),
   })
   .superRefine((v, ctx) => {
     if (v.starters === undefined && v.k === undefined)
