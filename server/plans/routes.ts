@@ -3,6 +3,7 @@ import { Router } from 'express';
 import { z } from 'zod';
 import { PLAN_LIMITS, PLAN_METHOD_CHOICES } from '../../shared/api/plans';
 import { NO_SHOW_LIMITS } from '../../shared/api/plan-rules';
+import { CLOCK_PATTERN, DEFAULT_SEND_AT } from '../../shared/api/briefing-clock';
 import { signedIn } from '../core/access';
 import { parse } from '../core/validate';
 import { roomIdOf } from '../rooms/access';
@@ -22,7 +23,11 @@ const createSchema = z
     cannotBrief: personIds.optional(),
     starters: personIds.optional(),
     background: z.boolean().optional(),
-    noShow: z.number().min(NO_SHOW_LIMITS.min, 'The no-show chance is 0 to 50 %.').max(NO_SHOW_LIMITS.max, 'The no-show chance is 0 to 50 %.').optional(),
+    noShow: z
+      .number()
+      .min(NO_SHOW_LIMITS.min, 'The no-show chance is 0 to 50 %.')
+      .max(NO_SHOW_LIMITS.max, 'The no-show chance is 0 to 50 %.')
+      .optional(),
   })
   .superRefine((v, ctx) => {
     if (v.starters === undefined && v.k === undefined)
@@ -53,6 +58,11 @@ const sweepSchema = z.strictObject({
 });
 
 const compareSchema = z.strictObject({ a: z.string(), b: z.string() });
+
+const pdfQuerySchema = z.strictObject({
+  /** Time the message goes out, 24-hour HH:MM (default 09:00). */
+  start: z.string().regex(CLOCK_PATTERN, 'Give the start time as a 24-hour time such as 09:00 or 14:30.').optional(),
+});
 
 /** Mounted at /api/rooms: the room's plan list, creation and k-sweep. */
 export const roomPlansRouter = Router();
@@ -112,7 +122,8 @@ plansRouter.get('/:planId/briefing.csv', signedIn(), async (req, res) => {
 });
 
 plansRouter.get('/:planId/briefing.pdf', signedIn(), async (req, res) => {
+  const q = parse(pdfQuerySchema, req.query, 'query');
   const plan = await service.loadPlanFor(req.user, req.params['planId'], 'view');
-  const pdf = await briefingPdf(plan);
+  const pdf = await briefingPdf(plan, q.start ?? DEFAULT_SEND_AT);
   res.type('application/pdf').set('Content-Disposition', `attachment; filename="briefing-plan-${plan.id}.pdf"`).send(pdf);
 });

@@ -1,9 +1,8 @@
 import { ChangeDetectionStrategy, Component, computed, effect, input, output, signal, untracked } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
-import { ReactiveFormsModule, type AbstractControl } from '@angular/forms';
+import { ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
-import { ErrorStateMatcher } from '@angular/material/core';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
@@ -14,6 +13,7 @@ import { map, merge } from 'rxjs';
 import { PLAN_LIMITS, type CreatePlanRequest } from '../../../shared/api/plans';
 import type { PersonDto } from '../../../shared/api/rooms';
 import { PersonChips } from './person-chips';
+import { ShowWhenChanged } from './show-when-changed';
 import {
   applyMode,
   budgetMessage,
@@ -28,13 +28,6 @@ import {
 export interface ServerProblem {
   message: string;
   field: string | null;
-}
-
-/** Field errors show as soon as the field was changed or left (not only after a submit). */
-class ShowWhenChanged implements ErrorStateMatcher {
-  isErrorState(control: AbstractControl | null): boolean {
-    return !!control && control.invalid && (control.dirty || control.touched);
-  }
 }
 
 /** The plan request: budget, method and constraints, or the facilitator's own starters. */
@@ -83,7 +76,9 @@ export class PlanFormPanel {
   });
   protected readonly exhaustiveTooBig = computed(() => this.size() > PLAN_LIMITS.exhaustiveMaxPeople);
   protected readonly kError = computed(() => (this.changes(), budgetMessage(this.form.controls.k.errors)));
-  protected readonly noShowError = computed(() => (this.changes(), (this.form.controls.noShowPercent.errors?.['noShow'] as string) ?? null));
+  protected readonly noShowError = computed(
+    () => (this.changes(), (this.form.controls.noShowPercent.errors?.['noShow'] as string) ?? null),
+  );
   /** The slider shows the box's value (clamped to its track while the box holds an out-of-range number). */
   protected readonly sliderValue = computed(() => {
     this.changes();
