@@ -187,7 +187,7 @@ export interface PlanSummary {
   lowerBound: number | null;
   /** total - lowerBound: how far this plan can at most be from the best plan of its size. */
   gap: number | null;
-  /** gap / total (0..1), for "at most N% above the best". */
+  /** gap / total (0..1): the best plan cuts this plan's total waiting by at most this share. */
   gapShare: number | null;
   /** Proven best: its total equals a proven lower bound (whichever plan of the same problem proved it). */
   certified: boolean;

@@ -86,6 +86,13 @@ export class PlanFormPanel {
     return typeof v === 'number' && Number.isFinite(v) ? Math.min(this.maxK(), Math.max(1, Math.round(v))) : 1;
   });
   protected readonly invalid = computed(() => (this.changes(), this.form.invalid));
+  protected readonly whyDisabled = computed(() => {
+    this.changes();
+    const f = this.form.getRawValue();
+    return f.mode === 'hand' && f.starters.length === 0
+      ? 'Pick at least one starter to continue.'
+      : 'Correct the marked field to continue.';
+  });
   /** The server's message until the facilitator changes something. */
   private readonly serverVisible = signal(false);
   protected readonly server = computed(() => (this.serverVisible() ? this.serverProblem() : null));

@@ -40,17 +40,7 @@ interface JobState {
 /** The plan screen of a room: ask for a plan, read the result, keep and compare plans. */
 @Component({
   selector: 'app-plan-page',
-  imports: [
-    RouterLink,
-    MatButtonModule,
-    MatIconModule,
-    MatTooltipModule,
-    PlanFormPanel,
-    PlanProgress,
-    PlanResult,
-    SavedPlans,
-    SweepPanel,
-  ],
+  imports: [RouterLink, MatButtonModule, MatIconModule, MatTooltipModule, PlanFormPanel, PlanProgress, PlanResult, SavedPlans, SweepPanel],
   templateUrl: './plan-page.html',
   styleUrl: './plan-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

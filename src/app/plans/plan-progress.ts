@@ -38,11 +38,11 @@ const STAGES: Record<string, string> = {
             <p>
               Best plan so far: <b>{{ bestAverage() | number: '1.2-2' }} hops</b> on average
               @if (search()?.gapShare !== null && search()?.gapShare !== undefined) {
-                · proven within
+                · at most
                 <b matTooltip="Gap to best: (best total so far − proven lower bound) ÷ best total so far">{{
                   search()!.gapShare | percent: '1.0-1'
                 }}</b>
-                of the best
+                left to gain (proven)
               }
             </p>
           }

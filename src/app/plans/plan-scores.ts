@@ -29,7 +29,7 @@ import { BOUND_WORDS, fasterKnownLine, gapLine, methodLine, RANK_LINE } from './
           @if (p.certified) {
             <mat-icon class="ok" aria-hidden="true">verified</mat-icon> proven best
           } @else if (p.gapShare !== null) {
-            at most {{ p.gapShare | percent: '1.0-1' }} slower
+            at most {{ p.gapShare | percent: '1.0-1' }} to gain
           } @else {
             —
           }

@@ -24,8 +24,8 @@ export function gapLine(p: PlanSummary): string {
   if (p.lowerBound === null || rest <= 0) return 'No proven bound is known for this plan yet.';
   const best = p.lowerBound / rest;
   return (
-    `Proven: no plan of ${p.k} starters gets the room average below ${hops(best)} (≈ ${Math.round(best * mph)} min); ` +
-    `this plan is at most ${((p.gapShare ?? 0) * 100).toFixed(1)} % slower.`
+    `Proven: no plan of ${p.k} starters gets the room average below ${hops(best)} (≈ ${Math.round(best * mph)} min), ` +
+    `so the best one cuts this plan's waiting by at most ${((p.gapShare ?? 0) * 100).toFixed(1)} %.`
   );
 }
 
@@ -46,7 +46,9 @@ export function methodLine(p: PlanSummary): string {
   const x = p.extras;
   if (x?.nodes) parts.push(`${x.nodes.toLocaleString('en-US')} partial groups examined`);
   if (x && x.searchLeft !== null && x.searchLeft > 0)
-    parts.push(`${x.stopped ? 'stopped' : 'time limit reached'} with ${(x.searchLeft * 100).toFixed(1)} % of the possible groups not yet ruled out`);
+    parts.push(
+      `${x.stopped ? 'stopped' : 'time limit reached'} with ${(x.searchLeft * 100).toFixed(1)} % of the possible groups not yet ruled out`,
+    );
   if (p.elapsedMs !== null) parts.push(`computed in ${formatDuration(p.elapsedMs)}`);
   return parts.join(' · ') + '.';
 }
