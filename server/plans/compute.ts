@@ -186,13 +186,14 @@ export function runPlanner(task: PlannerTask, onProgress?: (fraction: number, se
     exclude: task.exclude,
     ...(task.noShow ? { noShow: task.noShow } : {}),
     onProgress: (p) => {
-      // The search's share of the space closed drives the bar; without it, stages restart their
-      // counters, so the bar takes the larger of the stage share and the time share (never backwards).
+      // A search ends when it has settled every group or at its time limit, whichever comes first:
+      // its bar is the larger of the two shares (so it reaches the end exactly when the job does).
+      // Other methods: their stage's own count. The bar never moves backwards.
       const search = searchProgress(p);
       const byStage = p.of > 0 ? p.done / p.of : 0;
       const byTime = (performance.now() - started) / limitMs;
       const timed = task.method === 'exhaustive' || task.method === 'auto';
-      const own = search.closed ?? (timed ? Math.max(byTime, 0) : byStage);
+      const own = timed ? Math.max(search.closed ?? 0, byTime) : (search.closed ?? byStage);
       const f = Math.min(0.99, Math.max(last, own));
       if (f > last + 0.002 || search.bestTotal !== null) {
         last = f;

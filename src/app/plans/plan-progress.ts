@@ -46,6 +46,9 @@ const STAGES: Record<string, string> = {
               }
             </p>
           }
+          @if (search()?.closed !== null && search()?.closed !== undefined) {
+            <p class="rh-muted">The search stops when every group is settled or at its time limit, whichever comes first.</p>
+          }
           @if (search()?.nodes) {
             <p class="rh-muted" matTooltip="Search nodes: partial groups the branch-and-bound search has examined">
               {{ search()!.nodes | number }} partial groups examined
