@@ -35,7 +35,12 @@ export function keyOfPlan(row: KeyedRow): BoundKey {
 }
 
 /** Which argument proved a computation's lower bound (shown in the gap's tooltip). */
-export function sourceOf(c: Pick<PlanComputation, 'methodUsed' | 'lowerBound' | 'certified' | 'total'>, n: number, k: number, scale: number): BoundSource {
+export function sourceOf(
+  c: Pick<PlanComputation, 'methodUsed' | 'lowerBound' | 'certified' | 'total'>,
+  n: number,
+  k: number,
+  scale: number,
+): BoundSource {
   if (c.methodUsed === 'exhaustive') return 'search';
   if (c.certified && k === 1) return 'single';
   return c.lowerBound > coverBound(n, k, scale) * (1 + SAME_TOTAL) ? 'supermodular' : 'cover';
@@ -64,7 +69,8 @@ export async function recordComputation(
 
 /** A proven lower bound without a plan (e.g. from a k-sweep), for the unconstrained key of k. */
 export async function recordLowerBound(key: BoundKey, lowerBound: number, source: BoundSource): Promise<void> {
-  if (Number.isFinite(lowerBound) && lowerBound > 0) await store.mergeBound(key, { lowerBound, lowerSource: source, bestTotal: null, bestStarters: null });
+  if (Number.isFinite(lowerBound) && lowerBound > 0)
+    await store.mergeBound(key, { lowerBound, lowerSource: source, bestTotal: null, bestStarters: null });
 }
 
 /** A k-sweep's proven lower bounds (room averages) become bounds of the unconstrained key of each k. */

@@ -60,4 +60,3 @@ function absenceColumn(snapshot: RoomSnapshot, c: PlanComputation): StoredAbsenc
     })),
   };
 }
-

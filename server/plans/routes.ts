@@ -18,7 +18,11 @@ const createSchema = z
     k: z.number().int('k must be a whole number').optional(),
     method: z.enum(PLAN_METHOD_CHOICES).optional(),
     nu: z.number().min(PLAN_LIMITS.nu.min).max(PLAN_LIMITS.nu.max).optional(),
-    timeLimitSeconds: z.number().min(PLAN_LIMITS.timeLimitSeconds.min).max(PLAN_LIMITS.timeLimitSeconds.max).optional(),
+    timeLimitSeconds: z
+      .number()
+      .min(PLAN_LIMITS.timeLimitSeconds.min, 'The time limit is 1 to 300 seconds.')
+      .max(PLAN_LIMITS.timeLimitSeconds.max, 'The time limit is 1 to 300 seconds.')
+      .optional(),
     mustBrief: personIds.optional(),
     cannotBrief: personIds.optional(),
     starters: personIds.optional(),

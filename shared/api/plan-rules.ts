@@ -6,9 +6,9 @@
  * Order matters and is the same on both sides: the budget first; the constraints only once the
  * budget is valid (so "k = 61" reads as a budget problem, never as a constraint problem).
  */
-import { REHEARSAL_LIMITS } from './plans';
+import { PLAN_LIMITS, REHEARSAL_LIMITS } from './plans';
 
-export type PlanField = 'k' | 'mustBrief' | 'cannotBrief' | 'starters' | 'noShow';
+export type PlanField = 'k' | 'mustBrief' | 'cannotBrief' | 'starters' | 'noShow' | 'timeLimitSeconds';
 
 export interface RuleProblem<F extends string = PlanField> {
   field: F;
@@ -43,6 +43,15 @@ export function noShowProblem(chance: unknown): RuleProblem | null {
   if (chance === null || chance === undefined || chance === '') return null;
   if (typeof chance !== 'number' || !Number.isFinite(chance) || chance < NO_SHOW_LIMITS.min || chance > NO_SHOW_LIMITS.max)
     return { field: 'noShow', code: 'INVALID_OPTION', message: 'The no-show chance is 0 to 50 %.' };
+  return null;
+}
+
+/** The search's time limit in seconds (empty: the default). */
+export function timeLimitProblem(seconds: unknown): RuleProblem | null {
+  if (seconds === null || seconds === undefined || seconds === '') return null;
+  const { min, max } = PLAN_LIMITS.timeLimitSeconds;
+  if (typeof seconds !== 'number' || !Number.isFinite(seconds) || seconds < min || seconds > max)
+    return { field: 'timeLimitSeconds', code: 'INVALID_OPTION', message: `The time limit is ${min} to ${max} seconds.` };
   return null;
 }
 
@@ -94,7 +103,11 @@ export function startersProblem(count: number, roomSize: number): RuleProblem | 
   const { max } = budgetRange(roomSize);
   if (count < 1) return { field: 'starters', code: 'INVALID_K', message: 'Pick at least one starter.' };
   if (count > max)
-    return { field: 'starters', code: 'INVALID_K', message: `Pick at most ${max} starters in a room of ${roomSize}: leave someone to hear it by word of mouth.` };
+    return {
+      field: 'starters',
+      code: 'INVALID_K',
+      message: `Pick at most ${max} starters in a room of ${roomSize}: leave someone to hear it by word of mouth.`,
+    };
   return null;
 }
 
@@ -111,7 +124,10 @@ export function runsProblem(runs: unknown, cap: number): RuleProblem<RehearsalFi
   if (!Number.isInteger(runs)) return bad('INVALID_OPTION', `Cascades are a whole number: 1 to ${cap.toLocaleString('en-US')}.`);
   if (runs < 1) return bad('INVALID_OPTION', `Simulate at least 1 cascade (at most ${cap.toLocaleString('en-US')}).`);
   if (runs > cap)
-    return bad('TOO_MANY_CASCADES', `At most ${cap.toLocaleString('en-US')} cascades per rehearsal (you asked for ${runs.toLocaleString('en-US')}): lower the number.`);
+    return bad(
+      'TOO_MANY_CASCADES',
+      `At most ${cap.toLocaleString('en-US')} cascades per rehearsal (you asked for ${runs.toLocaleString('en-US')}): lower the number.`,
+    );
   return null;
 }
 
@@ -119,6 +135,10 @@ export function seedProblem(seed: unknown): RuleProblem<RehearsalField> | null {
   const s = typeof seed === 'string' ? seed : '';
   if (s === '') return { field: 'seed', code: 'INVALID_SEED', message: 'Enter a seed, or press the dice for a random one.' };
   if (!SEED.test(s))
-    return { field: 'seed', code: 'INVALID_SEED', message: 'A seed is 1 to 64 letters, digits, "-" or "_" (for example 2026-allhands), no spaces.' };
+    return {
+      field: 'seed',
+      code: 'INVALID_SEED',
+      message: 'A seed is 1 to 64 letters, digits, "-" or "_" (for example 2026-allhands), no spaces.',
+    };
   return null;
 }

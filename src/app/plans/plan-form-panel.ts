@@ -76,6 +76,11 @@ export class PlanFormPanel {
   });
   protected readonly exhaustiveTooBig = computed(() => this.size() > PLAN_LIMITS.exhaustiveMaxPeople);
   protected readonly kError = computed(() => (this.changes(), budgetMessage(this.form.controls.k.errors)));
+  protected readonly timeLimitError = computed(
+    () => (this.changes(), (this.form.controls.timeLimitSeconds.errors?.['timeLimit'] as string) ?? null),
+  );
+  protected readonly searches = computed(() => (this.changes(), ['exhaustive', 'auto'].includes(this.form.controls.method.value)));
+  protected readonly timeLimits = PLAN_LIMITS.timeLimitSeconds;
   protected readonly noShowError = computed(
     () => (this.changes(), (this.form.controls.noShowPercent.errors?.['noShow'] as string) ?? null),
   );
@@ -151,12 +156,15 @@ export class PlanFormPanel {
       this.submitted.emit({ starters: f.starters });
     } else {
       const noShow = f.noShowPercent ? f.noShowPercent / 100 : 0;
+      const searching = f.method === 'exhaustive' || f.method === 'auto';
+      const limit = searching && f.timeLimitSeconds !== null && f.timeLimitSeconds !== PLAN_LIMITS.timeLimitSeconds.default;
       this.submitted.emit({
         k: f.k!,
         method: f.method,
         mustBrief: f.mustBrief,
         cannotBrief: f.cannotBrief,
         ...(noShow > 0 ? { noShow } : {}),
+        ...(limit ? { timeLimitSeconds: f.timeLimitSeconds! } : {}),
       });
     }
   }

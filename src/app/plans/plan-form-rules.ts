@@ -4,10 +4,12 @@ import {
   budgetRange,
   NO_SHOW_LIMITS,
   noShowProblem,
+  timeLimitProblem,
   planRequestProblems,
   startersProblem,
   type PlanField,
 } from '../../../shared/api/plan-rules';
+import { PLAN_LIMITS } from '../../../shared/api/plans';
 
 export type PlanMethodChoice = 'auto' | 'greedy' | 'widened' | 'swap' | 'exhaustive';
 export type PlanMode = 'computed' | 'hand';
@@ -39,6 +41,8 @@ export type PlanForm = FormGroup<{
   method: FormControl<PlanMethodChoice>;
   /** No-show chance in percent (0..50); null or 0: every starter shows up. */
   noShowPercent: FormControl<number | null>;
+  /** Search time limit in seconds (exhaustive and automatic); null: the default. */
+  timeLimitSeconds: FormControl<number | null>;
   mustBrief: FormControl<number[]>;
   cannotBrief: FormControl<number[]>;
   starters: FormControl<number[]>;
@@ -55,6 +59,11 @@ export function budgetValidator(roomSize: () => number): ValidatorFn {
     const p = budgetProblem(c.value, roomSize());
     return p ? { budget: p.message } : null;
   };
+}
+
+export function timeLimitValidator(c: AbstractControl): ValidationErrors | null {
+  const p = timeLimitProblem(c.value === '' ? null : c.value);
+  return p ? { timeLimit: p.message } : null;
 }
 
 export function noShowValidator(c: AbstractControl): ValidationErrors | null {
@@ -108,6 +117,7 @@ export function createPlanForm(roomSize: () => number, nameOf?: (id: number) => 
       k: new FormControl<number | null>(4, { validators: [budgetValidator(roomSize)] }),
       method: new FormControl<PlanMethodChoice>('auto', { nonNullable: true }),
       noShowPercent: new FormControl<number | null>(0, { validators: [noShowValidator] }),
+      timeLimitSeconds: new FormControl<number | null>(PLAN_LIMITS.timeLimitSeconds.default, { validators: [timeLimitValidator] }),
       mustBrief: new FormControl<number[]>([], { nonNullable: true }),
       cannotBrief: new FormControl<number[]>([], { nonNullable: true }),
       starters: new FormControl<number[]>([], { nonNullable: true }),
@@ -122,7 +132,7 @@ export const NO_SHOW_PERCENT_MAX = NO_SHOW_LIMITS.max * 100;
 /** In hand-made mode the budget and the no-show field are not used (k is the number of starters picked). */
 export function applyMode(form: PlanForm): void {
   const hand = form.controls.mode.value === 'hand';
-  for (const c of [form.controls.k, form.controls.noShowPercent]) {
+  for (const c of [form.controls.k, form.controls.noShowPercent, form.controls.timeLimitSeconds]) {
     if (hand) c.disable({ emitEvent: false });
     else c.enable({ emitEvent: false });
   }
