@@ -21,6 +21,56 @@ export default tseslint.config(
     files: ['server/**/*.ts', 'tests/**/*.ts', 'db/**/*.ts', 'shared/**/*.ts', 'seed-data/**/*.ts', 'e2e/**/*.ts'],
     rules: { '@typescript-eslint/no-namespace': 'off' },
   },
+  // Type-aware rules where tsx would hide the mistake (an unawaited promise ends a process on rejection).
+  {
+    files: ['server/**/*.ts', 'shared/**/*.ts', 'db/**/*.ts'],
+    ignores: ['**/*.spec.ts'],
+    extends: [...tseslint.configs.recommendedTypeChecked],
+    languageOptions: { parserOptions: { project: './tsconfig.server.json', tsconfigRootDir: import.meta.dirname } },
+    rules: {
+      '@typescript-eslint/no-explicit-any': 'off',
+      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
+    },
+  },
+  // Layer boundaries (DEVELOPERS.md, "The layout"): a crossing fails the lint suite.
+  {
+    files: ['src/**/*.ts'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            {
+              group: ['**/server/**', '**/db/**'],
+              message: 'The client talks to the server over HTTP only; shared types live in shared/api.',
+            },
+          ],
+        },
+      ],
+    },
+  },
+  {
+    files: ['shared/engine/**/*.ts'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            {
+              group: ['**/server/**', '**/db/**', '**/src/**', '**/api/**', '**/seating/**'],
+              message: 'The engine imports nothing of the project outside shared/engine.',
+            },
+          ],
+        },
+      ],
+    },
+  },
+  {
+    files: ['server/**/store.ts', 'server/**/*-store.ts'],
+    rules: {
+      'no-restricted-imports': ['error', { paths: [{ name: 'express', message: 'Stores hold SQL only; HTTP belongs in routes.' }] }],
+    },
+  },
   {
     files: ['src/**/*.html'],
     extends: [...angular.configs.templateRecommended, ...angular.configs.templateAccessibility],

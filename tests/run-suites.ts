@@ -23,6 +23,12 @@ const suites: Suite[] = [
     count: (_o, code) => (code === 0 ? { passed: 1, failed: 0 } : { passed: 0, failed: 1 }),
   },
   {
+    // tsx strips types without checking them, so a type error in the server would pass the other suites.
+    name: 'types',
+    command: 'npx tsc -p tsconfig.server.json --noEmit',
+    count: (_o, code) => (code === 0 ? { passed: 1, failed: 0 } : { passed: 0, failed: 1 }),
+  },
+  {
     name: 'engine',
     command: "node --import tsx --test --test-reporter=tap $(find tests/engine -name '*.test.ts' | sort)",
     count: nodeTap,

@@ -17,10 +17,12 @@ const tooMany = (message: string) => ({
   legacyHeaders: false,
 });
 
-const accountAndIp = (prefix: string) => (req: Request) =>
-  `${prefix}|${String(req.body?.email ?? '')
-    .trim()
-    .toLowerCase()}|${ipKeyGenerator(req.ip ?? '')}`;
+const emailOf = (req: Request): string => {
+  const email = (req.body as { email?: unknown } | undefined)?.email;
+  return typeof email === 'string' ? email : '';
+};
+
+const accountAndIp = (prefix: string) => (req: Request) => `${prefix}|${emailOf(req).trim().toLowerCase()}|${ipKeyGenerator(req.ip ?? '')}`;
 
 /** Per IP: a cap on attempts from one address across all accounts. */
 export const signInPerIp = rateLimit({

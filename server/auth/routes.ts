@@ -52,7 +52,11 @@ authRouter.post('/sign-in', publicAccess, signInPerIp, signInPerAccount, async (
     throw new HttpError(401, 'wrong_credentials', WRONG);
   }
   // A fresh session id at sign-in defeats session fixation.
-  await new Promise<void>((resolve, reject) => req.session.regenerate((err) => (err ? reject(err) : resolve())));
+  await new Promise<void>((resolve, reject) =>
+    req.session.regenerate((err: unknown) =>
+      err ? reject(err instanceof Error ? err : new Error('could not start a new session')) : resolve(),
+    ),
+  );
   req.session.userId = row.id;
   req.session.signedInAt = Date.now();
   await updateUser(db, row.id, { lastSignInAt: new Date() });

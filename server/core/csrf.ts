@@ -24,7 +24,7 @@ export function csrfProtection(secret: string, secure: boolean) {
     return expected.length === given.length && timingSafeEqual(expected, given);
   };
   return (req: Request, res: Response, next: NextFunction) => {
-    const cookie = req.cookies?.[CSRF_COOKIE];
+    const cookie: unknown = req.cookies?.[CSRF_COOKIE];
     if (!valid(cookie)) {
       const nonce = randomBytes(18).toString('base64url');
       res.cookie(CSRF_COOKIE, `${nonce}.${sign(nonce)}`, { sameSite: 'lax', secure, httpOnly: false, path: '/' });

@@ -41,6 +41,9 @@ export function errorHandler(err: unknown, req: Request, res: Response, _next: N
   }
   req.log?.error({ err }, 'unhandled error');
   res.status(500).json({
-    error: { code: 'internal', message: `Something went wrong on our side. Quote request id ${String(req.id)} if you report it.` },
+    error: {
+      code: 'internal',
+      message: `Something went wrong on our side. Quote request id ${typeof req.id === 'object' ? JSON.stringify(req.id) : String(req.id)} if you report it.`,
+    },
   });
 }

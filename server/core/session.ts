@@ -18,7 +18,7 @@ export function sessionMiddleware(secure: boolean) {
     },
     pool as never,
   );
-  setInterval(() => store.clearExpiredSessions().catch(() => undefined), 15 * 60 * 1000).unref();
+  setInterval(() => void store.clearExpiredSessions().catch(() => undefined), 15 * 60 * 1000).unref();
   return session({
     name: SESSION_COOKIE,
     secret: config.SESSION_SECRET,

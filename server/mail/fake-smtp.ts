@@ -19,7 +19,8 @@ export async function startFakeSmtp(port = 0): Promise<{ server: SMTPServer; por
     onData(stream, session, callback) {
       const chunks: Buffer[] = [];
       stream.on('data', (c: Buffer) => chunks.push(c));
-      stream.on('end', async () => {
+      stream.on('end', () => void storeMessage());
+      const storeMessage = async () => {
         try {
           const raw = Buffer.concat(chunks);
           const parsed = await simpleParser(raw);
@@ -36,7 +37,7 @@ export async function startFakeSmtp(port = 0): Promise<{ server: SMTPServer; por
           logger.error({ err }, 'mail fake could not store a message');
           callback(err as Error);
         }
-      });
+      };
     },
   });
   server.on('error', (err) => logger.error({ err }, 'mail fake error'));

@@ -8,7 +8,7 @@ import {
   workshopParticipants,
   workshops,
 } from '../../db/schema/workshops';
-import type { Nomination, SurveyLevel } from '../../shared/api/workshops';
+import type { Nomination } from '../../shared/api/workshops';
 import { db, type Tx } from '../db';
 
 /** Data access for what a participant link may read and write: its own answers, the list of names. */
@@ -57,7 +57,7 @@ export async function answersOf(participantId: number, tx: Conn = db, lock = fal
     consentedAt: row?.consentedAt ?? null,
     version: row?.version ?? 0,
     submittedAt: row?.submittedAt ?? null,
-    nominations: noms.map((n) => ({ participantId: n.participantId, level: n.level as SurveyLevel })),
+    nominations: noms.map((n) => ({ participantId: n.participantId, level: n.level })),
   };
 }
 

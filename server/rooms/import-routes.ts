@@ -6,6 +6,7 @@
 import { Router, type Request, type Response, type NextFunction } from 'express';
 import { z } from 'zod';
 import { DEFAULT_ROOM_SETTINGS, type ImportReport, type RoomSettings } from '../../shared/api/rooms';
+import { refusalLine, type Issue } from '../../shared/engine/index';
 import { signedIn } from '../core/access';
 import { audit } from '../core/audit';
 import { HttpError, notFound } from '../core/http-error';
@@ -29,7 +30,7 @@ const fields = z.strictObject({
 
 /** Checks the room before the upload is read, so a room of someone else costs nothing and says 404. */
 async function editableRoom(req: Request, res: Response, next: NextFunction) {
-  res.locals['room'] = await loadRoomFor(req.user, req.params['id'] as string, 'edit');
+  res.locals['room'] = await loadRoomFor(req.user, req.params['id'], 'edit');
   next();
 }
 
@@ -43,22 +44,21 @@ function read(req: Request, defaultDirected?: boolean) {
   return { dryRun: dryRun === 'true', f, parsed, fileName: file.name };
 }
 
+/**
+ * A file with errors is refused, dry run or not: 400 with the same one line the command line
+ * prints (the first error, where it is, how many more), and the whole report in the details for
+ * the import dialog's table. Nothing is saved.
+ */
 function refuseErrors(report: ImportReport): void {
   if (report.errors.length === 0) return;
-  const n = report.errors.length;
-  throw new HttpError(
-    422,
-    'import_errors',
-    `The file has ${n} error${n === 1 ? '' : 's'}; nothing was saved. Fix ${n === 1 ? 'it' : 'them'} and import again.`,
-    report,
-  );
+  throw new HttpError(400, 'import_errors', refusalLine(report.errors as Issue[]), { report });
 }
 
 importRouter.post('/import', signedIn(), receiveUpload, async (req, res) => {
   const { dryRun, f, parsed, fileName } = read(req);
   const report = reportOf(parsed, dryRun);
-  if (dryRun) return void res.json(report);
   refuseErrors(report);
+  if (dryRun) return void res.json(report);
   const name =
     f.name ??
     parsed.extras.name ??
@@ -84,13 +84,13 @@ importRouter.post('/:id/import', signedIn(), editableRoom, receiveUpload, async 
   const loaded = res.locals['room'] as LoadedRoom;
   const { dryRun, f, parsed } = read(req, loaded.room.directed);
   const report: ImportReport = { ...reportOf(parsed, dryRun), replaces: await store.countContent(db, loaded.room.id) };
+  refuseErrors(report);
   if (dryRun) return void res.json(report);
   if (f.version === undefined) {
     throw new HttpError(400, 'bad_request', 'Send the room version you started from (form field "version") to replace its content.', {
       fields: [{ field: 'version', message: 'Send the room version you started from.' }],
     });
   }
-  refuseErrors(report);
   const version = await replaceContent(req, loaded, parsed, f.version);
   res.json({ ...report, committed: true, roomId: loaded.room.id, version } satisfies ImportReport);
 });

@@ -145,7 +145,7 @@ export function readImport(file: Upload, people: Upload | undefined, format: Imp
   );
   const errors = result.errors.map(asIssue);
   errors.push(...checkLengths(result.graph, format));
-  if (format === 'json' && errors.length === 0) readJsonExtras(decoded.text!, extras);
+  if (format === 'json' && errors.length === 0) readJsonExtras(result, extras);
   return { format, graph: result.graph, warnings: result.warnings.map(asIssue), errors, extras };
 }
 
@@ -170,29 +170,25 @@ function checkLengths(graph: RoomGraph, format: ImportFormat): ImportIssue[] {
 }
 
 /** Ripplehall's own JSON export also carries the layout and the room settings; other files need not. */
-function readJsonExtras(text: string, extras: FileExtras): void {
-  const doc = JSON.parse(text.replace(/^\uFEFF/, '')) as { nodes?: unknown[]; graph?: Record<string, unknown> };
-  const num = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) && Math.abs(v) <= 1e7 ? v : null);
-  for (const node of doc.nodes ?? []) {
-    if (!node || typeof node !== 'object') continue;
-    const n = node as Record<string, unknown>;
-    const id = typeof n['id'] === 'number' ? String(n['id']) : n['id'];
-    if (typeof id !== 'string') continue;
-    const x = num(n['x']);
-    const y = num(n['y']);
-    if (x !== null || y !== null) extras.layout.set(id, { x, y, pinned: n['pinned'] === true });
+function readJsonExtras(result: ParseResult, extras: FileExtras): void {
+  const found = result.meta.nodeLink;
+  if (!found) return;
+  const coordinate = (v: number | undefined) => (v !== undefined && Math.abs(v) <= 1e7 ? v : null);
+  for (const [id, at] of found.layout) {
+    const x = coordinate(at.x);
+    const y = coordinate(at.y);
+    if (x !== null || y !== null) extras.layout.set(id, { x, y, pinned: at.pinned === true });
   }
-  const g = doc.graph;
-  if (g && typeof g === 'object') {
-    const within = (v: unknown, lo: number, hi: number) => (typeof v === 'number' && v >= lo && v <= hi ? v : undefined);
-    const minutes = within(g['minutesPerHop'], 0.1, 1440);
-    const laziness = within(g['laziness'], 0, 0.95);
-    const mixing = within(g['mixing'], 0, 0.5);
-    if (minutes !== undefined) extras.settings.minutesPerHop = minutes;
-    if (laziness !== undefined) extras.settings.laziness = laziness;
-    if (mixing !== undefined) extras.settings.mixing = mixing;
-    if (typeof g['name'] === 'string' && g['name'].trim()) extras.name = g['name'].trim().slice(0, L.roomNameMax);
-  }
+  const g = found.graph;
+  const within = (v: unknown, lo: number, hi: number) => (typeof v === 'number' && v >= lo && v <= hi ? v : undefined);
+  const minutes = within(g.get('minutesPerHop'), 0.1, 1440);
+  const laziness = within(g.get('laziness'), 0, 0.95);
+  const mixing = within(g.get('mixing'), 0, 0.5);
+  if (minutes !== undefined) extras.settings.minutesPerHop = minutes;
+  if (laziness !== undefined) extras.settings.laziness = laziness;
+  if (mixing !== undefined) extras.settings.mixing = mixing;
+  const name = g.get('name');
+  if (typeof name === 'string' && name.trim()) extras.name = name.trim().slice(0, L.roomNameMax);
 }
 
 export function reportOf(parsed: ParsedImport, dryRun: boolean): ImportReport {

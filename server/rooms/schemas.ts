@@ -133,7 +133,7 @@ export const editBatchBody = z.strictObject({
 export type EditBatchInput = z.infer<typeof editBatchBody>;
 export type EditOpInput = z.infer<typeof editOp>;
 // Keeps the zod shapes and the shared contract in step: a mismatch fails the type check.
-export const opShapeCheck: (op: EditOpInput) => RoomEditOp = (op) => op as RoomEditOp;
+export const opShapeCheck: (op: EditOpInput) => RoomEditOp = (op) => op;
 
 const page = {
   page: z.coerce.number({ error: 'page must be a number.' }).int().min(0, 'page starts at 0.').default(0),

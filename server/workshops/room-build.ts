@@ -3,7 +3,7 @@ import { ties } from '../../db/schema/rooms';
 import { workshopParticipants, workshops } from '../../db/schema/workshops';
 import { shareWorkshopRoom } from './co-facilitators';
 import { DEFAULT_ROOM_SETTINGS } from '../../shared/api/rooms';
-import type { BuildMode, BuildResult, MissingAnswer, SurveyLevel } from '../../shared/api/workshops';
+import type { BuildMode, BuildResult, MissingAnswer } from '../../shared/api/workshops';
 import { db, type Tx } from '../db';
 import { HttpError } from '../core/http-error';
 import { keyMaker } from '../rooms/content';
@@ -96,7 +96,7 @@ export async function buildRoom(w: WorkshopRow, owner: SignedInUser, mode: Build
     await tx.delete(ties).where(and(eq(ties.roomId, roomId), inArray(ties.sourceId, surveyPeople), inArray(ties.targetId, surveyPeople)));
     const edges = (await nominationsOf(w.id, tx))
       .filter((e) => personOf.has(e.from) && personOf.has(e.to))
-      .map((e) => ({ from: personOf.get(e.from)!, to: personOf.get(e.to)!, level: e.level as SurveyLevel }));
+      .map((e) => ({ from: personOf.get(e.from)!, to: personOf.get(e.to)!, level: e.level }));
     const built = tiesFromAnswers(edges, mode);
     await roomStore.insertTieRows(
       tx,

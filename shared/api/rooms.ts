@@ -226,8 +226,10 @@ export interface ImportIssue {
 }
 
 /**
- * A dry run answers 200 with the report (errors included). A commit with errors saves nothing
- * and answers 422 `{ error: { code: 'import_errors', message, details: ImportReport } }`;
+ * A dry run of a readable file answers 200 with the report (warnings included). A file with
+ * errors, dry run or commit, saves nothing and answers 400
+ * `{ error: { code: 'import_errors', message, details: { report: ImportReport } } }`, where
+ * message is the one line (at most 300 characters) the command line prints for the same file;
  * a stale `version` answers 409; a file over the limit 413; a wrong file type 415.
  */
 export interface ImportReport {

@@ -41,7 +41,7 @@ export interface Csr {
 /** Builds the CSR of the walk's out-strengths; parallel ties are summed. */
 export function toCsr(graph: RoomGraph): Csr {
   const n = graph.ids.length;
-  const rows: Map<number, number>[] = Array.from({ length: n }, () => new Map());
+  const rows: Map<number, number>[] = Array.from({ length: n }, () => new Map<number, number>());
   const add = (i: number, j: number, w: number) => rows[i].set(j, (rows[i].get(j) ?? 0) + w);
   for (const t of graph.ties) {
     add(t.source, t.target, t.strength);

@@ -164,7 +164,7 @@ describe('GraphML writing', () => {
     directed: true,
     ties: [
       { source: 0, target: 1, strength: 0.1 },
-      { source: 1, target: 0, strength: 1e-7 },
+      { source: 1, target: 0, strength: 1e-6 },
       { source: 2, target: 3, strength: 123456.789 },
     ],
   };

@@ -20,9 +20,11 @@ describe('rooms: import', () => {
     upload(client, '/api/rooms/import?dryRun=true', files, fields);
   const firstError = async (files: Parameters<typeof upload>[2]) => {
     const reply = await dry(files);
-    assert.equal(reply.status, 200, reply.text);
-    assert.ok(reply.body.errors.length > 0, `expected errors: ${reply.text}`);
-    return reply.body.errors[0] as { code: string; line?: number; field?: string; message: string; file?: string };
+    assert.equal(reply.status, 400, reply.text);
+    assert.equal(reply.body.error.code, 'import_errors');
+    const errors = reply.body.error.details.report.errors;
+    assert.ok(errors.length > 0, `expected errors: ${reply.text}`);
+    return errors[0] as { code: string; line?: number; field?: string; message: string; file?: string };
   };
 
   it('dry run reports counts and warnings, saves nothing; commit creates the room', async () => {
@@ -162,7 +164,7 @@ describe('rooms: import', () => {
     assert.match(none.body.error.message, /Choose a file/);
   });
 
-  it('a commit with one bad row leaves the room unchanged (422, nothing saved)', async () => {
+  it('a commit with one bad row leaves the room unchanged (400, nothing saved)', async () => {
     const room = await createPathRoom(client, 4, 'Keep me');
     const before = (await client.get(`/api/rooms/${room.id}`)).body;
     const reply = await upload(
@@ -171,9 +173,10 @@ describe('rooms: import', () => {
       { file: { name: 't.csv', content: 'source,target,strength\nx,y,1\ny,z,2\nz,w,-1\n' } },
       { version: '1' },
     );
-    assert.equal(reply.status, 422);
+    assert.equal(reply.status, 400);
     assert.equal(reply.body.error.code, 'import_errors');
-    assert.equal(reply.body.error.details.errors[0].line, 4);
+    assert.equal(reply.body.error.details.report.errors[0].line, 4);
+    assert.match(reply.body.error.message, /^ties line 4, strength: -1 is not positive/);
     assert.deepEqual((await client.get(`/api/rooms/${room.id}`)).body, before);
   });
 

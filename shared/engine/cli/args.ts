@@ -67,11 +67,55 @@ export function integerFlag(flags: Flags, name: string, min: number, max: number
   return Number(raw);
 }
 
-/** Splits `a,b,c` into ids; empty entries are an error. */
+/**
+ * Splits an id list: ids separated by commas, CSV-style. An unquoted id is trimmed; an id in
+ * double quotes is kept exactly (spaces and commas included), a quote inside written twice:
+ * `a,"Lee, A."," b","say ""hi"""` gives a / Lee, A. / " b" / say "hi".
+ */
+export function splitIds(raw: string, name: string): string[] {
+  const ids: string[] = [];
+  let i = 0;
+  for (;;) {
+    while (raw[i] === ' ' || raw[i] === '\t') i++;
+    let id: string;
+    if (raw[i] === '"') {
+      id = '';
+      let k = i + 1;
+      for (;;) {
+        const q = raw.indexOf('"', k);
+        if (q < 0) throw new CliError(`--${name}: the quoted id starting at character ${i + 1} has no closing quote (")`);
+        id += raw.slice(k, q);
+        if (raw[q + 1] === '"') {
+          id += '"';
+          k = q + 2;
+          continue;
+        }
+        i = q + 1;
+        break;
+      }
+      while (raw[i] === ' ' || raw[i] === '\t') i++;
+      if (i < raw.length && raw[i] !== ',') {
+        throw new CliError(`--${name}: expected a comma after the quoted id ending at character ${i} (write a quote inside as "")`);
+      }
+    } else {
+      const comma = raw.indexOf(',', i);
+      id = raw.slice(i, comma < 0 ? raw.length : comma).trim();
+      i = comma < 0 ? raw.length : comma;
+    }
+    if (id === '') throw new CliError(`--${name} has an empty entry in "${clipText(raw)}"; give ids separated by commas`);
+    ids.push(id);
+    if (i >= raw.length) return ids;
+    i++; // the comma
+  }
+}
+
+/** Splits `a,b,c` into ids (see splitIds); empty entries are an error. */
 export function idList(flags: Flags, name: string): string[] {
   const raw = flags.get(name);
   if (raw === undefined) return [];
-  const ids = raw.split(',').map((s) => s.trim());
-  if (ids.some((s) => s === '')) throw new CliError(`--${name} has an empty entry in "${raw}"; give ids separated by commas`);
-  return ids;
+  return splitIds(raw, name);
+}
+
+export function clipText(s: string, max = 60): string {
+  return s.length > max ? `${s.slice(0, max)}...` : s;
 }

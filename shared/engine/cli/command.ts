@@ -1,7 +1,8 @@
 /** What every command shares: its flags, help text, and the room and starters it reads. */
 import type { RoomGraph } from '../graph';
 import { describeIssue } from '../io/index';
-import { CliError, idList, numberFlag, type FlagSpec, type Flags } from './args';
+import { CliError, numberFlag, type FlagSpec, type Flags } from './args';
+import { idsFromFlags, MAX_FILE_BYTES, MAX_ID_FILE_BYTES } from './read-file';
 
 export interface CliOutput {
   /** The one JSON object printed on stdout. */
@@ -25,12 +26,28 @@ export const ROOM_FLAGS: Record<string, FlagSpec> = {
   'max-people': {},
 };
 
+/** --starters IDS or --starters-file FILE (one of them is required; starterIndices checks). */
+export const STARTER_FLAGS: Record<string, FlagSpec> = { starters: {}, 'starters-file': {} };
+
 export const WALK_FLAGS: Record<string, FlagSpec> = { laziness: {}, mixing: {} };
 
-export const ROOM_HELP = `  --graph FILE        the room: .json (node-link), .csv (ties: source,target[,strength]) or .graphml
+export const ROOM_HELP = `  --graph FILE        the room: .json (node-link), .csv (ties: source,target[,strength]) or .graphml;
+                      a regular file of at most ${MAX_FILE_BYTES / 1024 / 1024} MiB (pipes, devices and folders are refused)
   --people FILE       (CSV only) people file with header id,name[,group]
   --directed          (CSV only) read each tie as "source asks target"; otherwise ties go both ways
-  --max-people N      refuse rooms with more than N people (default 1000000)`;
+  --max-people N      refuse rooms with more than N people (default 1000000)
+Ids are matched and printed exactly as written in the file (JSON numbers keep their digits:
+1.0, 1e3 and 12345678901234567891 stay as written; CSV cells are trimmed unless quoted).
+Strengths: a missing strength means 1; an empty one (a blank CSV cell, an empty GraphML
+<data>) also means 1, with a warning; JSON null or "" is refused. Strengths must be at
+least 1e-100, and at least 1e-12 times the room's strongest tie (beyond that ratio double
+precision cannot carry the weak tie).`;
+
+/** How lists of ids are written, shared by every flag that takes ids. */
+export const ID_LIST_HELP = `Id lists (IDS) are separated by commas; an unquoted id is trimmed, an id in double quotes
+is kept exactly, with a quote inside written twice: --starters 'a,"Lee, A."," b"'.
+--NAME-file FILE reads one id per line instead, exactly as written (nothing trimmed; blank
+lines skipped; at most ${MAX_ID_FILE_BYTES / 1024 / 1024} MiB).`;
 
 export const WALK_HELP = `  --laziness A        chance of staying put at each hop, 0 <= A < 1 (default 0)
   --mixing B          chance of asking anyone in the room at random, 0 <= B < 1 (default 0)`;
@@ -45,21 +62,32 @@ export function walkOptions(flags: Flags): { laziness?: number; mixing?: number 
 }
 
 /** Maps --starters ids to person indices, naming any id not in the room. */
-export function starterIndices(graph: RoomGraph, flags: Flags, file: string): number[] {
-  const ids = idList(flags, 'starters');
+export function starterIds(flags: Flags): string[] {
+  const ids = idsFromFlags(flags, 'starters');
+  if (ids === undefined) throw new CliError('--starters is required (or --starters-file FILE, one id per line)');
   if (ids.length === 0) throw new CliError('--starters needs at least one person id');
+  return ids;
+}
+
+/** Maps the starter ids to person indices, naming any id not in the room. */
+export function starterIndices(graph: RoomGraph, flags: Flags, file: string, given?: readonly string[]): number[] {
+  const ids = given ?? starterIds(flags);
   const index = new Map(graph.ids.map((id, i) => [id, i]));
   const seen = new Set<number>();
   const out: number[] = [];
   for (const id of ids) {
     const i = index.get(id);
     if (i === undefined)
-      throw new CliError(`--starters: "${id}" is not a person in ${file} (ids are matched exactly, as written in the file)`);
-    if (seen.has(i)) throw new CliError(`--starters: "${id}" is given twice`);
+      throw new CliError(`--starters: "${clipId(id)}" is not a person in ${file} (ids are matched exactly, as written in the file)`);
+    if (seen.has(i)) throw new CliError(`--starters: "${clipId(id)}" is given twice`);
     seen.add(i);
     out.push(i);
   }
   return out;
+}
+
+export function clipId(id: string): string {
+  return id.length > 40 ? `${id.slice(0, 40)}...` : id;
 }
 
 export function warningNotes(warnings: readonly { message: string }[], file: string): string[] {
@@ -84,9 +112,10 @@ the sum and mean over the people who can be reached, and one note line goes to s
 export function unreachableFields(
   n: number,
   unreachable: readonly { readonly index: number; readonly id: string; readonly message: string }[],
-): { lost: Set<number>; ids: string[]; reasons: Record<string, string>; note?: string } {
-  const reasons: Record<string, string> = {};
-  for (const u of unreachable) reasons[u.id] = u.message;
+): { lost: Set<number>; ids: string[]; reasons: Map<string, string>; note?: string } {
+  // A Map, so an id such as "__proto__" is an ordinary key (the output writer turns Maps into objects).
+  const reasons = new Map<string, string>();
+  for (const u of unreachable) reasons.set(u.id, u.message);
   return {
     lost: new Set(unreachable.map((u) => u.index)),
     ids: unreachable.map((u) => u.id),

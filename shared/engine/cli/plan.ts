@@ -1,17 +1,29 @@
 /** `plan`: choose k starters (shared/engine/plan.ts) with total, rank, proven bound and certification. */
 import type { PlanMethodChoice } from '../plan-types';
-import { CliError, idList, integerFlag, numberFlag, type Flags } from './args';
-import { ms, ROOM_FLAGS, ROOM_HELP, WALK_FLAGS, WALK_HELP, walkOptions, warningNotes, type Command } from './command';
+import { CliError, integerFlag, numberFlag, type Flags } from './args';
+import { clipId, ID_LIST_HELP, ms, ROOM_FLAGS, ROOM_HELP, WALK_FLAGS, WALK_HELP, walkOptions, warningNotes, type Command } from './command';
 import { loadRoom } from './load-room';
+import { idsFromFlags } from './read-file';
 import type { RoomGraph } from '../graph';
 
 export const planCommand: Command = {
   name: 'plan',
   summary: 'choose k starters so that people hear as soon as possible',
-  flags: { ...ROOM_FLAGS, k: { required: true }, method: {}, nu: {}, 'time-limit': {}, include: {}, exclude: {}, ...WALK_FLAGS },
+  flags: {
+    ...ROOM_FLAGS,
+    k: { required: true },
+    method: {},
+    nu: {},
+    'time-limit': {},
+    include: {},
+    exclude: {},
+    'include-file': {},
+    'exclude-file': {},
+    ...WALK_FLAGS,
+  },
   help: `Usage: npm run -s cli -- plan --graph FILE --k K --method greedy|widened|swap|exhaustive|auto
                              [--nu X] [--time-limit SECONDS] [--laziness A] [--mixing B]
-                             [--include IDS] [--exclude IDS]
+                             [--include IDS | --include-file F] [--exclude IDS | --exclude-file F]
 
 Prints {"method", "k", "starters": [ids in the order chosen], "total", "average", "rank",
 "lowerBound", "certified", "elapsedMs", "gap", "coverSize", "notes", "warnings"}.
@@ -29,7 +41,10 @@ ${ROOM_HELP}
   --time-limit S      exhaustive and auto: time budget in seconds (default 10)
   --include IDS       people who must be briefed (ids separated by commas)
   --exclude IDS       people who cannot be briefed
+  --include-file F    --exclude-file F: the same, one id per line
 ${WALK_HELP}
+
+${ID_LIST_HELP}
 
 Rooms where some people cannot reach any starter need at least one starter in each closed
 group; when K is too small for that, the command says so (exit status 2).`,
@@ -78,9 +93,9 @@ group; when K is too small for that, the command says so (exit status 2).`,
 
 function people(graph: RoomGraph, flags: Flags, name: string, file: string): number[] {
   const index = new Map(graph.ids.map((id, i) => [id, i]));
-  return idList(flags, name).map((id) => {
+  return (idsFromFlags(flags, name) ?? []).map((id) => {
     const i = index.get(id);
-    if (i === undefined) throw new CliError(`--${name}: "${id}" is not a person in ${file}`);
+    if (i === undefined) throw new CliError(`--${name}: "${clipId(id)}" is not a person in ${file}`);
     return i;
   });
 }

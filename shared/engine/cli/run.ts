@@ -5,6 +5,7 @@
  * Never a stack trace.
  */
 import { isEngineError } from '../errors';
+import { MAX_MESSAGE_CHARS } from '../io/index';
 import { CliError, parseFlags } from './args';
 import type { Command } from './command';
 import { coverCommand } from './cover';
@@ -34,24 +35,38 @@ export async function runCli(argv: readonly string[]): Promise<{ code: number; s
   }
   const command = COMMANDS.find((c) => c.name === name);
   if (!command)
-    return { code: 2, stdout: '', stderr: `unknown command "${oneLine(name)}"; use one of reach, plan, cover, simulate (see --help)\n` };
+    return {
+      code: 2,
+      stdout: '',
+      stderr: `unknown command "${oneLine(name).slice(0, 40)}"; use one of reach, plan, cover, simulate (see --help)\n`,
+    };
   if (rest.includes('--help') || rest.includes('-h')) return { code: 0, stdout: command.help + '\n', stderr: '' };
   try {
     const flags = parseFlags(rest, command.flags, command.name);
     const out = await command.run(flags);
     const notes = out.notes.map((n) => oneLine(n) + '\n').join('');
-    return { code: 0, stdout: JSON.stringify(out.result) + '\n', stderr: notes };
+    return { code: 0, stdout: JSON.stringify(out.result, mapsAsObjects) + '\n', stderr: notes };
   } catch (e) {
-    if (e instanceof CliError) return { code: 2, stdout: '', stderr: `${command.name}: ${oneLine(e.message)}\n` };
+    if (e instanceof CliError) return { code: 2, stdout: '', stderr: oneLine(`${command.name}: ${e.message}`) + '\n' };
     if (isEngineError(e)) {
       const code = e.code === 'SOLVER_FAILED' ? 1 : 2;
-      return { code, stdout: '', stderr: `${command.name}: ${oneLine(e.message)}\n` };
+      return { code, stdout: '', stderr: oneLine(`${command.name}: ${e.message}`) + '\n' };
     }
     const message = e instanceof Error ? e.message : String(e);
-    return { code: 1, stdout: '', stderr: `${command.name}: internal error: ${oneLine(message)}\n` };
+    return { code: 1, stdout: '', stderr: oneLine(`${command.name}: internal error: ${message}`) + '\n' };
   }
 }
 
+/** One line of at most MAX_MESSAGE_CHARS characters. */
 function oneLine(s: string): string {
-  return s.replace(/\s*[\r\n]+\s*/g, ' ').trim();
+  const line = s.replace(/\s*[\r\n]+\s*/g, ' ').trim();
+  return line.length > MAX_MESSAGE_CHARS ? `${line.slice(0, MAX_MESSAGE_CHARS - 3)}...` : line;
+}
+
+/**
+ * Results keyed by person id are Maps, so no id (not even "__proto__") can clash with an
+ * object's own machinery; Object.fromEntries defines each key as a plain property for printing.
+ */
+function mapsAsObjects(_key: string, value: unknown): unknown {
+  return value instanceof Map ? Object.fromEntries(value) : value;
 }

@@ -2,11 +2,14 @@
 import { SIMULATE_DEFAULTS } from '../simulate/plan';
 import { simulate } from '../simulate/run-local';
 import type { SimulationSummary } from '../simulate/summary';
-import { CliError, integerFlag, type Flags } from './args';
+import { CliError, clipText, integerFlag, type Flags } from './args';
 import {
   ms,
   ROOM_FLAGS,
   ROOM_HELP,
+  ID_LIST_HELP,
+  STARTER_FLAGS,
+  starterIds,
   starterIndices,
   UNREACHABLE_HELP,
   WALK_FLAGS,
@@ -23,7 +26,7 @@ export const simulateCommand: Command = {
   summary: 'seeded simulated cascades: mean hops to hear per person, with standard errors',
   flags: {
     ...ROOM_FLAGS,
-    starters: { required: true },
+    ...STARTER_FLAGS,
     runs: { required: true },
     seed: { required: true },
     workers: {},
@@ -43,21 +46,29 @@ own stream derived from (seed, r).
 
 ${ROOM_HELP}
   --starters IDS      the people briefed first, ids as in the file, separated by commas
+  --starters-file F   the same, one id per line
   --runs R            number of cascades, 1 to 10000000
-  --seed S            any text or number; printed back as given (a number when it is a whole number)
+  --seed S            1 to 64 letters, digits, "-" or "_" (the same seeds as on the web); the run
+                      uses the seed as text, so 07 and 7 are different seeds; "seed" prints it
+                      back exactly (as a JSON number only when the number prints as the same text)
   --workers W         worker threads, 1 to 16 (default 1: this thread)
   --hop-cap H         longest walk before it is stopped (default ${SIMULATE_DEFAULTS.hopCap}); "capped"
                       counts stopped walks, which enter the means at H (the mean is then a lower bound)
 ${WALK_HELP}
 
+${ID_LIST_HELP}
+
 ${UNREACHABLE_HELP}`,
   async run(argv: Flags) {
     const start = performance.now();
+    const ids = starterIds(argv);
     const { graph, warnings, file } = loadRoom(argv);
-    const starters = starterIndices(graph, argv, file);
+    const starters = starterIndices(graph, argv, file, ids);
     const runs = integerFlag(argv, 'runs', 1, 10_000_000)!;
     const seedText = argv.get('seed')!;
-    if (seedText.trim() === '') throw new CliError('--seed must not be empty');
+    if (!SEED.test(seedText)) {
+      throw new CliError(`--seed must be 1 to 64 letters, digits, "-" or "_", as on the web (got "${clipText(seedText)}")`);
+    }
     const workers = integerFlag(argv, 'workers', 1, 16) ?? 1;
     const hopCap = integerFlag(argv, 'hop-cap', 1, 2 ** 31 - 1);
     const options = { ...walkOptions(argv), samples: 0, ...(hopCap !== undefined ? { hopCap } : {}) };
@@ -68,13 +79,13 @@ ${UNREACHABLE_HELP}`,
       const { simulateInPool } = await import('../simulate/pool');
       s = await simulateInPool(graph, starters, runs, seedText, options, workers);
     }
-    const reach: Record<string, number> = {};
-    const stderr: Record<string, number> = {};
+    const reach = new Map<string, number>();
+    const stderr = new Map<string, number>();
     const out = unreachableFields(s.n, s.unreachable);
     for (let i = 0; i < s.n; i++) {
       if (out.lost.has(i)) continue;
-      reach[graph.ids[i]] = s.mean[i];
-      stderr[graph.ids[i]] = s.stderr[i];
+      reach.set(graph.ids[i], s.mean[i]);
+      stderr.set(graph.ids[i], s.stderr[i]);
     }
     const complete = out.ids.length === 0;
     const notes = warningNotes(warnings, file);
@@ -84,7 +95,7 @@ ${UNREACHABLE_HELP}`,
     return {
       result: {
         runs: s.runs,
-        seed: /^\d{1,15}$/.test(seedText) ? Number(seedText) : seedText,
+        seed: printedSeed(seedText),
         total: complete ? s.total : null,
         average: complete ? s.average : null,
         reach,
@@ -107,3 +118,13 @@ ${UNREACHABLE_HELP}`,
     };
   },
 };
+
+/** The seeds the web accepts (REHEARSAL_LIMITS.seedPattern; a test keeps the two equal). */
+export const CLI_SEED_PATTERN = '^[A-Za-z0-9_-]{1,64}$';
+const SEED = new RegExp(CLI_SEED_PATTERN);
+
+/** The seed as used: a number only when printing that number gives back the same text (7, not 07). */
+export function printedSeed(seed: string): string | number {
+  const n = Number(seed);
+  return /^\d+$/.test(seed) && Number.isSafeInteger(n) && String(n) === seed ? n : seed;
+}

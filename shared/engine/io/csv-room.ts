@@ -5,7 +5,7 @@
  * quote is removed on reading (see csv-text.ts).
  */
 import type { RoomGraph } from '../graph';
-import { readCsv, unprotectCell, writeCsvRows, type CsvText, type Delimiter } from './csv-text';
+import { CsvReader, unprotectCell, writeCsvRows, type CsvRecord, type Delimiter } from './csv-text';
 import { IssueList, type ParseOptions, type ParseResult } from './issues';
 import { RoomBuilder } from './room-builder';
 import { checkTextSize } from './text-limits';
@@ -13,38 +13,35 @@ import { checkTextSize } from './text-limits';
 const TIE_COLUMNS = { source: ['source', 'from'], target: ['target', 'to'], strength: ['strength', 'weight'] };
 const PEOPLE_COLUMNS = { id: ['id'], name: ['name', 'label'], group: ['group'] };
 
-export function parseRoomCsv(tiesText: string, peopleText?: string, options: ParseOptions = {}): ParseResult {
-  const issues = new IssueList('ties');
-  const builder = new RoomBuilder(issues, options, true);
+/** CSV text, whole or in pieces (the command line reads files in chunks and stops at the first error). */
+export type CsvInput = string | Iterable<string>;
+
+export function parseRoomCsv(tiesText: CsvInput, peopleText?: CsvInput, options: ParseOptions = {}): ParseResult {
+  const issues = new IssueList('ties', 500, options.maxErrors);
+  const builder = new RoomBuilder(issues, options);
   const directed = options.directed ?? false;
   let delimiter: Delimiter = ',';
+  const sized = (input: CsvInput, file: string) => typeof input !== 'string' || checkTextSize(input, options, issues, file);
 
-  if (peopleText !== undefined && checkTextSize(peopleText, options, issues, 'people')) {
-    const people = readTable(peopleText, 'people', PEOPLE_COLUMNS, ['id'], issues);
-    if (people) {
-      for (const row of people.rows) {
-        builder.addPerson(row.get('id'), nonEmpty(row.get('name')), nonEmpty(row.get('group')), { file: 'people', line: row.line });
-      }
-    }
+  if (peopleText !== undefined && sized(peopleText, 'people')) {
+    readTable(peopleText, 'people', PEOPLE_COLUMNS, ['id'], issues, (row) => {
+      builder.addPerson(row.get('id'), nonEmpty(row.get('name')), nonEmpty(row.get('group')), { file: 'people', line: row.line });
+    });
   }
-  if (checkTextSize(tiesText, options, issues, 'ties')) {
-    const ties = readTable(tiesText, 'ties', TIE_COLUMNS, ['source', 'target'], issues);
-    if (ties) {
-      delimiter = ties.delimiter;
-      const implicit = peopleText === undefined;
-      for (const row of ties.rows) {
-        builder.addTie(
-          row.get('source'),
-          row.get('target'),
-          row.get('strength'),
-          { file: 'ties', line: row.line },
-          { source: ties.names.get('source')!, target: ties.names.get('target')!, strength: ties.names.get('strength') ?? 'strength' },
-          directed,
-          implicit,
-          delimiter === ';',
-        );
-      }
-    }
+  if (!issues.full && sized(tiesText, 'ties')) {
+    const implicit = peopleText === undefined;
+    delimiter = readTable(tiesText, 'ties', TIE_COLUMNS, ['source', 'target'], issues, (row, table) => {
+      builder.addTie(
+        row.get('source'),
+        row.get('target'),
+        row.get('strength'),
+        { file: 'ties', line: row.line },
+        { source: table.names.get('source')!, target: table.names.get('target')!, strength: table.names.get('strength') ?? 'strength' },
+        directed,
+        implicit,
+        table.delimiter === ';',
+      );
+    });
   }
   const graph = builder.finish(directed, 'ties');
   issues.finish();
@@ -60,43 +57,91 @@ interface Table {
   readonly delimiter: Delimiter;
   /** Canonical column -> the header text used in the file. */
   readonly names: Map<string, string>;
-  readonly rows: Row[];
 }
 
+/** Reads the header, then hands each complete row to `onRow`, one at a time; stops once the error list is full. */
 function readTable(
-  text: string,
+  input: CsvInput,
   file: string,
   columns: Record<string, string[]>,
   required: string[],
   issues: IssueList,
-): Table | undefined {
-  const csv: CsvText = readCsv(text);
-  if (csv.unclosedQuoteLine !== undefined) {
-    issues.error('syntax', 'a quoted cell starts here but its closing quote (") is missing', { file, line: csv.unclosedQuoteLine });
-    return undefined;
-  }
-  if (csv.delimiter !== ',') {
-    const name = csv.delimiter === ';' ? 'semicolons (;)' : 'tabs';
-    issues.warn('delimiter', `columns are separated by ${name}, not commas; read that way`, { file, line: csv.records[0]?.line ?? 1 });
-  }
-  const header = csv.records[0];
-  if (!header) {
+  onRow: (row: Row, table: Table) => void,
+): Delimiter {
+  const reader = new CsvReader();
+  const records = reader.records(typeof input === 'string' ? [input] : input);
+  const first = records.next();
+  const header = first.done ? undefined : first.value;
+  const table = header ? readHeader(header, reader.delimiter, file, columns, required, issues) : undefined;
+  if (!header && !reader.stop) {
     issues.error('missing-column', `the file is empty; the first line must be a header such as ${required.join(',')}`, { file, line: 1 });
-    return undefined;
+  }
+  if (table) {
+    const position = table.position;
+    for (const record of records) {
+      const cells = record.cells;
+      let complete = true;
+      for (const k of required) {
+        const at = position.get(k)!;
+        if (at >= cells.length) {
+          complete = false;
+          const n = cells.length;
+          issues.error('missing-field', `this row has no ${table.names.get(k)} value (it has ${n} cell${n === 1 ? '' : 's'})`, {
+            file,
+            line: record.line,
+            field: table.names.get(k),
+          });
+        }
+      }
+      if (complete) {
+        onRow(
+          {
+            line: record.line,
+            get: (column) => {
+              const at = position.get(column);
+              return at === undefined || at >= cells.length ? undefined : unprotectCell(cells[at]);
+            },
+          },
+          table,
+        );
+      }
+      if (issues.full) break;
+    }
+  }
+  if (reader.stop && !issues.full) {
+    const message =
+      reader.stop.problem === 'unclosed-quote'
+        ? 'a quoted cell starts here but its closing quote (") is missing'
+        : 'this row is longer than 1 MiB; a closing quote (") is probably missing';
+    issues.error('syntax', message, { file, line: reader.stop.line });
+  }
+  return reader.delimiter;
+}
+
+function readHeader(
+  header: CsvRecord,
+  delimiter: Delimiter,
+  file: string,
+  columns: Record<string, string[]>,
+  required: string[],
+  issues: IssueList,
+): (Table & { position: Map<string, number> }) | undefined {
+  if (delimiter !== ',') {
+    const name = delimiter === ';' ? 'semicolons (;)' : 'tabs';
+    issues.warn('delimiter', `columns are separated by ${name}, not commas; read that way`, { file, line: header.line });
   }
   const position = new Map<string, number>();
   const names = new Map<string, string>();
-  header.cells.forEach((raw, at) => {
-    const cell = raw.trim();
+  header.cells.forEach((cell, at) => {
     const key = Object.keys(columns).find((k) => columns[k].includes(cell.toLowerCase()));
     if (key && !position.has(key)) {
       position.set(key, at);
       names.set(key, cell);
     } else if (cell !== '') {
-      issues.warn('ignored-column', `column "${cell}" is not used (expected ${Object.keys(columns).join(', ')})`, {
+      issues.warn('ignored-column', `column "${clipCell(cell)}" is not used (expected ${Object.keys(columns).join(', ')})`, {
         file,
         line: header.line,
-        field: cell,
+        field: clipCell(cell),
       });
     }
   });
@@ -104,37 +149,16 @@ function readTable(
   if (missing.length > 0) {
     issues.error(
       'missing-column',
-      `the header has no ${missing.join(' or ')} column; the first line must name the columns, e.g. ${Object.keys(columns).join(csv.delimiter)}`,
+      `the header has no ${missing.join(' or ')} column; the first line must name the columns, e.g. ${Object.keys(columns).join(delimiter)}`,
       { file, line: header.line },
     );
     return undefined;
   }
-  const rows: Row[] = [];
-  for (const record of csv.records.slice(1)) {
-    const cells = record.cells;
-    rows.push({
-      line: record.line,
-      get: (column) => {
-        const at = position.get(column);
-        return at === undefined || at >= cells.length ? undefined : unprotectCell(cells[at].trim());
-      },
-    });
-    for (const k of required) {
-      const at = position.get(k)!;
-      if (at >= cells.length) {
-        issues.error(
-          'missing-field',
-          `this row has no ${names.get(k)} value (it has ${cells.length} cell${cells.length === 1 ? '' : 's'})`,
-          {
-            file,
-            line: record.line,
-            field: names.get(k),
-          },
-        );
-      }
-    }
-  }
-  return { delimiter: csv.delimiter, names, rows: rows.filter((r) => required.every((k) => r.get(k) !== undefined)) };
+  return { delimiter, names, position };
+}
+
+function clipCell(cell: string): string {
+  return cell.length > 40 ? `${cell.slice(0, 40)}...` : cell;
 }
 
 function nonEmpty(s: string | undefined): string | undefined {

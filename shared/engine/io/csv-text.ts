@@ -9,6 +9,7 @@ export type Delimiter = ',' | ';' | '\t';
 export interface CsvRecord {
   /** 1-based line where the record starts. */
   readonly line: number;
+  /** Cells: unquoted ones trimmed, quoted ones exactly as written between the quotes. */
   readonly cells: string[];
 }
 
@@ -18,6 +19,15 @@ export interface CsvText {
   /** Line of an opening quote that is never closed, if any. */
   readonly unclosedQuoteLine?: number;
 }
+
+/** Why reading stopped before the end: an unclosed quote, or a row too long to be real. */
+export interface CsvStop {
+  readonly line: number;
+  readonly problem: 'unclosed-quote' | 'row-too-long';
+}
+
+/** A row longer than this (in characters) is refused: in a room file it means a missing quote. */
+export const MAX_CSV_ROW_CHARS = 1024 * 1024;
 
 export function stripBom(text: string): string {
   return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
@@ -38,78 +48,122 @@ export function detectDelimiter(text: string): Delimiter {
   return ',';
 }
 
-/** Splits CSV text into records; blank lines are skipped. Unquoted cells are sliced, not built char by char. */
+/** Splits CSV text into records; blank lines are skipped. */
 export function readCsv(input: string): CsvText {
-  const text = stripBom(input);
-  const delimiter = detectDelimiter(text);
-  const d = delimiter.charCodeAt(0);
-  const records: CsvRecord[] = [];
-  const len = text.length;
-  let cells: string[] = [];
-  let line = 1;
-  let recordLine = 1;
-  let i = 0;
-  const endRecord = () => {
-    if (!(cells.length === 1 && cells[0].trim() === '')) records.push({ line: recordLine, cells });
-    cells = [];
+  const reader = new CsvReader();
+  const records = [...reader.records([input])];
+  return {
+    delimiter: reader.delimiter,
+    records,
+    ...(reader.stop ? { unclosedQuoteLine: reader.stop.line } : {}),
   };
-  while (i <= len) {
-    // start of a cell: skip leading blanks to see whether it is quoted
+}
+
+type RecordRead = { readonly cells: string[]; readonly next: number; readonly lines: number } | 'more' | { readonly unclosedAt: number };
+
+/**
+ * Reads CSV records from text that arrives in pieces (a file read in chunks): records are given
+ * out as soon as they are complete, so a reader can stop at the first bad row without reading the
+ * rest. Only an unfinished row is held back between pieces.
+ */
+export class CsvReader {
+  delimiter: Delimiter = ',';
+  /** Set when reading stopped early (unclosed quote, overlong row). */
+  stop?: CsvStop;
+
+  *records(chunks: Iterable<string>): Generator<CsvRecord> {
+    let pending = '';
+    let line = 1;
+    let started = false;
+    const it = chunks[Symbol.iterator]();
+    for (let final = false; !final;) {
+      const step: IteratorResult<string, unknown> = it.next();
+      final = step.done === true;
+      if (!step.done) pending += started || pending.length > 0 ? step.value : stripBom(step.value);
+      if (!started) {
+        if (!final && !/[\r\n]/.test(pending) && pending.length < MAX_CSV_ROW_CHARS) continue;
+        this.delimiter = detectDelimiter(pending);
+        started = true;
+      }
+      let i = 0;
+      for (;;) {
+        if (i >= pending.length) break;
+        const r = readRecord(pending, i, this.delimiter.charCodeAt(0), final);
+        if (r === 'more') break;
+        if ('unclosedAt' in r) {
+          this.stop = { line: line + countLines(pending, i, r.unclosedAt), problem: 'unclosed-quote' };
+          return;
+        }
+        if (!(r.cells.length === 1 && r.cells[0] === '')) yield { line, cells: r.cells };
+        line += r.lines;
+        i = r.next;
+      }
+      pending = pending.slice(i);
+      if (!final && pending.length > MAX_CSV_ROW_CHARS) {
+        this.stop = { line, problem: 'row-too-long' };
+        return;
+      }
+    }
+  }
+}
+
+function countLines(text: string, from: number, to: number): number {
+  let n = 0;
+  for (let k = text.indexOf('\n', from); k >= 0 && k < to; k = text.indexOf('\n', k + 1)) n++;
+  return n;
+}
+
+/** One record from offset i: its cells, where the next starts and how many line breaks it spans. */
+function readRecord(text: string, i: number, d: number, final: boolean): RecordRead {
+  const len = text.length;
+  const cells: string[] = [];
+  let lines = 0;
+  for (;;) {
     let j = i;
     while (j < len && (text.charCodeAt(j) === 32 || (text.charCodeAt(j) === 9 && d !== 9))) j++;
-    let cell: string;
+    let e: number;
     if (j < len && text.charCodeAt(j) === 34) {
-      const quoteLine = line;
       let out = '';
       let from = j + 1;
-      let k = from;
       for (;;) {
-        const q = text.indexOf('"', k);
-        if (q < 0) return { delimiter, records, unclosedQuoteLine: quoteLine };
-        for (let p = k; p < q; p++) if (text.charCodeAt(p) === 10) line++;
+        const q = text.indexOf('"', from);
+        if (q < 0) return final ? { unclosedAt: j } : 'more';
+        if (q + 1 >= len && !final) return 'more';
         if (text.charCodeAt(q + 1) === 34) {
           out += text.slice(from, q + 1);
-          from = k = q + 2;
+          from = q + 2;
           continue;
         }
         out += text.slice(from, q);
-        i = q + 1;
+        lines += countLines(text, j, q);
+        e = q + 1;
         break;
       }
-      // anything after the closing quote up to the delimiter is kept (lenient)
-      let e = i;
+      // anything after the closing quote up to the delimiter is kept (lenient), trimmed
+      const after = e;
       while (e < len && text.charCodeAt(e) !== d && text.charCodeAt(e) !== 10 && text.charCodeAt(e) !== 13) e++;
-      cell = out + text.slice(i, e);
-      i = e;
+      cells.push(after === e ? out : out + text.slice(after, e).trim());
     } else {
-      let e = i;
+      e = i;
       while (e < len) {
         const c = text.charCodeAt(e);
         if (c === d || c === 10 || c === 13) break;
         e++;
       }
-      cell = text.slice(i, e);
-      i = e;
+      cells.push(text.slice(i, e).trim());
     }
-    cells.push(cell);
-    if (i >= len) {
-      endRecord();
-      break;
-    }
-    const c = text.charCodeAt(i);
+    if (e >= len) return final ? { cells, next: len, lines } : 'more';
+    const c = text.charCodeAt(e);
     if (c === d) {
-      i++;
+      i = e + 1;
       continue;
     }
-    // line end
-    endRecord();
-    if (c === 13 && text.charCodeAt(i + 1) === 10) i++;
-    i++;
-    line++;
-    recordLine = line;
-    if (i >= len) break;
+    if (c === 13) {
+      if (e + 1 >= len && !final) return 'more';
+      return { cells, next: text.charCodeAt(e + 1) === 10 ? e + 2 : e + 1, lines: lines + 1 };
+    }
+    return { cells, next: e + 1, lines: lines + 1 };
   }
-  return { delimiter, records };
 }
 
 const FORMULA_START = /^'*[=+\-@\t\r]/;

@@ -1,25 +1,22 @@
 /**
  * GraphML rooms (the GraphML Primer, graphdrawing.org): `edgedefault`, per-edge `directed`, and a
  * tie strength in a `<data>` whose `<key>` has attr.name "strength" or "weight"; node labels
- * and groups from keys named label/name and group. Parsed with fast-xml-parser after rejecting
- * any DOCTYPE, ENTITY or other markup declaration (no entity expansion, no external loads) and
- * capping the size.
+ * and groups from keys named label/name and group. Read by xml-reader.ts (iterative, nesting
+ * bounded, deep elements checked but not kept) after rejecting any DOCTYPE, ENTITY or other markup
+ * declaration (no entity expansion, no external loads) and capping the size. A missing <data>
+ * takes the key's default (else 1); an empty one is read as 1 with a warning, as in CSV.
  */
-import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import type { RoomGraph } from '../graph';
 import { IssueList, type ParseOptions, type ParseResult } from './issues';
 import { clip, RoomBuilder } from './room-builder';
 import { checkTextSize } from './text-limits';
+import { attrOf as attr, readXml, type XmlElement } from './xml-reader';
 
-/** GraphML files grow about 10x in memory when parsed, so their default cap is lower. */
+/** GraphML files are verbose, so their default cap is lower than the other formats'. */
 export const GRAPHML_DEFAULT_MAX_CHARS = 16 * 1024 * 1024;
 
-type XmlNode = { [key: string]: unknown };
-
-const LISTS = new Set(['key', 'graph', 'node', 'edge', 'data']);
-
 export function parseGraphml(text: string, options: ParseOptions = {}): ParseResult {
-  const issues = new IssueList('graphml');
+  const issues = new IssueList('graphml', 500, options.maxErrors);
   const builder = new RoomBuilder(issues, options);
   let directed = false;
   const done = () => {
@@ -40,31 +37,19 @@ export function parseGraphml(text: string, options: ParseOptions = {}): ParseRes
     );
     return done();
   }
-  const valid = XMLValidator.validate(text);
-  if (valid !== true) {
-    issues.error('syntax', `not well-formed XML: ${valid.err.msg}`, { line: valid.err.line });
+  const read = readXml(text);
+  if (read.error) {
+    const e = read.error;
+    const what = e.tooDeep ? 'not accepted:' : 'not well-formed XML:';
+    issues.error(e.tooDeep ? 'too-deep' : 'syntax', `${what} ${e.message} (column ${e.column}, byte ${e.offset + 1})`, { line: e.line });
     return done();
   }
-  const parser = new XMLParser({
-    ignoreAttributes: false,
-    attributeNamePrefix: '@',
-    removeNSPrefix: true,
-    parseTagValue: false,
-    parseAttributeValue: false,
-    trimValues: false,
-    processEntities: true,
-    // Also decodes numeric character references (&#10;); named HTML entities are harmless here.
-    htmlEntities: true,
-    isArray: (name) => LISTS.has(name),
-  });
-  const doc = parser.parse(text) as XmlNode;
-  const rawRoot = doc['graphml'];
-  const root = (typeof rawRoot === 'object' && rawRoot !== null ? rawRoot : {}) as XmlNode;
-  if (rawRoot === undefined) {
-    issues.error('syntax', 'the root element must be <graphml>', { element: '<graphml>' });
+  const root = read.root;
+  if (root.name !== 'graphml') {
+    issues.error('syntax', `the root element must be <graphml>, not <${clip(root.name)}>`, { element: '<graphml>' });
     return done();
   }
-  const graphs = (root['graph'] as XmlNode[] | undefined) ?? [];
+  const graphs = childrenOf(root, 'graph');
   if (graphs.length === 0) {
     issues.error('missing-field', 'there is no <graph> element inside <graphml>', { element: '<graph>' });
     return done();
@@ -72,7 +57,7 @@ export function parseGraphml(text: string, options: ParseOptions = {}): ParseRes
   if (graphs.length > 1)
     issues.warn('ignored-column', `the file has ${graphs.length} <graph> elements; only the first was read`, { element: '<graph> #2' });
   const g = graphs[0];
-  const keys = readKeys((root['key'] as XmlNode[] | undefined) ?? []);
+  const keys = readKeys(childrenOf(root, 'key'));
   const edgeDefault = attr(g, 'edgedefault');
   if (edgeDefault !== undefined && edgeDefault !== 'directed' && edgeDefault !== 'undirected') {
     issues.error('syntax', `edgedefault must be "directed" or "undirected", not "${clip(edgeDefault)}"`, {
@@ -82,14 +67,14 @@ export function parseGraphml(text: string, options: ParseOptions = {}): ParseRes
   }
   const defaultDirected = edgeDefault === 'directed';
 
-  const nodes = (g['node'] as XmlNode[] | undefined) ?? [];
-  nodes.forEach((node, i) => {
+  const nodes = childrenOf(g, 'node');
+  for (let i = 0; i < nodes.length && !issues.full; i++) {
     const element = `<node> #${i + 1}`;
-    const data = dataOf(node, keys);
-    builder.addPerson(attr(node, 'id'), data.get(keys.label ?? ''), data.get(keys.group ?? ''), { element, field: 'id' });
-  });
+    const data = dataOf(nodes[i], keys);
+    builder.addPerson(attr(nodes[i], 'id'), data.get(keys.label ?? ''), data.get(keys.group ?? ''), { element, field: 'id' });
+  }
 
-  const edges = (g['edge'] as XmlNode[] | undefined) ?? [];
+  const edges = childrenOf(g, 'edge');
   const edgeDirected = edges.map((edge) => {
     const d = attr(edge, 'directed');
     return d === undefined ? defaultDirected : d === 'true' || d === '1';
@@ -103,19 +88,20 @@ export function parseGraphml(text: string, options: ParseOptions = {}): ParseRes
     );
   }
   const strengthField = keys.strengthName ?? 'strength';
-  edges.forEach((edge, i) => {
+  for (let i = 0; i < edges.length && !issues.full; i++) {
+    const edge = edges[i];
     const id = attr(edge, 'id');
     const element = `<edge> #${i + 1}${id !== undefined ? ` (id "${clip(id)}")` : ''}`;
     const source = attr(edge, 'source');
     const target = attr(edge, 'target');
     if (source === undefined) issues.error('missing-field', 'the edge has no source attribute', { element, field: 'source' });
     if (target === undefined) issues.error('missing-field', 'the edge has no target attribute', { element, field: 'target' });
-    if (source === undefined || target === undefined) return;
+    if (source === undefined || target === undefined) continue;
     const strength = keys.strength !== undefined ? dataOf(edge, keys).get(keys.strength) : undefined;
     const fields = { source: 'source', target: 'target', strength: strengthField };
     builder.addTie(source, target, strength, { element }, fields, directed);
     if (directed && !edgeDirected[i]) builder.addTie(target, source, strength, { element }, fields, directed);
-  });
+  }
   return done();
 }
 
@@ -127,15 +113,15 @@ interface Keys {
   defaults: Map<string, string>;
 }
 
-function readKeys(list: XmlNode[]): Keys {
+function readKeys(list: XmlElement[]): Keys {
   const keys: Keys = { defaults: new Map() };
   for (const key of list) {
     const id = attr(key, 'id');
     const name = (attr(key, 'attr.name') ?? '').toLowerCase();
     const scope = attr(key, 'for') ?? 'all';
     if (id === undefined) continue;
-    const def = key['default'];
-    if (def !== undefined) keys.defaults.set(id, textOf(def));
+    const def = childrenOf(key, 'default')[0];
+    if (def !== undefined) keys.defaults.set(id, def.text);
     const forEdge = scope === 'edge' || scope === 'all';
     const forNode = scope === 'node' || scope === 'all';
     if (forEdge && (name === 'strength' || (name === 'weight' && keys.strengthName !== 'strength'))) {
@@ -148,25 +134,18 @@ function readKeys(list: XmlNode[]): Keys {
   return keys;
 }
 
-function dataOf(el: XmlNode, keys: Keys): Map<string, string> {
+function dataOf(el: XmlElement, keys: Keys): Map<string, string> {
   const out = new Map(keys.defaults);
-  for (const d of (el['data'] as XmlNode[] | undefined) ?? []) {
+  for (const d of el.children) {
+    if (d.name !== 'data') continue;
     const key = attr(d, 'key');
-    if (key !== undefined) out.set(key, textOf(d));
+    if (key !== undefined) out.set(key, d.text);
   }
   return out;
 }
 
-function attr(el: XmlNode, name: string): string | undefined {
-  const v = el[`@${name}`];
-  return typeof v === 'string' ? v : undefined;
-}
-
-function textOf(v: unknown): string {
-  if (typeof v === 'string') return v;
-  if (typeof v === 'number') return String(v);
-  if (v && typeof v === 'object' && typeof (v as XmlNode)['#text'] === 'string') return (v as XmlNode)['#text'] as string;
-  return '';
+function childrenOf(el: XmlElement, name: string): XmlElement[] {
+  return el.children.filter((c) => c.name === name);
 }
 
 function lineAt(text: string, pos: number): number {

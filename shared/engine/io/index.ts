@@ -1,5 +1,5 @@
 export * from './issues';
-export { readStrength } from './room-builder';
+export { readStrength, MIN_STRENGTH, MIN_STRENGTH_RATIO } from './room-builder';
 export {
   readCsv,
   detectDelimiter,
@@ -12,7 +12,8 @@ export {
   type CsvRecord,
 } from './csv-text';
 export { parseRoomCsv, writeRoomCsv, type RoomCsvFiles } from './csv-room';
-export { parseNodeLink, writeNodeLink } from './node-link';
+export { parseNodeLink, writeNodeLink, type NodeLinkExtras, type JsonScalar } from './node-link';
+export { readJson, JsonNumber, JsonObject, JsonSkipped, JSON_MAX_DEPTH, type JsonValue, type JsonReadResult } from './json-reader';
 export { parseGraphml, writeGraphml, GRAPHML_DEFAULT_MAX_CHARS } from './graphml';
 export { decodeUtf8, type DecodeResult } from './text-limits';
 export { formatOf, parseRoom, writeRoom } from './room-file';

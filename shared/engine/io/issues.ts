@@ -4,6 +4,7 @@
  * command line prints the first one.
  */
 import type { RoomGraph } from '../graph';
+import type { NodeLinkExtras } from './node-link';
 
 export type IssueSeverity = 'error' | 'warning';
 
@@ -27,7 +28,10 @@ export type IssueCode =
   | 'no-ties'
   | 'isolated-person'
   | 'ignored-column'
-  | 'too-many-issues';
+  | 'too-many-issues'
+  | 'too-deep'
+  | 'strength-range'
+  | 'empty-strength';
 
 export interface Issue {
   readonly severity: IssueSeverity;
@@ -50,6 +54,8 @@ export interface ParseMeta {
   readonly format: RoomFormat;
   /** CSV only: the delimiter that was detected. */
   readonly delimiter?: ',' | ';' | '\t';
+  /** JSON only: node positions and the "graph" object's scalars (a room written by Ripplehall). */
+  readonly nodeLink?: NodeLinkExtras;
 }
 
 export interface ParseResult {
@@ -71,6 +77,8 @@ export interface ParseOptions {
   readonly maxChars?: number;
   /** CSV only: read each row as "source asks target" (default false: undirected ties). */
   readonly directed?: boolean;
+  /** Reading stops after this many errors (default 50; the command line uses 1). */
+  readonly maxErrors?: number;
 }
 
 export const DEFAULT_LIMITS = {
@@ -78,18 +86,32 @@ export const DEFAULT_LIMITS = {
   maxTies: 2_000_000,
   maxStrength: 1e9,
   maxChars: 64 * 1024 * 1024,
+  maxErrors: 50,
 } as const;
+
+/** The longest one-line refusal (command line and web import alike). */
+export const MAX_MESSAGE_CHARS = 300;
 
 /** Keeps a bounded list of issues so a huge bad file cannot exhaust memory. */
 export class IssueList {
   readonly errors: Issue[] = [];
   readonly warnings: Issue[] = [];
   private dropped = { error: 0, warning: 0 };
+  private readonly errorCap: number;
 
+  /** `maxErrors`: once this many errors are listed, `full` is true and readers stop. */
   constructor(
     private readonly file: string,
     private readonly cap = 500,
-  ) {}
+    maxErrors: number = DEFAULT_LIMITS.maxErrors,
+  ) {
+    this.errorCap = Math.max(1, Math.min(cap, maxErrors));
+  }
+
+  /** True once the error list is full: the reader should stop reading. */
+  get full(): boolean {
+    return this.errors.length >= this.errorCap;
+  }
 
   error(code: IssueCode, message: string, where: IssueWhere = {}): void {
     this.push('error', code, message, where);
@@ -103,8 +125,16 @@ export class IssueList {
     return this.errors.length > 0;
   }
 
-  /** Adds a closing note when issues were dropped. */
+  /** Adds a closing note when issues were dropped or reading stopped early. */
   finish(): void {
+    if (this.full && this.errorCap > 1 && this.dropped.error === 0) {
+      this.errors.push({
+        severity: 'error',
+        code: 'too-many-issues',
+        file: this.file,
+        message: `reading stopped after ${this.errorCap} errors; fix the ones above first`,
+      });
+    }
     for (const severity of ['error', 'warning'] as const) {
       const n = this.dropped[severity];
       if (n === 0) continue;
@@ -120,7 +150,7 @@ export class IssueList {
 
   private push(severity: IssueSeverity, code: IssueCode, message: string, where: IssueWhere): void {
     const list = severity === 'error' ? this.errors : this.warnings;
-    if (list.length >= this.cap) {
+    if (list.length >= (severity === 'error' ? this.errorCap : this.cap)) {
       this.dropped[severity]++;
       return;
     }
@@ -152,4 +182,23 @@ export function describeIssue(issue: Issue): string {
   let where = place.join(' ');
   if (issue.field) where += where ? `, ${issue.field}` : issue.field;
   return where ? `${where}: ${issue.message}` : issue.message;
+}
+
+/**
+ * The one line that refuses a file: the first error with its place, and how many more there are,
+ * at most MAX_MESSAGE_CHARS long. The command line prints it after the file name; the web import
+ * answers it as the message of its 400.
+ */
+export function refusalLine(errors: readonly Issue[], room = MAX_MESSAGE_CHARS): string {
+  const n = errors.filter((e) => e.code !== 'too-many-issues').length;
+  const cut = n < errors.length;
+  const others = cut ? ' at least' : '';
+  const more = n > 1 ? ` (and${others} ${n - 1} more problem${n > 2 ? 's' : ''})` : cut ? ' (and more problems)' : '';
+  return clipLine(describeIssue(errors[0]), room - more.length) + more;
+}
+
+/** Cuts one line to `max` characters, ending with "..." when cut. */
+export function clipLine(text: string, max = MAX_MESSAGE_CHARS): string {
+  const line = text.replace(/\s*[\r\n]+\s*/g, ' ').trim();
+  return line.length > max ? `${line.slice(0, Math.max(0, max - 3))}...` : line;
 }

@@ -11,13 +11,29 @@ const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 export interface StrengthReading {
   readonly value?: number;
   readonly problem?: string;
+  /** The strength was written but empty (a blank CSV cell, an empty GraphML <data>): read as 1. */
+  readonly empty?: boolean;
 }
 
-/** Reads a strength: a positive, finite decimal number not above maxStrength. Missing means 1. */
+/**
+ * The weakest tie, relative to the strongest in the room, that the solvers can carry in double
+ * precision (machine epsilon 2.2e-16): below it a weak tie's share of a degree is lost to
+ * rounding (a 1e-16 tie beside ties of 1 vanishes, a 1e-15 tie comes out 10 % wrong).
+ */
+export const MIN_STRENGTH_RATIO = 1e-12;
+
+/** The least strength accepted at all (far above the subnormal range, whose precision is lost). */
+export const MIN_STRENGTH = 1e-100;
+
+/**
+ * Reads a strength: a positive, finite decimal number from MIN_STRENGTH to maxStrength. Missing
+ * (undefined) means 1; empty text means 1 with `empty` set (the caller warns); null is refused.
+ */
 export function readStrength(raw: unknown, maxStrength: number, decimalComma = false): StrengthReading {
-  if (raw === undefined || raw === null || (typeof raw === 'string' && raw.trim() === '')) {
-    return { value: 1 };
-  }
+  if (raw === undefined) return { value: 1 };
+  if (typeof raw === 'string' && raw.trim() === '') return { value: 1, empty: true };
+  if (raw === null)
+    return { problem: 'the strength is null; write a positive number, or leave the field out (a missing strength means 1)' };
   let value: number;
   if (typeof raw === 'number') {
     value = raw;
@@ -29,20 +45,34 @@ export function readStrength(raw: unknown, maxStrength: number, decimalComma = f
     }
     value = Number(text);
   } else {
-    return { problem: `${clip(JSON.stringify(raw))} is not a number; write a positive number such as 1 or 2.5` };
+    return { problem: `${shownValue(raw)} is not a number; write a positive number such as 1 or 2.5` };
   }
+  const shown = clip(typeof raw === 'string' ? raw.trim() : String(raw));
   if (!Number.isFinite(value)) {
-    return { problem: `${clip(String(raw))} is not a finite number; write a positive number such as 1 or 2.5` };
+    return { problem: `${shown} is not a finite number; write a positive number such as 1 or 2.5` };
   }
   if (value <= 0) {
+    if (value === 0 && typeof raw === 'string' && /[1-9]/.test(raw.replace(/[eE].*$/, ''))) {
+      return { problem: `${shown} is too small to compute with (the least strength accepted is ${MIN_STRENGTH}); rescale the strengths` };
+    }
     return {
-      problem: `${value} is not positive; a tie needs a strength above 0 (leave the tie out if there is none)`,
+      problem: `${shown} is not positive; a tie needs a strength above 0 (leave the tie out if there is none)`,
     };
+  }
+  if (value < MIN_STRENGTH) {
+    return { problem: `${shown} is too small to compute with (the least strength accepted is ${MIN_STRENGTH}); rescale the strengths` };
   }
   if (value > maxStrength) {
     return { problem: `${value} is too large (the limit is ${maxStrength}); check the unit or rescale the strengths` };
   }
   return { value };
+}
+
+/** A value for a message; readers may pass `{ shown }` for values they describe themselves. */
+function shownValue(raw: unknown): string {
+  if (typeof raw === 'object' && raw !== null && typeof (raw as { shown?: unknown }).shown === 'string')
+    return (raw as { shown: string }).shown;
+  return clip(JSON.stringify(raw) ?? typeof raw);
 }
 
 export function clip(text: string, max = 40): string {
@@ -67,6 +97,8 @@ export class RoomBuilder {
   private hasGroups = false;
   private tooManyPeople = false;
   private tooManyTies = false;
+  private emptyStrengths = 0;
+  private firstEmpty: IssueWhere | undefined;
   readonly limits: Required<Omit<ParseOptions, 'directed'>>;
 
   /** `trimIds`: CSV cells are trimmed; JSON and GraphML ids are kept exactly as written. */
@@ -134,6 +166,7 @@ export class RoomBuilder {
     const t = this.resolve(rawTarget, where, fields.target, implicitPeople);
     const reading = readStrength(rawStrength, this.limits.maxStrength, decimalComma);
     if (reading.problem) this.issues.error('bad-strength', reading.problem, { ...where, field: fields.strength });
+    if (reading.empty && this.emptyStrengths++ === 0) this.firstEmpty = { ...where, field: fields.strength };
     if (s === undefined || t === undefined || reading.value === undefined) return;
     if (s === t) {
       this.issues.error(
@@ -166,8 +199,17 @@ export class RoomBuilder {
     this.ties.set(key, { source: s, target: t, strength: reading.value, where, merged: 0 });
   }
 
-  /** Checks the whole room (empty, no ties, isolated people) and returns the graph. */
+  /** Checks the whole room (empty, no ties, isolated people, strength range) and returns the graph. */
   finish(directed: boolean, file: string): RoomGraph {
+    if (this.firstEmpty) {
+      const n = this.emptyStrengths;
+      this.issues.warn(
+        'empty-strength',
+        `${n === 1 ? 'this tie has' : `${n} ties have`} an empty strength, read as 1 (an empty strength means 1; write a number to say otherwise)`,
+        this.firstEmpty,
+      );
+    }
+    if (!this.issues.hasErrors) this.checkStrengthRange();
     if (this.ids.length === 0) {
       if (!this.issues.hasErrors)
         this.issues.error('empty-room', 'the room has no people; add at least one person (and ties between people)', { file });
@@ -199,11 +241,28 @@ export class RoomBuilder {
     return graph;
   }
 
+  /** Refuses a room whose weakest tie is beyond double precision next to its strongest. */
+  private checkStrengthRange(): void {
+    let weak: PendingTie | undefined;
+    let strong: PendingTie | undefined;
+    for (const t of this.ties.values()) {
+      if (!weak || t.strength < weak.strength) weak = t;
+      if (!strong || t.strength > strong.strength) strong = t;
+    }
+    if (!weak || !strong || weak.strength >= strong.strength * MIN_STRENGTH_RATIO) return;
+    const ratio = (weak.strength / strong.strength).toPrecision(2);
+    this.issues.error(
+      'strength-range',
+      `${weak.strength} is ${ratio} times the strongest tie (${strong.strength}, ${placeOf(strong.where)}); ` +
+        `below ${MIN_STRENGTH_RATIO} times, double precision cannot carry it: drop the weak tie or narrow the strengths`,
+      { ...weak.where, field: 'strength' },
+    );
+  }
+
   private readId(raw: unknown, where: IssueWhere): string | undefined {
     if (typeof raw === 'number' && Number.isFinite(raw)) return String(raw);
     if (typeof raw === 'string' && raw.trim() !== '') return this.trimIds ? raw.trim() : raw;
-    const shown =
-      raw === undefined ? 'missing' : raw === '' ? 'empty' : `${clip(JSON.stringify(raw) ?? String(raw))}, not a name or number`;
+    const shown = raw === undefined ? 'missing' : raw === '' ? 'empty' : `${shownValue(raw)}, not a name or number`;
     this.issues.error('bad-id', `the person id is ${shown}; every person needs an id`, { ...where, field: where.field ?? 'id' });
     return undefined;
   }
