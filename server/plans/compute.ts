@@ -200,7 +200,7 @@ export function runPlanner(task: PlannerTask, onProgress?: (fraction: number, se
         onProgress?.(f, search);
       }
     },
-  } as Parameters<typeof plan>[1]);
+  });
   const reach = exactReach(room, r.starters);
   return {
     methodUsed: r.method,

@@ -57,7 +57,7 @@
 export const PLAN_METHOD_CHOICES = ['auto', 'greedy', 'widened', 'swap', 'exhaustive'] as const;
 export type PlanMethodChoiceDto = (typeof PLAN_METHOD_CHOICES)[number];
 /** What was actually run ('auto' resolves to one of the engine's methods). */
-export type PlanMethodUsed = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy' | 'hand-made';
+export type PlanMethodUsed = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy' | 'screen' | 'hand-made';
 
 export const PLAN_LIMITS = {
   nameMax: 120,

@@ -46,6 +46,9 @@ import { BOUND_WORDS, fasterKnownLine, gapLine, methodLine, RANK_LINE } from './
           <dd class="line">
             Briefing only {{ s.name }}, the fastest single starter, gives {{ s.average | number: '1.1-1' }} hops on average; these
             {{ p.k }} starters cut that by {{ s.cut | percent: '1.0-0' }}.
+            @if (p.extras?.gainShare !== null && p.extras?.gainShare !== undefined) {
+              They achieve at least {{ p.extras!.gainShare | percent: '1.0-0' }} of the cut the best plan of this size could make.
+            }
           </dd>
         </div>
       }
