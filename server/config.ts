@@ -17,6 +17,8 @@ const schema = z.object({
     .regex(/^[A-Za-z0-9_]+$/)
     .default('ripplehall'),
   SESSION_SECRET: z.string().min(16).default('dev-only-session-secret-change-me'),
+  /** Key material for the sealed copies of participant links (server/participants/link-seal.ts). */
+  LINK_SECRET: z.string().min(16).default('dev-only-link-secret-change-me'),
   SESSION_IDLE_MINUTES: z.coerce.number().positive().default(30),
   SESSION_MAX_HOURS: z.coerce.number().positive().default(8),
   TRUST_PROXY: z
@@ -60,6 +62,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const config = parsed.data;
   if (config.NODE_ENV === 'production' && config.SESSION_SECRET.startsWith('dev-only')) {
     throw new Error('Invalid configuration: set SESSION_SECRET to a long random value in production.');
+  }
+  if (config.NODE_ENV === 'production' && config.LINK_SECRET.startsWith('dev-only')) {
+    throw new Error('Invalid configuration: set LINK_SECRET to a long random value in production (it seals participant links).');
   }
   return config;
 }

@@ -22,6 +22,8 @@ const answersBody = z.strictObject({
       }),
     )
     .max(NOMINATION_LIMIT_MAX * 5, 'That is far more names than any survey asks for.'),
+  /** The explicit "I talk to nobody here regularly" answer; an empty list needs it. */
+  nobody: z.boolean().default(false),
 });
 
 const claimBody = z.strictObject({ participantId: z.number().int().positive() });
@@ -47,7 +49,7 @@ participantRouter.post('/:token/consent', participantAccess, linkGuessLimit, req
 
 participantRouter.put('/:token/answers', participantAccess, linkGuessLimit, requireLink, async (req, res) => {
   const body = parse(answersBody, req.body, 'answers');
-  res.json(await saveSurvey(holderOf(res), body.version, body.nominations));
+  res.json(await saveSurvey(holderOf(res), body.version, body.nominations, body.nobody));
 });
 
 participantRouter.get('/:token/debrief', participantAccess, linkGuessLimit, requireLink, async (_req, res) => {

@@ -235,6 +235,7 @@ export function summaryOf(row: LoadedRehearsal | store.RehearsalListRow): Rehear
   const done = row.job.status === 'done';
   return {
     id: r.id,
+    number: Number(row.number),
     planId: r.planId,
     planName: row.planName,
     roomId: r.roomId,

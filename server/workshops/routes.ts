@@ -54,7 +54,10 @@ const peopleBody = z.strictObject({
 const rosterBody = z.strictObject({ csv: z.string().min(1, 'The file is empty.').max(2_000_000, 'The file is too large for a roster.') });
 const linksBody = z.strictObject({
   participantIds: z.array(z.number().int().positive()).max(ROSTER_MAX).optional(),
-  replace: z.boolean().default(true),
+});
+const reissueBody = z.strictObject({
+  participantIds: z.array(z.number().int().positive()).min(1, 'Choose whose links to reissue.').max(ROSTER_MAX),
+  confirm: z.literal(true, 'Reissuing ends the links these people already hold: confirm it with "confirm": true.'),
 });
 const revokeBody = z.strictObject({ participantIds: z.array(z.number().int().positive()).min(1).max(ROSTER_MAX) });
 const buildBody = z.strictObject({
@@ -113,7 +116,7 @@ workshopsRouter.patch('/:id', signedIn(), async (req, res) => {
 workshopsRouter.delete('/:id', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id'], 'own');
   await db.delete(workshops).where(eq(workshops.id, workshop.id));
-  await audit(req, { action: 'workshop.deleted', targetType: 'workshop', targetId: workshop.id });
+  await audit(req, { action: 'workshop.deleted', targetType: 'workshop', targetId: workshop.id, detail: { title: workshop.title } });
   res.status(204).end();
 });
 
@@ -137,15 +140,15 @@ workshopsRouter.delete('/:id/facilitators/:userId', signedIn(), async (req, res)
   res.status(204).end();
 });
 
+/** Answers with the workshop as it now is, so the page shows the new row without asking again. */
 workshopsRouter.post('/:id/participants', signedIn(), async (req, res) => {
-  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  const { workshop, owner } = await loadWorkshopFor(req.user, req.params['id']);
   const body = parse(peopleBody, req.body);
-  res.status(201).json(
-    await service.addParticipants(
-      workshop,
-      body.people.map((p) => ({ name: p.name, email: p.email ?? null, personId: null })),
-    ),
+  const result = await service.addParticipants(
+    workshop,
+    body.people.map((p) => ({ name: p.name, email: p.email ?? null, personId: null })),
   );
+  res.status(201).json({ ...result, workshop: await service.workshopDetail(workshop, owner) });
 });
 
 workshopsRouter.post('/:id/participants/roster', signedIn(), async (req, res) => {
@@ -186,7 +189,7 @@ workshopsRouter.post('/:id/participants/:pid/reset-claim', signedIn(), async (re
 workshopsRouter.post('/:id/links/email', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
   const body = parse(linksBody, req.body);
-  const result = await service.emailLinks(workshop, req.user!, body.participantIds, body.replace);
+  const result = await service.emailLinks(workshop, req.user!, body.participantIds);
   await audit(req, {
     action: 'workshop.links_emailed',
     targetType: 'workshop',
@@ -199,12 +202,24 @@ workshopsRouter.post('/:id/links/email', signedIn(), async (req, res) => {
 workshopsRouter.post('/:id/links/sheet', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
   const body = parse(linksBody, req.body);
-  res.set('Cache-Control', 'no-store').json(await service.sheetLinks(workshop, body.participantIds, body.replace));
+  const links = await service.sheetLinks(workshop, body.participantIds);
+  await audit(req, { action: 'workshop.links_printed', targetType: 'workshop', targetId: workshop.id, detail: { links: links.length } });
+  res.set('Cache-Control', 'no-store').json(links);
+});
+
+workshopsRouter.post('/:id/links/reissue', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  const body = parse(reissueBody, req.body);
+  const links = await service.reissueParticipantLinks(workshop, body.participantIds);
+  await audit(req, { action: 'workshop.links_reissued', targetType: 'workshop', targetId: workshop.id, detail: { links: links.length } });
+  res.set('Cache-Control', 'no-store').json(links);
 });
 
 workshopsRouter.post('/:id/links/revoke', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
-  res.json({ revoked: await service.revokeParticipantLinks(workshop, parse(revokeBody, req.body).participantIds) });
+  const revoked = await service.revokeParticipantLinks(workshop, parse(revokeBody, req.body).participantIds);
+  await audit(req, { action: 'workshop.links_revoked', targetType: 'workshop', targetId: workshop.id, detail: { links: revoked } });
+  res.json({ revoked });
 });
 
 workshopsRouter.post('/:id/join-code', signedIn(), async (req, res) => {

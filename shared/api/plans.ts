@@ -415,6 +415,8 @@ export interface AgreementVerdict {
 
 export interface RehearsalSummary {
   id: number;
+  /** Its number within the room: the room's first rehearsal is 1 (the id runs across all rooms). */
+  number: number;
   planId: number;
   planName: string;
   roomId: number;

@@ -12,6 +12,7 @@ import { SimulationPool } from '../../shared/engine/simulate/pool';
 import { planWithWorkers } from '../../shared/engine/parallel/index';
 import { plainCg, referenceSolveMs } from './bench-reference';
 import { sparseRoom } from './bench-rooms';
+import { certifyTables } from './bench-certify';
 
 interface Row {
   case: string;
@@ -68,6 +69,10 @@ async function main(): Promise<void> {
       .map((x) => x.toFixed(1))
       .join(' / ');
   log(`Ripplehall engine benchmark (Node ${process.version}, ${availableParallelism()} cores, load average ${load()})`);
+  if (process.env.BENCH_ONLY === 'certify') {
+    await certifyTables();
+    return;
+  }
 
   // 1. Exact reach, n = 300, dense.
   for (const directed of [false, true]) {
@@ -369,6 +374,7 @@ async function main(): Promise<void> {
     });
   }
   printTable('Scaling', scale);
+  await certifyTables();
   log(`bench total ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 }
 

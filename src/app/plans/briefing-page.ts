@@ -1,4 +1,4 @@
-import { DatePipe, DecimalPipe } from '@angular/common';
+import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -8,11 +8,12 @@ import { clockMinutes, clockProblem, clockTimes, DEFAULT_SEND_AT, formatClock } 
 import type { BriefingSheet } from '../../../shared/api/plans';
 import { toApiError } from '../core/api-error';
 import { PlansApi } from './plans-api';
+import { DateTimePipe } from '../core/date-format';
 
 /** The printable briefing sheet of a plan: whom to brief, in which order, and what to expect. */
 @Component({
   selector: 'app-briefing-page',
-  imports: [DatePipe, DecimalPipe, RouterLink, MatButtonModule, MatIconModule],
+  imports: [DateTimePipe, DecimalPipe, RouterLink, MatButtonModule, MatIconModule],
   templateUrl: './briefing-page.html',
   styleUrl: './briefing-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -248,7 +248,7 @@ export default class RehearsalPage {
     }
     this.detail.set(d.status === 'done' ? d : null);
     this.match.set(null);
-    if (d.status !== 'done') this.startError.set(`Rehearsal #${d.id} is ${d.status}: it has no results. ${d.message ?? ''}`);
+    if (d.status !== 'done') this.startError.set(`Rehearsal #${d.number} is ${d.status}: it has no results. ${d.message ?? ''}`);
     if (d.status === 'done' && d.rerunOf) {
       const original = await firstValueFrom(this.api.rehearsal(d.rerunOf));
       if (original.status === 'done') this.match.set(rerunMatch(original, d));
