@@ -15,7 +15,8 @@ import { endJob, findJob, lockJobStatus, markRunning, updateJob, type JobRow } f
 
 export interface JobContext {
   readonly signal: AbortSignal;
-  progress(fraction: number, done?: number, of?: number): void;
+  /** `extra` rides along on the progress event (a plan search's `search` report). */
+  progress(fraction: number, done?: number, of?: number, extra?: Pick<JobEvent, 'search'>): void;
 }
 
 export interface JobHandler {
@@ -104,7 +105,7 @@ class JobRunner {
       if (!(await markRunning(job.id))) return;
       slot.row = { ...slot.row, status: 'running', startedAt: new Date() };
       this.emit('started', slot.row);
-      const ctx: JobContext = { signal: slot.controller.signal, progress: (f, done, of) => this.progress(slot, f, done, of) };
+      const ctx: JobContext = { signal: slot.controller.signal, progress: (f, done, of, extra) => this.progress(slot, f, done, of, extra) };
       const commit = await handler.run(slot.row, ctx);
       if (slot.controller.signal.aborted) return;
       const finished = await db.transaction(async (tx) => {
@@ -128,7 +129,7 @@ class JobRunner {
     }
   }
 
-  private progress(slot: Running, fraction: number, done?: number, of?: number): void {
+  private progress(slot: Running, fraction: number, done?: number, of?: number, extra?: Pick<JobEvent, 'search'>): void {
     if (slot.controller.signal.aborted) return;
     const f = Math.max(slot.row.progress, Math.min(1, Math.max(0, fraction)));
     slot.row = { ...slot.row, progress: f };
@@ -136,7 +137,7 @@ class JobRunner {
     const final = done !== undefined && of !== undefined && done >= of;
     if (now - slot.lastEmit >= PROGRESS_EMIT_MS || final) {
       slot.lastEmit = now;
-      this.emit('progress', slot.row, { fraction: f, done, of });
+      this.emit('progress', slot.row, { fraction: f, done, of, ...extra });
     }
     if (now - slot.lastWrite >= PROGRESS_WRITE_MS) {
       slot.lastWrite = now;
