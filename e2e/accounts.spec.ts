@@ -9,6 +9,11 @@ test('an admin invites a facilitator, who sets a password from the e-mailed link
   await expect(page).toHaveURL(/\/admin\/accounts$/);
   await expect(page.getByRole('table', { name: 'Accounts' }).getByText(DEMO.facilitator.email)).toBeVisible();
   await keepScreenshot(page, 'admin-accounts');
+  // The only admin is not offered a role change on themself (the server would refuse it).
+  await page.getByRole('button', { name: `Actions for ${DEMO.admin.email}` }).click();
+  await expect(page.getByRole('menuitem', { name: 'Make facilitator' })).toHaveCount(0);
+  await expect(page.getByRole('menuitem', { name: /The only admin/ })).toBeDisabled();
+  await page.keyboard.press('Escape');
 
   // Invite through the dialog; the form says what is wrong before anything is sent.
   await page.getByRole('button', { name: 'Invite a facilitator' }).click();
@@ -38,6 +43,7 @@ test('an admin invites a facilitator, who sets a password from the e-mailed link
 
   await page.getByRole('tab', { name: /Audit log/ }).click();
   await expect(page.getByRole('row', { name: new RegExp(`Invited.*${email}`) })).toBeVisible();
+  await expect(page.getByRole('cell', { name: /workshop\.|account\./ })).toHaveCount(0);
   await keepScreenshot(page, 'admin-audit-log');
 
   // Sign out, then the invited person opens the link.

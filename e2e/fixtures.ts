@@ -1,11 +1,34 @@
 import { mkdirSync } from 'node:fs';
-import { test as base, expect, type Page } from '@playwright/test';
+import { test as base, expect, type BrowserContext, type Page } from '@playwright/test';
+import { AxeWatch } from './accessibility';
 
 /**
  * Every page in every test is watched: a Content-Security-Policy violation or a request to
- * any host other than the app's fails the test (nothing may load from outside the machine).
+ * any host other than the app's fails the test (nothing may load from outside the machine),
+ * and so does a serious or critical accessibility violation on any page visited, in any
+ * browser context the test opens (see accessibility.ts).
  */
-export const test = base.extend<{ guard: void }>({
+export const test = base.extend<{ guard: void; axe: void }>({
+  axe: [
+    async ({ context, browser }, use, testInfo) => {
+      // The time the checks take is added to the test's timeout, not taken from it.
+      const watch = new AxeWatch((ms) => testInfo.setTimeout(testInfo.timeout + ms));
+      const contexts: BrowserContext[] = [context];
+      watch.watchContext(context);
+      const newContext = browser.newContext.bind(browser);
+      browser.newContext = async (...args: Parameters<typeof newContext>) => {
+        const ctx = await newContext(...args);
+        contexts.push(ctx);
+        watch.watchContext(ctx);
+        return ctx;
+      };
+      await use();
+      browser.newContext = newContext;
+      await watch.finish(contexts);
+      expect(watch.violations, `accessibility (axe-core), serious or critical:\n${watch.violations.join('\n')}`).toEqual([]);
+    },
+    { auto: true, timeout: 180_000 },
+  ],
   guard: [
     async ({ page, baseURL }, use) => {
       const problems: string[] = [];

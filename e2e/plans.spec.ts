@@ -45,7 +45,7 @@ test('a facilitator plans, compares, rehearses, reproduces and prints the briefi
   const k = page.getByRole('spinbutton', { name: 'Budget k' });
   await k.fill('0');
   await k.blur();
-  await expect(page.getByText('Brief at least 1 person.')).toBeVisible();
+  await expect(page.getByText(`Brief at least 1 person: the budget is 1 to ${room.people - 1}.`)).toBeVisible();
   await k.fill(String(room.people));
   await k.blur();
   await expect(page.getByText(`At most ${room.people - 1} in a room of ${room.people}`)).toBeVisible();
@@ -97,7 +97,8 @@ test('a facilitator plans, compares, rehearses, reproduces and prints the briefi
   await expect(page.getByText(/Up to [\d,]+ \(server limit\)/)).toBeVisible();
   await page.getByRole('textbox', { name: 'Seed' }).fill('has space');
   await page.getByRole('textbox', { name: 'Seed' }).blur();
-  await expect(page.getByText('Use 1 to 64 letters, digits, - or _ (no spaces).')).toBeVisible();
+  await expect(page.getByText('A seed is 1 to 64 letters, digits, "-" or "_" (for example 2026-allhands), no spaces.')).toBeVisible();
+  await expect(page.getByRole('button', { name: 'Start rehearsal' })).toBeDisabled();
   await page.getByRole('textbox', { name: 'Seed' }).fill('allhands-2026');
   await page.getByRole('spinbutton', { name: 'Cascades' }).fill('5000');
   await watchProgress(page);
@@ -107,7 +108,7 @@ test('a facilitator plans, compares, rehearses, reproduces and prints the briefi
   await expect(verdict).toHaveText(/agree|disagree|differ/i);
   const progressSeen = await page.evaluate(() => (window as unknown as { rhProgress: string[] }).rhProgress);
   expect(progressSeen.length, 'the progress bar was shown').toBeGreaterThan(0);
-  await expect(page.locator('app-interval-chart canvas')).toBeVisible();
+  await expect(page.locator('app-interval-chart .plot')).toBeVisible();
   await expect(page.locator('app-rehearsal-result app-reach-chart canvas')).toBeVisible();
   const facts = page.locator('app-rehearsal-result .facts');
   await expect(facts).toContainText('5,000 · allhands-2026');
@@ -164,8 +165,8 @@ test('a hand-made plan gets the same scores as a computed one', async ({ page })
   await page.goto(`/rooms/${room.id}/plans`);
   await page.getByRole('radio', { name: 'Pick them myself' }).click();
   await expect(page.getByText('Pick at least one starter.')).toHaveCount(0);
-  await page.getByRole('button', { name: 'Score my starters' }).click();
-  await expect(page.getByText('Pick at least one starter.')).toBeVisible();
+  await expect(page.getByRole('button', { name: 'Score my starters' })).toBeDisabled();
+  await expect(page.getByText('Pick at least one starter to continue.')).toBeVisible();
   const pick = page.getByLabel('Starters: search people');
   for (let i = 0; i < 2; i++) {
     await pick.click();
@@ -208,6 +209,6 @@ test('the plan form explains conflicting constraints before anything is sent', a
   page.on('request', (r) => {
     if (r.method() === 'POST' && r.url().endsWith('/plans')) posted = true;
   });
-  await page.getByRole('button', { name: 'Find the starters' }).click();
+  await expect(page.getByRole('button', { name: 'Find the starters' })).toBeDisabled();
   expect(posted).toBe(false);
 });

@@ -27,6 +27,8 @@ async function waitSaved(page: Page) {
 }
 
 test('build a room with the seating builder, then move and tie people on the map', async ({ page }) => {
+  // A long flow of many steps: room for a loaded machine.
+  test.setTimeout(180_000);
   await signIn(page, DEMO.facilitator);
   await page.goto('/rooms');
   await page.getByRole('link', { name: /From a seating plan/ }).click();
@@ -145,6 +147,7 @@ test('build a room with the seating builder, then move and tie people on the map
 });
 
 test('import a CSV with errors, read the row errors, fix and commit; export GraphML and import it again', async ({ page }) => {
+  test.setTimeout(180_000);
   await signIn(page, DEMO.facilitator);
   await page.goto('/rooms');
   await page.getByRole('button', { name: 'New room' }).click();

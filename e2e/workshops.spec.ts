@@ -57,10 +57,15 @@ async function rehearse(page: Page, roomId: number, k: number, seed: string, run
   return id;
 }
 
-async function answer(phone: BrowserContext, path: string, picks: string[]) {
+async function answer(phone: BrowserContext, path: string, picks: string[], tryEmptyFirst = false) {
   const p = await phone.newPage();
   await p.goto(path);
   await p.getByRole('button', { name: 'I have read this and want to answer' }).click();
+  if (tryEmptyFirst) {
+    // An empty answer is refused on the page (and by the server): a name or the explicit "nobody" choice.
+    await p.getByRole('button', { name: 'Send my answers' }).click();
+    await expect(p.getByText('Pick at least one person you ask')).toBeVisible();
+  }
   for (const name of picks) await p.getByRole('button', { name, exact: true }).click();
   await p.getByRole('button', { name: 'Send my answers' }).click();
   await expect(p.getByText('your answers are saved')).toBeVisible();
@@ -76,9 +81,13 @@ test('a facilitator runs a workshop from survey links to the debrief', async ({ 
   await page.getByRole('button', { name: 'Create workshop' }).click();
   await expect(page.getByRole('heading', { name: 'Harbour office all-hands rehearsal' })).toBeVisible();
   const workshopId = Number(/\/workshops\/(\d+)/.exec(page.url())![1]);
+  // With nobody on the list there is nothing to send or build yet.
+  await expect(page.getByRole('button', { name: 'E-mail links' })).toBeDisabled();
+  await expect(page.getByRole('button', { name: 'Build the room' })).toBeDisabled();
 
   await page.getByLabel('Upload a roster CSV').setInputFiles({ name: 'roster.csv', mimeType: 'text/csv', buffer: Buffer.from(ROSTER) });
   await expect(page.getByRole('cell', { name: 'Edda Prinn', exact: true })).toBeVisible();
+  await expect(page.getByRole('button', { name: 'Build the room' })).toBeEnabled();
   await page.getByRole('button', { name: 'Open the survey' }).click();
   await page.getByRole('button', { name: 'E-mail links' }).click();
   await expect(page.getByText(/Sent to 4\./)).toBeVisible();
@@ -99,7 +108,47 @@ test('a facilitator runs a workshop from survey links to the debrief', async ({ 
   await ada.getByRole('button', { name: 'Send my answers' }).click();
   await expect(ada.getByText('your answers are saved')).toBeVisible();
 
-  await answer(phone, await mailLink('bram.osterfeld@example.test'), ['Ada Quillon', 'Cleo Marwick']);
+  // Printing a sheet and e-mailing again show the same links: Ada's e-mailed link keeps working.
+  await page.getByRole('button', { name: 'Print a sheet' }).click();
+  await expect(page.getByRole('heading', { name: 'Ada Quillon' })).toBeVisible();
+  await expect(page.getByText(`${new URL(page.url()).origin}${adaPath}`)).toBeVisible();
+  await keepScreenshot(page, 'workshop-link-sheet');
+  await page.getByRole('link', { name: 'Back' }).click();
+  // Edda's printed slip is not handed out: her link is ended, so she can pick her name by QR code.
+  await page.getByRole('button', { name: 'End the link of Edda Prinn' }).click();
+  await page.getByRole('dialog').getByRole('button', { name: 'End the link' }).click();
+  await expect(page.getByRole('row', { name: /Edda Prinn/ })).toContainText('none yet');
+  await page.getByRole('button', { name: 'E-mail links' }).click();
+  await expect(page.getByText(/Sent to 4\./)).toBeVisible();
+  expect(await mailLink('ada.quillon@example.test')).toBe(adaPath);
+  await ada.reload();
+  await expect(ada.getByText('your answers are saved')).toHaveCount(0);
+  await expect(ada.getByRole('button', { name: 'Save my changes' })).toBeVisible();
+
+  // Dov's link is reissued (lost phone): a confirmed action that ends only his link.
+  const dovOld = await mailLink('dov.tallis@example.test');
+  await page.getByRole('checkbox', { name: 'Choose Dov Tallis' }).check();
+  await page.getByRole('button', { name: 'Reissue their links' }).click();
+  const dialog = page.getByRole('dialog');
+  await expect(dialog).toContainText('Everyone else keeps their link');
+  await keepScreenshot(page, 'workshop-reissue-confirm');
+  await dialog.getByRole('button', { name: 'Cancel' }).click();
+  const check = await phone.newPage();
+  await check.goto(dovOld);
+  await expect(check.getByRole('button', { name: 'I have read this and want to answer' })).toBeVisible();
+  await page.getByRole('button', { name: 'Reissue their links' }).click();
+  await page.getByRole('dialog').getByRole('button', { name: 'Reissue the link' }).click();
+  await expect(page.getByText(/New link for Dov Tallis/)).toBeVisible();
+  await check.reload();
+  await expect(check.getByText('This link does not work')).toBeVisible();
+  await check.goto(adaPath);
+  await expect(check.getByRole('heading', { name: 'Hello, Ada Quillon' })).toBeVisible();
+  await check.close();
+  await page.getByRole('button', { name: 'E-mail links' }).click();
+  await expect(page.getByText(/Sent to 4\./)).toBeVisible();
+  expect(await mailLink('dov.tallis@example.test')).not.toBe(dovOld);
+
+  await answer(phone, await mailLink('bram.osterfeld@example.test'), ['Ada Quillon', 'Cleo Marwick'], true);
   await answer(phone, await mailLink('cleo.marwick@example.test'), ['Dov Tallis', 'Bram Osterfeld']);
   await answer(phone, await mailLink('dov.tallis@example.test'), ['Cleo Marwick']);
 
@@ -126,6 +175,15 @@ test('a facilitator runs a workshop from survey links to the debrief', async ({ 
   await page.getByRole('link', { name: 'Back to the workshop' }).click();
   await expect(page.getByTestId('answered')).toContainText('5 of 5 answered');
   await page.getByRole('button', { name: 'Close the survey and run' }).click();
+  await expect(page.getByRole('dialog')).toContainText('Everyone has answered');
+  await page.getByRole('dialog').getByRole('button', { name: 'Close the survey' }).click();
+  await expect(page.getByRole('button', { name: 'Reopen the survey' })).toBeVisible();
+  // The QR code's join page now says so and takes no names.
+  const late = await phone.newPage();
+  await late.goto(joinPath);
+  await expect(late.getByRole('heading', { name: 'The survey is closed' })).toBeVisible();
+  await expect(late.getByRole('button', { name: /Ada Quillon/ })).toBeHidden();
+  await late.close();
   await page.getByRole('button', { name: 'Build the room' }).click();
   await expect(page.getByText(/The room now has 5 people and \d+ ties/)).toBeVisible();
   const roomId = Number(/\/rooms\/(\d+)/.exec((await page.getByRole('link', { name: 'Open the room' }).getAttribute('href'))!)![1]);
@@ -220,4 +278,16 @@ test('the replay stays smooth at 300 people and keeps working offline', async ({
   await expect(page.getByTestId('reached')).toHaveText(/\d+/);
   await keepScreenshot(page, 'workshop-replay-300');
   await page.context().setOffline(false);
+});
+
+test('a participant who opens /p without the rest of the link is told how to reach their page', async ({ browser }) => {
+  const phone = await browser.newContext({ viewport: PHONE, isMobile: true, hasTouch: true });
+  const p = await phone.newPage();
+  await p.goto('/p');
+  await expect(p.getByRole('heading', { name: 'Open your personal link' })).toBeVisible();
+  await p.getByLabel('Your link').fill('http://example.test/p/too-short');
+  await p.getByRole('button', { name: 'Open' }).click();
+  await expect(p.getByRole('alert')).toContainText('not a whole personal link');
+  await keepScreenshot(p, 'participant-link-help-phone');
+  await phone.close();
 });

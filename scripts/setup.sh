@@ -18,8 +18,24 @@ if [ ${#need_pkgs[@]} -gt 0 ]; then
     exit 1
   fi
   export DEBIAN_FRONTEND=noninteractive
-  apt-get update -qq
-  apt-get install -y -qq --no-install-recommends "${need_pkgs[@]}" >/dev/null
+  # Another apt-get or unattended upgrade may hold the dpkg lock: wait for it (up to 10 minutes)
+  # instead of failing at once.
+  apt_wait() {
+    local out
+    for attempt in $(seq 1 120); do
+      if out=$(apt-get -o DPkg::Lock::Timeout=5 "$@" 2>&1); then return 0; fi
+      if ! grep -qiE 'could not get lock|unable to lock|lock-frontend|is another process using it' <<<"$out"; then
+        echo "$out" >&2
+        return 1
+      fi
+      [ "$attempt" -eq 1 ] && echo "Another program is installing packages (the dpkg lock is taken); waiting for it to finish..."
+      sleep 5
+    done
+    echo "The dpkg lock stayed taken for 10 minutes; finish the other installation, then run this again." >&2
+    return 1
+  }
+  apt_wait update -qq
+  apt_wait install -y -qq --no-install-recommends "${need_pkgs[@]}" >/dev/null
   # The Debian package starts a system server on 3306; ours runs privately, so stop that one.
   # The same for Redis on 6379.
   (service mariadb stop >/dev/null 2>&1 || true)

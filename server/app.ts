@@ -1,7 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import { existsSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import express, { type Express, type Request, type Response } from 'express';
+import express, { type Express, type NextFunction, type Request, type Response } from 'express';
 import cookieParser from 'cookie-parser';
 import helmet from 'helmet';
 import { config } from './config';
@@ -51,11 +51,18 @@ export function createApp(): Express {
   app.use(requestLogger);
   app.use(express.json({ limit: '2mb' }));
   app.use(cookieParser());
+  // Every API answer may carry personal data (accounts, people, briefings): never cache it.
+  app.use('/api', noStore);
   app.use('/api', sessionMiddleware(secure), absoluteLifetime, currentUser, csrfProtection(config.SESSION_SECRET, secure));
   app.use('/api', apiRouter());
   serveClient(app);
   app.use(errorHandler);
   return app;
+}
+
+function noStore(_req: Request, res: Response, next: NextFunction) {
+  res.set('Cache-Control', 'no-store');
+  next();
 }
 
 /** The built Angular app, with the CSP nonce written into index.html on every request. */

@@ -16,7 +16,15 @@ const schema = z.object({
     .string()
     .regex(/^[A-Za-z0-9_]+$/)
     .default('ripplehall'),
+  /** Pooled database connections per process. */
+  DB_POOL_SIZE: z.coerce.number().int().min(2).max(200).default(20),
+  /** How long a request waits for a free database connection before answering 503. */
+  DB_ACQUIRE_TIMEOUT_MS: z.coerce.number().int().min(100).default(5000),
+  /** MariaDB max_statement_time for every pooled connection, in seconds (0 = no limit). */
+  DB_STATEMENT_SECONDS: z.coerce.number().min(0).default(10),
   SESSION_SECRET: z.string().min(16).default('dev-only-session-secret-change-me'),
+  /** Key material for the sealed copies of participant links (server/participants/link-seal.ts). */
+  LINK_SECRET: z.string().min(16).default('dev-only-link-secret-change-me'),
   SESSION_IDLE_MINUTES: z.coerce.number().positive().default(30),
   SESSION_MAX_HOURS: z.coerce.number().positive().default(8),
   TRUST_PROXY: z
@@ -36,13 +44,23 @@ const schema = z.object({
     .transform((v) => v === 'true'),
   ADMIN_EMAIL: z.string().email().default('admin@ripplehall.local'),
   ADMIN_PASSWORD: z.string().min(10).default('admin-demo-2026'),
+  /** Failed sign-ins per account (or known device) before the back-off starts. */
   RATE_LIMIT_SIGNIN_PER_15MIN: z.coerce.number().int().positive().default(10),
+  /** Failed sign-ins per account in 15 minutes, over all addresses (NIST SP 800-63B 5.2.2: at most 100). */
+  SIGNIN_ACCOUNT_MAX_FAILURES: z.coerce.number().int().min(1).max(100).default(100),
   RATE_LIMIT_IP_PER_15MIN: z.coerce.number().int().positive().default(100),
   /** Password-reset requests per account and address (the per-address cap is RATE_LIMIT_IP_PER_15MIN). */
   RATE_LIMIT_RESET_PER_15MIN: z.coerce.number().int().positive().default(5),
   /** Failed participant-link lookups per address (made-up, expired or revoked links). */
   RATE_LIMIT_LINK_PER_15MIN: z.coerce.number().int().positive().default(30),
-  MAX_ROOM_PEOPLE: z.coerce.number().int().positive().default(5000),
+  /** People in one imported room (rooms built by hand keep the lower limit of the screens). */
+  MAX_ROOM_PEOPLE: z.coerce.number().int().positive().default(100000),
+  /** Ties in one imported room. */
+  MAX_ROOM_TIES: z.coerce.number().int().positive().default(1000000),
+  /** Memory cap of the thread that reads one upload, in MB. */
+  IMPORT_WORKER_MB: z.coerce.number().int().min(32).default(512),
+  /** Edit batches, imports and rooms created with content that one account may run at once. */
+  MAX_HEAVY_WRITES_PER_USER: z.coerce.number().int().min(1).default(2),
   MAX_CASCADES: z.coerce.number().int().positive().default(100000),
   MAX_JOBS_PER_USER: z.coerce.number().int().positive().default(2),
   WORKERS: z.coerce.number().int().min(1).max(16).default(2),
@@ -82,6 +100,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   if (config.NODE_ENV === 'production' && config.SESSION_SECRET.startsWith('dev-only')) {
     throw new Error('Invalid configuration: set SESSION_SECRET to a long random value in production.');
   }
+  if (config.NODE_ENV === 'production' && config.LINK_SECRET.startsWith('dev-only')) {
+    throw new Error('Invalid configuration: set LINK_SECRET to a long random value in production (it seals participant links).');
+  }
   return config;
 }
 
@@ -93,4 +114,17 @@ export function redisUrl(): string {
 
 export function publicUrl(): string {
   return config.PUBLIC_URL ?? `http://${config.HOST === '0.0.0.0' ? '127.0.0.1' : config.HOST}:${config.PORT}`;
+}
+
+/** Settings that work but probably not as meant: printed once at start-up. */
+export function startupWarnings(c: Config = config): string[] {
+  const warnings: string[] = [];
+  if ((c.PUBLIC_URL ?? '').startsWith('https://') && !c.TRUST_PROXY) {
+    warnings.push(
+      `PUBLIC_URL is ${c.PUBLIC_URL}, so session cookies are marked Secure, but TRUST_PROXY is not true: this server ` +
+        'speaks plain http and browsers reaching it directly will not keep the session cookie (sign-in appears to do nothing). ' +
+        'Put a TLS proxy in front and set TRUST_PROXY=true, or use an http:// PUBLIC_URL.',
+    );
+  }
+  return warnings;
 }

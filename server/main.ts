@@ -3,16 +3,22 @@
  * `npm run worker`, so one machine needs one process and several machines use the same code).
  */
 import { createServer } from 'node:http';
-import { config, publicUrl } from './config';
+import { config, publicUrl, startupWarnings } from './config';
 import { createApp } from './app';
 import { logger } from './core/logging';
 import { installProcessGuards } from './core/process-guards';
-import { pool } from './db';
+import { checkDatabase, pool } from './db';
 import { closeLimiterStore } from './auth/limiter-store';
 import { startMail, stopMail } from './mail/transport';
 import { startJobs, stopJobs } from './jobs/index';
 
 installProcessGuards();
+for (const warning of startupWarnings()) logger.warn(warning);
+const unreachable = await checkDatabase();
+if (unreachable) {
+  console.error(unreachable);
+  process.exit(1);
+}
 const server = createServer(createApp());
 
 server.on('error', (err: NodeJS.ErrnoException) => {

@@ -4,3 +4,4 @@ export * from './mail';
 export * from './rooms';
 export * from './workshops';
 export * from './plans';
+export * from './plan-bounds';

@@ -23,6 +23,22 @@ export interface StoredStarter {
   group: string | null;
 }
 
+export interface StoredAbsence {
+  expectedTotal: number;
+  nobodyChance: number;
+  worstAbsence: { personId: number; name: string; total: number } | null;
+  standIns: { personId: number; name: string; standInId: number | null; standInName: string | null; total: number | null }[];
+}
+
+export interface StoredPlanExtras {
+  bestSingle: { personId: number; name: string; total: number } | null;
+  gainShare: number | null;
+  nodes: number | null;
+  searchLeft: number | null;
+  stopped: boolean;
+  fewestForOneHop: number | null;
+}
+
 export const jobKinds = ['plan', 'rehearsal'] as const;
 export const jobStatuses = ['queued', 'running', 'done', 'failed', 'cancelled', 'interrupted'] as const;
 export const planStatuses = ['computing', 'ready', 'failed', 'cancelled', 'interrupted'] as const;
@@ -91,6 +107,12 @@ export const plans = mysqlTable(
     gap: double('gap'),
     certified: boolean('certified').notNull().default(false),
     coverSize: int('cover_size'),
+    /** Chance (0..0.5) that a starter does not show up; 0 or null: the plain objective. */
+    noShow: double('no_show'),
+    /** No-show results ({ expectedTotal, nobodyChance, worstAbsence, standIns }), null without a no-show chance. */
+    absence: json('absence').$type<StoredAbsence>(),
+    /** Search and reading aids ({ bestSingle, gainShare, nodes, searchLeft, stopped, fewestForOneHop }); null for older plans. */
+    extras: json('extras').$type<StoredPlanExtras>(),
     elapsedMs: double('elapsed_ms'),
     people: int('people', { unsigned: true }).notNull(),
     roomVersion: int('room_version', { unsigned: true }).notNull(),

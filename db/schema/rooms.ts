@@ -16,6 +16,8 @@ export const rooms = mysqlTable(
     minutesPerHop: double('minutes_per_hop').notNull().default(5),
     laziness: double('laziness').notNull().default(0),
     mixing: double('mixing').notNull().default(0),
+    /** Set by an org-chart import: the CSV headers (JSON), so the export writes the same file back. */
+    orgChart: text('org_chart'),
     version: int('version', { unsigned: true }).notNull().default(1),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
@@ -38,6 +40,8 @@ export const people = mysqlTable(
     x: double('x'),
     y: double('y'),
     pinned: boolean('pinned').notNull().default(false),
+    /** The person key of this person's manager, from an org-chart import (null otherwise). */
+    managerKey: varchar('manager_key', { length: 64 }),
     orderIndex: int('order_index').notNull(),
   },
   (t) => [uniqueIndex('people_room_key_uq').on(t.roomId, t.personKey), index('people_room_order_idx').on(t.roomId, t.orderIndex)],

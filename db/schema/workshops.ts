@@ -66,7 +66,11 @@ export const workshopParticipants = mysqlTable(
   (t) => [uniqueIndex('workshop_participants_name_uq').on(t.workshopId, t.name)],
 );
 
-/** Personal links. Only the SHA-256 of the token is stored; the token itself is shown once. */
+/**
+ * Personal links. A link is found by the SHA-256 of its token; `token_sealed` keeps an
+ * AES-256-GCM copy under LINK_SECRET so the same link can be printed or e-mailed again
+ * (server/participants/link-seal.ts). Null on links issued before sealing existed.
+ */
 export const participantLinks = mysqlTable(
   'participant_links',
   {
@@ -75,6 +79,7 @@ export const participantLinks = mysqlTable(
       .notNull()
       .references(() => workshopParticipants.id, { onDelete: 'cascade' }),
     tokenHash: varchar('token_hash', { length: 64 }).notNull(),
+    tokenSealed: varchar('token_sealed', { length: 128 }),
     channel: mysqlEnum('channel', ['email', 'sheet', 'join']).notNull(),
     expiresAt: timestamp('expires_at', { fsp: 3 }).notNull(),
     revokedAt: timestamp('revoked_at', { fsp: 3 }),

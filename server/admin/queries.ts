@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { idParam } from '../core/ids';
 
 /** Query and path schemas shared by the admin routes. */
 export const pageFields = {
@@ -6,4 +7,5 @@ export const pageFields = {
   size: z.coerce.number().int().min(1).max(100).default(25),
 };
 export const pageQuery = z.strictObject(pageFields);
-export const idParams = z.strictObject({ id: z.coerce.number().int().positive().max(Number.MAX_SAFE_INTEGER) });
+/** Strict ids (server/core/ids.ts): `0x1` or `1e0` answer 404 instead of resolving to 1. */
+export const idParams = z.strictObject({ id: idParam('That item') });

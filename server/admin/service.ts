@@ -17,7 +17,7 @@ import { findUserByEmail, findUserById, updateUser, type UserRow } from '../auth
 import { issueToken, latestInvites, revokeTokens, type TokenRow } from '../auth/tokens';
 import { appLink, invitationMail, resetMail } from '../mail/templates';
 import { sendMail, type OutgoingMail } from '../mail/transport';
-import { insertInvitedUser, listAccounts, lockActiveAdmins, type PageQuery } from './store';
+import { activeAdminIds, insertInvitedUser, listAccounts, lockActiveAdmins, type PageQuery } from './store';
 
 /** Account administration: invitations, status, roles. The last active admin always stays. */
 
@@ -33,7 +33,7 @@ function invitationState(user: UserRow, token: TokenRow | undefined): Invitation
 
 export async function accountPage(q: PageQuery & { sort: AccountSortKey; dir: 'asc' | 'desc'; filter: string }): Promise<Page<AccountRow>> {
   const { rows, total } = await listAccounts(q);
-  const invites = await latestInvites(rows.map((r) => r.id));
+  const [invites, admins] = await Promise.all([latestInvites(rows.map((r) => r.id)), activeAdminIds()]);
   const items = rows.map((u): AccountRow => {
     const token = invites.get(u.id);
     const state = invitationState(u, token);
@@ -47,6 +47,7 @@ export async function accountPage(q: PageQuery & { sort: AccountSortKey; dir: 'a
       invitationExpiresAt: state === 'pending' || state === 'expired' ? token!.expiresAt.toISOString() : null,
       lastSignInAt: u.lastSignInAt?.toISOString() ?? null,
       createdAt: u.createdAt.toISOString(),
+      lastAdmin: admins.length === 1 && admins[0] === u.id,
     };
   });
   return { items, total, page: q.page, size: q.size };

@@ -2,6 +2,8 @@ import { and, asc, count, desc, eq, like, or, sql, type SQL } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/mysql-core';
 import { auditLog, users } from '../../db/schema/accounts';
 import { mailMessages } from '../../db/schema/mail';
+import { rooms } from '../../db/schema/rooms';
+import { workshops } from '../../db/schema/workshops';
 import type { AccountRole, AccountSortKey } from '../../shared/api/accounts';
 import { db, type Tx } from '../db';
 
@@ -48,41 +50,65 @@ export async function lockActiveAdmins(tx: Tx): Promise<number[]> {
   return rows.map((r) => r.id);
 }
 
+export async function activeAdminIds(): Promise<number[]> {
+  const rows = await db
+    .select({ id: users.id })
+    .from(users)
+    .where(and(eq(users.role, 'admin'), eq(users.status, 'active')));
+  return rows.map((r) => r.id);
+}
+
 export async function insertInvitedUser(tx: Tx, email: string, name: string, role: AccountRole): Promise<number> {
   const [{ id }] = await tx.insert(users).values({ email, name, role, status: 'invited' }).$returningId();
   return id;
 }
 
 const target = alias(users, 'target');
+const owner = alias(users, 'owner');
 
+/**
+ * The audit log, newest first. What an entry concerns is named for a reader: the account for
+ * account actions; for workshop and room actions the workshop's title or room's name and the
+ * account it belongs to (a deleted one falls back to the title kept in the entry's detail).
+ */
 export async function listAudit(q: PageQuery & { filter: string }) {
-  const where = q.filter
-    ? or(like(auditLog.action, contains(q.filter)), like(auditLog.actorEmail, contains(q.filter)), like(target.email, contains(q.filter)))
-    : undefined;
   const joined = sql`${target.id} = CAST(${auditLog.targetId} AS UNSIGNED)`;
-  const rows = await db
-    .select({
-      id: auditLog.id,
-      createdAt: auditLog.createdAt,
-      actorEmail: auditLog.actorEmail,
-      action: auditLog.action,
-      targetType: auditLog.targetType,
-      targetId: auditLog.targetId,
-      targetEmail: target.email,
-      detail: auditLog.detail,
-      ip: auditLog.ip,
-    })
-    .from(auditLog)
-    .leftJoin(target, and(eq(auditLog.targetType, 'user'), joined))
-    .where(where)
+  const ownerId = sql`coalesce(${workshops.ownerId}, ${rooms.ownerId})`;
+  const where = q.filter
+    ? or(
+        like(auditLog.action, contains(q.filter)),
+        like(auditLog.actorEmail, contains(q.filter)),
+        like(target.email, contains(q.filter)),
+        like(owner.email, contains(q.filter)),
+        like(workshops.title, contains(q.filter)),
+        like(rooms.name, contains(q.filter)),
+      )
+    : undefined;
+  const base = () =>
+    db
+      .select({
+        id: auditLog.id,
+        createdAt: auditLog.createdAt,
+        actorEmail: auditLog.actorEmail,
+        action: auditLog.action,
+        targetType: auditLog.targetType,
+        targetId: auditLog.targetId,
+        targetEmail: sql<string | null>`coalesce(${target.email}, ${owner.email})`,
+        targetLabel: sql<string | null>`coalesce(${workshops.title}, ${rooms.name})`,
+        detail: auditLog.detail,
+        ip: auditLog.ip,
+      })
+      .from(auditLog)
+      .leftJoin(target, and(eq(auditLog.targetType, 'user'), joined))
+      .leftJoin(workshops, and(eq(auditLog.targetType, 'workshop'), sql`${workshops.id} = CAST(${auditLog.targetId} AS UNSIGNED)`))
+      .leftJoin(rooms, and(eq(auditLog.targetType, 'room'), sql`${rooms.id} = CAST(${auditLog.targetId} AS UNSIGNED)`))
+      .leftJoin(owner, sql`${owner.id} = ${ownerId}`)
+      .where(where);
+  const rows = await base()
     .orderBy(desc(auditLog.id))
     .limit(q.size)
     .offset(q.page * q.size);
-  const [{ total }] = await db
-    .select({ total: count() })
-    .from(auditLog)
-    .leftJoin(target, and(eq(auditLog.targetType, 'user'), joined))
-    .where(where);
+  const [{ total }] = await db.select({ total: count() }).from(base().as('matching'));
   return { rows, total };
 }
 

@@ -1,12 +1,13 @@
 /**
- * Where the rate limiters and the sign-in back-off keep their counters: Redis (rate-limit-redis),
- * so every web process counts the same attempts. The connection fails fast instead of queueing
- * commands for long while Redis is away; the limiters let requests through then (passOnStoreError), since
- * locking everyone out during a Redis restart would be worse than a few seconds without limits.
- * Under NODE_ENV=test each test process counts on its own (keys carry the pid), as with the
- * in-memory counters of one process.
+ * The one place that makes the counter stores behind every rate limit and back-off
+ * (server/auth/rate-limits.ts, server/auth/failure-counter.ts). Each caller gets its own store;
+ * `prefix` names the counter. The counters live in Redis (rate-limit-redis), so every web
+ * process counts the same attempts. While Redis is away the stores fail open (nothing counted,
+ * nobody blocked) instead of failing the request: locking everyone out during a Redis restart
+ * would be worse than a few seconds without limits. Under NODE_ENV=test each test process counts
+ * on its own (keys carry the pid), as the in-memory counters of one process did.
  */
-import type { Store, IncrementResponse, ClientRateLimitInfo } from 'express-rate-limit';
+import type { ClientRateLimitInfo, IncrementResponse, Options, Store } from 'express-rate-limit';
 import { Redis } from 'ioredis';
 import { RedisStore } from 'rate-limit-redis';
 import { config, redisUrl } from '../config';
@@ -27,7 +28,7 @@ function redis(): Redis {
   return conn;
 }
 
-/** A RedisStore that loads its scripts again after a failure (Redis was down when it started). */
+/** A RedisStore that fails open and loads its scripts again after a failure. */
 class LimiterStore extends RedisStore {
   override async init(options: Parameters<RedisStore['init']>[0]): Promise<void> {
     await super.init(options).catch(() => undefined);
@@ -43,19 +44,27 @@ class LimiterStore extends RedisStore {
   override async increment(key: string): Promise<IncrementResponse> {
     try {
       return await super.increment(key);
-    } catch (err) {
+    } catch {
       this.reload();
-      throw err;
+      return { totalHits: 0, resetTime: undefined };
     }
   }
 
   override async get(key: string): Promise<ClientRateLimitInfo | undefined> {
     try {
       return await super.get(key);
-    } catch (err) {
+    } catch {
       this.reload();
-      throw err;
+      return undefined;
     }
+  }
+
+  override async decrement(key: string): Promise<void> {
+    await super.decrement(key).catch(() => undefined);
+  }
+
+  override async resetKey(key: string): Promise<void> {
+    await super.resetKey(key).catch(() => undefined);
   }
 }
 
@@ -65,6 +74,13 @@ export function createLimiterStore(prefix: string): Store {
     prefix: `${QUEUE_PREFIX}:rl:${scope}${prefix}:`,
     sendCommand: (command: string, ...args: string[]) => redis().call(command, ...args) as Promise<never>,
   });
+}
+
+/** A store ready for direct use (outside a rateLimit middleware, which calls init itself). */
+export function initialisedStore(prefix: string, windowMs: number): Store {
+  const store = createLimiterStore(prefix);
+  void store.init?.({ windowMs } as Options);
+  return store;
 }
 
 export async function closeLimiterStore(): Promise<void> {

@@ -3,37 +3,66 @@ import type { NextFunction, Request, Response } from 'express';
 import { HttpError } from './http-error';
 
 /**
- * Signed double-submit cookie (OWASP CSRF cheat sheet), in Angular's naming convention:
- * the server sets a readable XSRF-TOKEN cookie; Angular's HttpClient echoes it in the
- * X-XSRF-TOKEN header on every state-changing request. The token carries an HMAC so a
- * cookie planted by a sibling subdomain cannot be forged. Stateless, so it survives the
- * session id regeneration at sign-in.
+ * Signed double-submit cookie bound to the session (OWASP CSRF Prevention Cheat Sheet,
+ * "Signed Double-Submit Cookie"), in Angular's naming convention: the server sets a readable
+ * XSRF-TOKEN cookie; Angular's HttpClient echoes it in the X-XSRF-TOKEN header on every
+ * state-changing request. The token is `nonce.HMAC(secret, binding | nonce)`, where the binding
+ * is the session id of a signed-in session (and a fixed anonymous binding before sign-in), so
+ * a token minted for one session is refused with any other. Sign-in and sign-out rotate it.
  */
 export const CSRF_COOKIE = 'XSRF-TOKEN';
 export const CSRF_HEADER = 'x-xsrf-token';
 const SAFE = new Set(['GET', 'HEAD', 'OPTIONS']);
+const ANONYMOUS = 'anonymous';
 
-export function csrfProtection(secret: string, secure: boolean) {
-  const sign = (nonce: string) => createHmac('sha256', secret).update(nonce).digest('base64url');
-  const valid = (token: unknown): token is string => {
-    if (typeof token !== 'string') return false;
-    const [nonce, mac] = token.split('.');
-    if (!nonce || !mac) return false;
-    const expected = Buffer.from(sign(nonce));
+/** What the token of this request must be bound to. */
+function bindingOf(req: Request): string {
+  return req.session?.userId ? `session:${req.sessionID}` : ANONYMOUS;
+}
+
+export interface Csrf {
+  middleware: (req: Request, res: Response, next: NextFunction) => void;
+  /** Sets a fresh token for the request's current session (call after sign-in and sign-out). */
+  rotate: (req: Request, res: Response) => void;
+}
+
+export function createCsrf(secret: string, secure: boolean): Csrf {
+  const sign = (binding: string, nonce: string) => createHmac('sha256', secret).update(`${binding}|${nonce}`).digest('base64url');
+  const valid = (token: unknown, binding: string): token is string => {
+    if (typeof token !== 'string' || token.length > 200) return false;
+    const [nonce, mac, extra] = token.split('.');
+    if (!nonce || !mac || extra !== undefined) return false;
+    const expected = Buffer.from(sign(binding, nonce));
     const given = Buffer.from(mac);
     return expected.length === given.length && timingSafeEqual(expected, given);
   };
-  return (req: Request, res: Response, next: NextFunction) => {
+  const rotate = (req: Request, res: Response) => {
+    const nonce = randomBytes(18).toString('base64url');
+    res.cookie(CSRF_COOKIE, `${nonce}.${sign(bindingOf(req), nonce)}`, { sameSite: 'lax', secure, httpOnly: false, path: '/' });
+  };
+  const middleware = (req: Request, res: Response, next: NextFunction) => {
+    const binding = bindingOf(req);
     const cookie: unknown = req.cookies?.[CSRF_COOKIE];
-    if (!valid(cookie)) {
-      const nonce = randomBytes(18).toString('base64url');
-      res.cookie(CSRF_COOKIE, `${nonce}.${sign(nonce)}`, { sameSite: 'lax', secure, httpOnly: false, path: '/' });
-    }
+    const good = valid(cookie, binding);
+    if (!good) rotate(req, res);
     if (SAFE.has(req.method)) return next();
-    const header = req.get(CSRF_HEADER);
-    if (!valid(cookie) || header !== cookie) {
+    if (!good || req.get(CSRF_HEADER) !== cookie) {
       return next(new HttpError(403, 'csrf', 'This form has expired or came from another site. Reload the page and try again.'));
     }
     next();
   };
+  return { middleware, rotate };
+}
+
+let current: Csrf | undefined;
+
+/** The app's CSRF guard (one per process; the secret and cookie flags come from the config). */
+export function csrfProtection(secret: string, secure: boolean) {
+  current = createCsrf(secret, secure);
+  return current.middleware;
+}
+
+/** Rotates the token after the session changed (sign-in, sign-out). */
+export function rotateCsrf(req: Request, res: Response): void {
+  current?.rotate(req, res);
 }

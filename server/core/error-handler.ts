@@ -1,4 +1,5 @@
 import type { NextFunction, Request, Response } from 'express';
+import { databaseAnswer } from './db-errors';
 import { HttpError } from './http-error';
 
 interface BodyParserError {
@@ -19,11 +20,7 @@ function asOperational(err: unknown): HttpError | undefined {
   }
   if (e?.code === 'LIMIT_FILE_SIZE') return new HttpError(413, 'too_large', 'The file is larger than the upload limit.');
   if (e?.code && String(e.code).startsWith('LIMIT_')) return new HttpError(400, 'bad_upload', e.message ?? 'The upload was refused.');
-  if (e?.code === 'ER_DUP_ENTRY') return new HttpError(409, 'duplicate', 'That already exists.');
-  if (e?.code === 'ECONNREFUSED' || e?.code === 'PROTOCOL_CONNECTION_LOST') {
-    return new HttpError(503, 'database_unavailable', 'The database is not reachable right now. Try again in a minute.');
-  }
-  return undefined;
+  return databaseAnswer(err);
 }
 
 /** The one error handler, registered after every route. */
@@ -36,6 +33,7 @@ export function errorHandler(err: unknown, req: Request, res: Response, _next: N
   }
   if (known) {
     if (known.status >= 500) req.log?.warn({ err }, known.message);
+    if (known.status === 503) res.set('Retry-After', '5');
     res.status(known.status).json({ error: { code: known.code, message: known.message, details: known.details } });
     return;
   }

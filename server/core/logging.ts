@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import type { IncomingMessage } from 'node:http';
-import { pinoHttp } from 'pino-http';
+import { pinoHttp, startTime } from 'pino-http';
 import { pino } from 'pino';
 import { config } from '../config';
 
@@ -24,4 +24,12 @@ export const requestLogger = pinoHttp({
     res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
   },
   autoLogging: { ignore: (req) => !(req.url ?? '').startsWith('/api') },
+  // A line per request costs more than a fast read itself: log failures, refusals and slow
+  // answers at info; ordinary fast answers only at debug (LOG_LEVEL=debug shows every request).
+  customLogLevel: (_req, res, err) => {
+    if (err || res.statusCode >= 500) return 'error';
+    if (res.statusCode >= 400) return 'info';
+    const started = (res as { [startTime]?: number })[startTime];
+    return started !== undefined && Date.now() - started > 1000 ? 'info' : 'debug';
+  },
 });

@@ -19,6 +19,7 @@ export function sessionMiddleware(secure: boolean) {
     pool as never,
   );
   setInterval(() => void store.clearExpiredSessions().catch(() => undefined), 15 * 60 * 1000).unref();
+  throttleTouch(store);
   return session({
     name: SESSION_COOKIE,
     secret: config.SESSION_SECRET,
@@ -29,6 +30,26 @@ export function sessionMiddleware(secure: boolean) {
     proxy: config.TRUST_PROXY,
     cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: config.SESSION_IDLE_MINUTES * 60 * 1000 },
   });
+}
+
+/**
+ * With `rolling`, express-session writes the new expiry of an unchanged session on every
+ * request (store.touch: one UPDATE per request). The idle deadline moves in minutes, so write it
+ * at most once a minute (or a tenth of the idle time, if shorter) per session and process; the cookie still rolls on every answer. Changed
+ * sessions are saved as always.
+ */
+const TOUCH_EVERY_MS = Math.min(60 * 1000, (config.SESSION_IDLE_MINUTES * 60 * 1000) / 10);
+function throttleTouch(store: session.Store): void {
+  const lastTouch = new Map<string, number>();
+  const touch = store.touch?.bind(store);
+  if (!touch) return;
+  store.touch = (sid: string, sess: session.SessionData, cb?: (err?: unknown) => void) => {
+    const now = Date.now();
+    if (now - (lastTouch.get(sid) ?? 0) < TOUCH_EVERY_MS) return cb?.();
+    lastTouch.set(sid, now);
+    if (lastTouch.size > 50_000) lastTouch.clear();
+    touch(sid, sess, cb);
+  };
 }
 
 /** Ends sessions older than the absolute lifetime, whatever their activity. */

@@ -4,6 +4,7 @@
  * applies it in one transaction only if the row is still 'running', so a cancelled job never has
  * results presented as complete.
  */
+import type { JobEvent } from '../../shared/api/plans';
 import type { Tx, db } from '../db';
 import type { JobRow } from './store';
 
@@ -12,7 +13,8 @@ export type EndStatus = 'failed' | 'cancelled' | 'interrupted';
 
 export interface JobContext {
   readonly signal: AbortSignal;
-  progress(fraction: number, done?: number, of?: number): void;
+  /** `extra` rides along on the progress event (a plan search's `search` report). */
+  progress(fraction: number, done?: number, of?: number, extra?: Pick<JobEvent, 'search'>): void;
 }
 
 interface EndHook {

@@ -19,7 +19,7 @@ export default function runPlanTask(task: PlanPoolTask): PlanPoolResult {
   try {
     switch (task.kind) {
       case 'planner':
-        return { ok: runPlanner(task, (fraction, stage) => task.port?.postMessage({ fraction, stage })) };
+        return { ok: runPlanner(task, (fraction, search) => task.port?.postMessage({ fraction, search })) };
       case 'hand-made':
         return scoreHandMade(task);
       default:

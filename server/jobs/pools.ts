@@ -10,6 +10,7 @@ import { Piscina } from 'piscina';
 import type { SimPartial } from '../../shared/engine/simulate/partial';
 import type { SimTask } from '../../shared/engine/simulate/pool';
 import { prepareRoom } from '../../shared/engine/room';
+import type { PlanSearchProgress } from '../../shared/api/plans';
 import { config } from '../config';
 import type { PlanPoolResult, PlanPoolTask } from './plan-worker';
 
@@ -54,7 +55,8 @@ export interface PlanRunControl {
   signal?: AbortSignal;
   /** Hard stop (the worker thread is ended), in ms. */
   hardLimitMs: number;
-  onProgress?: (fraction: number, stage: string) => void;
+  /** `search`: what a plan search has found and proven so far (plan tasks only). */
+  onProgress?: (fraction: number, search?: PlanSearchProgress) => void;
 }
 
 /** Runs one task in the plan pool; a cancel or the hard time limit ends the worker thread. */
@@ -65,7 +67,7 @@ export async function runInPlanPool(task: PlanPoolTask, control: PlanRunControl)
   const onCancel = () => stop.abort(control.signal?.reason);
   control.signal?.addEventListener('abort', onCancel, { once: true });
   const channel = control.onProgress ? new MessageChannel() : undefined;
-  channel?.port1.on('message', (m: { fraction: number; stage: string }) => control.onProgress?.(m.fraction, m.stage));
+  channel?.port1.on('message', (m: { fraction: number; search?: PlanSearchProgress }) => control.onProgress?.(m.fraction, m.search));
   try {
     const payload = channel ? { ...task, port: channel.port2 } : task;
     return (await plans().run(payload, { signal: stop.signal, transferList: channel ? [channel.port2] : [] })) as PlanPoolResult;

@@ -70,13 +70,13 @@ async function runWhole(bull: Job<JobData>, token: string | undefined, row: JobR
   try {
     const commit = await handler.run(row, {
       signal: control.signal,
-      progress: (fraction, done, of) => {
+      progress: (fraction, done, of, extra) => {
         if (control.signal.aborted) return;
         progress = Math.max(progress, Math.min(1, Math.max(0, fraction)));
         const now = Date.now();
         if (now - lastEmit >= 100) {
           lastEmit = now;
-          void emitJob('progress', { ...row, progress }, { fraction: progress, done, of });
+          void emitJob('progress', { ...row, progress }, { fraction: progress, done, of, ...extra });
         }
         if (now - lastWrite >= 300) {
           lastWrite = now;

@@ -7,7 +7,9 @@ import { logger } from '../core/logging';
 
 /**
  * The local mail fake for development and test: a real SMTP server on loopback that
- * accepts every message and stores it, so the admin outbox (and tests) can read it.
+ * accepts every message and stores it, so the admin outbox (and tests) can read it. Like a real
+ * relay it refuses recipients in the reserved `.invalid` top-level domain (RFC 2606), which
+ * gives tests and demos a way to see a message that cannot be delivered.
  */
 export async function startFakeSmtp(port = 0): Promise<{ server: SMTPServer; port: number }> {
   const server = new SMTPServer({
@@ -16,6 +18,10 @@ export async function startFakeSmtp(port = 0): Promise<{ server: SMTPServer; por
     authOptional: true,
     banner: 'Ripplehall local mail fake',
     size: 5 * 1024 * 1024,
+    onRcptTo(address, _session, callback) {
+      if (/\.invalid$/i.test(address.address)) return callback(Object.assign(new Error('No such domain'), { responseCode: 550 }));
+      callback();
+    },
     onData(stream, session, callback) {
       const chunks: Buffer[] = [];
       stream.on('data', (c: Buffer) => chunks.push(c));

@@ -1,16 +1,21 @@
 import type { JoinState } from '../../shared/api/workshops';
 import { db } from '../db';
 import { HttpError } from '../core/http-error';
-import { issueLink } from './links';
-import { claimName, namesOf, withActiveLinks, workshopById } from './store';
+import { issueLinks } from './links';
+import { claimName, lockedStatus, namesOf, withActiveLinks, workshopById } from './store';
 
 /**
  * The join page behind the projector QR code: a participant picks their own name once and
  * gets a personal link. A name is taken once picked, and also while its person already holds a
  * working link (e-mailed or printed), so the QR code cannot be used to answer for them. The
- * facilitator's reset (which revokes that person's links) frees it again.
+ * facilitator's reset (which revokes that person's links) frees it again. Names can be picked only
+ * while the survey collects answers: once it closes, the QR code opens nothing new.
  */
-const JOINABLE = new Set(['collecting', 'running', 'debrief']);
+const JOINABLE = new Set(['collecting']);
+const notJoinable = (status: string) =>
+  status === 'draft'
+    ? 'The survey has not opened yet. Your facilitator will tell you when to scan the code.'
+    : 'The survey is closed, so names can no longer be picked here. If you already have your personal link, it still shows your page.';
 
 export async function joinState(workshopId: number): Promise<JoinState> {
   const w = await workshopById(workshopId);
@@ -19,16 +24,19 @@ export async function joinState(workshopId: number): Promise<JoinState> {
   return {
     workshopTitle: w.title,
     open: JOINABLE.has(w.status),
+    status: w.status,
     names: names.map((n) => ({ id: n.id, name: n.name, taken: n.claimedAt !== null || linked.has(n.id) })),
   };
 }
 
 export async function claimJoinName(workshopId: number, participantId: number): Promise<{ path: string; name: string }> {
   const w = await workshopById(workshopId);
-  if (!w || !JOINABLE.has(w.status)) {
-    throw new HttpError(409, 'join_closed', 'This workshop is not taking new participants right now. Ask your facilitator.');
-  }
+  if (!w) throw new HttpError(404, 'link_invalid', 'This workshop no longer exists.');
+  if (!JOINABLE.has(w.status)) throw new HttpError(409, 'join_closed', notJoinable(w.status));
   return db.transaction(async (tx) => {
+    // The survey may close while this claim waits; the row lock makes the check and the claim one step.
+    const status = await lockedStatus(tx, workshopId);
+    if (!status || !JOINABLE.has(status)) throw new HttpError(409, 'join_closed', notJoinable(status ?? 'closed'));
     const names = await namesOf(workshopId, tx);
     const linked = await withActiveLinks(workshopId, tx);
     const mine = names.find((n) => n.id === participantId);
@@ -44,7 +52,7 @@ export async function claimJoinName(workshopId: number, participantId: number): 
           : `“${mine.name}” is already taken: picked here, or sent a personal link. If that is you, use the link you received or ask your facilitator to reset the name; otherwise pick your own.`,
       );
     }
-    const { token } = await issueLink(tx, participantId, 'join', w.linkDays, false);
+    const { token } = (await issueLinks(tx, [participantId], 'join', w.linkDays)).get(participantId)!;
     return { path: `/p/${token}`, name: mine.name };
   });
 }

@@ -1,15 +1,18 @@
 import { randomBytes } from 'node:crypto';
-import { and, eq, gt, inArray, isNull } from 'drizzle-orm';
+import { and, desc, eq, gt, inArray, isNull } from 'drizzle-orm';
 import { participantLinks, workshopParticipants, workshops } from '../../db/schema/workshops';
 import { hashToken, TOKEN_PATTERN } from '../auth/tokens';
 import { publicUrl } from '../config';
 import { db, type Tx } from '../db';
+import { openToken, sealToken } from './link-seal';
 
 /**
  * Personal participant links. A token is 32 random bytes from the operating system's CSPRNG
  * (256 bits; the OWASP Session Management Cheat Sheet asks for at least 64 bits of entropy,
- * our brief for 128). Only its SHA-256 is stored, so a copy of the database gives no working
- * link; the clear token exists only in the answer that issued it.
+ * our brief for 128). Links are looked up by the token's SHA-256, so the hash column alone gives
+ * no working link. A participant keeps one link: printing a sheet or e-mailing again shows the
+ * same live link (from its sealed copy, see link-seal.ts); only an explicit reissue or revoke by
+ * the facilitator ends it.
  */
 type Conn = Tx | typeof db;
 export type LinkChannel = 'email' | 'sheet' | 'join';
@@ -19,19 +22,68 @@ export const newToken = () => randomBytes(32).toString('base64url');
 export const participantUrl = (token: string) => `${publicUrl().replace(/\/+$/, '')}/p/${token}`;
 export const joinUrl = (code: string) => `${publicUrl().replace(/\/+$/, '')}/p/join/${code}`;
 
-/** Issues a fresh link; with `replace`, the participant's earlier links stop working. */
-export async function issueLink(
-  tx: Conn,
-  participantId: number,
-  channel: LinkChannel,
-  days: number,
-  replace: boolean,
-): Promise<{ token: string; expiresAt: Date }> {
-  if (replace) await revokeLinks(tx, [participantId]);
-  const token = newToken();
+export interface ShownLink {
+  participantId: number;
+  token: string;
+  expiresAt: Date;
+  /** True when this call issued the link (nobody has seen it yet). */
+  fresh: boolean;
+}
+
+/** Issues a fresh link for each participant (their earlier links stay as they are). */
+export async function issueLinks(tx: Conn, participantIds: number[], channel: LinkChannel, days: number): Promise<Map<number, ShownLink>> {
+  const out = new Map<number, ShownLink>();
+  if (!participantIds.length) return out;
   const expiresAt = new Date(Date.now() + days * DAY_MS);
-  await tx.insert(participantLinks).values({ participantId, tokenHash: hashToken(token), channel, expiresAt });
-  return { token, expiresAt };
+  const rows = participantIds.map((participantId) => {
+    const token = newToken();
+    out.set(participantId, { participantId, token, expiresAt, fresh: true });
+    return { participantId, tokenHash: hashToken(token), tokenSealed: sealToken(token), channel, expiresAt };
+  });
+  await tx.insert(participantLinks).values(rows);
+  return out;
+}
+
+/**
+ * Each participant's live link, reused when one can be shown again (the newest-expiring live
+ * link with a sealed copy that opens), otherwise a new one. Never revokes anything.
+ */
+export async function linksFor(tx: Conn, participantIds: number[], channel: LinkChannel, days: number): Promise<Map<number, ShownLink>> {
+  const out = new Map<number, ShownLink>();
+  if (!participantIds.length) return out;
+  const live = await tx
+    .select({ participantId: participantLinks.participantId, sealed: participantLinks.tokenSealed, expiresAt: participantLinks.expiresAt })
+    .from(participantLinks)
+    .where(
+      and(
+        inArray(participantLinks.participantId, participantIds),
+        isNull(participantLinks.revokedAt),
+        gt(participantLinks.expiresAt, new Date()),
+      ),
+    )
+    .orderBy(desc(participantLinks.expiresAt));
+  for (const row of live) {
+    if (out.has(row.participantId)) continue;
+    const token = openToken(row.sealed);
+    if (token) out.set(row.participantId, { participantId: row.participantId, token, expiresAt: row.expiresAt, fresh: false });
+  }
+  const missing = participantIds.filter((id) => !out.has(id));
+  for (const [id, link] of await issueLinks(tx, missing, channel, days)) out.set(id, link);
+  return out;
+}
+
+/** The explicit, confirmed action: end the chosen people's links and give each a new one. */
+export async function reissueLinks(tx: Conn, participantIds: number[], days: number): Promise<Map<number, ShownLink>> {
+  await revokeLinks(tx, participantIds);
+  return issueLinks(tx, participantIds, 'sheet', days);
+}
+
+/** Ends one link by its token (an e-mail that never left: nobody holds that link). */
+export async function revokeToken(tx: Conn, token: string): Promise<void> {
+  await tx
+    .update(participantLinks)
+    .set({ revokedAt: new Date() })
+    .where(eq(participantLinks.tokenHash, hashToken(token)));
 }
 
 export async function revokeLinks(tx: Conn, participantIds: number[]): Promise<number> {

@@ -4,7 +4,7 @@ import { NOMINATION_LIMIT_MAX, SURVEY_LEVEL_VALUES } from '../../shared/api/work
 import { participantAccess } from '../core/access';
 import { parse } from '../core/validate';
 import { myDebrief } from '../workshops/debrief';
-import { holderOf, linkGuessLimit, requireJoinCode, requireLink } from './guard';
+import { holderOf, requireJoinCode, requireLink } from './guard';
 import { claimJoinName, joinState } from './join';
 import { giveConsent, saveSurvey, surveyState } from './survey';
 
@@ -22,34 +22,36 @@ const answersBody = z.strictObject({
       }),
     )
     .max(NOMINATION_LIMIT_MAX * 5, 'That is far more names than any survey asks for.'),
+  /** The explicit "I talk to nobody here regularly" answer; an empty list needs it. */
+  nobody: z.boolean().default(false),
 });
 
 const claimBody = z.strictObject({ participantId: z.number().int().positive() });
 
 export const participantRouter = Router();
 
-participantRouter.get('/join/:code', participantAccess, linkGuessLimit, requireJoinCode, async (_req, res) => {
+participantRouter.get('/join/:code', participantAccess, requireJoinCode, async (_req, res) => {
   res.json(await joinState(res.locals['joinWorkshopId'] as number));
 });
 
-participantRouter.post('/join/:code/claim', participantAccess, linkGuessLimit, requireJoinCode, async (req, res) => {
+participantRouter.post('/join/:code/claim', participantAccess, requireJoinCode, async (req, res) => {
   const body = parse(claimBody, req.body);
   res.status(201).json(await claimJoinName(res.locals['joinWorkshopId'] as number, body.participantId));
 });
 
-participantRouter.get('/:token', participantAccess, linkGuessLimit, requireLink, async (_req, res) => {
+participantRouter.get('/:token', participantAccess, requireLink, async (_req, res) => {
   res.json(await surveyState(holderOf(res)));
 });
 
-participantRouter.post('/:token/consent', participantAccess, linkGuessLimit, requireLink, async (_req, res) => {
+participantRouter.post('/:token/consent', participantAccess, requireLink, async (_req, res) => {
   res.json(await giveConsent(holderOf(res)));
 });
 
-participantRouter.put('/:token/answers', participantAccess, linkGuessLimit, requireLink, async (req, res) => {
+participantRouter.put('/:token/answers', participantAccess, requireLink, async (req, res) => {
   const body = parse(answersBody, req.body, 'answers');
-  res.json(await saveSurvey(holderOf(res), body.version, body.nominations));
+  res.json(await saveSurvey(holderOf(res), body.version, body.nominations, body.nobody));
 });
 
-participantRouter.get('/:token/debrief', participantAccess, linkGuessLimit, requireLink, async (_req, res) => {
+participantRouter.get('/:token/debrief', participantAccess, requireLink, async (_req, res) => {
   res.json(await myDebrief(holderOf(res)));
 });

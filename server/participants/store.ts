@@ -20,6 +20,12 @@ export async function workshopById(id: number, tx: Conn = db): Promise<WorkshopR
   return row;
 }
 
+/** The workshop's status, with its row locked until the transaction ends. */
+export async function lockedStatus(tx: Tx, id: number): Promise<WorkshopRow['status'] | undefined> {
+  const [row] = await tx.select({ status: workshops.status }).from(workshops).where(eq(workshops.id, id)).for('update');
+  return row?.status;
+}
+
 export async function namesOf(workshopId: number, tx: Conn = db) {
   return tx
     .select({ id: workshopParticipants.id, name: workshopParticipants.name, claimedAt: workshopParticipants.claimedAt })

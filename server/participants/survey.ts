@@ -38,6 +38,7 @@ export async function surveyState(holder: LinkHolder): Promise<SurveyState> {
     version: answers.version,
     nominations: answers.nominations,
     savedAt: answers.submittedAt?.toISOString() ?? null,
+    nobody: answers.submittedAt !== null && answers.nominations.length === 0,
     debriefReady: (w.status === 'debrief' || w.status === 'closed') && w.debrief !== null,
   };
 }
@@ -50,8 +51,22 @@ export async function giveConsent(holder: LinkHolder): Promise<SurveyState> {
 }
 
 /** Checks one submission against the rules; each problem has its own message. */
-export async function checkNominations(holder: LinkHolder, w: WorkshopRow, nominations: Nomination[]): Promise<void> {
+export async function checkNominations(holder: LinkHolder, w: WorkshopRow, nominations: Nomination[], nobody = false): Promise<void> {
   const ids = nominations.map((n) => n.participantId);
+  if (!ids.length && !nobody) {
+    throw new HttpError(
+      400,
+      'empty_answer',
+      'Pick at least one person you ask, or choose “I talk to nobody here regularly” if that is your answer.',
+    );
+  }
+  if (ids.length && nobody) {
+    throw new HttpError(
+      400,
+      'nobody_with_names',
+      'You chose “I talk to nobody here regularly” and also picked names. Untick one of the two and send again.',
+    );
+  }
   if (ids.includes(holder.participantId)) {
     throw new HttpError(400, 'self_nomination', 'You picked your own name. Pick the people you ask, not yourself.');
   }
@@ -77,10 +92,10 @@ export async function checkNominations(holder: LinkHolder, w: WorkshopRow, nomin
   }
 }
 
-export async function saveSurvey(holder: LinkHolder, version: number, nominations: Nomination[]): Promise<SurveyState> {
+export async function saveSurvey(holder: LinkHolder, version: number, nominations: Nomination[], nobody = false): Promise<SurveyState> {
   const w = await workshopOf(holder);
   if (w.status !== 'collecting') throw new HttpError(409, 'survey_closed', closedMessage(w));
-  await checkNominations(holder, w, nominations);
+  await checkNominations(holder, w, nominations, nobody);
   await db.transaction(async (tx) => {
     const current = await answersOf(holder.participantId, tx, true);
     if (!current.consentedAt) throw conflict('Please read the privacy notice and agree to it before answering.');

@@ -7,6 +7,7 @@
 import { existsSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import PDFDocument from 'pdfkit';
+import { clockMinutes, clockTimes, DEFAULT_SEND_AT, formatClock, formatUtc } from '../../shared/api/briefing-clock';
 import { MODEL_CAUTIONS, type BriefingSheet } from '../../shared/api/plans';
 import { writeCsvRows } from '../../shared/engine/index';
 import { parseResults, parseSnapshot } from './dto';
@@ -92,9 +93,17 @@ function fontFile(weight: 400 | 600): string | null {
   }
 }
 
-export async function briefingPdf(plan: LoadedPlan): Promise<Buffer> {
+/**
+ * The sheet as a PDF with everything the screen sheet has: the starters with a "Briefed at" column
+ * to fill in, what to expect, the clock-time section for the chosen start time (24-hour), cautions.
+ */
+export async function briefingPdf(plan: LoadedPlan, sendAt: string): Promise<Buffer> {
   const sheet = await briefingSheet(plan);
-  const doc = new PDFDocument({ size: 'A4', margin: 56, info: { Title: `Briefing sheet: ${sheet.planName}`, Author: 'Ripplehall' } });
+  const doc = new PDFDocument({
+    size: 'A4',
+    margin: 56,
+    info: { Title: `Briefing sheet: ${sheet.planName}`, Author: 'Ripplehall' },
+  });
   const regular = fontFile(400);
   const bold = fontFile(600);
   if (regular && bold) {
@@ -110,36 +119,89 @@ export async function briefingPdf(plan: LoadedPlan): Promise<Buffer> {
     doc.on('end', () => resolve(Buffer.concat(chunks)));
     doc.on('error', reject);
   });
-  const date = sheet.generatedAt.slice(0, 10);
+  heading(doc, sheet);
+  starterTable(doc, sheet);
+  expectations(doc, sheet, sendAt);
+  doc.moveDown(1);
+  doc.font('strong').fontSize(12).fillColor('#000').text('Please keep in mind', 56);
+  doc.font('body').fontSize(10).fillColor('#333');
+  for (const c of sheet.cautions) doc.text(`• ${c}`, { indent: 8 });
+  doc.end();
+  return done;
+}
+
+type Doc = InstanceType<typeof PDFDocument>;
+
+function heading(doc: Doc, sheet: BriefingSheet): void {
   doc.font('strong').fontSize(20).text('Briefing sheet');
   doc
     .font('body')
     .fontSize(11)
     .fillColor('#444')
-    .text(`${sheet.roomName} · plan "${sheet.planName}" · room version ${sheet.roomVersion} · ${date}`);
+    .text(
+      `${sheet.roomName} · plan "${sheet.planName}" · room version ${sheet.roomVersion} · ${sheet.people} people · ` +
+        `one hop ≈ ${fmt(sheet.minutesPerHop, 1)} min · prepared ${formatUtc(sheet.generatedAt)}`,
+    );
   if (sheet.stale)
     doc.fillColor('#8a3b12').text('The room has changed since this plan was computed: the numbers below are for the earlier version.');
   doc.moveDown(1).fillColor('#000');
+}
+
+/** Starters in briefing order, with an empty "Briefed at" column to fill in by hand. */
+function starterTable(doc: Doc, sheet: BriefingSheet): void {
+  const n = sheet.starters.length;
   doc
     .font('strong')
     .fontSize(14)
-    .text(`Brief these ${sheet.starters.length} ${sheet.starters.length === 1 ? 'person' : 'people'}, in this order`);
-  doc.moveDown(0.4).font('body').fontSize(12);
-  for (const s of sheet.starters) {
-    doc.text(`${s.order}.  ${s.name}${s.group ? `  (${s.group})` : ''}`, { indent: 8 });
-  }
-  doc.moveDown(1);
-  doc.font('strong').fontSize(14).text('What to expect');
-  doc.moveDown(0.4).font('body').fontSize(12);
-  doc.text(
-    `Room average: ${fmt(sheet.average, 2)} hops to hear, about ${fmt(sheet.averageMinutes, 0)} minutes at ${fmt(sheet.minutesPerHop, 1)} minutes per hop ` +
-      `(over the ${sheet.people - sheet.starters.length} people not briefed).`,
+    .text(`1. Brief these ${n} ${n === 1 ? 'person' : 'people'} first, in this order`);
+  doc.moveDown(0.4);
+  const cols = [
+    { title: '#', x: 56, w: 24 },
+    { title: 'Person', x: 84, w: 170 },
+    { title: 'Group', x: 258, w: 100 },
+    { title: 'Id', x: 362, w: 80 },
+    { title: 'Briefed at', x: 446, w: 93 },
+  ];
+  const row = (cells: string[], font: 'body' | 'strong') => {
+    const y = doc.y;
+    doc.font(font).fontSize(11);
+    cells.forEach((c, i) => doc.text(c, cols[i].x, y, { width: cols[i].w, lineBreak: false, ellipsis: true }));
+    doc
+      .moveTo(56, y + 16)
+      .lineTo(539, y + 16)
+      .lineWidth(0.5)
+      .strokeColor('#999')
+      .stroke();
+    doc.y = y + 22;
+  };
+  row(
+    cols.map((c) => c.title),
+    'strong',
   );
+  for (const s of sheet.starters) row([String(s.order), s.name, s.group ?? '—', s.personKey, ''], 'body');
+  doc.x = 56;
+  doc.moveDown(0.4);
+  doc
+    .font('body')
+    .fontSize(10)
+    .fillColor('#444')
+    .text('Ask each of them to pass the message on when colleagues ask. Everyone else hears by word of mouth.', 56);
+  doc.fillColor('#000').moveDown(1);
+}
+
+function expectations(doc: Doc, sheet: BriefingSheet, raw: string): void {
+  const sendAt = formatClock(clockMinutes(raw) ?? clockMinutes(DEFAULT_SEND_AT)!);
+  doc.font('strong').fontSize(14).text('2. What to expect', 56);
+  doc.moveDown(0.4).font('body').fontSize(12);
   for (const e of sheet.expectations) doc.text(`• ${e.line}`, { indent: 8 });
-  doc.moveDown(1);
-  doc.font('strong').fontSize(12).text('Please keep in mind');
-  doc.font('body').fontSize(10).fillColor('#333');
-  for (const c of sheet.cautions) doc.text(`• ${c}`, { indent: 8 });
-  doc.end();
-  return done;
+  doc.text(
+    `• On average, someone who was not briefed hears after about ${fmt(sheet.average, 1)} hops, that is about ${fmt(sheet.averageMinutes, 0)} minutes.`,
+    { indent: 8 },
+  );
+  doc.moveDown(0.8);
+  doc.font('strong').fontSize(12).text(`Clock times if the message goes out at ${sendAt}`);
+  doc.font('body').fontSize(12);
+  const times = clockTimes(sheet.expectations, sendAt);
+  if (times.length === 0) doc.text('• No clock times: the expected times are beyond the hops computed.', { indent: 8 });
+  for (const t of times) doc.text(`• ${t.line}`, { indent: 8 });
 }

@@ -11,11 +11,12 @@ import {
   prepareRoom,
   reachCurve,
   type PlanMethodChoice,
+  type PlanProgress,
   type PlanResult,
   type PreparedRoom,
   type RoomGraph,
 } from '../../shared/engine/index';
-import type { PlanSettingsSnapshot, ReachQuantileDto } from '../../shared/api/plans';
+import type { PlanSearchProgress, PlanSettingsSnapshot, ReachQuantileDto } from '../../shared/api/plans';
 
 export interface RoomSnapshot {
   graph: RoomGraph;
@@ -36,6 +37,8 @@ export interface PlannerTask {
   /** Engine indices. */
   mustInclude: number[];
   exclude: number[];
+  /** Chance (0..0.5) that a starter does not show up. */
+  noShow?: number;
 }
 
 export interface HandMadeTask {
@@ -68,6 +71,82 @@ export interface PlanComputation {
   /** Expected hops to hear per person (engine order). */
   h: number[];
   curve: StoredCurve;
+  extras: ComputedExtras;
+  absence: ComputedAbsence | null;
+}
+
+/** Reading aids from the planner (engine indices; the service maps them to people). */
+export interface ComputedExtras {
+  bestSingle: { person: number; total: number } | null;
+  gainShare: number | null;
+  nodes: number | null;
+  searchLeft: number | null;
+  stopped: boolean;
+  fewestForOneHop: number | null;
+}
+
+export interface ComputedAbsence {
+  expectedTotal: number;
+  nobodyChance: number;
+  worstAbsence: { person: number; total: number } | null;
+  standIns: { starter: number; person: number | null; total: number | null }[];
+}
+
+/** Fields the planner adds to its progress reports and results (optional: older engines leave them out). */
+interface ProgressExtras {
+  fraction?: number;
+  bestTotal?: number;
+  lowerBound?: number;
+  gap?: number;
+  nodes?: number;
+}
+interface ResultExtras {
+  stopped?: boolean;
+  nodes?: number;
+  searchLeft?: number;
+  bestSingle?: { person: number; total: number };
+  fewestForOneHop?: number;
+  gainShare?: number;
+  noShow?: {
+    expectedTotal: number;
+    nobodyChance: number;
+    worstAbsence: { person: number; total: number };
+    standIns: readonly { starter: number; person: number; total: number }[];
+  };
+}
+
+const num = (v: unknown): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null);
+
+/** What the bar shows: the planner's own progress, in the API's shape. */
+export function searchProgress(p: PlanProgress): PlanSearchProgress {
+  const x = p as PlanProgress & ProgressExtras;
+  const best = num(x.bestTotal);
+  const lb = num(x.lowerBound);
+  const gap = num(x.gap) ?? (best !== null && lb !== null && best > 0 ? Math.max(0, (best - lb) / best) : null);
+  return { stage: p.stage, closed: num(x.fraction), bestTotal: best, lowerBound: lb, gapShare: gap, nodes: num(x.nodes) };
+}
+
+function extrasOf(r: PlanResult): { extras: ComputedExtras; absence: ComputedAbsence | null } {
+  const x = r as PlanResult & ResultExtras;
+  const ns = x.noShow;
+  return {
+    extras: {
+      bestSingle: x.bestSingle ? { person: x.bestSingle.person, total: x.bestSingle.total } : null,
+      gainShare: num(x.gainShare),
+      nodes: num(x.nodes),
+      searchLeft: num(x.searchLeft),
+      stopped: x.stopped === true,
+      fewestForOneHop: num(x.fewestForOneHop),
+    },
+    absence: ns
+      ? {
+          expectedTotal: ns.expectedTotal,
+          nobodyChance: ns.nobodyChance,
+          worstAbsence: ns.worstAbsence ? { person: ns.worstAbsence.person, total: ns.worstAbsence.total } : null,
+          standIns: ns.standIns.map((s) => ({ starter: s.starter, person: num(s.person), total: num(s.total) })),
+        }
+      : null,
+  };
 }
 
 export interface ComputeFailure {
@@ -93,7 +172,7 @@ export function curveFor(room: PreparedRoom, starters: readonly number[], minute
   };
 }
 
-export function runPlanner(task: PlannerTask, onProgress?: (fraction: number, stage: string) => void): PlanComputation {
+export function runPlanner(task: PlannerTask, onProgress?: (fraction: number, search: PlanSearchProgress) => void): PlanComputation {
   const room = prepared(task.snapshot);
   const started = performance.now();
   const limitMs = task.timeLimitMs ?? 10_000;
@@ -105,14 +184,20 @@ export function runPlanner(task: PlannerTask, onProgress?: (fraction: number, st
     timeLimitMs: limitMs,
     mustInclude: task.mustInclude,
     exclude: task.exclude,
+    ...(task.noShow ? { noShow: task.noShow } : {}),
     onProgress: (p) => {
-      // Stages restart their counters; the bar only moves forward (time share for searches with a budget).
+      // A search ends when it has settled every group or at its time limit, whichever comes first:
+      // its bar is the larger of the two shares (so it reaches the end exactly when the job does).
+      // Other methods: their stage's own count. The bar never moves backwards.
+      const search = searchProgress(p);
       const byStage = p.of > 0 ? p.done / p.of : 0;
       const byTime = (performance.now() - started) / limitMs;
-      const f = Math.min(0.99, Math.max(last, task.method === 'exhaustive' || task.method === 'auto' ? byTime : byStage));
-      if (f > last + 0.005) {
+      const timed = task.method === 'exhaustive' || task.method === 'auto';
+      const own = timed ? Math.max(search.closed ?? 0, byTime) : (search.closed ?? byStage);
+      const f = Math.min(0.99, Math.max(last, own));
+      if (f > last + 0.002 || search.bestTotal !== null) {
         last = f;
-        onProgress?.(f, p.stage);
+        onProgress?.(f, search);
       }
     },
   });
@@ -132,6 +217,7 @@ export function runPlanner(task: PlannerTask, onProgress?: (fraction: number, st
     warnings: r.warnings,
     h: Array.from(reach.h),
     curve: curveFor(room, r.starters, task.snapshot.settings.minutesPerHop),
+    ...extrasOf(r),
   };
 }
 
@@ -185,6 +271,8 @@ export function scoreHandMade(task: HandMadeTask): ComputeOutcome<PlanComputatio
       warnings: fixed.warnings,
       h: Array.from(reach.h),
       curve: curveFor(room, task.starters, task.snapshot.settings.minutesPerHop),
+      extras: { ...extrasOf(free).extras, gainShare: null, nodes: null, searchLeft: null, stopped: false },
+      absence: null,
     },
   };
 }

@@ -1,7 +1,8 @@
 /** Plan rows -> API shapes (shared/api/plans.ts). */
 import type { PlanDetail, PlanMethodChoiceDto, PlanMethodUsed, PlanSummary, ReachCurveDto } from '../../shared/api/plans';
 import type { RoomSnapshot, StoredCurve } from './compute';
-import type { PlanListRow, PlanRow } from './store';
+import { sharedScores } from './bounds';
+import type { BoundRow, PlanListRow, PlanRow } from './store';
 
 export interface StoredPlanResults {
   /** Expected hops per person, engine order (null: cannot be reached). */
@@ -11,9 +12,11 @@ export interface StoredPlanResults {
 
 const finite = (v: number | null | undefined): number | null => (v === null || v === undefined || !Number.isFinite(v) ? null : v);
 
-export function planSummary(row: PlanListRow, currentRoomVersion: number): PlanSummary {
+/** `bound`: the row of the plan's key (room version, k, constraints), whose proven bound all its plans share. */
+export function planSummary(row: PlanListRow, currentRoomVersion: number, bound?: BoundRow): PlanSummary {
   const mph = row.settings.minutesPerHop;
   const total = finite(row.total);
+  const shared = sharedScores(row, bound);
   return {
     id: row.id,
     roomId: row.roomId,
@@ -32,10 +35,10 @@ export function planSummary(row: PlanListRow, currentRoomVersion: number): PlanS
     average: finite(row.average),
     averageMinutes: row.average === null ? null : row.average * mph,
     qualityRank: finite(row.qualityRank),
-    lowerBound: finite(row.lowerBound),
-    gap: finite(row.gap),
-    gapShare: total && row.gap !== null ? row.gap / total : null,
-    certified: row.certified,
+    ...shared,
+    noShow: row.noShow && row.noShow > 0 ? row.noShow : null,
+    absence: row.absence ?? null,
+    extras: row.extras ?? null,
     coverSize: row.coverSize,
     elapsedMs: row.elapsedMs,
     people: row.people,
@@ -72,8 +75,8 @@ export function parseResults(row: Pick<PlanRow, 'results'>): StoredPlanResults |
   return row.results ? (JSON.parse(row.results) as StoredPlanResults) : null;
 }
 
-export function planDetail(row: PlanRow & { createdByName: string }, currentRoomVersion: number): PlanDetail {
-  const summary = planSummary(row, currentRoomVersion);
+export function planDetail(row: PlanRow & { createdByName: string }, currentRoomVersion: number, bound?: BoundRow): PlanDetail {
+  const summary = planSummary(row, currentRoomVersion, bound);
   const results = parseResults(row);
   if (!results || row.status !== 'ready') return { ...summary, perPerson: [], reach: null };
   const snap = parseSnapshot(row);

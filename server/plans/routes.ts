@@ -2,6 +2,8 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import { PLAN_LIMITS, PLAN_METHOD_CHOICES } from '../../shared/api/plans';
+import { NO_SHOW_LIMITS } from '../../shared/api/plan-rules';
+import { CLOCK_PATTERN, DEFAULT_SEND_AT } from '../../shared/api/briefing-clock';
 import { signedIn } from '../core/access';
 import { parse } from '../core/validate';
 import { roomIdOf } from '../rooms/access';
@@ -16,11 +18,20 @@ const createSchema = z
     k: z.number().int('k must be a whole number').optional(),
     method: z.enum(PLAN_METHOD_CHOICES).optional(),
     nu: z.number().min(PLAN_LIMITS.nu.min).max(PLAN_LIMITS.nu.max).optional(),
-    timeLimitSeconds: z.number().min(PLAN_LIMITS.timeLimitSeconds.min).max(PLAN_LIMITS.timeLimitSeconds.max).optional(),
+    timeLimitSeconds: z
+      .number()
+      .min(PLAN_LIMITS.timeLimitSeconds.min, 'The time limit is 1 to 300 seconds.')
+      .max(PLAN_LIMITS.timeLimitSeconds.max, 'The time limit is 1 to 300 seconds.')
+      .optional(),
     mustBrief: personIds.optional(),
     cannotBrief: personIds.optional(),
     starters: personIds.optional(),
     background: z.boolean().optional(),
+    noShow: z
+      .number()
+      .min(NO_SHOW_LIMITS.min, 'The no-show chance is 0 to 50 %.')
+      .max(NO_SHOW_LIMITS.max, 'The no-show chance is 0 to 50 %.')
+      .optional(),
   })
   .superRefine((v, ctx) => {
     if (v.starters === undefined && v.k === undefined)
@@ -51,6 +62,11 @@ const sweepSchema = z.strictObject({
 });
 
 const compareSchema = z.strictObject({ a: z.string(), b: z.string() });
+
+const pdfQuerySchema = z.strictObject({
+  /** Time the message goes out, 24-hour HH:MM (default 09:00). */
+  start: z.string().regex(CLOCK_PATTERN, 'Give the start time as a 24-hour time such as 09:00 or 14:30.').optional(),
+});
 
 /** Mounted at /api/rooms: the room's plan list, creation and k-sweep. */
 export const roomPlansRouter = Router();
@@ -110,7 +126,8 @@ plansRouter.get('/:planId/briefing.csv', signedIn(), async (req, res) => {
 });
 
 plansRouter.get('/:planId/briefing.pdf', signedIn(), async (req, res) => {
+  const q = parse(pdfQuerySchema, req.query, 'query');
   const plan = await service.loadPlanFor(req.user, req.params['planId'], 'view');
-  const pdf = await briefingPdf(plan);
+  const pdf = await briefingPdf(plan, q.start ?? DEFAULT_SEND_AT);
   res.type('application/pdf').set('Content-Disposition', `attachment; filename="briefing-plan-${plan.id}.pdf"`).send(pdf);
 });

@@ -17,10 +17,12 @@ import { findJob, insertJob } from '../jobs/store';
 import { loadRoomGraph, type RoomNeed } from '../rooms/access';
 import type { SignedInUser } from '../types';
 import { prepared, type ComputeOutcome, type PlanComputation, type PlannerTask, type RoomSnapshot } from './compute';
-import { parseResults, parseSnapshot, planDetail, planSummary, type StoredPlanResults } from './dto';
+import { parseResults, parseSnapshot, planDetail, planSummary } from './dto';
+import { resultColumns } from './result-columns';
 import type { NewPlan, PlanRow } from './store';
 import * as store from './store';
 import { config } from '../config';
+import { boundForRow, boundOf, boundsFor, recordComputation, recordSweepBounds } from './bounds';
 import { mergeSweeps } from './sweep';
 import { checkHandMade, checkPlannerRequest, indicesOfPeople, planError } from './validate';
 
@@ -38,36 +40,6 @@ async function snapshotOf(roomId: number): Promise<RoomSnapshot> {
   return { graph: r.graph, personIds: r.personIds, names: r.names, settings: r.settings, version: r.version };
 }
 
-function starterInfo(snapshot: RoomSnapshot, indices: readonly number[]) {
-  return indices.map((i) => ({
-    personId: snapshot.personIds[i],
-    key: snapshot.graph.ids[i],
-    name: snapshot.names[i],
-    group: snapshot.graph.groups?.[i] ?? null,
-  }));
-}
-
-function resultColumns(snapshot: RoomSnapshot, c: PlanComputation): Partial<NewPlan> {
-  const results: StoredPlanResults = { h: c.h.map((v) => (Number.isFinite(v) ? v : null)), curve: c.curve };
-  return {
-    status: 'ready',
-    methodUsed: c.methodUsed,
-    starters: starterInfo(snapshot, c.starters),
-    total: c.total,
-    average: c.average,
-    qualityRank: c.rank,
-    lowerBound: c.lowerBound,
-    gap: c.gap,
-    certified: c.certified,
-    coverSize: c.coverSize,
-    elapsedMs: c.elapsedMs,
-    notes: c.notes,
-    warnings: c.warnings,
-    results: JSON.stringify(results),
-    error: null,
-  };
-}
-
 function unwrap(outcome: ComputeOutcome<PlanComputation>): PlanComputation {
   if ('error' in outcome) throw planError(outcome.error.code, outcome.error.message, outcome.error.detail);
   return outcome.ok;
@@ -83,13 +55,14 @@ export function runsInBackground(body: CreatePlanRequest, n: number): boolean {
 
 function plannerTask(
   snapshot: RoomSnapshot,
-  row: Pick<PlanRow, 'k' | 'methodRequested' | 'nu' | 'timeLimitSeconds' | 'mustBrief' | 'cannotBrief'>,
+  row: Pick<PlanRow, 'k' | 'methodRequested' | 'nu' | 'timeLimitSeconds' | 'mustBrief' | 'cannotBrief' | 'noShow'>,
 ): PlannerTask {
   return {
     kind: 'planner',
     snapshot,
     k: row.k,
     method: row.methodRequested as PlanMethodChoice,
+    ...(row.noShow ? { noShow: row.noShow } : {}),
     ...(row.nu !== null ? { nu: row.nu } : {}),
     ...(row.timeLimitSeconds !== null ? { timeLimitMs: row.timeLimitSeconds * 1000 } : {}),
     mustInclude: indicesOfPeople(snapshot, row.mustBrief, 'People who must be briefed'),
@@ -133,6 +106,7 @@ export async function createPlan(
     timeLimitSeconds: body.timeLimitSeconds ?? null,
     mustBrief: body.mustBrief ?? [],
     cannotBrief: body.cannotBrief ?? [],
+    noShow: body.noShow && body.noShow > 0 ? body.noShow : null,
     people: snapshot.personIds.length,
     roomVersion: snapshot.version,
     settings: snapshot.settings,
@@ -151,7 +125,8 @@ export async function createPlan(
     const job = (await findJob(jobId))!;
     await jobRunner.enqueue(job);
     const plan = (await store.findPlan(planId))!;
-    return { status: 202, body: { plan: planSummary(plan, snapshot.version), job: jobDto(job, await jobRunner.positionOf(job)) } };
+    const started = planSummary(plan, snapshot.version, await boundOf(plan));
+    return { status: 202, body: { plan: started, job: jobDto(job, await jobRunner.positionOf(job)) } };
   }
   const task = handMade
     ? { kind: 'hand-made' as const, snapshot, starters }
@@ -162,13 +137,19 @@ export async function createPlan(
         timeLimitSeconds: base.timeLimitSeconds ?? null,
         mustBrief: base.mustBrief,
         cannotBrief: base.cannotBrief,
+        noShow: base.noShow ?? null,
       });
   const outcome = (await runInPlanPool(task, {
     hardLimitMs: hardLimitMs(base.timeLimitSeconds ?? null),
   })) as ComputeOutcome<PlanComputation>;
   const computed = unwrap(outcome);
-  const planId = await store.insertPlan({ ...base, ...resultColumns(snapshot, computed) });
-  return { status: 201, body: planDetail((await store.findPlan(planId))!, snapshot.version) };
+  const planId = await db.transaction(async (tx) => {
+    const id = await store.insertPlan({ ...base, ...resultColumns(snapshot, computed) }, tx);
+    await recordComputation({ ...base, noShow: base.noShow ?? null }, computed, snapshot.personIds, tx);
+    return id;
+  });
+  const row = (await store.findPlan(planId))!;
+  return { status: 201, body: planDetail(row, snapshot.version, await boundOf(row)) };
 }
 
 function defaultName(method: string, k: number): string {
@@ -192,11 +173,14 @@ export const planJobHandler: JobHandler = {
     const outcome = (await runInPlanPool(plannerTask(snapshot, row), {
       signal: ctx.signal,
       hardLimitMs: hardLimitMs(row.timeLimitSeconds),
-      onProgress: (f) => ctx.progress(f),
+      onProgress: (f, search) => ctx.progress(f, undefined, undefined, search ? { search } : undefined),
     })) as ComputeOutcome<PlanComputation>;
     if ('error' in outcome) throw new JobFailure(outcome.error.message);
     const columns = resultColumns(snapshot, outcome.ok);
-    return async (tx) => store.updatePlan(row.id, columns, tx);
+    return async (tx) => {
+      await store.updatePlan(row.id, columns, tx);
+      await recordComputation(row, outcome.ok, snapshot.personIds, tx);
+    };
   },
   async onEnd(job, status, message, tx) {
     if (job.planId) await store.updatePlan(job.planId, { status, error: message }, tx);
@@ -220,16 +204,19 @@ export async function rerunPlan(user: SignedInUser, plan: LoadedPlan): Promise<P
   const job = (await findJob(jobId))!;
   await jobRunner.enqueue(job);
   const version = (await store.roomVersion(plan.roomId)) ?? plan.roomVersion;
-  return { plan: planSummary((await store.findPlan(plan.id))!, version), job: jobDto(job, await jobRunner.positionOf(job)) };
+  const fresh = (await store.findPlan(plan.id))!;
+  return { plan: planSummary(fresh, version, await boundOf(fresh)), job: jobDto(job, await jobRunner.positionOf(job)) };
 }
 
 export async function getPlan(plan: LoadedPlan): Promise<PlanDetail> {
-  return planDetail(plan, (await store.roomVersion(plan.roomId)) ?? plan.roomVersion);
+  return planDetail(plan, (await store.roomVersion(plan.roomId)) ?? plan.roomVersion, await boundOf(plan));
 }
 
 export async function listPlans(user: SignedInUser, roomId: number): Promise<PlanSummary[]> {
   const { room } = await roomAccess(user, roomId, 'view', 'That room');
-  return (await store.listPlans(roomId)).map((r) => planSummary(r, room.version));
+  const rows = await store.listPlans(roomId);
+  const bounds = await boundsFor(rows);
+  return rows.map((r) => planSummary(r, room.version, boundForRow(bounds, r)));
 }
 
 export async function updatePlan(plan: LoadedPlan, patch: { name?: string; chosen?: boolean }): Promise<PlanSummary> {
@@ -239,7 +226,7 @@ export async function updatePlan(plan: LoadedPlan, patch: { name?: string; chose
     await store.setChosen(plan.id, plan.roomId, patch.chosen);
   }
   const fresh = (await store.findPlan(plan.id))!;
-  return planSummary(fresh, (await store.roomVersion(plan.roomId)) ?? plan.roomVersion);
+  return planSummary(fresh, (await store.roomVersion(plan.roomId)) ?? plan.roomVersion, await boundOf(fresh));
 }
 
 export async function deletePlan(plan: LoadedPlan): Promise<void> {
@@ -278,8 +265,8 @@ export async function comparePlans(a: LoadedPlan, b: LoadedPlan): Promise<PlanCo
         : `"${b.name}" gives a room average ${Math.abs(diff).toFixed(2)} hops (${pct.toFixed(1)}%) ${diff < 0 ? 'lower' : 'higher'} than "${a.name}".`;
   }
   return {
-    a: planSummary(a, version),
-    b: planSummary(b, version),
+    a: planSummary(a, version, await boundOf(a)),
+    b: planSummary(b, version, await boundOf(b)),
     people,
     onlyInA: [...sa].filter((id) => !sb.has(id)),
     onlyInB: [...sb].filter((id) => !sa.has(id)),
@@ -316,5 +303,7 @@ export async function sweep(user: SignedInUser, roomId: number, maxK: number, se
     if ('error' in out) throw planError(out.error.code, out.error.message, out.error.detail);
     return out.ok as KSweepResult;
   });
-  return mergeSweeps(parts, performance.now() - started);
+  const merged = mergeSweeps(parts, performance.now() - started);
+  await recordSweepBounds(roomId, snapshot.version, merged);
+  return merged;
 }

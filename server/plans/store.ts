@@ -1,9 +1,11 @@
 /** Data access for plans (Drizzle). Lists never load the snapshot or the per-person results. */
-import { and, desc, eq, getTableColumns, inArray, ne } from 'drizzle-orm';
+import { and, desc, eq, getTableColumns, inArray, ne, sql } from 'drizzle-orm';
 import { users } from '../../db/schema/accounts';
+import { planBounds } from '../../db/schema/plan-bounds';
 import { jobs, plans, rehearsals } from '../../db/schema/plans';
 import { rooms } from '../../db/schema/rooms';
 import { db, type Tx } from '../db';
+import type { BoundKey } from './bound-key';
 
 export type PlanRow = typeof plans.$inferSelect;
 export type NewPlan = typeof plans.$inferInsert;
@@ -78,4 +80,53 @@ export async function openJobsOfPlan(planId: number) {
     .innerJoin(jobs, eq(jobs.id, rehearsals.jobId))
     .where(and(eq(rehearsals.planId, planId), inArray(jobs.status, ['queued', 'running'])));
   return [...own, ...viaRehearsals.map((r) => r.job)];
+}
+
+export type BoundRow = typeof planBounds.$inferSelect;
+
+export interface BoundFacts {
+  lowerBound: number;
+  lowerSource: string;
+  bestTotal: number | null;
+  bestStarters: number[] | null;
+}
+
+/**
+ * Merges what one computation proved into its key's row in one statement (safe under concurrent
+ * plans): the lower bound only rises, the best total only falls. MariaDB evaluates the
+ * assignments left to right, so the source and the starters are compared before their values move.
+ */
+export async function mergeBound(key: BoundKey, facts: BoundFacts, tx: Tx | typeof db = db): Promise<void> {
+  const starters = facts.bestStarters ? JSON.stringify(facts.bestStarters) : null;
+  await tx.execute(sql`
+    INSERT INTO plan_bounds (room_id, room_version, k, constraints_key, lower_bound, lower_source, best_total, best_starters)
+    VALUES (${key.roomId}, ${key.roomVersion}, ${key.k}, ${key.constraintsKey}, ${facts.lowerBound}, ${facts.lowerSource},
+            ${facts.bestTotal}, ${starters})
+    ON DUPLICATE KEY UPDATE
+      lower_source = IF(VALUES(lower_bound) > lower_bound, VALUES(lower_source), lower_source),
+      lower_bound = GREATEST(lower_bound, VALUES(lower_bound)),
+      best_starters = IF(VALUES(best_total) IS NOT NULL AND (best_total IS NULL OR VALUES(best_total) < best_total),
+                         VALUES(best_starters), best_starters),
+      best_total = IF(VALUES(best_total) IS NOT NULL AND (best_total IS NULL OR VALUES(best_total) < best_total),
+                      VALUES(best_total), best_total)`);
+}
+
+export async function findBound(key: BoundKey, tx: Tx | typeof db = db): Promise<BoundRow | undefined> {
+  const [row] = await tx
+    .select()
+    .from(planBounds)
+    .where(
+      and(
+        eq(planBounds.roomId, key.roomId),
+        eq(planBounds.roomVersion, key.roomVersion),
+        eq(planBounds.k, key.k),
+        eq(planBounds.constraintsKey, key.constraintsKey),
+      ),
+    );
+  return row;
+}
+
+/** Every bound row of a room (the plan list joins them in memory). */
+export async function boundsOfRoom(roomId: number): Promise<BoundRow[]> {
+  return db.select().from(planBounds).where(eq(planBounds.roomId, roomId));
 }

@@ -6,6 +6,7 @@
 import { isEngineError, unreachablePeople, type PreparedRoom } from '../../shared/engine/index';
 import { planContext } from '../../shared/engine/plan-context';
 import { PLAN_LIMITS, type CreatePlanRequest } from '../../shared/api/plans';
+import { planRequestProblems, startersProblem, type RuleProblem } from '../../shared/api/plan-rules';
 import { HttpError } from '../core/http-error';
 import type { RoomSnapshot } from './compute';
 
@@ -37,6 +38,11 @@ export function indicesOfPeople(snapshot: RoomSnapshot, ids: readonly number[], 
   return ids.map((id) => index.get(id)!);
 }
 
+/** The shared rule's problem as a 400 naming the form field it belongs to (`details.field`). */
+function ruleError(p: RuleProblem, details: Record<string, unknown> = {}): HttpError {
+  return planError(p.code, p.message, { ...details, field: p.field });
+}
+
 export function checkPlannerRequest(
   room: PreparedRoom,
   snapshot: RoomSnapshot,
@@ -46,22 +52,13 @@ export function checkPlannerRequest(
 ): void {
   const n = room.n;
   const k = body.k!;
-  if (n < 2) throw planError('INVALID_K', `The room has ${n} ${n === 1 ? 'person' : 'people'}: a plan needs at least two people.`);
-  if (k < 1) throw planError('INVALID_K', 'k must be at least 1: brief at least one person.', { k, people: n });
-  if (k >= n) {
-    throw planError(
-      'INVALID_K',
-      `k must be below the number of people (${n}): with k = ${k} nobody is left to hear it by word of mouth. Choose 1 to ${n - 1}.`,
-      { k, people: n },
-    );
-  }
-  if (must.length > k) {
-    throw planError(
-      'MUST_INCLUDE_TOO_MANY',
-      `${must.length} people must be briefed but k is ${k}: raise k to at least ${must.length} or shorten the list.`,
-      { k, mustBrief: must.length },
-    );
-  }
+  const nameOf = new Map(snapshot.personIds.map((id, i) => [id, snapshot.names[i]]));
+  const [first] = planRequestProblems(
+    { k, mustBrief: body.mustBrief ?? [], cannotBrief: body.cannotBrief ?? [], noShow: body.noShow },
+    n,
+    (id) => nameOf.get(id) ?? `#${id}`,
+  );
+  if (first) throw ruleError(first, { k, people: n });
   if (body.method === 'exhaustive' && n > PLAN_LIMITS.exhaustiveMaxPeople) {
     throw planError(
       'EXHAUSTIVE_INFEASIBLE',
@@ -79,13 +76,8 @@ export function checkPlannerRequest(
 
 export function checkHandMade(room: PreparedRoom, snapshot: RoomSnapshot, starters: number[]): void {
   const n = room.n;
-  if (starters.length < 1) throw planError('INVALID_K', 'Pick at least one starter.');
-  if (starters.length >= n) {
-    throw planError('INVALID_K', `A plan briefs fewer people than the room holds (${n}); you picked ${starters.length}.`, {
-      k: starters.length,
-      people: n,
-    });
-  }
+  const problem = startersProblem(starters.length, n);
+  if (problem) throw ruleError(problem, { k: starters.length, people: n });
   const lost = unreachablePeople(room, starters);
   if (lost.length > 0) {
     const people = lost.map((u) => ({ personId: snapshot.personIds[u.index], name: snapshot.names[u.index], reason: u.reason }));

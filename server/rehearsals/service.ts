@@ -12,6 +12,7 @@ import {
   type RehearsalSummary,
   type StartRehearsalRequest,
 } from '../../shared/api/plans';
+import { runsProblem, seedProblem } from '../../shared/api/plan-rules';
 import { Z99 } from '../../shared/engine/index';
 import { config } from '../config';
 import { conflict, notFound } from '../core/http-error';
@@ -45,26 +46,15 @@ export function randomSeed(): string {
   return randomBytes(8).toString('hex');
 }
 
+/** Same rules and words as the rehearsal form (shared/api/plan-rules.ts). */
 export function checkRuns(runs: number): void {
-  if (!Number.isInteger(runs) || runs < 1)
-    throw planError('INVALID_OPTION', `The number of cascades must be a whole number of at least 1 (got ${runs}).`);
-  if (runs > config.MAX_CASCADES) {
-    throw planError(
-      'TOO_MANY_CASCADES',
-      `At most ${config.MAX_CASCADES.toLocaleString('en-US')} cascades per rehearsal (you asked for ${runs.toLocaleString('en-US')}): lower the number.`,
-      { runs, max: config.MAX_CASCADES },
-    );
-  }
+  const p = runsProblem(runs, config.MAX_CASCADES);
+  if (p) throw planError(p.code, p.message, { runs, max: config.MAX_CASCADES, field: p.field });
 }
 
 export function checkSeed(seed: string): void {
-  if (!SEED_PATTERN.test(seed)) {
-    throw planError(
-      'INVALID_SEED',
-      'A seed is 1 to 64 letters, digits, "-" or "_" (for example 2026-allhands); leave it empty for a random one.',
-      { seed: seed.slice(0, 80) },
-    );
-  }
+  const p = seedProblem(seed);
+  if (p) throw planError(p.code, p.message, { seed: seed.slice(0, 80), field: p.field });
 }
 
 // Starts of one user are serialised in this process, so the idempotency check and the insert cannot interleave.
@@ -138,6 +128,7 @@ export function summaryOf(row: LoadedRehearsal | store.RehearsalListRow, positio
   const done = row.job.status === 'done';
   return {
     id: r.id,
+    number: Number(row.number),
     planId: r.planId,
     planName: row.planName,
     roomId: r.roomId,

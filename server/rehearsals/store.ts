@@ -1,5 +1,5 @@
 /** Data access for rehearsals (Drizzle); status lives on the job row. */
-import { and, desc, eq, getTableColumns, gte, lt, type SQL } from 'drizzle-orm';
+import { and, desc, eq, getTableColumns, gte, lt, sql, type SQL } from 'drizzle-orm';
 import { users } from '../../db/schema/accounts';
 import { jobs, plans, rehearsals } from '../../db/schema/plans';
 import { db, type Tx } from '../db';
@@ -14,7 +14,12 @@ export interface RehearsalListRow {
   job: JobRow;
   planName: string;
   createdByName: string;
+  /** 1 for the room's first rehearsal, 2 for its second... (its rank among the room's rehearsals). */
+  number: number;
 }
+
+/** The rehearsal's rank within its room: counted, so every room starts at 1 (no extra column). */
+const roomNumber = sql<number>`(select count(*) from rehearsals r2 where r2.room_id = ${rehearsals.roomId} and r2.id <= ${rehearsals.id})`;
 
 export async function insertRehearsal(values: NewRehearsal, tx: Tx | typeof db = db): Promise<number> {
   const [{ id }] = await tx.insert(rehearsals).values(values).$returningId();
@@ -27,7 +32,7 @@ export async function updateRehearsal(id: number, patch: Partial<NewRehearsal>, 
 
 export async function findRehearsal(id: number): Promise<(RehearsalListRow & { rehearsal: RehearsalRow }) | undefined> {
   const [row] = await db
-    .select({ rehearsal: rehearsals, job: jobs, planName: plans.name, createdByName: users.name })
+    .select({ rehearsal: rehearsals, job: jobs, planName: plans.name, createdByName: users.name, number: roomNumber })
     .from(rehearsals)
     .innerJoin(jobs, eq(jobs.id, rehearsals.jobId))
     .innerJoin(plans, eq(plans.id, rehearsals.planId))
@@ -56,7 +61,7 @@ export async function listRehearsals(roomId: number, f: RehearsalFilter): Promis
   if (f.to) where.push(lt(rehearsals.createdAt, f.to));
   const { results: _r, samples: _s, ...cols } = getTableColumns(rehearsals);
   return db
-    .select({ rehearsal: cols, job: jobs, planName: plans.name, createdByName: users.name })
+    .select({ rehearsal: cols, job: jobs, planName: plans.name, createdByName: users.name, number: roomNumber })
     .from(rehearsals)
     .innerJoin(jobs, eq(jobs.id, rehearsals.jobId))
     .innerJoin(plans, eq(plans.id, rehearsals.planId))

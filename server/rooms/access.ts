@@ -10,6 +10,8 @@ import { users } from '../../db/schema/accounts';
 import { people, roomShares, rooms, ties } from '../../db/schema/rooms';
 import { db, type Tx } from '../db';
 import { forbidden, notFound, unauthorized } from '../core/http-error';
+import { idOf } from '../core/ids';
+import { workshopEditorOf } from './grants';
 import type { SignedInUser } from '../types';
 
 export type RoomNeed = 'view' | 'edit' | 'own';
@@ -29,9 +31,7 @@ const ALLOWED: Record<RoomNeed, readonly RoomAccess[]> = {
 
 /** Parses a room id from a URL; anything that is not a positive integer is simply not found. */
 export function roomIdOf(raw: unknown): number {
-  const id = typeof raw === 'number' ? raw : /^[1-9]\d{0,15}$/.test(String(raw)) ? Number(raw) : NaN;
-  if (!Number.isSafeInteger(id) || id <= 0) throw notFound('That room');
-  return id;
+  return idOf(raw, 'That room');
 }
 
 export async function loadRoomFor(
@@ -43,13 +43,14 @@ export async function loadRoomFor(
   if (!user) throw unauthorized();
   const id = roomIdOf(roomId);
   const [row] = await tx
-    .select({ room: rooms, ownerName: users.name, shareRole: roomShares.role })
+    .select({ room: rooms, ownerName: users.name, shareRole: roomShares.role, helper: workshopEditorOf(user.id) })
     .from(rooms)
     .innerJoin(users, eq(users.id, rooms.ownerId))
     .leftJoin(roomShares, and(eq(roomShares.roomId, rooms.id), eq(roomShares.userId, user.id)))
     .where(eq(rooms.id, id));
   if (!row) throw notFound('That room');
-  const access: RoomAccess | undefined = row.room.ownerId === user.id ? 'owner' : (row.shareRole ?? undefined);
+  const access: RoomAccess | undefined =
+    row.room.ownerId === user.id ? 'owner' : Number(row.helper) ? 'editor' : (row.shareRole ?? undefined);
   if (!access) throw notFound('That room');
   if (!ALLOWED[need].includes(access)) {
     throw forbidden(

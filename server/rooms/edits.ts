@@ -7,7 +7,8 @@
  */
 import { ROOM_LIMITS, type RoomEditResult } from '../../shared/api/rooms';
 import type { people as peopleTable } from '../../db/schema/rooms';
-import { db, type Tx } from '../db';
+import { transaction, type Tx } from '../db';
+import { assertClientThere } from '../core/heavy-writes';
 import { HttpError, notFound } from '../core/http-error';
 import type { FieldError } from '../core/validate';
 import { failFields, keyMaker, pairKey } from './content';
@@ -32,12 +33,13 @@ type Step =
   | { kind: 'deleteTies'; ids: number[] }
   | { kind: 'move'; moves: { ref: number | string; x: number; y: number; pinned?: boolean }[] };
 
-export async function applyEdits(roomId: number, batch: EditBatchInput): Promise<RoomEditResult> {
+export async function applyEdits(roomId: number, batch: EditBatchInput, clientGone?: AbortSignal): Promise<RoomEditResult> {
   const layoutOnly = batch.ops.every((op) => op.op === 'movePeople');
   if (!layoutOnly && batch.version === undefined) {
     failFields([{ field: 'version', message: 'Send the room version you started from (needed for any change other than moving people).' }]);
   }
-  return db.transaction(async (tx) => {
+  return transaction(async (tx) => {
+    assertClientThere(clientGone);
     const room = await store.lockRoom(tx, roomId);
     if (!room) throw notFound('That room');
     if (!layoutOnly && room.version !== batch.version) throw staleVersion(room, batch.version!);
@@ -45,6 +47,7 @@ export async function applyEdits(roomId: number, batch: EditBatchInput): Promise
     const created = await write(tx, roomId, steps);
     if (layoutOnly) await store.touchRoom(tx, roomId);
     else await store.bumpVersion(tx, roomId);
+    assertClientThere(clientGone); // a batch whose client left is rolled back, not committed
     return { version: layoutOnly ? room.version : room.version + 1, layoutOnly, ...created };
   });
 }

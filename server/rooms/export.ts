@@ -52,5 +52,7 @@ export function exportRoom(format: ExportFormat, roomName: string, loaded: Loade
       return { filename: `${stem}-people.csv`, contentType: 'text/csv; charset=utf-8', body: '\uFEFF' + writeRoomCsv(graph).people };
     case 'ties-csv':
       return { filename: `${stem}-ties.csv`, contentType: 'text/csv; charset=utf-8', body: '\uFEFF' + writeRoomCsv(graph).ties };
+    case 'org-chart-csv':
+      throw new Error('The org-chart CSV is written from the people rows (routes.ts), not from the graph.');
   }
 }

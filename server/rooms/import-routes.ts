@@ -11,9 +11,11 @@ import { signedIn } from '../core/access';
 import { audit } from '../core/audit';
 import { HttpError, notFound } from '../core/http-error';
 import { parse } from '../core/validate';
+import { heavyWrite } from '../core/heavy-writes';
 import { db } from '../db';
 import { loadRoomFor, type LoadedRoom } from './access';
-import { contentOf, formatFor, readImport, receiveUpload, reportOf, uploadedFiles, type ParsedImport } from './import';
+import { parseUpload } from './parse-upload';
+import { contentOf, formatFor, receiveUpload, reportOf, uploadedFiles, type ParsedImport } from './import';
 import { roomName } from './schemas';
 import { createWithContent, staleVersion } from './service';
 import * as store from './store';
@@ -34,13 +36,13 @@ async function editableRoom(req: Request, res: Response, next: NextFunction) {
   next();
 }
 
-function read(req: Request, defaultDirected?: boolean) {
+async function read(req: Request, defaultDirected?: boolean) {
   const { dryRun } = parse(query, req.query, 'query');
   const f = parse(fields, req.body ?? {}, 'import form');
   const { file, people } = uploadedFiles(req);
   const format = formatFor(file, f.format);
   const directed = f.directed === undefined ? defaultDirected : f.directed === 'true';
-  const parsed = readImport(file, people, format, directed);
+  const parsed = await parseUpload(file, people, format, directed);
   return { dryRun: dryRun === 'true', f, parsed, fileName: file.name };
 }
 
@@ -54,8 +56,8 @@ function refuseErrors(report: ImportReport): void {
   throw new HttpError(400, 'import_errors', refusalLine(report.errors as Issue[]), { report });
 }
 
-importRouter.post('/import', signedIn(), receiveUpload, async (req, res) => {
-  const { dryRun, f, parsed, fileName } = read(req);
+importRouter.post('/import', signedIn(), heavyWrite, receiveUpload, async (req, res) => {
+  const { dryRun, f, parsed, fileName } = await read(req);
   const report = reportOf(parsed, dryRun);
   refuseErrors(report);
   if (dryRun) return void res.json(report);
@@ -80,9 +82,9 @@ importRouter.post('/import', signedIn(), receiveUpload, async (req, res) => {
   res.status(201).json({ ...report, committed: true, roomId, version: 1 } satisfies ImportReport);
 });
 
-importRouter.post('/:id/import', signedIn(), editableRoom, receiveUpload, async (req, res) => {
+importRouter.post('/:id/import', signedIn(), editableRoom, heavyWrite, receiveUpload, async (req, res) => {
   const loaded = res.locals['room'] as LoadedRoom;
-  const { dryRun, f, parsed } = read(req, loaded.room.directed);
+  const { dryRun, f, parsed } = await read(req, loaded.room.directed);
   const report: ImportReport = { ...reportOf(parsed, dryRun), replaces: await store.countContent(db, loaded.room.id) };
   refuseErrors(report);
   if (dryRun) return void res.json(report);
@@ -104,7 +106,7 @@ async function replaceContent(req: Request, loaded: LoadedRoom, parsed: ParsedIm
     const content = contentOf(parsed);
     await store.clearContent(tx, room.id);
     await store.insertContent(tx, room.id, content.people, content.ties);
-    await store.updateRoomFields(tx, room.id, { directed: parsed.graph.directed });
+    await store.updateRoomFields(tx, room.id, { directed: parsed.graph.directed, orgChart: null });
     await audit(
       req,
       { action: 'room.import', targetType: 'room', targetId: room.id, detail: { format: parsed.format, people: content.people.length } },

@@ -8,6 +8,7 @@ import type { NextFunction, Request, Response } from 'express';
 import multer from 'multer';
 import { decodeUtf8, formatOf, parseRoom, type Issue, type ParseResult, type RoomGraph } from '../../shared/engine/index';
 import { ROOM_LIMITS as L, type ImportFormat, type ImportIssue, type ImportReport, type RoomSettings } from '../../shared/api/rooms';
+import { config } from '../config';
 import { HttpError } from '../core/http-error';
 import type { PersonRowInput, TieRowInput } from './store';
 
@@ -140,7 +141,7 @@ export function readImport(file: Upload, people: Upload | undefined, format: Imp
   const result: ParseResult = parseRoom(
     format,
     decoded.text!,
-    { maxPeople: L.maxPeople, maxTies: L.maxTies, maxStrength: L.maxStrength, maxChars: L.maxUploadBytes, directed },
+    { maxPeople: config.MAX_ROOM_PEOPLE, maxTies: config.MAX_ROOM_TIES, maxStrength: L.maxStrength, maxChars: L.maxUploadBytes, directed },
     decodedPeople?.text,
   );
   const errors = result.errors.map(asIssue);

@@ -8,10 +8,14 @@ import { audit } from '../core/audit';
 import { parse } from '../core/validate';
 import { loadRoomFor, loadRoomGraph } from './access';
 import { applyEdits } from './edits';
-import { exportRoom } from './export';
+import { exportRoom, fileStem } from './export';
 import { importRouter } from './import-routes';
+import { writeRoomOrgChart } from './org-chart';
+import { orgChartRouter } from './org-chart-routes';
 import * as schemas from './schemas';
 import { createRoom, duplicateRoom, roomDto, updateRoom } from './service';
+import { idOf } from '../core/ids';
+import { clientGoneSignal, heavyWrite } from '../core/heavy-writes';
 import { addShare, changeShare, listShares, revokeShare } from './shares';
 import * as store from './store';
 import { summarize } from './summary';
@@ -19,6 +23,7 @@ import { summarize } from './summary';
 export const roomsRouter = Router();
 const me = (req: Request) => req.user!;
 
+roomsRouter.use(orgChartRouter);
 roomsRouter.use(importRouter);
 
 roomsRouter.get('/', signedIn(), async (req, res) => {
@@ -26,7 +31,7 @@ roomsRouter.get('/', signedIn(), async (req, res) => {
   res.json(await store.listRooms(me(req).id, q));
 });
 
-roomsRouter.post('/', signedIn(), async (req, res) => {
+roomsRouter.post('/', signedIn(), heavyWrite, async (req, res) => {
   const body = parse(schemas.createRoomBody, req.body);
   const id = await createRoom(me(req).id, body);
   await audit(req, { action: 'room.create', targetType: 'room', targetId: id, detail: { people: body.people?.length ?? 0 } });
@@ -51,7 +56,7 @@ roomsRouter.delete('/:id', signedIn(), async (req, res) => {
   res.status(204).end();
 });
 
-roomsRouter.post('/:id/duplicate', signedIn(), async (req, res) => {
+roomsRouter.post('/:id/duplicate', signedIn(), heavyWrite, async (req, res) => {
   const loaded = await loadRoomFor(req.user, req.params.id, 'view');
   const body = parse(schemas.duplicateBody, req.body ?? {});
   const id = await duplicateRoom(loaded, me(req).id, body.name);
@@ -59,10 +64,10 @@ roomsRouter.post('/:id/duplicate', signedIn(), async (req, res) => {
   res.status(201).json(await roomDto(await loadRoomFor(req.user, id, 'view')));
 });
 
-roomsRouter.post('/:id/edits', signedIn(), async (req, res) => {
+roomsRouter.post('/:id/edits', signedIn(), heavyWrite, async (req, res) => {
   const { room } = await loadRoomFor(req.user, req.params.id, 'edit');
   const body = parse(schemas.editBatchBody, req.body, 'edits');
-  res.json(await applyEdits(room.id, body));
+  res.json(await applyEdits(room.id, body, clientGoneSignal(res)));
 });
 
 roomsRouter.get('/:id/people', signedIn(), async (req, res) => {
@@ -85,6 +90,15 @@ const exportQuery = z.strictObject({ format: z.enum(EXPORT_FORMATS, `format must
 roomsRouter.get('/:id/export', signedIn(), async (req, res) => {
   const { room } = await loadRoomFor(req.user, req.params.id, 'view');
   const { format } = parse(exportQuery, req.query, 'query');
+  if (format === 'org-chart-csv') {
+    const body = '\uFEFF' + writeRoomOrgChart(await store.orgChartPeople(db, room.id), await store.roomOrgChart(db, room.id));
+    res
+      .set('Cache-Control', 'no-store')
+      .attachment(`${fileStem(room.name)}-org-chart.csv`)
+      .type('text/csv; charset=utf-8')
+      .send(body);
+    return;
+  }
   const file = exportRoom(format, room.name, await loadRoomGraph(room.id), await store.roomPeople(db, room.id));
   res.set('Cache-Control', 'no-store').attachment(file.filename).type(file.contentType).send(file.body);
 });
@@ -102,7 +116,7 @@ roomsRouter.post('/:id/shares', signedIn(), async (req, res) => {
   res.status(201).json(share);
 });
 
-const userIdOf = (raw: unknown) => parse(z.coerce.number().int().positive('Give the account id as a number.'), raw, 'account id');
+const userIdOf = (raw: unknown) => idOf(raw, 'That share');
 
 roomsRouter.patch('/:id/shares/:userId', signedIn(), async (req, res) => {
   const { room } = await loadRoomFor(req.user, req.params.id, 'own');

@@ -6,6 +6,7 @@ import { users } from '../../db/schema/accounts';
 import { people, roomShares, rooms, ties } from '../../db/schema/rooms';
 import { db, type Tx } from '../db';
 import type { RoomRow } from './access';
+import { workshopRoomIdsOf } from './grants';
 
 type Q = Tx | typeof db;
 const CHUNK = 1000;
@@ -21,6 +22,8 @@ export interface PersonRowInput {
   x: number | null;
   y: number | null;
   pinned: boolean;
+  /** From an org-chart import: the manager's person key. */
+  managerKey?: string | null;
 }
 
 export interface TieRowInput {
@@ -59,6 +62,7 @@ export async function insertContent(
       x: p.x,
       y: p.y,
       pinned: p.pinned,
+      managerKey: p.managerKey ?? null,
       orderIndex: firstOrder + at + i,
     }));
     const got = await tx.insert(people).values(rows).$returningId();
@@ -105,6 +109,11 @@ export async function updateRoomFields(tx: Q, roomId: number, set: Partial<typeo
     .where(eq(rooms.id, roomId));
 }
 
+/** Notes the org-chart headers of a room just created from one (not a content change: no version bump). */
+export async function setOrgChart(tx: Q, roomId: number, saved: string | null): Promise<void> {
+  await tx.update(rooms).set({ orgChart: saved }).where(eq(rooms.id, roomId));
+}
+
 export async function deleteRoom(roomId: number): Promise<void> {
   await db.delete(rooms).where(eq(rooms.id, roomId));
 }
@@ -122,6 +131,23 @@ const personColumns = {
 
 export async function roomPeople(tx: Q, roomId: number): Promise<PersonDto[]> {
   return tx.select(personColumns).from(people).where(eq(people.roomId, roomId)).orderBy(asc(people.orderIndex), asc(people.id));
+}
+
+/** People with their manager keys, in room order, for the org-chart export. */
+export async function orgChartPeople(
+  tx: Q,
+  roomId: number,
+): Promise<{ key: string; name: string; group: string | null; managerKey: string | null }[]> {
+  return tx
+    .select({ key: people.personKey, name: people.name, group: people.groupName, managerKey: people.managerKey })
+    .from(people)
+    .where(eq(people.roomId, roomId))
+    .orderBy(asc(people.orderIndex), asc(people.id));
+}
+
+export async function roomOrgChart(tx: Q, roomId: number): Promise<string | null> {
+  const [row] = await tx.select({ orgChart: rooms.orgChart }).from(rooms).where(eq(rooms.id, roomId));
+  return row?.orgChart ?? null;
 }
 
 export async function roomTies(tx: Q, roomId: number): Promise<TieDto[]> {
@@ -166,11 +192,16 @@ const iso = (d: Date) => d.toISOString();
 
 export async function listRooms(userId: number, p: ListParams<string> & { scope: 'all' | 'mine' | 'shared' }): Promise<Page<RoomListItem>> {
   const mine = eq(rooms.ownerId, userId);
-  const sharedWithMe = exists(
-    db
-      .select({ one: sql`1` })
-      .from(roomShares)
-      .where(and(eq(roomShares.roomId, rooms.id), eq(roomShares.userId, userId))),
+  const helperRooms = await workshopRoomIdsOf(userId);
+  const helper = helperRooms.length ? inArray(rooms.id, helperRooms) : sql`FALSE`;
+  const sharedWithMe = or(
+    exists(
+      db
+        .select({ one: sql`1` })
+        .from(roomShares)
+        .where(and(eq(roomShares.roomId, rooms.id), eq(roomShares.userId, userId))),
+    ),
+    helper,
   );
   const scope = p.scope === 'mine' ? mine : p.scope === 'shared' ? sharedWithMe : or(mine, sharedWithMe);
   const filters: (SQL | undefined)[] = [scope];
@@ -189,6 +220,7 @@ export async function listRooms(userId: number, p: ListParams<string> & { scope:
       room: rooms,
       ownerName: users.name,
       shareRole: roomShares.role,
+      helper: sql<number>`${helper}`,
       people: peopleCount,
       ties: tieCount,
     })
@@ -207,7 +239,7 @@ export async function listRooms(userId: number, p: ListParams<string> & { scope:
       id: r.room.id,
       name: r.room.name,
       description: r.room.description,
-      access: r.room.ownerId === userId ? 'owner' : (r.shareRole ?? 'viewer'),
+      access: r.room.ownerId === userId ? 'owner' : Number(r.helper) ? 'editor' : (r.shareRole ?? 'viewer'),
       ownerName: r.ownerName,
       people: Number(r.people),
       ties: Number(r.ties),

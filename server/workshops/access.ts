@@ -1,3 +1,4 @@
+import { idOf } from '../core/ids';
 import { forbidden, notFound } from '../core/http-error';
 import type { SignedInUser } from '../types';
 import { workshopForUser, type WorkshopRow } from './store';
@@ -12,9 +13,7 @@ export interface LoadedWorkshop {
 }
 
 export function workshopIdOf(raw: unknown): number {
-  const s = String(raw);
-  if (!/^[1-9]\d{0,15}$/.test(s)) throw notFound('That workshop');
-  return Number(s);
+  return idOf(raw, 'That workshop');
 }
 
 export async function loadWorkshopFor(

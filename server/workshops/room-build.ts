@@ -1,7 +1,6 @@
 import { and, eq, inArray } from 'drizzle-orm';
 import { ties } from '../../db/schema/rooms';
 import { workshopParticipants, workshops } from '../../db/schema/workshops';
-import { shareWorkshopRoom } from './co-facilitators';
 import { DEFAULT_ROOM_SETTINGS } from '../../shared/api/rooms';
 import type { BuildMode, BuildResult, MissingAnswer } from '../../shared/api/workshops';
 import { db, type Tx } from '../db';
@@ -58,7 +57,6 @@ export async function buildRoom(w: WorkshopRow, owner: SignedInUser, mode: Build
         settings: { ...DEFAULT_ROOM_SETTINGS, directed },
       });
       await tx.update(workshops).set({ roomId }).where(eq(workshops.id, w.id));
-      await shareWorkshopRoom(w.id, roomId, tx);
     }
     const room = await roomStore.lockRoom(tx, roomId);
     if (!room) throw new HttpError(409, 'room_gone', 'The room of this workshop was deleted.');

@@ -18,6 +18,8 @@ import * as service from './service';
 import { listWorkshops, participantCounts } from './store';
 import type { SignedInUser } from '../types';
 import { findUserById } from '../auth/store';
+import { idOf } from '../core/ids';
+import { coFacilitatorIds, roomAccessNote } from './co-facilitators';
 
 const date = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-05-14.');
 const createBody = z.strictObject({
@@ -54,7 +56,10 @@ const peopleBody = z.strictObject({
 const rosterBody = z.strictObject({ csv: z.string().min(1, 'The file is empty.').max(2_000_000, 'The file is too large for a roster.') });
 const linksBody = z.strictObject({
   participantIds: z.array(z.number().int().positive()).max(ROSTER_MAX).optional(),
-  replace: z.boolean().default(true),
+});
+const reissueBody = z.strictObject({
+  participantIds: z.array(z.number().int().positive()).min(1, 'Choose whose links to reissue.').max(ROSTER_MAX),
+  confirm: z.literal(true, 'Reissuing ends the links these people already hold: confirm it with "confirm": true.'),
 });
 const revokeBody = z.strictObject({ participantIds: z.array(z.number().int().positive()).min(1).max(ROSTER_MAX) });
 const buildBody = z.strictObject({
@@ -65,7 +70,7 @@ const releaseBody = z.strictObject({
   sampleRun: z.number().int().min(0),
   showStarters: z.boolean(),
 });
-const pid = (raw: unknown) => (/^[1-9]\d{0,15}$/.test(String(raw)) ? Number(raw) : 0);
+const pid = (raw: unknown) => idOf(raw, 'That participant');
 
 async function ownerOf(ownerId: number): Promise<SignedInUser> {
   const row = await findUserById(ownerId);
@@ -112,8 +117,15 @@ workshopsRouter.patch('/:id', signedIn(), async (req, res) => {
 
 workshopsRouter.delete('/:id', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id'], 'own');
+  const helpers = await coFacilitatorIds(workshop.id);
   await db.delete(workshops).where(eq(workshops.id, workshop.id));
-  await audit(req, { action: 'workshop.deleted', targetType: 'workshop', targetId: workshop.id });
+  // Their editor access to the workshop's room ended with the workshop (server/rooms/grants.ts).
+  await audit(req, {
+    action: 'workshop.deleted',
+    targetType: 'workshop',
+    targetId: workshop.id,
+    detail: { roomId: workshop.roomId, roomAccessEnded: workshop.roomId === null ? [] : helpers },
+  });
   res.status(204).end();
 });
 
@@ -127,25 +139,40 @@ workshopsRouter.post('/:id/status', signedIn(), async (req, res) => {
 
 workshopsRouter.post('/:id/facilitators', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id'], 'own');
-  await service.addFacilitator(workshop, parse(emailBody, req.body).email);
+  const userId = await service.addFacilitator(workshop, parse(emailBody, req.body).email);
+  const room = await roomAccessNote(workshop, userId);
+  await audit(req, {
+    action: 'workshop.facilitator_added',
+    targetType: 'workshop',
+    targetId: workshop.id,
+    detail: { userId, ...room, roomAccess: room.roomId === null ? 'none' : 'editor while co-facilitating' },
+  });
   res.status(201).json(await service.workshopDetail(workshop, true));
 });
 
 workshopsRouter.delete('/:id/facilitators/:userId', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id'], 'own');
-  await service.removeFacilitator(workshop, pid(req.params['userId']));
+  const userId = pid(req.params['userId']);
+  await service.removeFacilitator(workshop, userId);
+  const room = await roomAccessNote(workshop, userId);
+  await audit(req, {
+    action: 'workshop.facilitator_removed',
+    targetType: 'workshop',
+    targetId: workshop.id,
+    detail: { userId, ...room, roomAccess: room.directShare ?? 'none' },
+  });
   res.status(204).end();
 });
 
+/** Answers with the workshop as it now is, so the page shows the new row without asking again. */
 workshopsRouter.post('/:id/participants', signedIn(), async (req, res) => {
-  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  const { workshop, owner } = await loadWorkshopFor(req.user, req.params['id']);
   const body = parse(peopleBody, req.body);
-  res.status(201).json(
-    await service.addParticipants(
-      workshop,
-      body.people.map((p) => ({ name: p.name, email: p.email ?? null, personId: null })),
-    ),
+  const result = await service.addParticipants(
+    workshop,
+    body.people.map((p) => ({ name: p.name, email: p.email ?? null, personId: null })),
   );
+  res.status(201).json({ ...result, workshop: await service.workshopDetail(workshop, owner) });
 });
 
 workshopsRouter.post('/:id/participants/roster', signedIn(), async (req, res) => {
@@ -186,7 +213,7 @@ workshopsRouter.post('/:id/participants/:pid/reset-claim', signedIn(), async (re
 workshopsRouter.post('/:id/links/email', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
   const body = parse(linksBody, req.body);
-  const result = await service.emailLinks(workshop, req.user!, body.participantIds, body.replace);
+  const result = await service.emailLinks(workshop, req.user!, body.participantIds);
   await audit(req, {
     action: 'workshop.links_emailed',
     targetType: 'workshop',
@@ -199,12 +226,24 @@ workshopsRouter.post('/:id/links/email', signedIn(), async (req, res) => {
 workshopsRouter.post('/:id/links/sheet', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
   const body = parse(linksBody, req.body);
-  res.set('Cache-Control', 'no-store').json(await service.sheetLinks(workshop, body.participantIds, body.replace));
+  const links = await service.sheetLinks(workshop, body.participantIds);
+  await audit(req, { action: 'workshop.links_printed', targetType: 'workshop', targetId: workshop.id, detail: { links: links.length } });
+  res.set('Cache-Control', 'no-store').json(links);
+});
+
+workshopsRouter.post('/:id/links/reissue', signedIn(), async (req, res) => {
+  const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
+  const body = parse(reissueBody, req.body);
+  const links = await service.reissueParticipantLinks(workshop, body.participantIds);
+  await audit(req, { action: 'workshop.links_reissued', targetType: 'workshop', targetId: workshop.id, detail: { links: links.length } });
+  res.set('Cache-Control', 'no-store').json(links);
 });
 
 workshopsRouter.post('/:id/links/revoke', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
-  res.json({ revoked: await service.revokeParticipantLinks(workshop, parse(revokeBody, req.body).participantIds) });
+  const revoked = await service.revokeParticipantLinks(workshop, parse(revokeBody, req.body).participantIds);
+  await audit(req, { action: 'workshop.links_revoked', targetType: 'workshop', targetId: workshop.id, detail: { links: revoked } });
+  res.json({ revoked });
 });
 
 workshopsRouter.post('/:id/join-code', signedIn(), async (req, res) => {

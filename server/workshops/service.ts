@@ -3,18 +3,25 @@ import { users } from '../../db/schema/accounts';
 import { rooms } from '../../db/schema/rooms';
 import { workshopFacilitators, workshopParticipants, workshops } from '../../db/schema/workshops';
 import { STATUS_LABELS, STATUS_MOVES, type IssuedLink, type WorkshopDetail, type WorkshopStatus } from '../../shared/api/workshops';
-import { db } from '../db';
-import { badRequest, conflict, HttpError } from '../core/http-error';
+import { db, transaction } from '../db';
+import { badRequest, conflict, HttpError, notFound } from '../core/http-error';
 import { sendMail } from '../mail/transport';
-import { issueLink, participantUrl, revokeLinks, type LinkChannel } from '../participants/links';
+import { linksFor, participantUrl, reissueLinks, revokeLinks, revokeToken, type ShownLink } from '../participants/links';
 import { loadRoomFor } from '../rooms/access';
 import { roomPeople } from '../rooms/store';
 import type { SignedInUser } from '../types';
 import type { DebriefSnapshot } from './debrief';
-import { shareWorkshopRoom } from './co-facilitators';
 import { surveyLinkMail } from './mail';
 import { qrDataUrl } from './qr';
-import { facilitatorsOf, insertParticipants, participantRows, participantsById, type WorkshopRow } from './store';
+import {
+  facilitatorsOf,
+  insertParticipants,
+  lockWorkshop,
+  participantRows,
+  participantsById,
+  type ParticipantDbRow,
+  type WorkshopRow,
+} from './store';
 
 /** Workshops domain: status moves, facilitators, participants and their links. */
 
@@ -73,7 +80,8 @@ export async function moveStatus(w: WorkshopRow, to: WorkshopStatus): Promise<vo
   await db.update(workshops).set({ status: to }).where(eq(workshops.id, w.id));
 }
 
-export async function addFacilitator(w: WorkshopRow, email: string): Promise<void> {
+/** Adds a co-facilitator; returns their id (the route audits the change and its room access). */
+export async function addFacilitator(w: WorkshopRow, email: string): Promise<number> {
   const [user] = await db.select().from(users).where(eq(users.email, email.trim().toLowerCase()));
   if (!user || user.status !== 'active') {
     throw badRequest('No active Ripplehall account uses that e-mail address. Ask an admin to invite them first.', {
@@ -85,11 +93,14 @@ export async function addFacilitator(w: WorkshopRow, email: string): Promise<voi
     .insert(workshopFacilitators)
     .values({ workshopId: w.id, userId: user.id })
     .onDuplicateKeyUpdate({ set: { userId: user.id } });
-  await shareWorkshopRoom(w.id, w.roomId);
+  return user.id;
 }
 
 export async function removeFacilitator(w: WorkshopRow, userId: number): Promise<void> {
-  await db.delete(workshopFacilitators).where(and(eq(workshopFacilitators.workshopId, w.id), eq(workshopFacilitators.userId, userId)));
+  const [result] = await db
+    .delete(workshopFacilitators)
+    .where(and(eq(workshopFacilitators.workshopId, w.id), eq(workshopFacilitators.userId, userId)));
+  if (!(result as { affectedRows?: number }).affectedRows) throw notFound('That co-facilitator');
 }
 
 /** Adds participants, skipping names already on the list (case-insensitive). */
@@ -118,13 +129,17 @@ export async function participantsFromRoom(w: WorkshopRow, owner: SignedInUser):
 
 export async function removeParticipant(w: WorkshopRow, participantId: number): Promise<void> {
   assertNotClosed(w);
-  await db.delete(workshopParticipants).where(and(eq(workshopParticipants.workshopId, w.id), eq(workshopParticipants.id, participantId)));
+  const [result] = await db
+    .delete(workshopParticipants)
+    .where(and(eq(workshopParticipants.workshopId, w.id), eq(workshopParticipants.id, participantId)));
+  if (!(result as { affectedRows?: number }).affectedRows) throw notFound('That participant');
 }
 
 export async function resetClaim(w: WorkshopRow, participantId: number): Promise<void> {
   const [p] = await participantsById(w.id, [participantId]);
   if (!p) throw new HttpError(404, 'not_found', 'That participant was not found.');
-  await db.transaction(async (tx) => {
+  await transaction(async (tx) => {
+    await lockWorkshop(tx, w.id);
     await tx.update(workshopParticipants).set({ claimedAt: null }).where(eq(workshopParticipants.id, p.id));
     await revokeLinks(tx, [p.id]);
   });
@@ -138,32 +153,41 @@ async function targets(w: WorkshopRow, ids: number[] | undefined) {
   return list;
 }
 
-/** Fresh links for a printed sheet (the only time these tokens are shown). */
-export async function sheetLinks(w: WorkshopRow, ids: number[] | undefined, replace: boolean): Promise<IssuedLink[]> {
+/** Each chosen participant's own link for a printed sheet: live links are shown again, never replaced. */
+export async function sheetLinks(w: WorkshopRow, ids: number[] | undefined): Promise<IssuedLink[]> {
   assertNotClosed(w);
   const list = await targets(w, ids);
-  return issueMany(w, list, 'sheet', replace);
-}
-
-async function issueMany(w: WorkshopRow, list: Awaited<ReturnType<typeof participantsById>>, channel: LinkChannel, replace: boolean) {
-  const out: IssuedLink[] = [];
-  await db.transaction(async (tx) => {
-    for (const p of list) {
-      const { token, expiresAt } = await issueLink(tx, p.id, channel, w.linkDays, replace);
-      const url = participantUrl(token);
-      out.push({ participantId: p.id, name: p.name, email: p.email, url, expiresAt: expiresAt.toISOString(), qr: '' });
-    }
+  const links = await transaction(async (tx) => {
+    await lockWorkshop(tx, w.id);
+    return linksFor(
+      tx,
+      list.map((p) => p.id),
+      'sheet',
+      w.linkDays,
+    );
   });
-  for (const link of out) link.qr = await qrDataUrl(link.url);
-  return out;
+  return withQr(list, links);
 }
 
-/** E-mails fresh links to every chosen participant with an address. */
+async function withQr(list: ParticipantDbRow[], links: Map<number, ShownLink>): Promise<IssuedLink[]> {
+  return Promise.all(
+    list.map(async (p) => {
+      const link = links.get(p.id)!;
+      const url = participantUrl(link.token);
+      return { participantId: p.id, name: p.name, email: p.email, url, expiresAt: link.expiresAt.toISOString(), qr: await qrDataUrl(url) };
+    }),
+  );
+}
+
+/**
+ * E-mails each chosen participant with an address their own link (the live one when they have
+ * it). A message that fails to send ends only a link it had just issued, which nobody holds;
+ * a link the person already has keeps working.
+ */
 export async function emailLinks(
   w: WorkshopRow,
   sender: SignedInUser,
   ids: number[] | undefined,
-  replace: boolean,
 ): Promise<{ sent: string[]; withoutEmail: string[]; failed: string[] }> {
   assertNotClosed(w);
   const list = await targets(w, ids);
@@ -171,36 +195,62 @@ export async function emailLinks(
   const withoutEmail = list.filter((p) => !p.email).map((p) => p.name);
   if (!withEmail.length)
     throw badRequest('None of the chosen participants has an e-mail address. Print a sheet of links or show the QR code instead.');
-  const links = await issueMany(w, withEmail, 'email', replace);
+  const links = await transaction(async (tx) => {
+    await lockWorkshop(tx, w.id);
+    return linksFor(
+      tx,
+      withEmail.map((p) => p.id),
+      'email',
+      w.linkDays,
+    );
+  });
   const sent: string[] = [];
   const failed: string[] = [];
-  for (const link of links) {
+  for (const p of withEmail) {
+    const link = links.get(p.id)!;
     try {
       await sendMail(
         surveyLinkMail({
-          to: link.email!,
-          name: link.name,
+          to: p.email!,
+          name: p.name,
           workshopTitle: w.title,
           sessionDate: w.sessionDate,
           facilitator: sender.name,
-          url: link.url,
-          expiresAt: new Date(link.expiresAt),
+          url: participantUrl(link.token),
+          expiresAt: link.expiresAt,
         }),
       );
-      sent.push(link.name);
+      sent.push(p.name);
     } catch {
-      // The link of an unsent message must not stay valid.
-      await revokeLinks(db, [link.participantId]);
-      failed.push(link.name);
+      if (link.fresh) await revokeToken(db, link.token);
+      failed.push(p.name);
     }
   }
   return { sent, withoutEmail, failed };
 }
 
+/** The confirmed reissue: the chosen people's links stop working and each gets a new one. */
+export async function reissueParticipantLinks(w: WorkshopRow, ids: number[]): Promise<IssuedLink[]> {
+  assertNotClosed(w);
+  const list = await targets(w, ids);
+  const links = await transaction(async (tx) => {
+    await lockWorkshop(tx, w.id);
+    return reissueLinks(
+      tx,
+      list.map((p) => p.id),
+      w.linkDays,
+    );
+  });
+  return withQr(list, links);
+}
+
 export async function revokeParticipantLinks(w: WorkshopRow, ids: number[]): Promise<number> {
   const list = await targets(w, ids);
-  return revokeLinks(
-    db,
-    list.map((p) => p.id),
-  );
+  return transaction(async (tx) => {
+    await lockWorkshop(tx, w.id);
+    return revokeLinks(
+      tx,
+      list.map((p) => p.id),
+    );
+  });
 }

@@ -103,6 +103,9 @@ export async function participantRows(workshopId: number): Promise<ParticipantRo
           participantId: participantLinks.participantId,
           active: sql<number>`sum(case when ${participantLinks.revokedAt} is null and ${participantLinks.expiresAt} > now(3) then 1 else 0 end)`,
           lastUsed: sql<string | null>`max(${participantLinks.lastUsedAt})`,
+          liveUntil: sql<
+            string | null
+          >`max(case when ${participantLinks.revokedAt} is null and ${participantLinks.expiresAt} > now(3) then ${participantLinks.expiresAt} end)`,
         })
         .from(participantLinks)
         .where(inArray(participantLinks.participantId, ids))
@@ -118,9 +121,14 @@ export async function participantRows(workshopId: number): Promise<ParticipantRo
     answered: submittedAt !== null,
     answeredAt: submittedAt?.toISOString() ?? null,
     activeLinks: Number(byId.get(p.id)?.active ?? 0),
-    lastLinkUse: byId.get(p.id)?.lastUsed ? new Date(`${String(byId.get(p.id)!.lastUsed).replace(' ', 'T')}Z`).toISOString() : null,
+    lastLinkUse: isoOf(byId.get(p.id)?.lastUsed),
+    linkExpiresAt: isoOf(byId.get(p.id)?.liveUntil),
   }));
 }
+
+/** A DATETIME read back through sql`` (a 'YYYY-MM-DD HH:MM:SS.fff' string in UTC) as ISO 8601. */
+const isoOf = (raw: string | Date | null | undefined): string | null =>
+  raw ? (raw instanceof Date ? raw : new Date(`${String(raw).replace(' ', 'T')}Z`)).toISOString() : null;
 
 export async function participantsById(workshopId: number, ids?: number[], tx: Conn = db): Promise<ParticipantDbRow[]> {
   const where = ids
@@ -169,4 +177,13 @@ export async function activeLinkCount(participantId: number): Promise<number> {
       ),
     );
   return Number(row?.n ?? 0);
+}
+
+/**
+ * Takes the workshop's row lock first in every transaction that changes its participants' links
+ * or claims (sheets, e-mails, reset-claim, revoke): they queue on one row in one order instead of
+ * deadlocking on each other's link rows.
+ */
+export async function lockWorkshop(tx: Tx, workshopId: number): Promise<void> {
+  await tx.select({ id: workshops.id }).from(workshops).where(eq(workshops.id, workshopId)).for('update');
 }

@@ -25,6 +25,8 @@ export interface AccountRow {
   invitationExpiresAt: string | null;
   lastSignInAt: string | null;
   createdAt: string;
+  /** The only active admin: the server refuses to take the role away, so the screen does not offer it. */
+  lastAdmin: boolean;
 }
 
 export interface Page<T> {
@@ -44,7 +46,10 @@ export interface AuditRow {
   action: string;
   targetType: string | null;
   targetId: string | null;
+  /** The account concerned: the target account, or the owner of the workshop or room. */
   targetEmail: string | null;
+  /** The workshop's title or the room's name, for workshop and room actions. */
+  targetLabel: string | null;
   detail: Record<string, unknown> | null;
   ip: string | null;
 }

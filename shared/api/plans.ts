@@ -57,7 +57,7 @@
 export const PLAN_METHOD_CHOICES = ['auto', 'greedy', 'widened', 'swap', 'exhaustive'] as const;
 export type PlanMethodChoiceDto = (typeof PLAN_METHOD_CHOICES)[number];
 /** What was actually run ('auto' resolves to one of the engine's methods). */
-export type PlanMethodUsed = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy' | 'hand-made';
+export type PlanMethodUsed = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy' | 'screen' | 'hand-made';
 
 export const PLAN_LIMITS = {
   nameMax: 120,
@@ -103,6 +103,38 @@ export interface CreatePlanRequest {
   starters?: number[];
   /** Force a background job even for a small room. */
   background?: boolean;
+  /** Chance (0..0.5) that each starter independently does not show up; the plan then minimises the expected total. */
+  noShow?: number;
+}
+
+/** What proved a plan's lower bound: a branch-and-bound search, a supermodular check of evaluated sets, the cover argument, or scoring every single starter. */
+export type BoundSource = 'search' | 'supermodular' | 'cover' | 'single';
+
+export interface PlanExtrasDto {
+  /** The best single starter and the room total with them alone (hops). */
+  bestSingle: { personId: number; name: string; total: number } | null;
+  /** Share of the possible saving over the best single starter this plan achieves (1 = proven best of its size). */
+  gainShare: number | null;
+  /** Branch-and-bound nodes visited (searches only). */
+  nodes: number | null;
+  /** Share of the possible starter sets a search left undecided (0 when it finished). */
+  searchLeft: number | null;
+  /** The search was stopped before it finished. */
+  stopped: boolean;
+  /** Fewest starters after whom everyone else hears in one hop. */
+  fewestForOneHop: number | null;
+}
+
+/** No-show results of a plan made with a no-show chance. */
+export interface AbsenceDto {
+  /** Expected room total when each starter independently fails to show with chance noShow, given at least one shows. */
+  expectedTotal: number;
+  /** noShow^k: the chance that nobody shows up. */
+  nobodyChance: number;
+  /** The starter whose absence costs most, and the room total without them. */
+  worstAbsence: { personId: number; name: string; total: number } | null;
+  /** For each starter: the best person to brief instead if they are missing, and the total then. */
+  standIns: { personId: number; name: string; standInId: number | null; standInName: string | null; total: number | null }[];
 }
 
 export interface UpdatePlanRequest {
@@ -151,12 +183,25 @@ export interface PlanSummary {
   /** Room average in minutes (average x minutesPerHop). */
   averageMinutes: number | null;
   qualityRank: number | null;
+  /** The best proven lower bound known for this plan's problem (room version, k, constraints), shared by all its plans. */
   lowerBound: number | null;
   /** total - lowerBound: how far this plan can at most be from the best plan of its size. */
   gap: number | null;
-  /** gap / total (0..1), for "at most N% above the best". */
+  /** gap / total (0..1): the best plan cuts this plan's total waiting by at most this share. */
   gapShare: number | null;
+  /** Proven best: its total equals a proven lower bound (whichever plan of the same problem proved it). */
   certified: boolean;
+  /** What proved the lower bound. */
+  boundSource: BoundSource | null;
+  /** The smallest total any plan of the same problem has reached (may be another plan's). */
+  bestKnownTotal: number | null;
+  /** The best total of this problem is proven (some plan of it reached the lower bound). */
+  optimumKnown: boolean;
+  /** No-show chance the plan was made with (null: none). */
+  noShow: number | null;
+  absence: AbsenceDto | null;
+  /** Reading aids (null for plans made before they existed). */
+  extras: PlanExtrasDto | null;
   coverSize: number | null;
   elapsedMs: number | null;
   people: number;
@@ -313,6 +358,22 @@ export interface JobDto {
   finishedAt: string | null;
 }
 
+/** What a running plan search reports with each progress event. */
+export interface PlanSearchProgress {
+  /** Planner stage ('greedy', 'widened', 'swap', 'search', ...). */
+  stage: string;
+  /** Share of the search space closed (0..1), when the stage can tell it. */
+  closed: number | null;
+  /** Best total found so far. */
+  bestTotal: number | null;
+  /** Proven lower bound so far. */
+  lowerBound: number | null;
+  /** (bestTotal - lowerBound) / bestTotal: the proven gap so far. */
+  gapShare: number | null;
+  /** Search nodes visited so far. */
+  nodes: number | null;
+}
+
 export type JobEventType = 'queued' | 'started' | 'progress' | 'done' | 'failed' | 'cancelled' | 'interrupted';
 
 export interface JobEvent {
@@ -325,6 +386,8 @@ export interface JobEvent {
   done?: number;
   of?: number;
   message?: string;
+  /** progress of a plan job: what the search has found and proven so far. */
+  search?: PlanSearchProgress;
 }
 
 // ---- rehearsals ----
@@ -352,6 +415,8 @@ export interface AgreementVerdict {
 
 export interface RehearsalSummary {
   id: number;
+  /** Its number within the room: the room's first rehearsal is 1 (the id runs across all rooms). */
+  number: number;
   planId: number;
   planName: string;
   roomId: number;

@@ -37,7 +37,8 @@ export const ROOM_LIMITS = {
   personKeyMax: 64,
   groupMax: 60,
   emailMax: 254,
-  maxOpsPerBatch: 20000,
+  /** Ops in one edit batch: small enough that one batch holds its locks for well under a second. */
+  maxOpsPerBatch: 2000,
   /** Upload size limit for one import file. */
   maxUploadBytes: 8 * 1024 * 1024,
   pageSizeMax: 500,
@@ -248,7 +249,7 @@ export interface ImportReport {
   version?: number;
 }
 
-export const EXPORT_FORMATS = ['json', 'graphml', 'people-csv', 'ties-csv'] as const;
+export const EXPORT_FORMATS = ['json', 'graphml', 'people-csv', 'ties-csv', 'org-chart-csv'] as const;
 export type ExportFormat = (typeof EXPORT_FORMATS)[number];
 
 // ---- sharing ----

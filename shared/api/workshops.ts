@@ -72,6 +72,8 @@ export interface ParticipantRow {
   answeredAt: string | null;
   activeLinks: number;
   lastLinkUse: string | null;
+  /** When the participant's live link stops working (null: no live link). */
+  linkExpiresAt: string | null;
 }
 
 export interface DebriefSettings {
@@ -99,7 +101,7 @@ export interface NewWorkshop {
   nominationLimit?: number;
 }
 
-/** A freshly issued link: the only time the raw token leaves the server. */
+/** A participant's own link as printed or reissued (the same link each time until it is reissued). */
 export interface IssuedLink {
   participantId: number;
   name: string;
@@ -152,12 +154,16 @@ export interface SurveyState {
   version: number;
   nominations: Nomination[];
   savedAt: string | null;
+  /** The saved answer is "I talk to nobody here regularly". */
+  nobody: boolean;
   debriefReady: boolean;
 }
 
 export interface SurveySave {
   version: number;
   nominations: Nomination[];
+  /** Required (true) when nominations is empty. */
+  nobody?: boolean;
 }
 
 export interface MyDebrief {
@@ -181,6 +187,7 @@ export interface MyDebrief {
 export interface JoinState {
   workshopTitle: string;
   open: boolean;
+  status: WorkshopStatus;
   names: { id: number; name: string; taken: boolean }[];
 }
 

@@ -9,9 +9,10 @@
  *        each with reason and message). total/average are Infinity exactly when `unreachable` is non-empty;
  *        reachableTotal/reachableAverage cover the rest.
  *   plan(room, { k, method: 'greedy'|'widened'|'swap'|'exhaustive'|'auto'|'lazy-greedy', nu, timeLimitMs,
- *        mustInclude, exclude, laziness, mixing, onProgress })
- *        -> { method, k, starters (order chosen), total, average, rank, lowerBound, certified, gap, elapsedMs,
- *             coverSize, rankScale, notes, warnings }
+ *        mustInclude, exclude, laziness, mixing, onProgress, signal, shouldStop, noShow, boundMs })
+ *        -> { method, k, starters (order chosen), total, average, rank, lowerBound, certified, gap, relativeGap,
+ *             elapsedMs, coverSize, rankScale, gainShare, bestSingle, fewestForOneHop, fewestToReachAll,
+ *             stopped?, nodes?, searchLeft?, noShow?, notes, warnings }   (bounds: docs/bounds.md)
  *   vertexCover(room)                                   -> { size, cover, exact }
  *   reachCurve(room, starters, { maxHops, quantiles, minutesPerHop, people }) -> reach-time distribution
  *   classStructure(room) / unreachablePeople(room, A)   -> closed classes, unreachable people with reasons

@@ -2,7 +2,7 @@
  * Validation and shared state of a planning run: constraints, closed classes, the cover,
  * the ergodic data (computed at most once), and the common finish (rank, lower bound, gap).
  */
-import { coverBound, qualityRank } from './quality';
+import { coverBound, gainShare, qualityRank } from './quality';
 import { vertexCover, type CoverResult } from './cover';
 import { AbsorbingState, beats, tieTolerance } from './dense-state';
 import { EngineError } from './errors';
@@ -204,13 +204,15 @@ export function recordBound(ctx: PlanContext, s: AbsorbingState): void {
   ctx.bounds.push((s.rawTotal - s.topGains(ctx.allowed, r)) * s.scale);
 }
 
-export function finishPlan(
-  ctx: PlanContext,
-  method: PlanMethod,
-  starters: number[],
-  total: number,
-  extra: { certified?: boolean; lowerBound?: number } = {},
-): PlanResult {
+export interface FinishExtra {
+  readonly certified?: boolean;
+  readonly lowerBound?: number;
+  readonly stopped?: boolean;
+  readonly nodes?: number;
+  readonly searchLeft?: number;
+}
+
+export function finishPlan(ctx: PlanContext, method: PlanMethod, starters: number[], total: number, extra: FinishExtra = {}): PlanResult {
   const n = ctx.n;
   const k = ctx.k;
   const scale = 1 / (1 - ctx.room.laziness);
@@ -218,9 +220,11 @@ export function finishPlan(
   let lowerBound = Math.max(coverBound(n, k, scale), ...ctx.bounds, extra.lowerBound ?? 0);
   if (lowerBound > total) lowerBound = total; // rounding: a proven bound never exceeds an achieved total
   const certified = extra.certified === true || total - lowerBound <= 1e-9 * Math.abs(total);
-  if (certified && extra.certified) lowerBound = total;
+  if (certified) lowerBound = total;
   const worst = ctx.worstTotal();
   const rank = qualityRank(total, worst, n, k, cover.size, scale);
+  const single = bestSingle(ctx);
+  const gap = certified ? 0 : Math.max(0, total - lowerBound);
   return {
     method,
     k,
@@ -230,11 +234,35 @@ export function finishPlan(
     rank,
     lowerBound,
     certified,
-    gap: certified ? 0 : Math.max(0, total - lowerBound),
+    gap,
+    relativeGap: total > 0 && Number.isFinite(total) ? gap / total : 0,
+    ...(extra.stopped ? { stopped: true } : {}),
+    ...(extra.nodes !== undefined ? { nodes: extra.nodes } : {}),
+    ...(extra.searchLeft !== undefined ? { searchLeft: certified ? 0 : extra.searchLeft } : {}),
+    ...(single ? { bestSingle: single } : {}),
+    fewestForOneHop: cover.size,
+    fewestToReachAll: fewestToReachAll(ctx),
+    gainShare: gainShare(total, lowerBound, single?.total),
     elapsedMs: performance.now() - ctx.started,
     coverSize: cover.size,
     rankScale: { worst, best: coverBound(n, Math.max(k, cover.size), scale) },
     notes: ctx.notes,
     warnings: ctx.warnings,
   };
+}
+
+/** The best single starter (identity 3, tie-break of engine.md), or undefined without ergodic data. */
+function bestSingle(ctx: PlanContext): { person: number; total: number } | undefined {
+  const e = ctx.ergodic();
+  if (!e) return undefined;
+  let best = -1;
+  for (let j = 0; j < ctx.n; j++)
+    if (beats(e.singleTotals[j], j, best < 0 ? Infinity : e.singleTotals[best], best, tieTolerance(ctx.n))) best = j;
+  return best >= 0 && Number.isFinite(e.singleTotals[best]) ? { person: best, total: e.singleTotals[best] } : undefined;
+}
+
+/** Required people plus one starter for every closed group that holds none of them. */
+function fewestToReachAll(ctx: PlanContext): number {
+  const must = new Set(ctx.mustInclude);
+  return must.size + ctx.classes.closedClasses.filter((cls) => !cls.some((p) => must.has(p))).length;
 }

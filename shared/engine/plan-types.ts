@@ -2,13 +2,23 @@
 import type { ErgodicData } from './ergodic';
 import type { WalkOptions } from './graph';
 
-export type PlanMethod = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy';
+export type PlanMethod = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy' | 'screen';
 export type PlanMethodChoice = PlanMethod | 'auto';
 
 export interface PlanProgress {
   readonly stage: string;
   readonly done: number;
   readonly of: number;
+  /** Share of the search space closed (decided), 0..1; only grows during one search. */
+  readonly fraction?: number;
+  /** Best room total found so far (hops). */
+  readonly bestTotal?: number;
+  /** Proven lower bound on the best room total so far (hops). */
+  readonly lowerBound?: number;
+  /** (bestTotal - lowerBound) / bestTotal, 0..1. */
+  readonly gap?: number;
+  /** Search nodes visited so far. */
+  readonly nodes?: number;
 }
 
 export interface PlanOptions extends WalkOptions {
@@ -19,17 +29,42 @@ export interface PlanOptions extends WalkOptions {
   readonly nu?: number;
   /** Exhaustive (and auto): time budget in milliseconds (default 10 000). */
   readonly timeLimitMs?: number;
+  /**
+   * Greedy, widened and swap: milliseconds of branch and bound run after the heuristic only to
+   * prove a lower bound (default 0: cheap bounds only). Rooms up to 400 people.
+   */
+  readonly boundMs?: number;
   /** People who must be briefed (indices). */
   readonly mustInclude?: readonly number[];
   /** People who cannot be briefed (indices). */
   readonly exclude?: readonly number[];
   /** Largest room handled with dense matrices (default 2500); larger rooms use lazy greedy. */
   readonly denseLimit?: number;
+  /** Undirected rooms from this size on use the sparse exact greedy for method greedy (default 300, and then only when its
+   *  factor's work is below the dense greedy's; an explicit value forces the sparse path whenever the factor fits). */
+  readonly sparseFrom?: number;
+  /** Largest sparse factor (nonzeros) before the iterative path is used (default 4e7). */
+  readonly maxFill?: number;
+  /** Bottleneck screen: candidate sets evaluated exactly at most (default 200); its time budget is timeLimitMs (default 8 min). */
+  readonly screenKeep?: number;
   /** Lazy greedy: people checked exactly per choice (default 3). */
   readonly lazyChecks?: number;
   /** Widened greedy: most seed sets extended (default 64). */
   readonly maxSeeds?: number;
+  /** Progress reports; searches report at most about ten times a second. */
   readonly onProgress?: (p: PlanProgress) => void;
+  /** Cooperative cancellation: the planner stops at its next check and returns its best plan so far. */
+  readonly signal?: AbortSignal;
+  /**
+   * Cooperative cancellation checked during long searches (inside a worker thread, read a
+   * SharedArrayBuffer flag: a message-fed AbortSignal cannot fire while the search runs).
+   */
+  readonly shouldStop?: () => boolean;
+  /**
+   * No-show chance P in [0, 0.5]: each starter independently fails to be briefed with chance P;
+   * the planner then minimises the expected room total given that at least one starter shows.
+   */
+  readonly noShow?: number;
   /** Precomputed ergodic data of this room and walk (e.g. from the Node-only parallel kernel). */
   readonly ergodic?: ErgodicData;
 }
@@ -55,6 +90,56 @@ export interface PlanResult {
   readonly coverSize: number;
   /** Worst single-starter total (rank 0) and the cover bound (rank 1). */
   readonly rankScale: { readonly worst: number; readonly best: number };
+  /** (total - lowerBound) / total, 0..1: the proven relative gap to best. */
+  readonly relativeGap: number;
+  /** True when the search was stopped (cancel) before it finished. */
+  readonly stopped?: boolean;
+  /** Branch-and-bound nodes visited (searches only). */
+  readonly nodes?: number;
+  /** Share of the k-sets not yet decided when the search ended, 0..1 (0 when certified). */
+  readonly searchLeft?: number;
+  /** The best single starter and its room total (index, hops): what one person alone achieves. */
+  readonly bestSingle?: { readonly person: number; readonly total: number };
+  /**
+   * Fewest starters after whom everyone else hears in one hop (the size of the smallest cover
+   * found): a different question from the best single starter.
+   */
+  readonly fewestForOneHop: number;
+  /**
+   * Fewest starters with whom everyone can hear at all (one per closed group, plus required
+   * people): 1 in a connected room, whatever the speed.
+   */
+  readonly fewestToReachAll: number;
+  /**
+   * Share of the possible saving over the best single starter that this plan achieves:
+   * (bestSingle.total - total) / (bestSingle.total - lowerBound), clamped to [0, 1]; 1 = proven
+   * best of its size. Unlike rank it separates good plans of the same size (see quality.ts).
+   */
+  readonly gainShare: number;
+  /** Set when a no-show chance was given. */
+  readonly noShow?: NoShowReport;
   readonly notes: string[];
   readonly warnings: string[];
+  /** Which linear algebra ran: dense matrices, a sparse LDL^T factor, or an iterative solver (estimates stated in notes). */
+  readonly solverPath?: 'dense' | 'sparse-factor' | 'iterative';
+  /** Nonzeros of the sparse factor when solverPath is 'sparse-factor'. */
+  readonly fill?: number;
+}
+
+export interface NoShowReport {
+  /** The chance P that a starter does not show up. */
+  readonly chance: number;
+  /** Expected room total given at least one starter shows (everyone not briefed must hear). */
+  readonly expectedTotal: number;
+  /** P^k: the chance that nobody shows up (reported beside, not part of the expectation). */
+  readonly nobodyChance: number;
+  /** The starter whose absence (all others present) costs most, and the room total then. */
+  readonly worstAbsence: { readonly person: number; readonly total: number };
+  /** For each starter: the best stand-in if that starter is missing, and the room total with it. */
+  readonly standIns: readonly { readonly starter: number; readonly person: number; readonly total: number }[];
+  /** Exact over all 2^k subsets, or sampled (with the stated standard error). */
+  readonly exact: boolean;
+  readonly standardError: number;
+  /** True when every plan of this size was scored on the expected total (exhaustive). */
+  readonly provenBest?: boolean;
 }

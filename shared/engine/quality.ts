@@ -14,3 +14,16 @@ export function qualityRank(total: number, worst: number, n: number, k: number, 
   const r = (worst - total) / (worst - best);
   return Math.min(1, Math.max(0, r));
 }
+
+/**
+ * Share of the possible saving over the best single starter achieved by a plan:
+ * (single - total) / (single - lowerBound), clamped to [0, 1]. 1 means the plan is proven best
+ * of its size; a plan far from its proven bound reads lower. The quality rank above measures
+ * against the worst single starter, so every reasonable plan of a given size reads close to 1
+ * there; this figure spreads them out (0 = no better than one well-chosen person).
+ */
+export function gainShare(total: number, lowerBound: number, single: number | undefined): number {
+  if (single === undefined || !Number.isFinite(total)) return 0;
+  if (!(single - lowerBound > 0)) return 1;
+  return Math.min(1, Math.max(0, (single - total) / (single - lowerBound)));
+}

@@ -9,8 +9,10 @@
  */
 import { EngineError } from './errors';
 import type { WalkOptions } from './graph';
-import { luFactor, luFactorDominant, luSolve, symmetricFactor, symmetricSolve } from './linalg/dense';
+import { luFactor, luFactorDominant, luSolve } from './linalg/dense';
+import { gthFactor, gthSolve } from './linalg/gth';
 import { minimumDegreeOrder } from './linalg/ordering';
+import { refine } from './linalg/refine';
 import { unreachablePeople, type UnreachablePerson } from './reachability';
 import { checkPeople, prepareRoom, type PreparedRoom, type RoomInput } from './room';
 import { SparseSystem } from './sparse-system';
@@ -41,6 +43,8 @@ export interface ReachResult {
   readonly solver: 'ldlt' | 'lu' | 'cg' | 'bicgstab' | 'none';
   readonly iterations?: number;
   readonly relativeResidual?: number;
+  /** Accuracy warnings (for example a condition number that makes 1e-9 relative impossible). */
+  readonly warnings?: string[];
 }
 
 export const DEFAULT_DENSE_LIMIT = 2500;
@@ -100,6 +104,7 @@ export function exactReach(input: RoomInput, starterList: readonly number[], opt
   const f = idx.length;
   const scale = 1 / (1 - room.laziness);
   let solver: ReachResult['solver'] = 'none';
+  const warnings: string[] = [];
   let iterations: number | undefined;
   let relativeResidual: number | undefined;
   const limit = options.denseLimit ?? DEFAULT_DENSE_LIMIT;
@@ -109,11 +114,8 @@ export function exactReach(input: RoomInput, starterList: readonly number[], opt
     if (sym) {
       // Eliminate in minimum degree order so a sparse room's factor stays sparse for longer.
       const ord = f >= 64 ? fillReducingOrder(room, idx) : idx;
-      const m = denseSystem(room, ord, true);
-      const rhs = new Float64Array(f);
-      for (let k = 0; k < f; k++) rhs[k] = room.csr.outStrength[ord[k]];
-      symmetricSolve(symmetricFactor(m, f), f, rhs);
-      for (let k = 0; k < f; k++) h[ord[k]] = rhs[k] * scale;
+      const x = refinedSymmetric(room, ord, active, warnings);
+      for (let k = 0; k < f; k++) h[ord[k]] = x[ord[k]] * scale;
       solver = 'ldlt';
     } else {
       // Without mixing the system is sparse: minimum degree order on the ties taken both ways,
@@ -151,9 +153,56 @@ export function exactReach(input: RoomInput, starterList: readonly number[], opt
     solver,
     iterations,
     relativeResidual,
+    warnings,
   };
 }
 
+/**
+ * h = L_TT^-1 d_T by the subtraction-free dense LDL^T (linalg/gth.ts) in the order `ord`, then
+ * iterative refinement on double-double residuals of the ties (linalg/refine.ts), so badly
+ * conditioned rooms (strengths from 1e-6 to 1e6 and beyond) still get 1e-9 relative per person;
+ * a warning when even that cannot be reached.
+ */
+function refinedSymmetric(room: PreparedRoom, ord: Int32Array, active: Uint8Array, warnings: string[]): Float64Array {
+  const { n, csr } = room;
+  const f = ord.length;
+  const pos = new Int32Array(n).fill(-1);
+  for (let k = 0; k < f; k++) pos[ord[k]] = k;
+  const w = new Float64Array(f * f);
+  const g = new Float64Array(f);
+  for (let k = 0; k < f; k++) {
+    const i = ord[k];
+    for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) {
+      const j = csr.col[e];
+      if (j === i) continue;
+      if (pos[j] >= 0) w[k * f + pos[j]] += csr.weight[e];
+      else g[k] += csr.weight[e];
+    }
+  }
+  const fac = gthFactor(w, g, f);
+  const solveFull = (r: Float64Array) => {
+    const t = new Float64Array(f);
+    for (let k = 0; k < f; k++) t[k] = r[ord[k]];
+    gthSolve(fac, t);
+    const out = new Float64Array(n);
+    for (let k = 0; k < f; k++) out[ord[k]] = t[k];
+    return out;
+  };
+  const b = new Float64Array(n);
+  for (let k = 0; k < f; k++) b[ord[k]] = csr.outStrength[ord[k]];
+  const first = solveFull(b);
+  if (!first.every(Number.isFinite))
+    throw new EngineError(
+      'SOLVER_FAILED',
+      'Expected hops in this room exceed the number range (tie strengths differ by a factor of more than about 1e150): bring the strengths closer together.',
+    );
+  const ref = refine(csr, active, 1, b, first, solveFull, 1e-13);
+  if (!(ref.lastCorrection <= 1e-9))
+    warnings.push(
+      `The tie strengths of this room span so wide a range that expected hops are only accurate to about ${ref.lastCorrection.toExponential(0)} relative (1e-9 could not be reached).`,
+    );
+  return ref.x;
+}
 /** The people of `idx` in minimum degree order of their ties among themselves. */
 function fillReducingOrder(room: PreparedRoom, idx: Int32Array): Int32Array {
   const { csr, n } = room;

@@ -12,6 +12,8 @@ import { SimulationPool } from '../../shared/engine/simulate/pool';
 import { planWithWorkers } from '../../shared/engine/parallel/index';
 import { plainCg, referenceSolveMs } from './bench-reference';
 import { sparseRoom } from './bench-rooms';
+import { sparseBench } from './bench-sparse';
+import { certifyTables } from './bench-certify';
 
 interface Row {
   case: string;
@@ -68,6 +70,10 @@ async function main(): Promise<void> {
       .map((x) => x.toFixed(1))
       .join(' / ');
   log(`Ripplehall engine benchmark (Node ${process.version}, ${availableParallelism()} cores, load average ${load()})`);
+  if (process.env.BENCH_ONLY === 'certify') {
+    await certifyTables();
+    return;
+  }
 
   // 1. Exact reach, n = 300, dense.
   for (const directed of [false, true]) {
@@ -369,6 +375,8 @@ async function main(): Promise<void> {
     });
   }
   printTable('Scaling', scale);
+  await certifyTables();
+  sparseBench();
   log(`bench total ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 }
 

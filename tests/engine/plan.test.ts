@@ -206,10 +206,15 @@ describe('planner behaviour', () => {
     }
   });
 
-  it('auto switches to lazy greedy above the dense limit', () => {
+  it('above the dense limit auto runs the sparse exact greedy on undirected rooms and lazy greedy on directed ones', () => {
     const g = miserables();
     const r = plan(g, { k: 3, method: 'auto', denseLimit: 50 });
-    assert.equal(r.method, 'lazy-greedy');
+    assert.equal(r.method, 'greedy');
+    assert.equal(r.solverPath, 'sparse-factor');
+    assert.deepEqual(r.starters, plan(g, { k: 3, method: 'greedy', sparseFrom: Infinity }).starters);
+    const d = plan(randomRoom(70, 200, true, 5), { k: 3, method: 'auto', denseLimit: 50 });
+    assert.equal(d.method, 'lazy-greedy');
+    assert.equal(d.solverPath, 'iterative');
   });
 
   it('exhaustive at its time limit returns the best found with a proven gap', () => {

@@ -70,7 +70,10 @@ describe('admin console API', () => {
     assert.equal(extra.status, 400);
     assert.match(extra.body.error.message, /note/);
     assert.equal((await admin.put('/api/admin/accounts/999999/role', { role: 'admin' })).status, 404);
-    assert.equal((await admin.post('/api/admin/accounts/abc/deactivate')).status, 400);
+    // One id pattern everywhere (server/core/ids.ts): a malformed id is simply not found.
+    for (const bad of ['abc', '0x1', '1e0', '01', '-1', '1.0', '%201'])
+      assert.equal((await admin.post(`/api/admin/accounts/${bad}/deactivate`)).status, 404, bad);
+    assert.equal((await admin.get('/api/admin/outbox/0x1')).status, 404, 'hex is not an id');
     assert.equal((await admin.get('/api/admin/accounts?size=5000')).status, 400);
     assert.equal((await admin.get('/api/admin/accounts?sort=password_hash')).status, 400);
     assert.equal((await admin.post('/api/admin/invitations', { email: 'not-an-address' })).status, 400);

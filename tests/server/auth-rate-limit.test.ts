@@ -1,15 +1,19 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
-import { randomInt } from 'node:crypto';
+import { randomBytes, randomInt } from 'node:crypto';
 
 // Own process (node --test isolates files): low limits, and trust proxy so that each test
 // can speak from an address of its own through X-Forwarded-For.
 process.env['RATE_LIMIT_SIGNIN_PER_15MIN'] = '3';
+process.env['SIGNIN_ACCOUNT_MAX_FAILURES'] = '4';
 process.env['RATE_LIMIT_RESET_PER_15MIN'] = '2';
 process.env['RATE_LIMIT_IP_PER_15MIN'] = '6';
 process.env['TRUST_PROXY'] = 'true';
+process.env['RATE_LIMIT_LINK_PER_15MIN'] = '3';
 const { createAccount, startTestServer } = await import('../support/test-server');
-const { lastMailId, mailsTo } = await import('./mail-support');
+const { lastMailId, mailsTo, waitForMail } = await import('./mail-support');
+const { issueToken } = await import('../../server/auth/tokens');
+const { db } = await import('../../server/db');
 type TestServer = Awaited<ReturnType<typeof startTestServer>>;
 
 const freshIp = () => `10.${randomInt(256)}.${randomInt(256)}.${randomInt(1, 255)}`;
@@ -25,20 +29,40 @@ describe('rate limits on sign-in and password reset', () => {
     return { c, post };
   };
 
-  it('per account and address: failed sign-ins lock that account from that address only', async () => {
+  it("failed sign-ins back off the account; the owner's known device is never slowed (NIST SP 800-63B 5.2.2)", async () => {
     const account = await createAccount('facilitator');
-    const ip = freshIp();
-    const { post } = from(ip);
+    const owner = from(freshIp());
+    assert.equal((await owner.post('/api/auth/sign-in', { email: account.email, password: account.password })).status, 200);
+    assert.ok(owner.c.cookies.has('rh.device'), 'a successful sign-in remembers the browser');
+    const attackerIp = freshIp();
+    const attacker = from(attackerIp);
     for (let i = 0; i < 3; i++)
-      assert.equal((await post('/api/auth/sign-in', { email: account.email, password: 'guess-' + i })).status, 401);
-    const locked = await post('/api/auth/sign-in', { email: account.email, password: account.password });
-    assert.equal(locked.status, 429, 'even the right password waits');
-    assert.match(locked.body.error.message, /Too many sign-in attempts for this account/);
-    assert.ok(locked.headers.get('ratelimit-policy') || locked.headers.get('ratelimit'), 'standard RateLimit headers');
-    const elsewhere = from(freshIp());
-    assert.equal((await elsewhere.post('/api/auth/sign-in', { email: account.email, password: account.password })).status, 200);
+      assert.equal((await attacker.post('/api/auth/sign-in', { email: account.email, password: 'guess-' + i })).status, 401);
+    const slowed = await attacker.post('/api/auth/sign-in', { email: account.email, password: 'guess-x' });
+    assert.equal(slowed.status, 429, 'past the free failures: one try a minute');
+    assert.match(slowed.body.error.message, /Too many failed sign-ins for this account. Wait \d+ seconds/);
+    assert.ok(Number(slowed.headers.get('retry-after')) > 0, 'Retry-After says how long');
+    const newBrowser = from(freshIp());
+    assert.equal((await newBrowser.post('/api/auth/sign-in', { email: account.email, password: account.password })).status, 429);
+    assert.equal(
+      (await owner.post('/api/auth/sign-in', { email: account.email, password: account.password })).status,
+      200,
+      "the owner's own browser signs in at once",
+    );
     const otherAccount = await createAccount('facilitator');
-    assert.equal((await post('/api/auth/sign-in', { email: otherAccount.email, password: otherAccount.password })).status, 200);
+    const sameAddress = from(attackerIp);
+    assert.equal((await sameAddress.post('/api/auth/sign-in', { email: otherAccount.email, password: otherAccount.password })).status, 200);
+  });
+
+  it('caps failures per account over all browsers and addresses (at most 100; 4 here)', async () => {
+    const account = await createAccount('facilitator');
+    const owner = from(freshIp());
+    await owner.post('/api/auth/sign-in', { email: account.email, password: account.password });
+    for (let i = 0; i < 3; i++) await from(freshIp()).post('/api/auth/sign-in', { email: account.email, password: 'guess-' + i });
+    assert.equal((await owner.post('/api/auth/sign-in', { email: account.email, password: 'typo-by-owner' })).status, 401);
+    const capped = await owner.post('/api/auth/sign-in', { email: account.email, password: account.password });
+    assert.equal(capped.status, 429, 'the account waits for the window to end');
+    assert.match(capped.body.error.message, /This account had too many failed sign-ins/);
   });
 
   it('per address: many accounts from one address are capped', async () => {
@@ -60,10 +84,31 @@ describe('rate limits on sign-in and password reset', () => {
     const unknown = [];
     for (let i = 0; i < 3; i++) unknown.push((await post('/api/auth/password-reset', { email: 'no-such@x.example' })).status);
     assert.deepEqual(unknown, [202, 202, 429], 'the same pattern: the limit reveals nothing');
-    await new Promise((r) => setTimeout(r, 300));
+    // The mail goes out after the answer: wait for the two, then check no third came.
+    await waitForMail(account.email, since);
+    const deadline = Date.now() + 5000;
+    while ((await mailsTo(account.email, since)).length < 2 && Date.now() < deadline) await new Promise((r) => setTimeout(r, 50));
     assert.equal((await mailsTo(account.email, since)).length, 2, 'only the allowed requests sent mail');
     const cap = await post('/api/auth/password-reset', { email: 'third@x.example' });
     assert.equal(cap.status, 429, 'the per-address cap (6) is reached');
     assert.match(cap.body.error.message, /from this address/);
+  });
+
+  it('the link-guessing limit covers invitation and reset links; a good link is never refused', async () => {
+    const ip = freshIp();
+    const { post } = from(ip);
+    const guess = () => randomBytes(32).toString('base64url');
+    assert.equal((await post('/api/auth/password-reset/check', { token: guess() })).status, 410);
+    assert.equal((await post('/api/auth/invitation/check', { token: guess() })).status, 410);
+    assert.equal((await post('/api/auth/password-reset/complete', { token: guess(), password: 'a-long-new-password' })).status, 410);
+    const blocked = await post('/api/auth/invitation/check', { token: guess() });
+    assert.equal(blocked.status, 429, 'the fourth dead link from this address waits');
+    assert.match(blocked.body.error.message, /Too many links that do not work/);
+    assert.equal((await post('/api/auth/password-reset/check', { token: guess() })).status, 429);
+    const invited = await createAccount('facilitator', 'invited');
+    const { token } = await issueToken(db, invited.id, 'invite', 3600_000, null);
+    const good = await post('/api/auth/invitation/check', { token });
+    assert.equal(good.status, 200, 'a real invitation still opens from the same address');
+    assert.equal(good.body.email, invited.email);
   });
 });

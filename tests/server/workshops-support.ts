@@ -15,9 +15,9 @@ export async function newWorkshop(c: TestClient, names: { name: string; email?: 
   return { id, byName };
 }
 
-/** Fresh links for everyone, as on a printed sheet: name -> token. */
+/** Everyone's own link, as on a printed sheet: name -> token. */
 export async function sheetTokens(c: TestClient, workshopId: number): Promise<Map<string, string>> {
-  const sheet = await c.post(`/api/workshops/${workshopId}/links/sheet`, { replace: true });
+  const sheet = await c.post(`/api/workshops/${workshopId}/links/sheet`, {});
   if (sheet.status !== 200) throw new Error(`sheet failed: ${sheet.text}`);
   return new Map(sheet.body.map((l: { name: string; url: string }) => [l.name, l.url.split('/p/')[1]]));
 }

@@ -89,10 +89,11 @@ describe('workshop survey links', () => {
       assert.equal(r.status, 404);
       assert.deepEqual(r.body.error, { code: 'link_invalid', message: LINK_INVALID_MESSAGE });
     }
-    // A fresh sheet replaces the earlier links.
-    const fresh = await sheetTokens(client, id);
-    assert.equal((await anon.get(`/api/p/${tokens.get('Dov Tallis')}`)).status, 404);
-    assert.equal((await anon.get(`/api/p/${fresh.get('Dov Tallis')}`)).status, 200);
+    // A second sheet shows the same live links; the revoked and expired ones get new links.
+    const again = await sheetTokens(client, id);
+    assert.equal(again.get('Dov Tallis'), tokens.get('Dov Tallis'));
+    assert.notEqual(again.get('Bram Osterfeld'), bram);
+    assert.equal((await anon.get(`/api/p/${again.get('Bram Osterfeld')}`)).status, 200);
   });
 
   it('validates answers: consent first, unknown people, too many, oneself, duplicates, after closing', async () => {
@@ -133,19 +134,33 @@ describe('workshop survey links', () => {
     const badLevel = await put([{ participantId: b, level: 'hourly' }]);
     assert.equal(badLevel.status, 400);
     assert.match(badLevel.body.error.message, /how often/);
-    const ok = await put([
-      { participantId: b, level: 'often' },
-      { participantId: c, level: 'weekly' },
-    ]);
+    const empty = await put([]);
+    assert.equal(empty.status, 400);
+    assert.equal(empty.body.error.code, 'empty_answer');
+    assert.match(empty.body.error.message, /I talk to nobody here regularly/);
+    assert.equal((await anon.get(`/api/p/${ada}`)).body.savedAt, null, 'an empty answer is not saved');
+    const both = await anon.put(`/api/p/${ada}/answers`, { version: 0, nominations: [{ participantId: b, level: 'often' }], nobody: true });
+    assert.equal(both.body.error.code, 'nobody_with_names');
+    const nobody = await anon.put(`/api/p/${ada}/answers`, { version: 0, nominations: [], nobody: true });
+    assert.equal(nobody.status, 200, nobody.text);
+    assert.equal(nobody.body.nobody, true);
+    const ok = await put(
+      [
+        { participantId: b, level: 'often' },
+        { participantId: c, level: 'weekly' },
+      ],
+      1,
+    );
     assert.equal(ok.status, 200, ok.text);
-    assert.equal(ok.body.version, 1);
+    assert.equal(ok.body.version, 2);
     assert.equal(ok.body.nominations.length, 2);
-    // A revision from the same page (version 1) replaces the answers.
-    const revised = await put([{ participantId: d, level: 'sometimes' }], 1);
-    assert.equal(revised.body.version, 2);
+    assert.equal(ok.body.nobody, false);
+    // A revision from the same page (version 2) replaces the answers.
+    const revised = await put([{ participantId: d, level: 'sometimes' }], 2);
+    assert.equal(revised.body.version, 3);
     assert.deepEqual(revised.body.nominations, [{ participantId: d, level: 'sometimes' }]);
     await client.post(`/api/workshops/${id}/status`, { to: 'running' });
-    const late = await put([{ participantId: b, level: 'often' }], 2);
+    const late = await put([{ participantId: b, level: 'often' }], 3);
     assert.equal(late.status, 409);
     assert.equal(late.body.error.code, 'survey_closed');
     const kept = await anon.get(`/api/p/${ada}`);
@@ -188,7 +203,7 @@ describe('workshop survey links', () => {
     const { id, byName } = await newWorkshop(client, [{ name: 'Fay Lindqvist' }, { name: 'Gus Harrow' }, { name: 'Hana Oort' }]);
     await client.post(`/api/workshops/${id}/status`, { to: 'collecting' });
     // Hana already has a printed link: the QR code must not let someone else answer as her.
-    await client.post(`/api/workshops/${id}/links/sheet`, { participantIds: [byName.get('Hana Oort')], replace: true });
+    await client.post(`/api/workshops/${id}/links/sheet`, { participantIds: [byName.get('Hana Oort')] });
     const code = await client.post(`/api/workshops/${id}/join-code`);
     assert.match(code.body.qr, /^data:image\/svg\+xml;base64,/);
     const joinCode = code.body.url.split('/p/join/')[1];
@@ -219,6 +234,16 @@ describe('workshop survey links', () => {
     await client.post(`/api/workshops/${id}/participants/${fay}/reset-claim`);
     assert.equal((await a.get(`/api/p${claimed.body.path.slice(2)}`)).status, 404, 'the reset revokes the earlier link');
     assert.equal((await b.post(`/api/p/join/${joinCode}/claim`, { participantId: fay })).status, 201);
+    // Once the survey closes, the QR code says so and no name can be picked.
+    await client.post(`/api/workshops/${id}/participants/${fay}/reset-claim`);
+    await client.post(`/api/workshops/${id}/status`, { to: 'running' });
+    const closed = await a.get(`/api/p/join/${joinCode}`);
+    assert.equal(closed.body.open, false);
+    assert.equal(closed.body.status, 'running');
+    const late = await b.post(`/api/p/join/${joinCode}/claim`, { participantId: fay });
+    assert.equal(late.status, 409);
+    assert.equal(late.body.error.code, 'join_closed');
+    assert.match(late.body.error.message, /survey is closed/);
     // A new QR code replaces the old one.
     await client.post(`/api/workshops/${id}/join-code`);
     assert.equal((await a.get(`/api/p/join/${joinCode}`)).status, 404);

@@ -17,3 +17,15 @@ export { readJson, JsonNumber, JsonObject, JsonSkipped, JSON_MAX_DEPTH, type Jso
 export { parseGraphml, writeGraphml, GRAPHML_DEFAULT_MAX_CHARS } from './graphml';
 export { decodeUtf8, type DecodeResult } from './text-limits';
 export { formatOf, parseRoom, writeRoom } from './room-file';
+export {
+  ORG_CHART_DEFAULT_STRENGTHS,
+  TEAM_PAIRS_MAX,
+  orgChartPreview,
+  parseOrgChart,
+  writeOrgChart,
+  type OrgChartColumns,
+  type OrgChartField,
+  type OrgChartResult,
+  type OrgChartRow,
+  type OrgChartStrengths,
+} from './org-chart';

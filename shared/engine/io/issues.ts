@@ -28,6 +28,7 @@ export type IssueCode =
   | 'no-ties'
   | 'isolated-person'
   | 'ignored-column'
+  | 'reporting-cycle'
   | 'too-many-issues'
   | 'too-deep'
   | 'strength-range'

@@ -11,7 +11,9 @@ import {
   symmetricErgodicMatrix,
   type ErgodicData,
 } from '../ergodic';
-import { plan } from '../plan';
+import { planFinish, planStart, SPARSE_GREEDY_FROM } from '../plan';
+import { exhaustiveSearch } from '../plan-exhaustive';
+import { exhaustiveParallel } from './parallel-branch';
 import type { PlanOptions, PlanResult } from '../plan-types';
 import { classStructure } from '../reachability';
 import { DEFAULT_DENSE_LIMIT } from '../reach';
@@ -36,12 +38,23 @@ export async function ergodicDataParallel(
   return generalErgodicFinish(g, room.n, 1 / (1 - room.laziness));
 }
 
-/** plan() with its O(n^3) ergodic step spread over worker threads (dense rooms of 300+ people). */
+/**
+ * plan() on worker threads: the O(n^3) ergodic step spread over threads (dense rooms of 300+
+ * people) and the branch and bound of exhaustive and auto plans run on `threads` threads
+ * (parallel-branch.ts). Same options and result as plan(); onProgress, signal and shouldStop work
+ * as there (the signal is honoured within 100 ms because this thread stays free during the search).
+ */
 export async function planWithWorkers(input: RoomInput, options: PlanOptions, threads = 2): Promise<PlanResult> {
   const room = prepareRoom(input, options);
   const started = performance.now();
   const dense = room.n <= (options.denseLimit ?? DEFAULT_DENSE_LIMIT);
-  const ergodic = dense && room.n >= 300 && threads > 1 ? await ergodicDataParallel(room, {}, threads) : null;
-  const result = plan(room, ergodic ? { ...options, ergodic } : options);
+  // Method greedy on undirected rooms from SPARSE_GREEDY_FROM people runs on a sparse factor: no dense ergodic step.
+  const sparse = options.method === 'greedy' && !room.directed && room.n >= (options.sparseFrom ?? SPARSE_GREEDY_FROM);
+  const ergodic = dense && !sparse && room.n >= 300 && threads > 1 ? await ergodicDataParallel(room, {}, threads) : null;
+  const step = planStart(room, ergodic ? { ...options, ergodic } : options);
+  const result =
+    'result' in step
+      ? step.result
+      : planFinish(step, threads > 1 ? await exhaustiveParallel(step.ctx, step.start, threads) : exhaustiveSearch(step.ctx, step.start));
   return { ...result, elapsedMs: performance.now() - started };
 }

@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { type AfterViewInit, ChangeDetectionStrategy, Component, DestroyRef, inject, signal, viewChild } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
@@ -16,14 +15,15 @@ import { catchError, debounceTime, distinctUntilChanged, merge, of, startWith, S
 import type { AccountRole, AccountRow, AccountSortKey } from '../../../shared/api/accounts';
 import { Auth } from '../core/auth';
 import { AdminApi } from './admin-api';
-import { ConfirmDialog, type ConfirmData } from './confirm-dialog';
+import { ConfirmDialog, type ConfirmData } from '../core/confirm-dialog';
 import { InviteDialog } from './invite-dialog';
+import { DateTimePipe } from '../core/date-format';
 
 /** The accounts table: server-side sort, filter and paging; actions per account in a menu. */
 @Component({
   selector: 'app-accounts-page',
   imports: [
-    DatePipe,
+    DateTimePipe,
     ReactiveFormsModule,
     MatTableModule,
     MatSortModule,

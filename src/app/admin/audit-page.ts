@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { type AfterViewInit, ChangeDetectionStrategy, Component, DestroyRef, inject, signal, viewChild } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
@@ -10,33 +9,17 @@ import { MatTableModule } from '@angular/material/table';
 import { catchError, debounceTime, distinctUntilChanged, merge, of, startWith, switchMap } from 'rxjs';
 import type { AuditRow } from '../../../shared/api/accounts';
 import { AdminApi } from './admin-api';
+import { DateTimePipe } from '../core/date-format';
+import { auditAction, auditChange, auditConcerns } from './audit-labels';
 
-const ACTIONS: Record<string, string> = {
-  'account.sign_in': 'Signed in',
-  'account.sign_out': 'Signed out',
-  'account.sign_in_failed': 'Sign-in refused (wrong password)',
-  'account.password_changed': 'Changed own password',
-  'account.invited': 'Invited',
-  'account.invitation_resent': 'Sent a new invitation',
-  'account.invitation_revoked': 'Revoked the invitation',
-  'account.invitation_accepted': 'Accepted the invitation',
-  'account.reset_requested': 'Asked for a reset link',
-  'account.reset_requested_unknown': 'Reset asked for an address without an active account',
-  'account.reset_sent_by_admin': 'Sent a reset link',
-  'account.password_reset': 'Chose a new password by reset link',
-  'account.deactivated': 'Deactivated',
-  'account.reactivated': 'Reactivated',
-  'account.role_changed': 'Changed the role',
-};
-
-/** The audit log of account actions, newest first: who, what, when, from where. */
+/** The audit log of account, room and workshop actions, newest first: who, what, when, from where. */
 @Component({
   selector: 'app-audit-page',
-  imports: [DatePipe, ReactiveFormsModule, MatTableModule, MatPaginatorModule, MatFormFieldModule, MatInputModule, MatIconModule],
+  imports: [DateTimePipe, ReactiveFormsModule, MatTableModule, MatPaginatorModule, MatFormFieldModule, MatInputModule, MatIconModule],
   template: `
     <div class="rh-table-bar">
       <mat-form-field appearance="outline" class="rh-filter" subscriptSizing="dynamic">
-        <mat-label>Filter by e-mail or action</mat-label>
+        <mat-label>Filter by e-mail, title or action</mat-label>
         <mat-icon matPrefix>search</mat-icon>
         <input matInput [formControl]="filter" />
       </mat-form-field>
@@ -45,7 +28,7 @@ const ACTIONS: Record<string, string> = {
       <table mat-table [dataSource]="rows()" aria-label="Audit log">
         <ng-container matColumnDef="createdAt">
           <th mat-header-cell *matHeaderCellDef>When</th>
-          <td mat-cell *matCellDef="let row">{{ row.createdAt | date: 'd MMM y, HH:mm:ss' }}</td>
+          <td mat-cell *matCellDef="let row">{{ row.createdAt | dateTime }}</td>
         </ng-container>
         <ng-container matColumnDef="actor">
           <th mat-header-cell *matHeaderCellDef>Who</th>
@@ -55,14 +38,14 @@ const ACTIONS: Record<string, string> = {
           <th mat-header-cell *matHeaderCellDef>What</th>
           <td mat-cell *matCellDef="let row">
             {{ describe(row) }}
-            @if (row.detail?.from) {
-              <span class="rh-muted">({{ row.detail.from }} → {{ row.detail.to }})</span>
+            @if (change(row); as c) {
+              <span class="rh-muted">({{ c }})</span>
             }
           </td>
         </ng-container>
         <ng-container matColumnDef="target">
-          <th mat-header-cell *matHeaderCellDef>Account</th>
-          <td mat-cell *matCellDef="let row">{{ row.targetEmail ?? row.detail?.email ?? '' }}</td>
+          <th mat-header-cell *matHeaderCellDef>Concerns</th>
+          <td mat-cell *matCellDef="let row">{{ concerns(row) }}</td>
         </ng-container>
         <ng-container matColumnDef="ip">
           <th mat-header-cell *matHeaderCellDef>From</th>
@@ -94,9 +77,9 @@ export default class AuditPage implements AfterViewInit {
     this.connectTable();
   }
 
-  protected describe(row: AuditRow): string {
-    return ACTIONS[row.action] ?? row.action;
-  }
+  protected readonly describe = auditAction;
+  protected readonly change = auditChange;
+  protected readonly concerns = auditConcerns;
 
   private connectTable(): void {
     const paginator = this.paginator();

@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { type AfterViewInit, ChangeDetectionStrategy, Component, DestroyRef, inject, signal, viewChild } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
@@ -10,6 +9,7 @@ import { DomSanitizer, type SafeResourceUrl } from '@angular/platform-browser';
 import { catchError, merge, of, startWith, Subject, switchMap } from 'rxjs';
 import type { OutboxMessage, OutboxRow } from '../../../shared/api/accounts';
 import { AdminApi } from './admin-api';
+import { DateTimePipe } from '../core/date-format';
 
 /**
  * Mail the local SMTP fake caught (development and test). The HTML part is shown in a
@@ -17,7 +17,7 @@ import { AdminApi } from './admin-api';
  */
 @Component({
   selector: 'app-outbox-page',
-  imports: [DatePipe, MatTableModule, MatPaginatorModule, MatButtonModule, MatButtonToggleModule, MatIconModule],
+  imports: [DateTimePipe, MatTableModule, MatPaginatorModule, MatButtonModule, MatButtonToggleModule, MatIconModule],
   templateUrl: './outbox-page.html',
   styleUrls: ['./admin-tables.scss', './outbox-page.scss'],
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -1,6 +1,7 @@
-import { HttpClient } from '@angular/common/http';
+import { HttpClient, HttpContext } from '@angular/common/http';
 import { computed, inject, Injectable, signal } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
+import { HANDLES_ERRORS } from './handles-errors';
 
 export type AccountRole = 'admin' | 'facilitator';
 
@@ -30,7 +31,9 @@ export class Auth {
   }
 
   async signIn(email: string, password: string): Promise<Account> {
-    const res = await firstValueFrom(this.http.post<{ user: Account }>('/api/auth/sign-in', { email, password }));
+    // The sign-in form shows its own error beside the button; no snackbar that outlives the page.
+    const own = { context: new HttpContext().set(HANDLES_ERRORS, true) };
+    const res = await firstValueFrom(this.http.post<{ user: Account }>('/api/auth/sign-in', { email, password }, own));
     this.current.set(res.user);
     return res.user;
   }

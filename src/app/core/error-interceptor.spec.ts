@@ -1,5 +1,6 @@
 import { HttpClient, HttpContext, provideHttpClient, withInterceptors } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { ChangeDetectionStrategy, Component } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { provideRouter, Router } from '@angular/router';
@@ -7,6 +8,9 @@ import { firstValueFrom } from 'rxjs';
 import type { ApiError } from './api-error';
 import { Auth } from './auth';
 import { errorInterceptor, HANDLES_ERRORS } from './error-interceptor';
+
+@Component({ template: '', changeDetection: ChangeDetectionStrategy.OnPush })
+class NextPage {}
 
 describe('errorInterceptor', () => {
   let http: HttpClient;
@@ -16,11 +20,15 @@ describe('errorInterceptor', () => {
 
   beforeEach(() => {
     TestBed.configureTestingModule({
-      providers: [provideHttpClient(withInterceptors([errorInterceptor])), provideHttpClientTesting(), provideRouter([])],
+      providers: [
+        provideHttpClient(withInterceptors([errorInterceptor])),
+        provideHttpClientTesting(),
+        provideRouter([{ path: 'next', component: NextPage }]),
+      ],
     });
     http = TestBed.inject(HttpClient);
     backend = TestBed.inject(HttpTestingController);
-    snack = spyOn(TestBed.inject(MatSnackBar), 'open');
+    snack = spyOn(TestBed.inject(MatSnackBar), 'open').and.callThrough();
     navigate = spyOn(TestBed.inject(Router), 'navigate').and.resolveTo(true);
   });
   afterEach(() => backend.verify());
@@ -60,12 +68,23 @@ describe('errorInterceptor', () => {
     await failWith('/api/rooms', 401, { error: { code: 'unauthorized', message: 'Please sign in first.' } });
     expect(marked).toHaveBeenCalled();
     expect(navigate).toHaveBeenCalledWith(['/sign-in'], jasmine.objectContaining({ queryParams: jasmine.any(Object) }));
+    await navigate.calls.mostRecent().returnValue;
+    await Promise.resolve();
     expect(snack.calls.mostRecent().args[0]).toContain('session has ended');
   });
 
   it('does not redirect on a 401 from the sign-in call itself (wrong password)', async () => {
     await failWith('/api/auth/sign-in', 401, { error: { code: 'wrong_credentials', message: 'No match.' } });
     expect(navigate).not.toHaveBeenCalled();
+  });
+
+  it('closes an error snackbar when the person moves to another page', async () => {
+    navigate.and.callThrough();
+    await failWith('/api/rooms/1', 409, { error: { code: 'conflict', message: 'That room was changed by someone else.' } });
+    const ref = snack.calls.mostRecent().returnValue;
+    const dismiss = spyOn(ref, 'dismiss').and.callThrough();
+    await TestBed.inject(Router).navigateByUrl('/next');
+    expect(dismiss).toHaveBeenCalled();
   });
 
   it('explains a server without a JSON error body', async () => {

@@ -18,32 +18,43 @@ import { ParticipantApi } from './participant-api';
           <p role="alert">{{ m }}</p>
         } @else if (state(); as s) {
           <p class="kicker">{{ s.workshopTitle }}</p>
-          <h1>Which name is yours?</h1>
           @if (!s.open) {
-            <p class="note" role="status">This workshop is not taking participants right now. Ask your facilitator.</p>
-          } @else if (allTaken()) {
-            <p class="note" role="alert">
-              Every name on the list has been picked. If one of them is yours, ask your facilitator to reset it; if yours is missing, ask
-              them to add you.
+            <h1>{{ s.status === 'draft' ? 'The survey has not opened yet' : 'The survey is closed' }}</h1>
+            <p class="note" role="status">
+              {{
+                s.status === 'draft'
+                  ? 'Your facilitator will tell you when to scan the code again.'
+                  : 'Names can no longer be picked here. If you already have your personal link, it still opens your page.'
+              }}
             </p>
           } @else {
-            <p class="rh-muted">Pick only your own name: it opens your personal page, and each name can be picked once.</p>
+            <h1>Which name is yours?</h1>
+            @if (allTaken()) {
+              <p class="note" role="alert">
+                Every name on the list has been picked. If one of them is yours, ask your facilitator to reset it; if yours is missing, ask
+                them to add you.
+              </p>
+            } @else {
+              <p class="rh-muted">Pick only your own name: it opens your personal page, and each name can be picked once.</p>
+            }
           }
           @if (problem(); as p) {
             <p class="note error" role="alert">{{ p }}</p>
           }
-          <ul class="names">
-            @for (n of s.names; track n.id) {
-              <li>
-                <button mat-stroked-button type="button" [disabled]="n.taken || busy() || !s.open" (click)="claim(n.id)">
-                  {{ n.name }}
-                  @if (n.taken) {
-                    <span class="taken">already taken</span>
-                  }
-                </button>
-              </li>
-            }
-          </ul>
+          @if (s.open) {
+            <ul class="names">
+              @for (n of s.names; track n.id) {
+                <li>
+                  <button mat-stroked-button type="button" [disabled]="n.taken || busy() || !s.open" (click)="claim(n.id)">
+                    {{ n.name }}
+                    @if (n.taken) {
+                      <span class="taken">already taken</span>
+                    }
+                  </button>
+                </li>
+              }
+            </ul>
+          }
         } @else {
           <p role="status">Opening…</p>
         }

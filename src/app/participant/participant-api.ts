@@ -16,8 +16,10 @@ export class ParticipantApi {
   consent(token: string): Promise<SurveyState> {
     return firstValueFrom(this.http.post<SurveyState>(`/api/p/${encodeURIComponent(token)}/consent`, {}, this.own));
   }
-  save(token: string, version: number, nominations: Nomination[]): Promise<SurveyState> {
-    return firstValueFrom(this.http.put<SurveyState>(`/api/p/${encodeURIComponent(token)}/answers`, { version, nominations }, this.own));
+  /** `nobody` is the explicit "I talk to nobody here regularly" answer (sent only when chosen). */
+  save(token: string, version: number, nominations: Nomination[], nobody = false): Promise<SurveyState> {
+    const body = nobody ? { version, nominations, nobody: true } : { version, nominations };
+    return firstValueFrom(this.http.put<SurveyState>(`/api/p/${encodeURIComponent(token)}/answers`, body, this.own));
   }
   debrief(token: string): Promise<MyDebrief> {
     return firstValueFrom(this.http.get<MyDebrief>(`/api/p/${encodeURIComponent(token)}/debrief`, this.own));

@@ -4,6 +4,7 @@ import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatIconModule } from '@angular/material/icon';
 import type { MyDebrief, SurveyState } from '../../../shared/api/workshops';
 import { toApiError } from '../core/api-error';
+import { DayPipe } from '../core/date-format';
 import { DebriefView } from './debrief-view';
 import { ParticipantApi } from './participant-api';
 import { PrivacyNotice } from './privacy-notice';
@@ -12,7 +13,7 @@ import { SurveyForm } from './survey-form';
 /** A participant's own page, opened from their personal link: notice, survey, later their results. */
 @Component({
   selector: 'app-participant-page',
-  imports: [MatButtonModule, MatCheckboxModule, MatIconModule, SurveyForm, DebriefView, PrivacyNotice],
+  imports: [DayPipe, MatButtonModule, MatCheckboxModule, MatIconModule, SurveyForm, DebriefView, PrivacyNotice],
   templateUrl: './participant-page.html',
   styleUrl: './participant-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -22,6 +22,7 @@ const STATE: SurveyState = {
   version: 0,
   nominations: [],
   savedAt: null,
+  nobody: false,
   debriefReady: false,
 };
 
@@ -59,6 +60,25 @@ describe('SurveyForm', () => {
     expect(req.request.method).toBe('PUT');
     expect(req.request.body).toEqual({ version: 0, nominations: [{ participantId: 3, level: 'often' }] });
     req.flush({ ...STATE, version: 1, nominations: [{ participantId: 3, level: 'often' }], savedAt: '2026-05-14T09:00:00Z' });
+    await fixture.whenStable();
+    expect(el.textContent).toContain('your answers are saved');
+  });
+
+  it('refuses an empty answer and sends the explicit “nobody” choice instead', async () => {
+    await setUp();
+    send().click();
+    await fixture.whenStable();
+    http.expectNone('/api/p/' + 'T'.repeat(43) + '/answers');
+    expect(el.textContent).toContain('Pick at least one person you ask, or choose “I talk to nobody here regularly”');
+    const nobody = [...el.querySelectorAll<HTMLButtonElement>('button.name')].find((b) => b.textContent!.includes('nobody here'))!;
+    nameButton('Bram Osterfeld').click();
+    nobody.click();
+    await fixture.whenStable();
+    expect(el.querySelector('[data-testid=pick-counter]')!.textContent).toContain('0 of at most 2');
+    send().click();
+    const req = http.expectOne('/api/p/' + 'T'.repeat(43) + '/answers');
+    expect(req.request.body).toEqual({ version: 0, nominations: [], nobody: true });
+    req.flush({ ...STATE, version: 1, savedAt: '2026-05-14T09:00:00Z', nobody: true });
     await fixture.whenStable();
     expect(el.textContent).toContain('your answers are saved');
   });

@@ -8,6 +8,7 @@ import { toApiError } from '../core/api-error';
 import { ParticipantApi } from './participant-api';
 
 type Pick = SurveyLevel | '';
+const EMPTY_MESSAGE = 'Pick at least one person you ask, or choose “I talk to nobody here regularly” if that is your answer.';
 
 /** At most `limit` people picked; each pick needs a level (a picked row always has one). */
 export function pickLimit(limit: number) {
@@ -39,6 +40,8 @@ export class SurveyForm {
   protected readonly message = signal<{ kind: 'ok' | 'error' | 'conflict'; text: string } | null>(null);
   /** The saved answers from another browser, when a save met them. */
   protected readonly theirs = signal<{ version: number; nominations: Nomination[] } | null>(null);
+  /** The explicit "I talk to nobody here regularly" answer; picking a name clears it. */
+  protected readonly nobody = signal(false);
   private version = 0;
   private readonly tick = signal(0);
 
@@ -46,6 +49,8 @@ export class SurveyForm {
     this.tick();
     return Object.entries(this.form().controls).filter(([, c]) => c.value).length;
   });
+  /** Neither a name nor "nobody": the server refuses an empty answer, so the page says so first. */
+  protected readonly empty = computed(() => this.picked() === 0 && !this.nobody());
   protected readonly visibleNames = computed(() => {
     const q = this.filterText().trim().toLowerCase();
     return this.state().names.filter((n) => !q || n.name.toLowerCase().includes(q));
@@ -63,6 +68,7 @@ export class SurveyForm {
     if (!s.open) group.disable();
     group.valueChanges.subscribe(() => this.tick.update((v) => v + 1));
     this.version = s.version;
+    this.nobody.set(s.nobody);
     this.form.set(group);
     this.tick.update((v) => v + 1);
   }
@@ -75,6 +81,15 @@ export class SurveyForm {
     const c = this.control(id);
     if (c.disabled) return;
     c.setValue(c.value ? '' : 'weekly');
+    if (c.value) this.nobody.set(false);
+    this.message.set(null);
+  }
+
+  protected toggleNobody(): void {
+    if (!this.state().open) return;
+    const on = !this.nobody();
+    this.nobody.set(on);
+    if (on) for (const c of Object.values(this.form().controls)) c.setValue('');
     this.message.set(null);
   }
 
@@ -90,10 +105,14 @@ export class SurveyForm {
 
   protected async send(version = this.version): Promise<void> {
     if (this.form().invalid) return;
+    if (this.empty()) {
+      this.message.set({ kind: 'error', text: EMPTY_MESSAGE });
+      return;
+    }
     this.sending.set(true);
     this.message.set(null);
     try {
-      const state = await this.api.save(this.token(), version, this.current());
+      const state = await this.api.save(this.token(), version, this.current(), this.nobody());
       this.theirs.set(null);
       this.version = state.version;
       this.message.set({ kind: 'ok', text: 'Thank you, your answers are saved. You can change them until the survey closes.' });
@@ -124,6 +143,7 @@ export class SurveyForm {
     if (!theirs) return;
     const mine = new Map(theirs.nominations.map((n) => [n.participantId, n.level]));
     for (const [id, c] of Object.entries(this.form().controls)) c.setValue(mine.get(Number(id)) ?? '');
+    this.nobody.set(theirs.nominations.length === 0);
     this.version = theirs.version;
     this.theirs.set(null);
     this.message.set({

@@ -1,6 +1,6 @@
-import { insideCount, intervalChartData, intervalPointsFrom } from './interval-chart-data';
+import { insideCount, intervalPointsFrom, niceAxis, rangePlot } from './interval-chart-data';
 
-describe('intervalChartData', () => {
+describe('rangePlot', () => {
   // Path 0-1-2-3-4 with starters {0, 4}: h_i = i (n - i) = 3, 4, 3 (gambler's ruin; Levin, Peres,
   // Wilmer, Markov Chains and Mixing Times, 2009). Simulated values are invented around them.
   const points = [
@@ -9,22 +9,28 @@ describe('intervalChartData', () => {
     { name: 'Cy', analytic: 3, simulated: 3.3, low: 3.15, high: 3.45 },
   ];
 
-  it('sorts people by analytic hops and makes floating interval bars', () => {
-    const data = intervalChartData(points);
-    expect(data.labels).toEqual(['Ari', 'Cy', 'Bea']);
-    const [interval, simulated, analytic] = data.datasets;
-    expect(interval.type).toBe('bar');
-    expect(interval.data).toEqual([
-      [2.85, 3.09],
-      [3.15, 3.45],
-      [3.9, 4.2],
-    ]);
-    expect(simulated.data).toEqual([2.97, 3.3, 4.05]);
-    expect(analytic.data).toEqual([3, 3, 4]);
+  it('sorts people by analytic hops and places each interval on a round axis', () => {
+    const plot = rangePlot(points);
+    expect(plot.rows.map((r) => r.name)).toEqual(['Ari', 'Cy', 'Bea']);
+    expect(plot.max).toBe(5);
+    expect(plot.ticks.map((t) => t.value)).toEqual([0, 1, 2, 3, 4, 5]);
+    const ari = plot.rows[0];
+    expect(ari.lowPct).toBeCloseTo(57, 6);
+    expect(ari.lowPct + ari.widthPct).toBeCloseTo(61.8, 6);
+    expect(ari.analyticPct).toBeCloseTo(60, 6);
   });
 
-  it('counts the people whose analytic value lies inside their interval', () => {
+  it('flags the rows whose analysis lies outside the interval', () => {
+    const plot = rangePlot(points);
+    expect(plot.rows.map((r) => r.inside)).toEqual([true, false, true]);
+    expect(plot.outside).toBe(1);
     expect(insideCount(points)).toEqual({ inside: 2, of: 3 });
+  });
+
+  it('chooses steps of 1, 2 or 5 times a power of ten', () => {
+    expect(niceAxis(47)).toEqual({ max: 50, step: 10 });
+    expect(niceAxis(0.7)).toEqual({ max: 0.8, step: 0.2 });
+    expect(niceAxis(0)).toEqual({ max: 1, step: 0.2 });
   });
 });
 

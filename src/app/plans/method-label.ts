@@ -6,6 +6,7 @@ const LABELS: Record<string, string> = {
   swap: 'Swap polish',
   exhaustive: 'Exhaustive',
   'lazy-greedy': 'Greedy (large room)',
+  screen: 'Quick screen (very large rooms)',
   'hand-made': 'Hand-made',
 };
 

@@ -1,4 +1,15 @@
 import { FormControl, FormGroup, type AbstractControl, type ValidationErrors, type ValidatorFn } from '@angular/forms';
+import {
+  budgetProblem,
+  budgetRange,
+  NO_SHOW_LIMITS,
+  noShowProblem,
+  timeLimitProblem,
+  planRequestProblems,
+  startersProblem,
+  type PlanField,
+} from '../../../shared/api/plan-rules';
+import { PLAN_LIMITS } from '../../../shared/api/plans';
 
 export type PlanMethodChoice = 'auto' | 'greedy' | 'widened' | 'swap' | 'exhaustive';
 export type PlanMode = 'computed' | 'hand';
@@ -8,7 +19,7 @@ export const METHOD_CHOICES: readonly { value: PlanMethodChoice; label: string; 
   {
     value: 'auto',
     label: 'Automatic',
-    line: 'Ripplehall picks: the proven best for small rooms, otherwise widened greedy with swap polish.',
+    line: 'Ripplehall picks: a full search for small rooms, otherwise widened greedy with swap polish; the page says what was proven.',
   },
   { value: 'greedy', label: 'Greedy', line: 'Adds one starter at a time, each time the person who shortens the wait most. Fast.' },
   {
@@ -20,7 +31,7 @@ export const METHOD_CHOICES: readonly { value: PlanMethodChoice; label: string; 
   {
     value: 'exhaustive',
     label: 'Exhaustive',
-    line: 'Checks every possible group with smart pruning and proves the best; small rooms only.',
+    line: 'Searches every possible group, skipping the ones that provably cannot win; within the time limit it proves the best, or says how close it got.',
   },
 ];
 
@@ -28,6 +39,10 @@ export type PlanForm = FormGroup<{
   mode: FormControl<PlanMode>;
   k: FormControl<number | null>;
   method: FormControl<PlanMethodChoice>;
+  /** No-show chance in percent (0..50); null or 0: every starter shows up. */
+  noShowPercent: FormControl<number | null>;
+  /** Search time limit in seconds (exhaustive and automatic); null: the default. */
+  timeLimitSeconds: FormControl<number | null>;
   mustBrief: FormControl<number[]>;
   cannotBrief: FormControl<number[]>;
   starters: FormControl<number[]>;
@@ -35,102 +50,91 @@ export type PlanForm = FormGroup<{
 
 /** Largest budget for a room of n people: everyone but one (briefing everyone needs no plan). */
 export function maxBudget(roomSize: number): number {
-  return Math.max(1, roomSize - 1);
+  return budgetRange(roomSize).max;
 }
 
-/** k must be a whole number from 1 to n - 1. */
+/** k by the shared rule (shared/api/plan-rules.ts); the error carries the rule's own message. */
 export function budgetValidator(roomSize: () => number): ValidatorFn {
   return (c: AbstractControl): ValidationErrors | null => {
-    const v = c.value;
-    if (v === null || v === undefined || v === '') return { required: true };
-    if (typeof v !== 'number' || !Number.isFinite(v)) return { required: true };
-    if (!Number.isInteger(v)) return { integer: true };
-    if (v < 1) return { min: { min: 1, actual: v } };
-    const max = maxBudget(roomSize());
-    if (roomSize() < 2) return { roomTooSmall: { size: roomSize() } };
-    if (v > max) return { max: { max, actual: v } };
-    return null;
+    const p = budgetProblem(c.value, roomSize());
+    return p ? { budget: p.message } : null;
   };
+}
+
+export function timeLimitValidator(c: AbstractControl): ValidationErrors | null {
+  const p = timeLimitProblem(c.value === '' ? null : c.value);
+  return p ? { timeLimit: p.message } : null;
+}
+
+export function noShowValidator(c: AbstractControl): ValidationErrors | null {
+  const v = c.value;
+  if (v === null || v === '') return null;
+  const p = noShowProblem(typeof v === 'number' ? v / 100 : v);
+  return p ? { noShow: p.message } : null;
 }
 
 /**
- * Checks that belong to the whole form: must-brief people fit in the budget, nobody is in both lists,
- * enough people remain to choose from, and a hand-made plan has starters within the room's bounds.
+ * Checks of the whole form by the shared rules: the must-brief list fits the budget, nobody is in
+ * both lists, enough people remain; a hand-made plan has 1 to n - 1 starters. The errors map each
+ * field to its message (the budget's own problem stays on the budget control).
  */
-export function planConstraintsValidator(roomSize: () => number): ValidatorFn {
+export function planConstraintsValidator(roomSize: () => number, nameOf: (id: number) => string = (id) => `#${id}`): ValidatorFn {
   return (g: AbstractControl): ValidationErrors | null => {
     const f = (g as PlanForm).getRawValue();
-    const errors: ValidationErrors = {};
+    const errors: Partial<Record<PlanField, string>> = {};
     if (f.mode === 'hand') {
-      if (f.starters.length === 0) errors['noStarters'] = true;
-      else if (f.starters.length > maxBudget(roomSize()))
-        errors['tooManyStarters'] = { max: maxBudget(roomSize()), actual: f.starters.length };
-      return Object.keys(errors).length ? errors : null;
+      const p = startersProblem(f.starters.length, roomSize());
+      if (p) errors.starters = p.message;
+    } else {
+      for (const p of planRequestProblems({ k: f.k, mustBrief: f.mustBrief, cannotBrief: f.cannotBrief }, roomSize(), nameOf)) {
+        if (p.field !== 'k' && !errors[p.field]) errors[p.field] = p.message;
+      }
     }
-    const k = typeof f.k === 'number' && Number.isInteger(f.k) ? f.k : null;
-    if (k !== null && f.mustBrief.length > k) errors['mustBriefOverBudget'] = { count: f.mustBrief.length, k };
-    const cannot = new Set(f.cannotBrief);
-    const both = f.mustBrief.filter((id) => cannot.has(id));
-    if (both.length) errors['conflict'] = { ids: both };
-    const available = roomSize() - cannot.size;
-    if (k !== null && available < k) errors['tooFewCandidates'] = { available, k };
-    return Object.keys(errors).length ? errors : null;
+    return Object.keys(errors).length ? { fields: errors } : null;
   };
 }
 
-/** One message per error, for the mat-error of each field. */
-export function budgetMessage(errors: ValidationErrors | null, roomSize: number): string | null {
-  if (!errors) return null;
-  if (errors['required']) return 'Enter how many people you can brief first.';
-  if (errors['integer']) return 'The budget is a whole number of people.';
-  if (errors['min']) return 'Brief at least 1 person.';
-  if (errors['roomTooSmall']) return 'This room needs at least 2 people before you can plan.';
-  if (errors['max']) return `At most ${maxBudget(roomSize)} in a room of ${roomSize}: briefing everyone needs no plan.`;
-  return null;
+/** The budget field's message (null when valid). */
+export function budgetMessage(errors: ValidationErrors | null): string | null {
+  return (errors?.['budget'] as string | undefined) ?? null;
 }
 
-export function constraintMessages(
-  errors: ValidationErrors | null,
-  nameOf: (id: number) => string,
-): { must?: string; cannot?: string; starters?: string } {
-  if (!errors) return {};
-  const out: { must?: string; cannot?: string; starters?: string } = {};
-  if (errors['mustBriefOverBudget']) {
-    const { count, k } = errors['mustBriefOverBudget'];
-    out.must = `${count} people must be briefed but the budget is ${k}: raise the budget or remove someone.`;
-  }
-  if (errors['conflict']) {
-    const names = (errors['conflict'].ids as number[]).map(nameOf).join(', ');
-    out.cannot = `${names} cannot be in both lists: remove them from one.`;
-  }
-  if (!out.cannot && errors['tooFewCandidates']) {
-    const { available, k } = errors['tooFewCandidates'];
-    out.cannot = `Only ${available} people can be briefed, fewer than the budget of ${k}.`;
-  }
-  if (errors['noStarters']) out.starters = 'Pick at least one starter.';
-  if (errors['tooManyStarters'])
-    out.starters = `Pick at most ${errors['tooManyStarters'].max} starters: leave someone to hear it by word of mouth.`;
-  return out;
+/** The form-level message of each field. */
+export function constraintMessages(errors: ValidationErrors | null): { must?: string; cannot?: string; starters?: string } {
+  const f = (errors?.['fields'] ?? {}) as Partial<Record<PlanField, string>>;
+  return {
+    ...(f.mustBrief ? { must: f.mustBrief } : {}),
+    ...(f.cannotBrief ? { cannot: f.cannotBrief } : {}),
+    ...(f.starters ? { starters: f.starters } : {}),
+  };
 }
 
-export function createPlanForm(roomSize: () => number): PlanForm {
+/** `nameOf` names people in messages (the conflict message lists them). */
+export function createPlanForm(roomSize: () => number, nameOf?: (id: number) => string): PlanForm {
   const form: PlanForm = new FormGroup(
     {
       mode: new FormControl<PlanMode>('computed', { nonNullable: true }),
       k: new FormControl<number | null>(4, { validators: [budgetValidator(roomSize)] }),
       method: new FormControl<PlanMethodChoice>('auto', { nonNullable: true }),
+      noShowPercent: new FormControl<number | null>(0, { validators: [noShowValidator] }),
+      timeLimitSeconds: new FormControl<number | null>(PLAN_LIMITS.timeLimitSeconds.default, { validators: [timeLimitValidator] }),
       mustBrief: new FormControl<number[]>([], { nonNullable: true }),
       cannotBrief: new FormControl<number[]>([], { nonNullable: true }),
       starters: new FormControl<number[]>([], { nonNullable: true }),
     },
-    { validators: [planConstraintsValidator(roomSize)] },
+    { validators: [planConstraintsValidator(roomSize, nameOf)] },
   );
   return form;
 }
 
-/** In hand-made mode the budget field is not used (k is the number of starters picked). */
+export const NO_SHOW_PERCENT_MAX = NO_SHOW_LIMITS.max * 100;
+
+/** In hand-made mode the budget and the no-show field are not used (k is the number of starters picked). */
 export function applyMode(form: PlanForm): void {
-  if (form.controls.mode.value === 'hand') form.controls.k.disable({ emitEvent: false });
-  else form.controls.k.enable({ emitEvent: false });
+  const hand = form.controls.mode.value === 'hand';
+  for (const c of [form.controls.k, form.controls.noShowPercent, form.controls.timeLimitSeconds]) {
+    if (hand) c.disable({ emitEvent: false });
+    else c.enable({ emitEvent: false });
+  }
   form.updateValueAndValidity();
 }

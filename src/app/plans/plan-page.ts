@@ -10,37 +10,37 @@ import {
   untracked,
   viewChild,
 } from '@angular/core';
-import { DecimalPipe } from '@angular/common';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatTooltipModule } from '@angular/material/tooltip';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
 import { firstValueFrom, type Subscription } from 'rxjs';
-import type { CreatePlanRequest, PlanDetail, PlanSummary } from '../../../shared/api/plans';
+import type { CreatePlanRequest, PlanDetail, PlanSearchProgress, PlanSummary } from '../../../shared/api/plans';
+import { PLAN_LIMITS } from '../../../shared/api/plans';
 import type { RoomDto } from '../../../shared/api/rooms';
 import { toApiError } from '../core/api-error';
 import { jobEvents } from './job-events';
-import { PlanFormPanel } from './plan-form-panel';
+import { PlanFormPanel, type ServerProblem } from './plan-form-panel';
+import { PlanProgress } from './plan-progress';
 import { PlanResult } from './plan-result';
 import { isStarted, PlansApi } from './plans-api';
 import { SavedPlans } from './saved-plans';
 import { SweepPanel } from './sweep-panel';
 
+interface JobState {
+  progress: number;
+  position: number | null;
+  jobId: number;
+  search: PlanSearchProgress | null;
+  people: number;
+  k: number;
+}
+
 /** The plan screen of a room: ask for a plan, read the result, keep and compare plans. */
 @Component({
   selector: 'app-plan-page',
-  imports: [
-    DecimalPipe,
-    RouterLink,
-    MatButtonModule,
-    MatIconModule,
-    MatProgressBarModule,
-    PlanFormPanel,
-    PlanResult,
-    SavedPlans,
-    SweepPanel,
-  ],
+  imports: [RouterLink, MatButtonModule, MatIconModule, MatTooltipModule, PlanFormPanel, PlanProgress, PlanResult, SavedPlans, SweepPanel],
   templateUrl: './plan-page.html',
   styleUrl: './plan-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -55,13 +55,14 @@ export default class PlanPage {
   readonly plan = input<string>();
 
   protected readonly id = computed(() => Number(this.roomId()));
+  protected readonly exhaustiveMax = PLAN_LIMITS.exhaustiveMaxPeople;
   protected readonly room = signal<RoomDto | null>(null);
   protected readonly loadError = signal<string | null>(null);
   protected readonly plans = signal<PlanSummary[]>([]);
   protected readonly shown = signal<PlanDetail | null>(null);
   protected readonly pending = signal(false);
-  protected readonly serverError = signal<string | null>(null);
-  protected readonly job = signal<{ progress: number; position: number | null; jobId: number } | null>(null);
+  protected readonly serverError = signal<ServerProblem | null>(null);
+  protected readonly job = signal<JobState | null>(null);
   private readonly form = viewChild(PlanFormPanel);
   private jobSub: Subscription | null = null;
 
@@ -103,7 +104,7 @@ export default class PlanPage {
     try {
       const p = await firstValueFrom(this.api.plan(planId));
       this.shown.set(p);
-      if (p.status === 'computing' && p.jobId) this.follow(p.jobId, p.id);
+      if (p.status === 'computing' && p.jobId) this.follow(p.jobId, p.id, p.k);
     } catch {
       this.shown.set(null);
     }
@@ -115,7 +116,7 @@ export default class PlanPage {
     try {
       const r = await firstValueFrom(this.api.createPlan(this.id(), request));
       if (isStarted(r)) {
-        this.follow(r.job.id, r.plan.id);
+        this.follow(r.job.id, r.plan.id, r.plan.k);
       } else {
         this.shown.set(r);
         await this.open(r.id);
@@ -124,38 +125,84 @@ export default class PlanPage {
     } catch (e) {
       const err = toApiError(e);
       const suggest = err.details?.['suggest'];
-      this.serverError.set(suggest ? `${err.message} Try “${suggest}”.` : err.message);
+      const field = typeof err.details?.['field'] === 'string' ? (err.details['field'] as string) : null;
+      this.serverError.set({ message: suggest ? `${err.message} Try “${suggest}”.` : err.message, field });
     } finally {
       this.pending.set(false);
     }
   }
 
-  /** Follows a background plan's progress; opens it when done. */
-  private follow(jobId: number, planId: number): void {
+  /**
+   * Follows a background plan's progress (the bar, the best total and the proven gap so far); when
+   * done, `onDone` runs (by default: open the new plan).
+   */
+  private follow(jobId: number, planId: number, k: number, onDone: (planId: number) => Promise<void> = (id) => this.openFresh(id)): void {
     this.jobSub?.unsubscribe();
-    this.job.set({ progress: 0, position: null, jobId });
+    this.job.set({ progress: 0, position: null, jobId, search: null, people: this.room()?.people.length ?? 0, k });
     this.jobSub = jobEvents(`/api/jobs/${jobId}/events`).subscribe({
       next: (e) => {
+        const before = this.job();
         this.job.set({
           jobId,
-          progress: e.fraction ?? e.job.progress,
+          progress: Math.max(before?.progress ?? 0, e.fraction ?? e.job.progress),
           position: e.type === 'queued' ? (e.position ?? e.job.queuePosition) : null,
+          search: e.search ?? before?.search ?? null,
+          people: before?.people ?? 0,
+          k,
         });
         if (e.type === 'done') {
           this.job.set(null);
-          this.shown.set(null);
-          void this.open(planId).then(() => this.refreshPlans());
+          void onDone(planId).then(() => this.refreshPlans());
         } else if (e.type === 'failed' || e.type === 'cancelled' || e.type === 'interrupted') {
           this.job.set(null);
-          this.serverError.set(e.message ?? e.job.message ?? `The plan was ${e.type}.`);
+          this.serverError.set({ message: e.message ?? e.job.message ?? `The plan was ${e.type}.`, field: null });
           void this.refreshPlans();
         }
       },
       error: (err: Error) => {
         this.job.set(null);
-        this.serverError.set(err.message);
+        this.serverError.set({ message: err.message, field: null });
       },
     });
+  }
+
+  private async openFresh(planId: number): Promise<void> {
+    this.shown.set(null);
+    await this.open(planId);
+  }
+
+  /**
+   * Runs the full search for the shown plan's problem (same k and constraints). Its proven bound
+   * is shared, so the shown plan's gap updates; if the search finds a faster plan, that one opens.
+   */
+  protected async proveShown(p: PlanDetail): Promise<void> {
+    this.serverError.set(null);
+    try {
+      const r = await firstValueFrom(
+        this.api.createPlan(this.id(), {
+          k: p.k,
+          method: 'exhaustive',
+          mustBrief: p.mustBrief,
+          cannotBrief: p.cannotBrief,
+          ...(p.noShow ? { noShow: p.noShow } : {}),
+          timeLimitSeconds: 60,
+          background: true,
+          name: `${p.name} · full search`,
+        }),
+      );
+      const other = isStarted(r) ? r.plan : r;
+      const done = async (id: number) => {
+        const found = await firstValueFrom(this.api.plan(id));
+        const mine = await firstValueFrom(this.api.plan(p.id));
+        if (found.total !== null && mine.total !== null && found.total < mine.total * (1 - 1e-9)) await this.openFresh(id);
+        else this.shown.set(mine);
+      };
+      if (isStarted(r)) this.follow(r.job.id, other.id, p.k, done);
+      else await done(other.id);
+      await this.refreshPlans();
+    } catch (e) {
+      this.serverError.set({ message: toApiError(e).message, field: null });
+    }
   }
 
   protected async cancelJob(): Promise<void> {
@@ -198,7 +245,7 @@ export default class PlanPage {
       const other = isStarted(r) ? r.plan : r;
       await this.router.navigate(['/rooms', this.id(), 'plans', 'compare'], { queryParams: { a: p.id, b: other.id } });
     } catch (e) {
-      this.serverError.set(toApiError(e).message);
+      this.serverError.set({ message: toApiError(e).message, field: null });
     } finally {
       this.pending.set(false);
     }

@@ -63,6 +63,8 @@ import type { PlanPersonDto } from '../../../shared/api/plans';
   styles: `
     :host {
       display: block;
+      max-width: 100%;
+      overflow-x: auto;
     }
     .filter {
       width: 100%;

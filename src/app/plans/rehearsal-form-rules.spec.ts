@@ -2,18 +2,22 @@ import { FormControl } from '@angular/forms';
 import { randomSeed, runsMessage, runsValidator, seedMessage, seedValidator } from './rehearsal-form-rules';
 
 describe('rehearsal form rules', () => {
-  it('bounds the cascades by the server cap', () => {
+  it('bounds the cascades by the server cap, and the message always matches the current value', () => {
     const c = new FormControl<number | null>(
       5000,
       runsValidator(() => 20000),
     );
     expect(c.valid).toBeTrue();
-    c.setValue(20001);
-    expect(runsMessage(c.errors, 20000)).toBe('The server allows at most 20,000 cascades per rehearsal.');
     c.setValue(0);
-    expect(runsMessage(c.errors, 20000)).toBe('Simulate at least 1 cascade.');
+    expect(runsMessage(c.errors)).toBe('Simulate at least 1 cascade (at most 20,000).');
+    c.setValue(200000);
+    expect(runsMessage(c.errors)).toBe('At most 20,000 cascades per rehearsal (you asked for 200,000): lower the number.');
     c.setValue(10.5);
-    expect(runsMessage(c.errors, 20000)).toBe('Cascades are a whole number.');
+    expect(runsMessage(c.errors)).toBe('Cascades are a whole number: 1 to 20,000.');
+    c.setValue(null);
+    expect(runsMessage(c.errors)).toBe('Enter how many cascades to simulate.');
+    c.setValue(200);
+    expect(runsMessage(c.errors)).toBeNull();
   });
 
   it('accepts the seed alphabet and rejects anything else', () => {
@@ -23,6 +27,8 @@ describe('rehearsal form rules', () => {
       c.setValue(bad);
       expect(seedMessage(c.errors)).withContext(bad).not.toBeNull();
     }
+    c.setValue('fixed');
+    expect(seedMessage(c.errors)).toBeNull();
   });
 
   it('makes random seeds that pass the rule and differ', () => {

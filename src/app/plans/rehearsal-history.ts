@@ -1,4 +1,4 @@
-import { DatePipe, DecimalPipe } from '@angular/common';
+import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, input, model, output } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -7,11 +7,12 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 import { JOB_STATUSES, type PlanSummary, type RehearsalSummary } from '../../../shared/api/plans';
+import { DateTimePipe } from '../core/date-format';
 
 /** The room's rehearsals, newest first, filtered by plan and status. */
 @Component({
   selector: 'app-rehearsal-history',
-  imports: [DatePipe, DecimalPipe, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatSelectModule, MatTooltipModule],
+  imports: [DateTimePipe, DecimalPipe, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatSelectModule, MatTooltipModule],
   templateUrl: './rehearsal-history.html',
   styleUrl: './rehearsal-history.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -25,6 +26,10 @@ export class RehearsalHistory {
   readonly opened = output<number>();
   readonly rerun = output<RehearsalSummary>();
   protected readonly statuses = JOB_STATUSES;
+  /** The room's own number of a rehearsal, from its id (ids run across all rooms). */
+  protected numberOf(id: number): number | string {
+    return this.rehearsals().find((r) => r.id === id)?.number ?? '?';
+  }
   protected readonly statusLabel: Record<string, string> = {
     queued: 'waiting',
     running: 'running',

@@ -10,7 +10,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
-import { firstValueFrom, merge, type Subscription } from 'rxjs';
+import { firstValueFrom, map, merge, type Subscription } from 'rxjs';
 import {
   REHEARSAL_LIMITS,
   type PlanSummary,
@@ -22,6 +22,7 @@ import { toApiError } from '../core/api-error';
 import { jobEvents } from './job-events';
 import { PlansApi } from './plans-api';
 import { randomSeed, runsMessage, runsValidator, seedMessage, seedValidator } from './rehearsal-form-rules';
+import { ShowWhenChanged } from './show-when-changed';
 import { RehearsalHistory } from './rehearsal-history';
 import { RehearsalResult } from './rehearsal-result';
 import { rerunMatch, type RerunMatch } from './rerun-match';
@@ -67,18 +68,24 @@ export default class RehearsalPage {
   protected readonly id = computed(() => Number(this.roomId()));
   protected readonly plans = signal<PlanSummary[]>([]);
   protected readonly cap = signal<number>(REHEARSAL_LIMITS.defaultRuns);
+  protected readonly matcher = new ShowWhenChanged();
   protected readonly planId = new FormControl<number | null>(null);
   protected readonly runs = new FormControl<number | null>(
     REHEARSAL_LIMITS.defaultRuns,
     runsValidator(() => this.cap()),
   );
   protected readonly seed = new FormControl<string>(randomSeed(), { nonNullable: true, validators: seedValidator });
+  /** A counter, so every change notifies (a repeated status such as INVALID -> INVALID must still refresh the messages). */
+  private changeCount = 0;
   private readonly formChanges = toSignal(
-    merge(this.runs.statusChanges, this.seed.statusChanges, this.runs.valueChanges, this.seed.valueChanges),
-    { initialValue: null },
+    merge(this.runs.statusChanges, this.seed.statusChanges, this.runs.valueChanges, this.seed.valueChanges).pipe(
+      map(() => ++this.changeCount),
+    ),
+    { initialValue: 0 },
   );
-  protected readonly runsError = computed(() => (this.formChanges(), runsMessage(this.runs.errors, this.cap())));
+  protected readonly runsError = computed(() => (this.formChanges(), this.cap(), runsMessage(this.runs.errors)));
   protected readonly seedError = computed(() => (this.formChanges(), seedMessage(this.seed.errors)));
+  protected readonly formInvalid = computed(() => (this.formChanges(), this.cap(), this.runs.invalid || this.seed.invalid));
 
   protected readonly active = signal<Active | null>(null);
   protected readonly detail = signal<RehearsalDetail | null>(null);
@@ -241,7 +248,7 @@ export default class RehearsalPage {
     }
     this.detail.set(d.status === 'done' ? d : null);
     this.match.set(null);
-    if (d.status !== 'done') this.startError.set(`Rehearsal #${d.id} is ${d.status}: it has no results. ${d.message ?? ''}`);
+    if (d.status !== 'done') this.startError.set(`Rehearsal #${d.number} is ${d.status}: it has no results. ${d.message ?? ''}`);
     if (d.status === 'done' && d.rerunOf) {
       const original = await firstValueFrom(this.api.rehearsal(d.rerunOf));
       if (original.status === 'done') this.match.set(rerunMatch(original, d));

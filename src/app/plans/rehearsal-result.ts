@@ -2,6 +2,7 @@ import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
+import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 import type { RehearsalDetail } from '../../../shared/api/plans';
 import { IntervalChart } from './interval-chart';
@@ -14,7 +15,7 @@ import type { RerunMatch } from './rerun-match';
 /** A finished rehearsal: the verdict, its numbers, and the two comparison charts. */
 @Component({
   selector: 'app-rehearsal-result',
-  imports: [DecimalPipe, RouterLink, MatButtonModule, MatIconModule, IntervalChart, ModelCaution, ReachChart],
+  imports: [DecimalPipe, RouterLink, MatButtonModule, MatIconModule, MatTooltipModule, IntervalChart, ModelCaution, ReachChart],
   templateUrl: './rehearsal-result.html',
   styleUrl: './rehearsal-result.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

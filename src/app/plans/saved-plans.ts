@@ -1,4 +1,4 @@
-import { DatePipe, DecimalPipe } from '@angular/common';
+import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input, output, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
@@ -7,13 +7,14 @@ import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 import type { PlanSummary } from '../../../shared/api/plans';
 import { methodLabel } from './method-label';
+import { DateTimePipe } from '../core/date-format';
 
 const SHOWN = 8;
 
 /** The room's saved plans: open one, mark the chosen one, pick two to compare. */
 @Component({
   selector: 'app-saved-plans',
-  imports: [DatePipe, DecimalPipe, RouterLink, MatButtonModule, MatCheckboxModule, MatIconModule, MatTooltipModule],
+  imports: [DateTimePipe, DecimalPipe, RouterLink, MatButtonModule, MatCheckboxModule, MatIconModule, MatTooltipModule],
   templateUrl: './saved-plans.html',
   styleUrl: './saved-plans.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

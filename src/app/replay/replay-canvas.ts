@@ -1,46 +1,46 @@
+import type { ReplayScene } from './replay-scene';
 import { chainFronts, hasHeard, type Timeline } from './replay-timeline';
 
 /**
  * Draws one frame of the replay on a canvas. Readable without colour: starters are squares
- * marked "S", people who have heard are filled discs with a dark centre ring, people still
- * waiting are hollow rings, and a travelling question is a diamond with a dashed trail.
+ * marked "S", people who have heard are large filled discs with a dark centre ring and a
+ * bold name, people still waiting are small hollow rings with a plain name, and the message
+ * on its way is a diamond with a dashed trail.
  */
 export const REPLAY_COLOURS = {
   background: '#0d1b26',
-  tie: 'rgba(220, 230, 240, 0.16)',
+  // Ties must read on a projector that washes out dark greys: light and about half opaque.
+  tie: 'rgba(200, 216, 232, 0.5)',
   waiting: '#c9d3dc',
   heard: '#ffc94d',
   starter: '#ffffff',
   front: '#6fd3ff',
   justHeard: '#ffffff',
+  name: '#f2f5f7',
+  nameWaiting: '#b4c2cd',
 };
 
 export interface Frame {
   ctx: CanvasRenderingContext2D;
   width: number;
   height: number;
-  x: Float64Array;
-  y: Float64Array;
+  /** Positions in canvas pixels and the names' spots (replay-scene.ts). */
+  scene: ReplayScene;
   ties: readonly { source: number; target: number }[];
   timeline: Timeline;
   t: number;
-  names: readonly string[];
-  showNames: boolean;
 }
 
 export function drawFrame(f: Frame): void {
-  const { ctx, width, height, timeline: tl } = f;
-  const pad = Math.max(28, Math.min(width, height) * 0.06);
-  // Names are drawn to the right of each person: leave room for them.
-  const right = f.showNames ? Math.min(180, width * 0.2) : pad;
-  const px = (i: number) => pad + f.x[i] * (width - pad - right);
-  const py = (i: number) => pad + f.y[i] * (height - 2 * pad);
-  const r = Math.max(4, Math.min(14, (Math.min(width, height) / Math.sqrt(tl.n + 1)) * 0.18));
+  const { ctx, width, height, timeline: tl, scene } = f;
+  const px = (i: number) => scene.x[i];
+  const py = (i: number) => scene.y[i];
+  const r = scene.r;
   ctx.fillStyle = REPLAY_COLOURS.background;
   ctx.fillRect(0, 0, width, height);
 
   ctx.strokeStyle = REPLAY_COLOURS.tie;
-  ctx.lineWidth = 1;
+  ctx.lineWidth = tl.n > 400 ? 1 : 1.6;
   ctx.beginPath();
   for (const t of f.ties) {
     ctx.moveTo(px(t.source), py(t.source));
@@ -57,6 +57,8 @@ export function drawFrame(f: Frame): void {
   const fx: number[] = [];
   const fy: number[] = [];
   for (const c of fronts) {
+    // A question that has not left its asker yet is not drawn: at hop 0 it would sit on everyone.
+    if (c.trail.length <= 1 && c.along < 0.02) continue;
     const x = px(c.from) + (px(c.to) - px(c.from)) * c.along;
     const y = py(c.from) + (py(c.to) - py(c.from)) * c.along;
     ctx.moveTo(px(c.trail[0]), py(c.trail[0]));
@@ -126,11 +128,22 @@ export function drawFrame(f: Frame): void {
     ctx.fillStyle = REPLAY_COLOURS.background;
     ctx.fillText('S', x, y + 1);
   }
-  if (f.showNames) {
-    ctx.font = `600 ${Math.round(Math.max(13, r * 1.3))}px "Source Sans 3", sans-serif`;
-    ctx.textAlign = 'left';
-    ctx.textBaseline = 'middle';
-    ctx.fillStyle = '#e8eef3';
-    for (let i = 0; i < tl.n; i++) ctx.fillText(f.names[i], px(i) + r * 1.5, py(i));
+  drawNames(f);
+}
+
+/** Names at their spots: bold and bright once heard, plain and dimmer while waiting. */
+function drawNames(f: Frame): void {
+  const { ctx, scene, timeline: tl } = f;
+  if (!scene.font) return;
+  ctx.textBaseline = 'alphabetic';
+  for (const heardNow of [false, true]) {
+    ctx.font = `${heardNow ? 700 : 400} ${scene.font}px "Source Sans 3", sans-serif`;
+    ctx.fillStyle = heardNow ? REPLAY_COLOURS.name : REPLAY_COLOURS.nameWaiting;
+    for (let i = 0; i < tl.n; i++) {
+      const label = scene.labels[i];
+      if (!label || hasHeard(tl, i, f.t) !== heardNow) continue;
+      ctx.textAlign = label.spot.anchor === 'start' ? 'left' : label.spot.anchor === 'end' ? 'right' : 'center';
+      ctx.fillText(label.text, scene.x[i] + label.spot.dx, scene.y[i] + label.spot.dy);
+    }
   }
 }

@@ -18,6 +18,7 @@ import { toApiError } from '../core/api-error';
 import { drawFrame } from './replay-canvas';
 import { ReplayData } from './replay-data';
 import { replayLayout } from './replay-layout';
+import { replayScene, type ReplayScene } from './replay-scene';
 import { buildTimeline, clampTime, heardAtHop, reachedCount, stepHop, type Timeline } from './replay-timeline';
 
 const SPEEDS = [0.5, 1, 2, 4] as const;
@@ -70,6 +71,12 @@ export default class ReplayPage implements OnInit, OnDestroy {
 
   private layout: { x: Float64Array; y: Float64Array } | null = null;
   private names: string[] = [];
+  private scene: ReplayScene | null = null;
+  /** The names as drawn, with their boxes in canvas pixels: read by assistive technology and by the layout test. */
+  protected readonly drawnNames = signal<{ text: string; name: string; initials: boolean; box: string }[]>([]);
+  protected readonly initialsLegend = computed(() => this.drawnNames().filter((l) => l.initials));
+  /** At hop 0 only the starters know: say that the message has set out. */
+  protected readonly atStart = computed(() => this.hop() === 0);
   private frame = 0;
   private last = 0;
   private ctx: CanvasRenderingContext2D | null = null;
@@ -100,6 +107,8 @@ export default class ReplayPage implements OnInit, OnDestroy {
   private async loadAll(): Promise<void> {
     try {
       const { index, samples } = await this.data.load(this.rehearsalId());
+      // Names are measured for placement: measure them in the real type, not a fallback.
+      await Promise.all(['400 20px "Source Sans 3"', '700 20px "Source Sans 3"'].map((f) => document.fonts?.load(f).catch(() => [])));
       if (!samples.length) throw new Error('This rehearsal kept no cascades to replay.');
       this.layout = replayLayout(index.people, index.ties);
       this.names = index.people.map((p) => p.name);
@@ -199,27 +208,50 @@ export default class ReplayPage implements OnInit, OnDestroy {
     this.ctx = canvas.getContext('2d');
     this.ctx?.setTransform(ratio, 0, 0, ratio, 0, 0);
     this.size = { w: rect.width, h: rect.height };
+    this.placeScene();
     this.draw();
+  }
+
+  private placeScene(): void {
+    if (!this.layout) return;
+    const measure = measurer();
+    this.scene = replayScene(this.layout, this.names, this.size.w, this.size.h, measure);
+    const scene = this.scene;
+    this.drawnNames.set(
+      scene.labels.flatMap((l, i) => {
+        if (!l) return [];
+        const b = l.spot.box;
+        const box = [b.x0, b.y0, b.x1, b.y1].map((v) => v.toFixed(1)).join(' ');
+        return [{ text: l.text, name: this.names[i], initials: l.initials, box }];
+      }),
+    );
   }
 
   private draw(): void {
     const tl = this.timeline();
     const idx = this.index();
-    if (!this.ctx || !tl || !idx || !this.layout) return;
+    if (!this.ctx || !tl || !idx || !this.scene) return;
     const start = performance.now();
     drawFrame({
       ctx: this.ctx,
       width: this.size.w,
       height: this.size.h,
-      x: this.layout.x,
-      y: this.layout.y,
+      scene: this.scene,
       ties: idx.ties,
       timeline: tl,
       t: this.t(),
-      names: this.names,
-      showNames: idx.people.length <= 40,
     });
     this.stats.frames++;
     this.stats.drawMs.push(performance.now() - start);
   }
+}
+
+/** Width of a name in the replay's type (bold, the wider of the two weights it is drawn in). */
+function measurer(): (text: string, font: number) => number {
+  const ctx = document.createElement('canvas').getContext('2d');
+  return (text, font) => {
+    if (!ctx) return text.length * font * 0.6;
+    ctx.font = `700 ${font}px "Source Sans 3", sans-serif`;
+    return Math.ceil(ctx.measureText(text).width) + 2;
+  };
 }

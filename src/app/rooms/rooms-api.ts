@@ -13,6 +13,7 @@ import type {
   ShareRequest,
   ShareRole,
 } from '../../../shared/api/rooms';
+import type { OrgChartReport } from '../../../shared/api/org-chart';
 import { HANDLES_ERRORS } from '../core/error-interceptor';
 
 /** The rooms endpoints the pages call (the editor's own saving lives in RoomEditor). */
@@ -47,6 +48,17 @@ export class RoomsApi {
   import(roomId: number | null, form: FormData, dryRun: boolean): Observable<HttpEvent<ImportReport>> {
     const url = roomId === null ? '/api/rooms/import' : `/api/rooms/${roomId}/import`;
     return this.http.post<ImportReport>(url, form, {
+      params: { dryRun: String(dryRun) },
+      reportProgress: true,
+      observe: 'events',
+      context: this.selfHandled,
+    });
+  }
+
+  /** Dry run or commit of an org-chart import (shared/api/org-chart.ts). */
+  importOrgChart(roomId: number | null, form: FormData, dryRun: boolean): Observable<HttpEvent<OrgChartReport>> {
+    const url = roomId === null ? '/api/rooms/import/org-chart' : `/api/rooms/${roomId}/import/org-chart`;
+    return this.http.post<OrgChartReport>(url, form, {
       params: { dryRun: String(dryRun) },
       reportProgress: true,
       observe: 'events',

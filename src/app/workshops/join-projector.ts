@@ -1,30 +1,44 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, inject, input, type OnDestroy, type OnInit, signal } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 import type { SurveyProgress } from '../../../shared/api/workshops';
 import { toApiError } from '../core/api-error';
 import { WorkshopsApi } from './workshops-api';
+import { DateTimePipe } from '../core/date-format';
 
 /** Full-screen QR code for the projector: participants scan it and pick their own name. */
 @Component({
   selector: 'app-join-projector',
-  imports: [RouterLink, MatIconModule, DatePipe],
+  imports: [DateTimePipe, RouterLink, MatIconModule],
   template: `
     <section class="qr-screen">
       @if (error(); as e) {
         <p role="alert">{{ e }}</p>
-      } @else if (code(); as c) {
-        <h1>Scan to join the survey</h1>
-        <img [src]="c.qr" alt="QR code leading to the join page" />
-        <p class="url">{{ c.url }}</p>
-        <p class="hint">Pick your own name on your phone. Each name can be picked once.</p>
-        @if (progress(); as p) {
+      } @else if (progress(); as p) {
+        @if (p.status !== 'collecting') {
+          <h1 role="status">{{ p.status === 'draft' ? 'The survey has not opened yet' : 'The survey is closed' }}</h1>
+          <p class="hint">
+            {{
+              p.status === 'draft'
+                ? 'The code appears here once the survey opens.'
+                : 'Thank you: names can no longer be picked here. Your personal link still shows your page.'
+            }}
+          </p>
+          <p class="count">
+            <strong>{{ p.answered }}</strong> of {{ p.participants }} answered
+          </p>
+        } @else if (code(); as c) {
+          <h1>Scan to join the survey</h1>
+          <img [src]="c.qr" alt="QR code leading to the join page" />
+          <p class="url">{{ c.url }}</p>
+          <p class="hint">Pick your own name on your phone. Each name can be picked once.</p>
           <p class="count" aria-live="polite">
             <strong>{{ p.answered }}</strong> of {{ p.participants }} have answered
           </p>
+          <p class="small">This code works until {{ c.expiresAt | dateTime }}; showing it again makes a new one.</p>
         }
-        <p class="small">This code works until {{ c.expiresAt | date: 'd MMM, HH:mm' }}; showing it again makes a new one.</p>
+      } @else {
+        <p role="status">Preparing the code…</p>
       }
       <a [routerLink]="['/workshops', id()]" class="back"><mat-icon>arrow_back</mat-icon>Back to the workshop</a>
     </section>
@@ -89,19 +103,21 @@ export default class JoinProjector implements OnInit, OnDestroy {
   private timer: ReturnType<typeof setInterval> | undefined;
 
   async ngOnInit(): Promise<void> {
+    const id = Number(this.id());
     try {
-      this.code.set(await this.api.joinCode(Number(this.id())));
-      this.timer = setInterval(
-        () =>
-          void this.api.progress(Number(this.id())).then(
-            (p) => this.progress.set(p),
-            () => undefined,
-          ),
-        3000,
-      );
+      const [code, progress] = await Promise.all([this.api.joinCode(id), this.api.progress(id)]);
+      this.code.set(code);
+      this.progress.set(progress);
+      // The count and the survey's state, every 3 s: once the survey closes the screen says so.
+      this.timer = setInterval(() => void this.refresh(id), 3000);
     } catch (err) {
       this.error.set(toApiError(err).message);
     }
+  }
+
+  private async refresh(id: number): Promise<void> {
+    const p = await this.api.progress(id).catch(() => null);
+    if (p) this.progress.set(p);
   }
 
   ngOnDestroy(): void {

@@ -1,8 +1,8 @@
 import { Injectable, signal } from '@angular/core';
 import type { IssuedLink } from '../../../shared/api/workshops';
 
-/** Freshly issued links live only in memory, for the printable sheet; a reload means a new sheet. */
+/** Links handed from the workshop page to the sheet (just reissued ones); otherwise the sheet fetches them. */
 @Injectable({ providedIn: 'root' })
 export class LinkSheetStore {
-  readonly links = signal<{ workshopId: number; title: string; links: IssuedLink[] } | null>(null);
+  readonly links = signal<{ workshopId: number; title: string; links: IssuedLink[]; reissued: boolean } | null>(null);
 }

@@ -1,42 +1,50 @@
-import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, input, type OnInit, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
+import { toApiError } from '../core/api-error';
 import { LinkSheetStore } from './link-sheet-store';
+import { WorkshopsApi } from './workshops-api';
+import { DayPipe } from '../core/date-format';
 
-/** A printable sheet: one slip per participant with their name, QR code and link, to cut apart. */
+/** A printable sheet: one slip per participant with their own link and its QR code, to cut apart. */
 @Component({
   selector: 'app-link-sheet',
-  imports: [DatePipe, MatButtonModule, MatIconModule, RouterLink],
+  imports: [DayPipe, MatButtonModule, MatIconModule, RouterLink],
   template: `
-    @if (sheet.links(); as s) {
-      <section class="rh-page">
+    <section class="rh-page">
+      @if (sheet.links(); as s) {
         <div class="rh-no-print bar">
           <a mat-button [routerLink]="['/workshops', s.workshopId]"><mat-icon>arrow_back</mat-icon>Back</a>
           <button mat-flat-button type="button" (click)="print()"><mat-icon>print</mat-icon>Print</button>
-          <span class="rh-muted">These links are shown once. Print now; opening this sheet again issues new ones.</span>
+          <span class="rh-muted">
+            @if (s.reissued) {
+              New links for {{ s.links.length === 1 ? s.links[0].name : s.links.length + ' people' }}: their earlier links no longer work.
+            } @else {
+              Each person's own link: the same as in their e-mail, and the same on every sheet until you reissue it.
+            }
+          </span>
         </div>
         <div class="slips">
           @for (l of s.links; track l.participantId) {
             <article class="slip">
-              <img [src]="l.qr" alt="" width="120" height="120" />
+              <img [src]="l.qr" [attr.alt]="'QR code of the link for ' + l.name" width="120" height="120" />
               <div>
                 <p class="for">{{ s.title }}</p>
                 <h2>{{ l.name }}</h2>
                 <p class="url">{{ l.url }}</p>
-                <p class="small">Personal link, please do not share. Works until {{ l.expiresAt | date: 'd MMM y' }}.</p>
+                <p class="small">Personal link, please do not share. Works until {{ l.expiresAt | day }}.</p>
               </div>
             </article>
           }
         </div>
-      </section>
-    } @else {
-      <section class="rh-page">
-        <p>This sheet is no longer in memory (links are shown only once). Go back and choose “Print a sheet” again.</p>
-        <a mat-stroked-button routerLink="/workshops">Workshops</a>
-      </section>
-    }
+      } @else if (failure(); as f) {
+        <p role="alert">{{ f }}</p>
+        <a mat-stroked-button [routerLink]="['/workshops', id()]">Back to the workshop</a>
+      } @else {
+        <p role="status">Preparing the sheet…</p>
+      }
+    </section>
   `,
   styles: `
     .bar {
@@ -79,8 +87,24 @@ import { LinkSheetStore } from './link-sheet-store';
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export default class LinkSheet {
+export default class LinkSheet implements OnInit {
+  readonly id = input.required<string>();
   protected readonly sheet = inject(LinkSheetStore);
+  private readonly api = inject(WorkshopsApi);
+  protected readonly failure = signal<string | null>(null);
+
+  /** Reissued links arrive in memory; otherwise the sheet shows everyone's own link, fetched again. */
+  async ngOnInit(): Promise<void> {
+    const id = Number(this.id());
+    if (this.sheet.links()?.workshopId === id) return;
+    try {
+      const [w, links] = await Promise.all([this.api.detail(id), this.api.sheet(id)]);
+      this.sheet.links.set({ workshopId: id, title: w.title, links, reissued: false });
+    } catch (err) {
+      this.failure.set(toApiError(err).message);
+    }
+  }
+
   protected print(): void {
     window.print();
   }

@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, inject, type OnInit, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -11,11 +10,12 @@ import type { RoomListItem } from '../../../shared/api/rooms';
 import { NOMINATION_LIMIT_MAX, STATUS_LABELS, type WorkshopSummary } from '../../../shared/api/workshops';
 import { toApiError } from '../core/api-error';
 import { WorkshopsApi } from './workshops-api';
+import { DayPipe } from '../core/date-format';
 
 /** The facilitator's workshops, and a form to start a new one. */
 @Component({
   selector: 'app-workshop-list',
-  imports: [ReactiveFormsModule, RouterLink, DatePipe, MatButtonModule, MatFormFieldModule, MatInputModule, MatSelectModule, MatIconModule],
+  imports: [DayPipe, ReactiveFormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatInputModule, MatSelectModule, MatIconModule],
   templateUrl: './workshop-list.html',
   styleUrl: './workshops.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, input, type OnDestroy, type OnInit, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -8,6 +7,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatRadioModule } from '@angular/material/radio';
 import { MatSelectModule } from '@angular/material/select';
+import { MatDialog } from '@angular/material/dialog';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
 import { REHEARSAL_LIMITS, type RehearsalSummary } from '../../../shared/api/plans';
@@ -24,16 +24,19 @@ import {
   type WorkshopStatus,
 } from '../../../shared/api/workshops';
 import { toApiError } from '../core/api-error';
+import { confirmed } from '../core/confirm-dialog';
 import { LinkSheetStore } from './link-sheet-store';
 import { WorkshopsApi } from './workshops-api';
+import { DateTimePipe, DayPipe } from '../core/date-format';
 
 /** One workshop: status, facilitators, participants and links, live survey count, room build, debrief. */
 @Component({
   selector: 'app-workshop-page',
   imports: [
+    DateTimePipe,
+    DayPipe,
     ReactiveFormsModule,
     RouterLink,
-    DatePipe,
     MatButtonModule,
     MatCheckboxModule,
     MatFormFieldModule,
@@ -52,6 +55,7 @@ export default class WorkshopPage implements OnInit, OnDestroy {
   private readonly snack = inject(MatSnackBar);
   private readonly router = inject(Router);
   private readonly sheet = inject(LinkSheetStore);
+  private readonly dialog = inject(MatDialog);
 
   protected readonly labels = STATUS_LABELS;
   protected readonly steps = WORKSHOP_STATUSES;
@@ -85,6 +89,8 @@ export default class WorkshopPage implements OnInit, OnDestroy {
   });
   protected readonly limitMax = NOMINATION_LIMIT_MAX;
   protected readonly doneRehearsals = computed(() => this.rehearsals().filter((r) => r.status === 'done'));
+  /** Participants ticked for a reissue of their links. */
+  protected readonly chosen = signal<ReadonlySet<number>>(new Set());
   protected readonly stepIndex = computed(() => WORKSHOP_STATUSES.indexOf(this.w()?.status ?? 'draft'));
   private timer: ReturnType<typeof setInterval> | undefined;
   private workshopId = 0;
@@ -100,12 +106,26 @@ export default class WorkshopPage implements OnInit, OnDestroy {
     clearInterval(this.timer);
   }
 
+  /** Everything at once: the detail, the live count, the missing answers and the rehearsals. */
   private async reload(): Promise<void> {
-    const w = await this.api.detail(this.workshopId);
+    const [w] = await Promise.all([this.api.detail(this.workshopId), this.poll(), this.loadMissing()]);
+    this.show(w);
+    await this.loadRehearsals();
+  }
+
+  private show(w: WorkshopDetail): void {
     this.w.set(w);
+    const ids = new Set(w.participants.map((p) => p.id));
+    this.chosen.update((c) => new Set([...c].filter((id) => ids.has(id))));
     this.releaseForm.controls.showStarters.setValue(w.showStarters);
-    this.settingsForm.setValue({ nominationLimit: w.nominationLimit, linkDays: w.linkDays });
-    await Promise.all([this.poll(), this.loadMissing(), this.loadRehearsals()]);
+    if (this.settingsForm.pristine) this.settingsForm.reset({ nominationLimit: w.nominationLimit, linkDays: w.linkDays });
+  }
+
+  /** After a change to the participants: the fresh detail first, then the rest without waiting. */
+  private async refreshParticipants(): Promise<void> {
+    this.show(await this.api.detail(this.workshopId));
+    void this.poll();
+    void this.loadMissing().catch(() => undefined);
   }
 
   private async poll(): Promise<void> {
@@ -123,14 +143,35 @@ export default class WorkshopPage implements OnInit, OnDestroy {
   }
 
   protected async move(to: WorkshopStatus): Promise<void> {
-    if (to === 'closed' && !confirm('Close this workshop? A closed workshop cannot be reopened or changed.')) return;
-    this.w.set(await this.api.move(this.workshopId, to));
+    const from = this.w()?.status;
+    if (to === 'closed') {
+      const ok = await confirmed(this.dialog, {
+        title: 'Close the workshop?',
+        message: 'A closed workshop cannot be reopened or changed. Participants keep seeing what was released to them.',
+        confirm: 'Close the workshop',
+        danger: true,
+      });
+      if (!ok) return;
+    }
+    if (to === 'running' && from === 'collecting') {
+      const p = this.progress();
+      const waiting = p ? p.participants - p.answered : 0;
+      const ok = await confirmed(this.dialog, {
+        title: 'Close the survey and run?',
+        message:
+          (waiting > 0 ? `${waiting} of ${p!.participants} have not answered yet. ` : 'Everyone has answered. ') +
+          'Once closed, nobody can send or change answers and the QR code stops taking names. You can reopen the survey later.',
+        confirm: 'Close the survey',
+      });
+      if (!ok) return;
+    }
+    this.show(await this.api.move(this.workshopId, to));
     await this.poll();
   }
 
   protected async addFacilitator(): Promise<void> {
     if (this.facilitatorForm.invalid) return;
-    this.w.set(await this.api.addFacilitator(this.workshopId, this.facilitatorForm.getRawValue().email));
+    this.show(await this.api.addFacilitator(this.workshopId, this.facilitatorForm.getRawValue().email));
     this.facilitatorForm.reset();
   }
 
@@ -145,7 +186,9 @@ export default class WorkshopPage implements OnInit, OnDestroy {
     const r = await this.api.addPeople(this.workshopId, [{ name, email: email || null }]);
     if (r.skipped.length) this.snack.open(`${r.skipped.join(', ')} is already on the list.`, 'OK', { duration: 5000 });
     this.personForm.reset();
-    await this.reload();
+    this.show(r.workshop);
+    void this.poll();
+    void this.loadMissing().catch(() => undefined);
   }
 
   protected async uploadRoster(input: HTMLInputElement): Promise<void> {
@@ -161,44 +204,94 @@ export default class WorkshopPage implements OnInit, OnDestroy {
       const e = toApiError(err);
       this.rosterIssues.set((e.details?.['issues'] as { line: number; message: string }[]) ?? []);
     }
-    await this.reload();
+    await this.refreshParticipants();
   }
 
   protected async fromRoom(): Promise<void> {
     const r = await this.api.fromRoom(this.workshopId);
     this.snack.open(`${r.added} people taken from the room.`, 'OK', { duration: 4000 });
-    await this.reload();
+    await this.refreshParticipants();
   }
 
   protected async removeParticipant(pid: number, name: string): Promise<void> {
-    if (!confirm(`Remove ${name} and delete their answers?`)) return;
+    const ok = await confirmed(this.dialog, {
+      title: `Remove ${name}?`,
+      message: `${name} leaves the workshop: their link stops working and their answers are deleted.`,
+      confirm: 'Remove and delete answers',
+      danger: true,
+    });
+    if (!ok) return;
     await this.api.removeParticipant(this.workshopId, pid);
-    await this.reload();
+    await this.refreshParticipants();
   }
 
   protected async resetClaim(pid: number): Promise<void> {
     await this.api.resetClaim(this.workshopId, pid);
     this.snack.open('The name can be picked again; the earlier link no longer works.', 'OK', { duration: 5000 });
-    await this.reload();
+    await this.refreshParticipants();
   }
 
-  protected async revoke(pid: number): Promise<void> {
+  protected async revoke(pid: number, name: string): Promise<void> {
+    const ok = await confirmed(this.dialog, {
+      title: `End ${name}'s link?`,
+      message: `The link ${name} holds (e-mailed, printed or picked on the join page) stops working at once. Their answers are kept. They get no new link until you print or e-mail one.`,
+      confirm: 'End the link',
+      danger: true,
+    });
+    if (!ok) return;
     await this.api.revoke(this.workshopId, [pid]);
-    await this.reload();
+    await this.refreshParticipants();
+  }
+
+  protected toggleChosen(pid: number, on: boolean): void {
+    this.chosen.update((c) => {
+      const next = new Set(c);
+      if (on) next.add(pid);
+      else next.delete(pid);
+      return next;
+    });
+  }
+
+  protected chooseAll(on: boolean): void {
+    this.chosen.set(new Set(on ? (this.w()?.participants ?? []).map((p) => p.id) : []));
+  }
+
+  /** The separate, confirmed action that replaces links: only the chosen people's links end. */
+  protected async reissue(ids: number[]): Promise<void> {
+    const w = this.w();
+    if (!w || !ids.length) return;
+    const names = w.participants.filter((p) => ids.includes(p.id)).map((p) => p.name);
+    const who = names.length === 1 ? names[0] : `${names.length} people`;
+    const ok = await confirmed(this.dialog, {
+      title: names.length === 1 ? `Reissue ${names[0]}'s link?` : `Reissue links for ${names.length} people?`,
+      message:
+        `The link ${names.length === 1 ? 'this person holds' : 'each of them holds'} stops working at once, including links already e-mailed or printed. ` +
+        `Answers are kept and open with the new link. Everyone else keeps their link. Then print or e-mail the new ${names.length === 1 ? 'link' : 'links'} to ${who}.`,
+      confirm: names.length === 1 ? 'Reissue the link' : `Reissue ${names.length} links`,
+      danger: true,
+    });
+    if (!ok) return;
+    const links = await this.api.reissue(this.workshopId, ids);
+    this.chosen.set(new Set());
+    this.sheet.links.set({ workshopId: this.workshopId, title: w.title, links, reissued: true });
+    const ref = this.snack.open(`New ${links.length === 1 ? 'link' : 'links'} for ${who}; the old ones no longer work.`, 'Print them', {
+      duration: 10000,
+    });
+    ref.onAction().subscribe(() => void this.router.navigate(['/workshops', this.workshopId, 'sheet']));
+    await this.refreshParticipants();
   }
 
   protected async emailLinks(): Promise<void> {
     const r = await this.api.email(this.workshopId);
     const parts = [`Sent to ${r.sent.length}.`];
     if (r.withoutEmail.length) parts.push(`${r.withoutEmail.length} without an address: print their links or use the QR code.`);
-    if (r.failed.length) parts.push(`Could not send to ${r.failed.join(', ')}.`);
+    if (r.failed.length) parts.push(`Could not send to ${r.failed.join(', ')}; their links are unchanged.`);
     this.snack.open(parts.join(' '), 'OK', { duration: 8000 });
-    await this.reload();
+    await this.refreshParticipants();
   }
 
   protected async printSheet(): Promise<void> {
-    const links = await this.api.sheet(this.workshopId);
-    this.sheet.links.set({ workshopId: this.workshopId, title: this.w()!.title, links });
+    this.sheet.links.set(null);
     await this.router.navigate(['/workshops', this.workshopId, 'sheet']);
   }
 
@@ -211,31 +304,41 @@ export default class WorkshopPage implements OnInit, OnDestroy {
     const r = await this.api.build(this.workshopId, this.mode());
     this.built.set(r);
     this.missing.set(r.missing);
-    await this.reload();
+    this.show(await this.api.detail(this.workshopId));
+    await this.loadRehearsals();
   }
 
   protected async release(): Promise<void> {
     const v = this.releaseForm.getRawValue();
     if (v.rehearsalId === null) return;
-    this.w.set(
+    this.show(
       await this.api.release(this.workshopId, { rehearsalId: v.rehearsalId, sampleRun: v.sampleRun, showStarters: v.showStarters }),
     );
     this.snack.open('Results released: participants now see their debrief on their own link.', 'OK', { duration: 6000 });
   }
 
   protected async toggleStarters(show: boolean): Promise<void> {
-    this.w.set(await this.api.patch(this.workshopId, { showStarters: show }));
+    this.show(await this.api.patch(this.workshopId, { showStarters: show }));
   }
 
   protected async saveSettings(): Promise<void> {
     if (this.settingsForm.invalid) return;
-    this.w.set(await this.api.patch(this.workshopId, this.settingsForm.getRawValue()));
+    const w = await this.api.patch(this.workshopId, this.settingsForm.getRawValue());
+    this.settingsForm.markAsPristine();
+    this.show(w);
     this.snack.open('Settings saved.', 'OK', { duration: 3000 });
   }
 
   protected async deleteWorkshop(): Promise<void> {
     const w = this.w();
-    if (!w || !confirm(`Delete “${w.title}” with its participants, links and every survey answer? The room stays.`)) return;
+    if (!w) return;
+    const ok = await confirmed(this.dialog, {
+      title: `Delete “${w.title}”?`,
+      message: 'Its participants, their links and every survey answer are deleted. The room stays.',
+      confirm: 'Delete the workshop',
+      danger: true,
+    });
+    if (!ok) return;
     await this.api.remove(this.workshopId);
     this.snack.open('The workshop and all its survey data are deleted.', 'OK', { duration: 5000 });
     await this.router.navigate(['/workshops']);

@@ -39,7 +39,7 @@ export class WorkshopsApi {
   addFacilitator = (id: number, email: string) => this.post<WorkshopDetail>(`${this.base}/${id}/facilitators`, { email });
   removeFacilitator = (id: number, userId: number) => firstValueFrom(this.http.delete<void>(`${this.base}/${id}/facilitators/${userId}`));
   addPeople = (id: number, people: { name: string; email: string | null }[]) =>
-    this.post<{ added: number; skipped: string[] }>(`${this.base}/${id}/participants`, { people });
+    this.post<{ added: number; skipped: string[]; workshop: WorkshopDetail }>(`${this.base}/${id}/participants`, { people });
   roster = (id: number, csv: string) =>
     this.post<{ added: number; skipped: string[]; issues: { line: number; message: string }[] }>(`${this.base}/${id}/participants/roster`, {
       csv,
@@ -48,12 +48,12 @@ export class WorkshopsApi {
   removeParticipant = (id: number, pid: number) => firstValueFrom(this.http.delete<void>(`${this.base}/${id}/participants/${pid}`));
   resetClaim = (id: number, pid: number) => this.post<void>(`${this.base}/${id}/participants/${pid}/reset-claim`);
   email = (id: number, participantIds?: number[]) =>
-    this.post<{ sent: string[]; withoutEmail: string[]; failed: string[] }>(`${this.base}/${id}/links/email`, {
-      participantIds,
-      replace: true,
-    });
-  sheet = (id: number, participantIds?: number[]) =>
-    this.post<IssuedLink[]>(`${this.base}/${id}/links/sheet`, { participantIds, replace: true });
+    this.post<{ sent: string[]; withoutEmail: string[]; failed: string[] }>(`${this.base}/${id}/links/email`, { participantIds });
+  /** Each person's own link (the same one every time, until it is reissued). */
+  sheet = (id: number, participantIds?: number[]) => this.post<IssuedLink[]>(`${this.base}/${id}/links/sheet`, { participantIds });
+  /** Ends the chosen people's links and gives each a new one: only after the facilitator confirmed. */
+  reissue = (id: number, participantIds: number[]) =>
+    this.post<IssuedLink[]>(`${this.base}/${id}/links/reissue`, { participantIds, confirm: true });
   revoke = (id: number, participantIds: number[]) => this.post<{ revoked: number }>(`${this.base}/${id}/links/revoke`, { participantIds });
   joinCode = (id: number) => this.post<{ url: string; qr: string; expiresAt: string }>(`${this.base}/${id}/join-code`);
   progress = (id: number) => this.get<SurveyProgress>(`${this.base}/${id}/progress`, true);

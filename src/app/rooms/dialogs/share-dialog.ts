@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -12,12 +11,13 @@ import { firstValueFrom } from 'rxjs';
 import type { ShareDto, ShareRole } from '../../../../shared/api/rooms';
 import { toApiError } from '../../core/api-error';
 import { RoomsApi } from '../rooms-api';
+import { DayPipe } from '../../core/date-format';
 
 /** The owner shares the room with other facilitators (editor or viewer), changes roles and revokes. */
 @Component({
   selector: 'app-share-dialog',
   imports: [
-    DatePipe,
+    DayPipe,
     ReactiveFormsModule,
     MatButtonModule,
     MatDialogModule,
@@ -62,7 +62,7 @@ import { RoomsApi } from '../rooms-api';
         @for (s of shares(); track s.userId) {
           <li>
             <div>
-              <strong>{{ s.name }}</strong> <span class="rh-muted">{{ s.email }} · since {{ s.createdAt | date: 'mediumDate' }}</span>
+              <strong>{{ s.name }}</strong> <span class="rh-muted">{{ s.email }} · since {{ s.createdAt | day }}</span>
             </div>
             <mat-form-field subscriptSizing="dynamic" class="rh-role">
               <mat-select [value]="s.role" (selectionChange)="changeRole(s, $event.value)" [attr.aria-label]="'Role of ' + s.name">

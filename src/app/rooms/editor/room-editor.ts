@@ -19,7 +19,15 @@ import { Selection } from './selection';
 export type SaveState = 'saved' | 'unsaved' | 'saving' | 'failed' | 'conflict';
 export type RoomMeta = Omit<RoomDto, 'people' | 'ties'>;
 
-const SAVE_DELAY_MS = 700;
+/**
+ * A user's change is sent at once (the next turn of the event loop, so the ops of one gesture
+ * go in one batch); positions found by the layout wait a little, since a layout run reports
+ * many small moves.
+ */
+const SAVE_DELAY_MS = 0;
+const LAYOUT_SAVE_DELAY_MS = 700;
+/** Room name and settings are typed: wait for a pause. */
+const ROOM_SAVE_DELAY_MS = 700;
 
 /**
  * The room being edited on one page: the local model, undo and redo, the selection, and
@@ -70,6 +78,7 @@ export class RoomEditor implements OnDestroy {
   });
 
   private timer: ReturnType<typeof setTimeout> | null = null;
+  private dueAt = 0;
   private inFlight = false;
   private pendingPatch: Omit<UpdateRoomRequest, 'version'> | null = null;
   private nextLocal = 1;
@@ -155,7 +164,7 @@ export class RoomEditor implements OnDestroy {
     if (!this.canEdit() || !moves.length) return;
     const op: EditorOp = { op: 'move', moves };
     this.model.apply(op);
-    this.queue([op]);
+    this.queue([op], LAYOUT_SAVE_DELAY_MS);
   }
 
   newPersonLid(): string {
@@ -264,7 +273,7 @@ export class RoomEditor implements OnDestroy {
       settings: { ...this.pendingPatch?.settings, ...changes.settings },
     };
     this.saveState.set('unsaved');
-    this.scheduleSave(SAVE_DELAY_MS);
+    this.scheduleSave(ROOM_SAVE_DELAY_MS);
   }
 
   selectionChanged(): void {
@@ -273,21 +282,28 @@ export class RoomEditor implements OnDestroy {
 
   // ---- saving ----
 
-  private queue(ops: EditorOp[]): void {
+  private queue(ops: EditorOp[], delay = SAVE_DELAY_MS): void {
     this.outbox.push(ops);
     this.changed();
     if (this.saveState() !== 'conflict') this.saveState.set('unsaved');
-    this.scheduleSave(SAVE_DELAY_MS);
+    this.scheduleSave(delay);
   }
 
   private changed(): void {
     this.revision.update((v) => v + 1);
   }
 
+  /** Sets the save timer; a save already due sooner keeps its time. */
   private scheduleSave(delay: number): void {
     if (this.saveState() === 'conflict') return;
+    const due = Date.now() + delay;
+    if (this.timer && this.dueAt <= due) return;
     if (this.timer) clearTimeout(this.timer);
-    this.timer = setTimeout(() => void this.flush(), delay);
+    this.dueAt = due;
+    this.timer = setTimeout(() => {
+      this.timer = null;
+      void this.flush();
+    }, delay);
   }
 
   /** Sends everything queued, one request at a time. Safe to call at any moment. */

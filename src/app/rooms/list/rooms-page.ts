@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { type AfterViewInit, ChangeDetectionStrategy, Component, DestroyRef, inject, signal, viewChild } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
@@ -20,6 +19,7 @@ import { ConfirmDialog, type ConfirmData } from '../dialogs/confirm-dialog';
 import { CreateRoomDialog } from '../dialogs/create-room-dialog';
 import { ImportDialog, type ImportDialogData } from '../dialogs/import-dialog';
 import { RoomsApi } from '../rooms-api';
+import { DateTimePipe } from '../../core/date-format';
 
 type Scope = NonNullable<RoomListQuery['scope']>;
 
@@ -27,7 +27,7 @@ type Scope = NonNullable<RoomListQuery['scope']>;
 @Component({
   selector: 'app-rooms-page',
   imports: [
-    DatePipe,
+    DateTimePipe,
     RouterLink,
     MatButtonModule,
     MatButtonToggleModule,

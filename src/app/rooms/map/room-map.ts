@@ -18,6 +18,8 @@ import { zoom, type ZoomBehavior, zoomIdentity, type ZoomTransform } from 'd3-zo
 import { RoomEditor } from '../editor/room-editor';
 import type { Move } from '../editor/room-model';
 import { groupStyles, NO_GROUP_STYLE, shapePath, tieWidth } from './group-style';
+import { LABEL_FONT, labelWidth } from './label-font';
+import { placeLabels } from '../../core/label-placement';
 import { createSimulation, layoutMode, type LayoutMode, type MapLink, type MapNode, placeUnplaced } from './map-layout';
 
 export type MapTool = 'select' | 'tie';
@@ -27,6 +29,12 @@ const INK = '#16324a';
 const CLAY = '#c2603a';
 const TIE = '#8a96a3';
 const SVG_NS = 'http://www.w3.org/2000/svg';
+/** Above this many people names are not placed one by one (they are hidden until zoomed in). */
+const LABEL_PLACEMENT_MAX = 400;
+/** Up to this many people each is a Tab stop; above, the keyboard path is "Find a person". */
+const KEYBOARD_STOPS_MAX = 400;
+/** Arrow keys move the selection this far (with Shift, five times as far). */
+const KEY_STEP = 10;
 
 /**
  * The communication map: d3-force layout, drawn in SVG with presentation attributes (so the
@@ -74,6 +82,8 @@ export class RoomMap implements OnDestroy {
   private tieElements = new Map<string, SVGLineElement>();
   private fitted = false;
   private labelsShown = true;
+  /** People the running layout must not move (it only places newcomers). */
+  private held = new Set<string>();
 
   constructor() {
     effect(() => {
@@ -147,6 +157,7 @@ export class RoomMap implements OnDestroy {
       });
     select(svg).call(this.zoomer).on('dblclick.zoom', null);
     svg.addEventListener('pointerdown', (e) => this.startBand(e));
+    svg.addEventListener('keydown', (e) => this.personKey(e));
     svg.addEventListener('click', (e) => this.backgroundClick(e));
     this.ready = true;
   }
@@ -169,8 +180,9 @@ export class RoomMap implements OnDestroy {
         n.x = p.x;
         n.y = p.y;
       } else if (!old) newcomers = true;
-      n.fx = p.pinned ? n.x : null;
-      n.fy = p.pinned ? n.y : null;
+      const fixed = p.pinned || this.held.has(p.lid);
+      n.fx = fixed ? n.x : null;
+      n.fy = fixed ? n.y : null;
       next.set(p.lid, n);
     }
     this.nodes = next;
@@ -196,12 +208,16 @@ export class RoomMap implements OnDestroy {
       for (const l of this.links) l.el = this.tieElements.get(l.lid);
       this.renderAll();
       this.paintPins(people);
+      if (!this.layoutRunning()) this.placeNames();
       return;
     }
     this.signature = signature;
     const mode = layoutMode(nodes.length);
     this.mode.set(mode);
     const noneSaved = people.length > 0 && people.every((p) => p.x === null || p.y === null);
+    // Newcomers to a drawn map start where the user is looking, not beside everyone else.
+    if (!noneSaved && this.fitted && mode !== 'static')
+      for (const n of nodes) if (n.x === undefined || n.y === undefined) [n.x, n.y] = this.freeSpotInView();
     placeUnplaced(nodes);
     this.drawTies(room.settings.directed);
     this.drawPeople(people, styles);
@@ -209,6 +225,7 @@ export class RoomMap implements OnDestroy {
     this.tieElements = new Map(this.links.map((l) => [l.lid, l.el!]));
     this.labelsShown = nodes.length <= 150;
     this.updateLabelVisibility();
+    this.placeNames();
     this.paintSelection();
     if (!this.fitted && nodes.length) {
       this.fit();
@@ -254,10 +271,31 @@ export class RoomMap implements OnDestroy {
   private drawPeople(people: ReturnType<RoomEditor['people']>, styles: ReturnType<typeof groupStyles>): void {
     const frag = document.createDocumentFragment();
     const editable = this.editor.canEdit();
+    const keyboard = people.length <= KEYBOARD_STOPS_MAX;
     for (const p of people) {
       const n = this.nodes.get(p.lid)!;
       const style = styles.get(p.group ?? '') ?? NO_GROUP_STYLE;
-      const g = el('g', { class: 'person', 'data-lid': p.lid, 'data-name': p.name });
+      const g = el('g', {
+        class: 'person',
+        'data-lid': p.lid,
+        'data-name': p.name,
+        // Keyboard: Tab reaches each person (up to KEYBOARD_STOPS_MAX; larger rooms use Find), Enter selects, arrows move.
+        tabindex: keyboard ? 0 : -1,
+        role: 'button',
+        'aria-label': p.group ? `${p.name}, ${p.group}` : p.name,
+        'aria-pressed': 'false',
+      });
+      g.append(
+        el('circle', {
+          r: R + 6,
+          fill: 'none',
+          stroke: INK,
+          'stroke-width': 2,
+          'stroke-dasharray': '4 3',
+          class: 'focus-ring',
+          visibility: 'hidden',
+        }),
+      );
       g.append(el('path', { d: shapePath(style.shape, R), fill: style.fill, stroke: INK, 'stroke-width': 1.4, class: 'shape' }));
       if (style.hollow) g.append(el('circle', { r: R * 0.38, fill: '#ffffff', stroke: INK, 'stroke-width': 1 }));
       g.append(el('path', { d: 'M5,-17h7l-3.5,6z', fill: INK, class: 'pin', visibility: p.pinned ? 'visible' : 'hidden' }));
@@ -266,7 +304,8 @@ export class RoomMap implements OnDestroy {
         'text-anchor': 'middle',
         'font-size': 11,
         fill: INK,
-        'font-family': 'Source Sans 3, sans-serif',
+        // Quoted: a family name with a digit in it is not a valid bare CSS identifier.
+        'font-family': LABEL_FONT.family,
         class: 'label',
       });
       label.textContent = p.name;
@@ -318,6 +357,41 @@ export class RoomMap implements OnDestroy {
     if (this.highlighted) this.placeHighlight();
   }
 
+  /** Puts every name where it overlaps no other name and no person (label-placement.ts). */
+  private placeNames(): void {
+    const nodes = [...this.nodes.values()];
+    if (!this.ready || nodes.length > LABEL_PLACEMENT_MAX) return;
+    const spots = placeLabels(
+      nodes.map((n) => ({ x: n.x ?? 0, y: n.y ?? 0, width: labelWidth(this.editor.model.people.get(n.lid)?.name ?? '') })),
+      // The largest shapes (star, triangle) reach about 1.35 R from the centre.
+      R * 1.4,
+      { height: 15 },
+    );
+    nodes.forEach((n, i) => {
+      const label = n.el?.querySelector('.label');
+      if (!label) return;
+      const spot = spots[i];
+      label.setAttribute('visibility', spot ? 'visible' : 'hidden');
+      if (spot) attrs(label, { x: spot.dx, y: spot.dy, 'text-anchor': spot.anchor });
+    });
+  }
+
+  /** A free place near the middle of what the map shows now, for a new person. */
+  freeSpotInView(): [number, number] {
+    const svg = this.svgRef().nativeElement;
+    const [cx, cy] = this.transform.invert([svg.clientWidth / 2 || 300, svg.clientHeight / 2 || 200]);
+    const clear = (x: number, y: number) =>
+      [...this.nodes.values()].every((n) => n.x === undefined || Math.hypot(n.x - x, (n.y ?? 0) - y) > R * 5);
+    // Vogel's spiral outwards from the middle until a spot is clear of everyone.
+    for (let i = 0; i < 400; i++) {
+      const r = 18 * Math.sqrt(i);
+      const x = Math.round(cx + r * Math.cos(i * 2.39996));
+      const y = Math.round(cy + r * Math.sin(i * 2.39996));
+      if (clear(x, y)) return [x, y];
+    }
+    return [Math.round(cx), Math.round(cy)];
+  }
+
   // ---- layout ----
 
   /** Runs the force layout. With `all`, everyone not pinned moves; else only people new to the map. */
@@ -326,6 +400,7 @@ export class RoomMap implements OnDestroy {
     if (!nodes.length || this.mode() === 'static') return;
     this.sim?.stop();
     const held = new Set<MapNode>();
+    this.held.clear();
     if (!all) {
       for (const n of nodes) {
         const p = this.editor.model.people.get(n.lid);
@@ -333,6 +408,7 @@ export class RoomMap implements OnDestroy {
           n.fx = n.x;
           n.fy = n.y;
           held.add(n);
+          this.held.add(n.lid);
         }
       }
     }
@@ -347,8 +423,10 @@ export class RoomMap implements OnDestroy {
           n.fx = null;
           n.fy = null;
         }
+        this.held.clear();
         this.layoutRunning.set(false);
         this.renderAll();
+        this.placeNames();
         this.saveLayout(nodes.filter((n) => !n.pinned && !held.has(n)));
         if (all) this.fit();
       })
@@ -430,6 +508,7 @@ export class RoomMap implements OnDestroy {
         }
         this.drop(moving, lifted);
         if (!moved) return;
+        this.placeNames();
         this.editor.movePeople(
           moving.map((n) => ({ lid: n.lid, x: Math.round(n.x!), y: Math.round(n.y!), pinned: n.pinned })),
           moving.length === 1 ? 'Move person' : `Move ${moving.length} people`,
@@ -470,6 +549,43 @@ export class RoomMap implements OnDestroy {
       }
     }
     return best;
+  }
+
+  /** Enter or Space selects the focused person (Shift adds to the selection); arrow keys move the selection. */
+  private personKey(e: KeyboardEvent): void {
+    const g = (e.target as Element).closest?.('g.person');
+    const lid = g?.getAttribute('data-lid');
+    if (!lid || !this.nodes.has(lid)) return;
+    const s = this.editor.selection;
+    if (e.key === 'Enter' || e.key === ' ') {
+      e.preventDefault();
+      if (e.shiftKey) s.toggle(lid);
+      else s.only(lid);
+      this.editor.selectionChanged();
+      return;
+    }
+    const step = KEY_STEP * (e.shiftKey ? 5 : 1);
+    const delta: Record<string, [number, number]> = {
+      ArrowLeft: [-step, 0],
+      ArrowRight: [step, 0],
+      ArrowUp: [0, -step],
+      ArrowDown: [0, step],
+    };
+    const d = delta[e.key];
+    if (!d || !this.editor.canEdit()) return;
+    e.preventDefault();
+    if (!s.has(lid)) {
+      s.only(lid);
+      this.editor.selectionChanged();
+    }
+    const moves = s
+      .ids()
+      .map((id) => this.nodes.get(id))
+      .filter((n): n is MapNode => !!n)
+      .map((n) => ({ lid: n.lid, x: Math.round((n.x ?? 0) + d[0]), y: Math.round((n.y ?? 0) + d[1]), pinned: n.pinned }));
+    this.sim?.stop();
+    this.layoutRunning.set(false);
+    this.editor.movePeople(moves);
   }
 
   private toGraph(e: MouseEvent): [number, number] {
@@ -532,6 +648,7 @@ export class RoomMap implements OnDestroy {
       shape.setAttribute('stroke', on ? CLAY : INK);
       shape.setAttribute('stroke-width', on ? '3.5' : '1.4');
       n.el!.classList.toggle('selected', on);
+      n.el!.setAttribute('aria-pressed', String(on));
     }
     const maxStrength = this.links.reduce((m, l) => Math.max(m, l.strength), 0);
     for (const l of this.links) {

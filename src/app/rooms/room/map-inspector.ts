@@ -1,5 +1,5 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, untracked } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, signal, untracked } from '@angular/core';
+import { FormsModule, NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatAutocompleteModule } from '@angular/material/autocomplete';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -12,7 +12,7 @@ import { groupProblem, personNameProblem, problemValidator, strengthProblem } fr
 /** Edits what is selected on the map: one person, several people, or one tie. */
 @Component({
   selector: 'app-map-inspector',
-  imports: [ReactiveFormsModule, MatAutocompleteModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule],
+  imports: [FormsModule, ReactiveFormsModule, MatAutocompleteModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule],
   templateUrl: './map-inspector.html',
   styleUrl: './map-inspector.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -48,27 +48,86 @@ export class MapInspector {
     return { kind: 'none' as const };
   });
 
+  /** "Tie to": the keyboard (and menu) way to draw a tie from the selected person. */
+  protected readonly tieQuery = signal('');
+  protected readonly tieCandidates = computed(() => {
+    const st = this.state();
+    if (st.kind !== 'person') return [];
+    const q = this.tieQuery().trim().toLowerCase();
+    const directed = !!this.editor.room()?.settings.directed;
+    return this.editor
+      .people()
+      .filter((p) => p.lid !== st.person.lid && !this.editor.model.findTie(st.person.lid, p.lid, directed))
+      .filter((p) => !q || p.name.toLowerCase().includes(q) || (p.group ?? '').toLowerCase().includes(q))
+      .slice(0, 30);
+  });
+
+  /**
+   * The person and the tie the forms were filled for. A save always goes to these, never to
+   * whatever is selected by the time the save runs: clicking another person selects them on
+   * mousedown, before the field's blur saves what was typed.
+   */
+  private personLid: string | null = null;
+  private tieLid: string | null = null;
+
   constructor() {
     effect(() => {
       const st = this.state();
-      untracked(() => {
-        if (st.kind === 'person') this.person.setValue({ name: st.person.name, group: st.person.group ?? '' }, { emitEvent: false });
-        if (st.kind === 'tie') this.tie.setValue({ strength: st.tie.strength }, { emitEvent: false });
-      });
+      untracked(() => this.follow(st));
     });
   }
 
-  protected savePerson(): void {
-    const st = this.state();
-    if (st.kind !== 'person' || this.person.invalid) return;
+  /** The selection moved: settle the edit typed for the previous person or tie, then show the new one. */
+  private follow(st: ReturnType<MapInspector['state']>): void {
+    const lid = st.kind === 'person' ? st.person.lid : null;
+    if (this.personLid && this.personLid !== lid && this.person.dirty) this.savePerson(true);
+    const tieLid = st.kind === 'tie' ? st.tie.lid : null;
+    if (this.tieLid && this.tieLid !== tieLid && this.tie.dirty) this.saveStrength(true);
+    this.personLid = lid;
+    this.tieLid = tieLid;
+    // Keep what is being typed for the same person (a save elsewhere bumps the revision too).
+    if (st.kind === 'person' && !this.person.dirty) {
+      this.person.reset({ name: st.person.name, group: st.person.group ?? '' }, { emitEvent: false });
+    }
+    if (st.kind === 'tie' && !this.tie.dirty) this.tie.reset({ strength: st.tie.strength }, { emitEvent: false });
+  }
+
+  /** Commits the typed name and group to the person they were typed for; `leaving`: the selection moved on. */
+  protected savePerson(leaving = false): void {
+    const lid = this.personLid;
+    const p = lid ? this.editor.model.people.get(lid) : undefined;
+    if (!p || !this.person.dirty) return;
+    if (this.person.invalid) {
+      // Still on this person: the field shows what to fix. Moving on: say what was dropped.
+      if (!leaving) return;
+      const problem = this.person.controls.name.errors?.['problem'] ?? this.person.controls.group.errors?.['problem'];
+      this.person.reset({ name: p.name, group: p.group ?? '' }, { emitEvent: false });
+      this.snack.open(`Your change to ${p.name} was not kept: ${problem}`, 'OK', { duration: 6000 });
+      return;
+    }
     const name = this.person.controls.name.value.trim();
     const group = this.person.controls.group.value.trim() || null;
+    this.person.markAsPristine();
     const changes: { name?: string; group?: string | null } = {};
-    if (name !== st.person.name) changes.name = name;
-    if (group !== st.person.group) changes.group = group;
-    if (Object.keys(changes).length)
-      this.editor.updatePerson(st.person.lid, changes, changes.name ? `Rename ${st.person.name}` : 'Change group');
+    if (name !== p.name) changes.name = name;
+    if (group !== p.group) changes.group = group;
+    if (Object.keys(changes).length) this.editor.updatePerson(p.lid, changes, changes.name ? `Rename ${p.name}` : 'Change group');
   }
+
+  protected tieTo(target: string): void {
+    const from = this.personLid;
+    if (!from) return;
+    this.editor.addTie(from, target);
+    this.tieQuery.set('');
+    const a = this.editor.model.people.get(from)?.name;
+    const b = this.editor.model.people.get(target)?.name;
+    this.snack
+      .open(`Tie added: ${a} and ${b}.`, 'Undo', { duration: 5000 })
+      .onAction()
+      .subscribe(() => this.editor.undo());
+  }
+
+  protected readonly noName = (): string => '';
 
   protected saveGroupForMany(): void {
     if (this.many.invalid) return;
@@ -80,10 +139,18 @@ export class MapInspector {
     );
   }
 
-  protected saveStrength(): void {
-    const st = this.state();
-    if (st.kind !== 'tie' || this.tie.invalid) return;
-    this.editor.setTieStrength(st.tie.lid, Number(String(this.tie.controls.strength.value).replace(',', '.')));
+  protected saveStrength(leaving = false): void {
+    const t = this.tieLid ? this.editor.model.ties.get(this.tieLid) : undefined;
+    if (!t || !this.tie.dirty) return;
+    if (this.tie.invalid) {
+      if (!leaving) return;
+      const problem = this.tie.controls.strength.errors?.['problem'];
+      this.tie.reset({ strength: t.strength }, { emitEvent: false });
+      this.snack.open(`Your strength for that tie was not kept: ${problem}`, 'OK', { duration: 6000 });
+      return;
+    }
+    this.tie.markAsPristine();
+    this.editor.setTieStrength(t.lid, Number(String(this.tie.controls.strength.value).replace(',', '.')));
   }
 
   protected setPinned(pinned: boolean): void {

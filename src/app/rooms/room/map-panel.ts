@@ -53,7 +53,9 @@ export class MapPanel {
   });
 
   protected addPerson(): void {
-    const lid = this.editor.addPerson({ name: `New person ${this.editor.model.people.size + 1}` });
+    // Placed where the user is looking, so the new person is on screen at once.
+    const [x, y] = this.map().freeSpotInView();
+    const lid = this.editor.addPerson({ name: `New person ${this.editor.model.people.size + 1}`, x, y });
     this.editor.selection.only(lid);
     this.editor.selectionChanged();
   }

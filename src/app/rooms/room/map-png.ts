@@ -1,12 +1,16 @@
 /**
- * A PNG of the map made in the browser: the map's SVG (presentation attributes only, no
- * outside fonts or images) drawn onto a canvas at twice the size. No request leaves the page.
+ * A PNG of the map made in the browser: the map's SVG (presentation attributes only) drawn
+ * onto a canvas at twice the size. An SVG drawn as an image cannot reach the page's fonts, so
+ * the shipped font (Source Sans 3, self-hosted) is embedded in it as a data URL; without it
+ * the names would fall back to a serif. No request leaves the page.
  */
 export async function downloadMapPng(doc: { svg: string; width: number; height: number }, fileName: string): Promise<void> {
   const scale = Math.min(2, 8000 / Math.max(doc.width, doc.height));
-  const url = URL.createObjectURL(new Blob([doc.svg], { type: 'image/svg+xml' }));
+  const svg = withFont(doc.svg, await embeddedFontCss());
+  const url = URL.createObjectURL(new Blob([svg], { type: 'image/svg+xml' }));
   try {
     const img = new Image();
+    img.decoding = 'sync';
     await new Promise<void>((resolve, reject) => {
       img.onload = () => resolve();
       img.onerror = () => reject(new Error('The map picture could not be drawn.'));
@@ -31,4 +35,50 @@ export async function downloadMapPng(doc: { svg: string; width: number; height: 
   } finally {
     URL.revokeObjectURL(url);
   }
+}
+
+const FAMILY = 'Source Sans 3';
+
+/** The @font-face of the shipped label font (weight 400), as CSS with the font inlined. */
+async function embeddedFontCss(): Promise<string> {
+  const src = fontUrl();
+  if (!src) return '';
+  try {
+    const bytes = new Uint8Array(await (await fetch(src)).arrayBuffer());
+    let bin = '';
+    for (let i = 0; i < bytes.length; i += 0x8000) bin += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
+    return `@font-face{font-family:'${FAMILY}';font-weight:400;src:url(data:font/woff2;base64,${btoa(bin)}) format('woff2');}`;
+  } catch {
+    return '';
+  }
+}
+
+/** The URL of the latin 400 face from the page's own style sheets (the build gives it a hashed name). */
+function fontUrl(): string | null {
+  for (const sheet of Array.from(document.styleSheets)) {
+    let rules: CSSRuleList;
+    try {
+      rules = sheet.cssRules;
+    } catch {
+      continue;
+    }
+    for (const rule of Array.from(rules)) {
+      if (!(rule instanceof CSSFontFaceRule)) continue;
+      const family = rule.style.getPropertyValue('font-family').replace(/["']/g, '').trim();
+      const weight = rule.style.getPropertyValue('font-weight').trim();
+      const range = rule.style.getPropertyValue('unicode-range');
+      if (family !== FAMILY || (weight && weight !== '400' && weight !== 'normal') || (range && !/U\+0+-0*FF\b/i.test(range))) continue;
+      const woff2 = /url\(["']?([^"')]+\.woff2)["']?\)/.exec(rule.style.getPropertyValue('src'))?.[1];
+      if (woff2) return new URL(woff2, sheet.href ?? document.baseURI).href;
+    }
+  }
+  return null;
+}
+
+/** Puts the font into the SVG and makes the names use it alone (no serif or other fallback). */
+function withFont(svg: string, css: string): string {
+  if (!css) return svg;
+  const open = svg.indexOf('>', svg.indexOf('<svg')) + 1;
+  const style = `<style>${css} text{font-family:'${FAMILY}' !important;}</style>`;
+  return svg.slice(0, open) + style + svg.slice(open);
 }

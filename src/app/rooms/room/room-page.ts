@@ -58,6 +58,7 @@ export default class RoomPage {
     { format: 'ties-csv', label: 'Ties (CSV)', icon: 'table_view' },
     { format: 'graphml', label: 'GraphML', icon: 'account_tree' },
     { format: 'json', label: 'Node-link JSON', icon: 'data_object' },
+    { format: 'org-chart-csv', label: 'Org chart (CSV)', icon: 'account_tree' },
   ];
 
   constructor() {

@@ -1,6 +1,7 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
+import { MAT_DIALOG_DATA, MatDialog, MatDialogModule } from '@angular/material/dialog';
+import { firstValueFrom } from 'rxjs';
 
 export interface ConfirmData {
   title: string;
@@ -10,7 +11,7 @@ export interface ConfirmData {
   danger?: boolean;
 }
 
-/** A yes / no question before an action that changes someone's access. */
+/** A yes / no question before an action that ends access or cannot be undone quietly. */
 @Component({
   selector: 'app-confirm-dialog',
   imports: [MatDialogModule, MatButtonModule],
@@ -34,4 +35,10 @@ export interface ConfirmData {
 })
 export class ConfirmDialog {
   protected readonly data = inject<ConfirmData>(MAT_DIALOG_DATA);
+}
+
+/** Opens the question and resolves true only when the person confirmed. */
+export async function confirmed(dialog: MatDialog, data: ConfirmData): Promise<boolean> {
+  const ref = dialog.open<ConfirmDialog, ConfirmData, boolean>(ConfirmDialog, { data, width: '460px', autoFocus: 'dialog' });
+  return (await firstValueFrom(ref.afterClosed())) === true;
 }

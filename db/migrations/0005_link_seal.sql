@@ -1,0 +1,1 @@
+ALTER TABLE `participant_links` ADD `token_sealed` varchar(128);

@@ -1,0 +1,27 @@
+import { z } from 'zod';
+import { notFound } from './http-error';
+
+/**
+ * The one pattern for ids in URLs: decimal digits, no sign, no leading zero, no hex, no
+ * exponent, no spaces, and small enough to be a safe integer. `0x1`, `1e3`, ` 1` and `01`
+ * are not ids, so they are simply not found.
+ */
+export const ID_PATTERN = /^[1-9]\d{0,15}$/;
+
+/** The id if `raw` is one, else undefined. */
+export function asId(raw: unknown): number | undefined {
+  if (typeof raw === 'number') return Number.isSafeInteger(raw) && raw > 0 ? raw : undefined;
+  if (typeof raw !== 'string' || !ID_PATTERN.test(raw)) return undefined;
+  const id = Number(raw);
+  return Number.isSafeInteger(id) ? id : undefined;
+}
+
+/** Parses an id from a URL; anything else answers 404 naming `what`. */
+export function idOf(raw: unknown, what = 'That item'): number {
+  const id = asId(raw);
+  if (id === undefined) throw notFound(what);
+  return id;
+}
+
+/** The same rule as a zod schema, for `parse(…, req.params)`: a bad id is a 404, not a 400. */
+export const idParam = (what = 'That item') => z.string().transform((raw) => idOf(raw, what));

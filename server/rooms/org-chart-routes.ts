@@ -1,0 +1,135 @@
+/**
+ * Org-chart import routes (contract: shared/api/org-chart.ts). Same rules as the other
+ * imports: a dry run only reports; a commit with errors saves nothing (422); replacing a
+ * room's content needs the version it started from (409 when stale).
+ */
+import { Router, type NextFunction, type Request, type Response } from 'express';
+import { z } from 'zod';
+import { DEFAULT_ROOM_SETTINGS, ROOM_LIMITS as L } from '../../shared/api/rooms';
+import type { OrgChartReport } from '../../shared/api/org-chart';
+import { signedIn } from '../core/access';
+import { audit } from '../core/audit';
+import { HttpError, notFound } from '../core/http-error';
+import { parse } from '../core/validate';
+import { db } from '../db';
+import { loadRoomFor, type LoadedRoom } from './access';
+import { receiveUpload, uploadedFiles } from './import';
+import { DEFAULT_STRENGTHS, readOrgChart } from './org-chart';
+import { roomName } from './schemas';
+import { createWithContent, staleVersion } from './service';
+import * as store from './store';
+
+export const orgChartRouter = Router();
+
+const query = z.strictObject({ dryRun: z.enum(['true', 'false'], 'dryRun must be true or false.').default('true') });
+const header = z.string().trim().min(1, 'Choose a column.').max(200, 'At most 200 characters.');
+const strength = (what: string) =>
+  z.coerce
+    .number({ error: `${what} must be a number.` })
+    .positive(`${what} must be more than 0.`)
+    .max(L.maxStrength, `${what} must be at most ${L.maxStrength}.`);
+const form = z.strictObject({
+  personColumn: header.optional(),
+  managerColumn: header.optional(),
+  nameColumn: header.optional(),
+  departmentColumn: header.optional(),
+  reportsTo: strength('The manager-report strength').default(DEFAULT_STRENGTHS.reportsTo),
+  sameManager: strength('The same-manager strength').default(DEFAULT_STRENGTHS.sameManager),
+  roomName: roomName.optional(),
+  version: z.coerce.number({ error: 'version must be a number.' }).int().min(1).optional(),
+});
+
+function read(req: Request) {
+  const { dryRun } = parse(query, req.query, 'query');
+  const f = parse(form, req.body ?? {}, 'org-chart form');
+  const { file } = uploadedFiles(req);
+  if ((f.personColumn === undefined) !== (f.managerColumn === undefined)) {
+    throw new HttpError(
+      400,
+      'bad_request',
+      'Choose both the person id column and the manager column, or neither (to have them suggested).',
+      {
+        fields: [{ field: f.personColumn === undefined ? 'personColumn' : 'managerColumn', message: 'Choose this column too.' }],
+      },
+    );
+  }
+  const columns =
+    f.personColumn && f.managerColumn
+      ? {
+          person: f.personColumn,
+          manager: f.managerColumn,
+          ...(f.nameColumn ? { name: f.nameColumn } : {}),
+          ...(f.departmentColumn ? { department: f.departmentColumn } : {}),
+        }
+      : null;
+  const read = readOrgChart(file, columns, { reportsTo: f.reportsTo, sameManager: f.sameManager }, dryRun === 'true');
+  return { dryRun: dryRun === 'true', f, read, fileName: file.name };
+}
+
+function refuseErrors(report: OrgChartReport): void {
+  const n = report.errors.length;
+  if (n === 0) return;
+  throw new HttpError(
+    422,
+    'import_errors',
+    `The org chart has ${n} error${n === 1 ? '' : 's'}; nothing was saved. Fix ${n === 1 ? 'it' : 'them'} and import again.`,
+    report,
+  );
+}
+
+async function editableRoom(req: Request, res: Response, next: NextFunction) {
+  res.locals['room'] = await loadRoomFor(req.user, req.params['id'], 'edit');
+  next();
+}
+
+orgChartRouter.post('/import/org-chart', signedIn(), receiveUpload, async (req, res) => {
+  const { dryRun, f, read: r, fileName } = read(req);
+  if (dryRun) return void res.json(r.report);
+  refuseErrors(r.report);
+  const name =
+    f.roomName ??
+    (fileName
+      .replace(/\.[^.]+$/, '')
+      .trim()
+      .slice(0, L.roomNameMax) ||
+      'Org chart');
+  const roomId = await db.transaction(async (tx) => {
+    const id = await createWithContent(tx, req.user!.id, name, '', { ...DEFAULT_ROOM_SETTINGS, directed: false }, r.content);
+    await store.setOrgChart(tx, id, r.saved);
+    await audit(
+      req,
+      { action: 'room.import', targetType: 'room', targetId: id, detail: { format: 'org-chart', people: r.content.people.length } },
+      tx,
+    );
+    return id;
+  });
+  res.status(201).json({ ...r.report, committed: true, roomId, version: 1 } satisfies OrgChartReport);
+});
+
+orgChartRouter.post('/:id/import/org-chart', signedIn(), editableRoom, receiveUpload, async (req, res) => {
+  const loaded = res.locals['room'] as LoadedRoom;
+  const { dryRun, f, read: r } = read(req);
+  const report: OrgChartReport = { ...r.report, replaces: await store.countContent(db, loaded.room.id) };
+  if (dryRun) return void res.json(report);
+  if (f.version === undefined) {
+    throw new HttpError(400, 'bad_request', 'Send the room version you started from (form field "version") to replace its content.', {
+      fields: [{ field: 'version', message: 'Send the room version you started from.' }],
+    });
+  }
+  refuseErrors(report);
+  const version = await db.transaction(async (tx) => {
+    const room = await store.lockRoom(tx, loaded.room.id);
+    if (!room) throw notFound('That room');
+    if (room.version !== f.version) throw staleVersion(room, f.version!);
+    await store.clearContent(tx, room.id);
+    await store.insertContent(tx, room.id, r.content.people, r.content.ties);
+    await store.updateRoomFields(tx, room.id, { directed: false, orgChart: r.saved });
+    await audit(
+      req,
+      { action: 'room.import', targetType: 'room', targetId: room.id, detail: { format: 'org-chart', people: r.content.people.length } },
+      tx,
+    );
+    return room.version + 1;
+  });
+  res.json({ ...report, committed: true, roomId: loaded.room.id, version } satisfies OrgChartReport);
+});

@@ -1,0 +1,103 @@
+/**
+ * The grounded system of an undirected room as a sparse LDL^T factor (docs/engine.md
+ * section 7): K = D_T - gamma W_TT on the people T not grounded, with gamma = 1 without
+ * background mixing (K = L_TT, the grounded Laplacian) and gamma = 1 - b with mixing b (the
+ * rank-one part is handled by the caller, Sherman-Morrison). Grounded people keep a unit
+ * diagonal and no ties, so one fill-reducing order of the whole room serves every starter set.
+ * Solves can be refined: x += K^-1 (b - K x) with double-double residuals formed from the ties
+ * (linalg/refine.ts), which recovers digits lost to ill-conditioning.
+ */
+import type { Csr } from './graph';
+import { amdOrder } from './linalg/amd';
+import { analyse, factor, ldlSolve, type LdlFactor, type SpdMatrix, type Symbolic } from './linalg/sparse-ldl';
+import { refine, type Refined } from './linalg/refine';
+import { inverseDiagonal } from './linalg/selected-inverse';
+
+/** Largest factorisation work (sum of squared column counts) before the iterative path is used: about a minute here. */
+export const MAX_FACTOR_WORK = 3e10;
+
+/** The symbolic step's verdict: does a factor of this size and work fit? */
+export function factorFits(sym: { nnz: number; flops: number }, maxFill: number, maxWork = MAX_FACTOR_WORK): boolean {
+  return sym.nnz <= maxFill && sym.flops <= maxWork;
+}
+
+export function fillReducingOrder(csr: Csr): Int32Array {
+  return amdOrder({ n: csr.n, rowStart: csr.rowStart, col: csr.col });
+}
+
+export function groundedMatrix(csr: Csr, grounded: Uint8Array, gamma: number): SpdMatrix {
+  const { n, rowStart, col, weight, outStrength } = csr;
+  const start = new Int32Array(n + 1);
+  for (let i = 0; i < n; i++) {
+    let c = 0;
+    if (!grounded[i]) for (let e = rowStart[i]; e < rowStart[i + 1]; e++) if (col[e] !== i && !grounded[col[e]]) c++;
+    start[i + 1] = start[i] + c;
+  }
+  const cols = new Int32Array(start[n]);
+  const val = new Float64Array(start[n]);
+  const diag = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    if (grounded[i]) {
+      diag[i] = 1;
+      continue;
+    }
+    let q = start[i];
+    let self = 0;
+    for (let e = rowStart[i]; e < rowStart[i + 1]; e++) {
+      const j = col[e];
+      if (j === i) self += weight[e];
+      else if (!grounded[j]) {
+        cols[q] = j;
+        val[q++] = -gamma * weight[e];
+      }
+    }
+    diag[i] = outStrength[i] - gamma * self;
+  }
+  return { n, rowStart: start, col: cols, val, diag };
+}
+
+export class GroundedFactor {
+  readonly matrix: SpdMatrix;
+  readonly sym: Symbolic;
+  private f: LdlFactor | null = null;
+  private readonly work: Float64Array;
+
+  private readonly inT: Uint8Array;
+
+  constructor(
+    private readonly csr: Csr,
+    order: Int32Array,
+    grounded: Uint8Array,
+    private readonly gamma: number,
+  ) {
+    this.inT = grounded.map((g) => (g ? 0 : 1));
+    this.matrix = groundedMatrix(csr, grounded, gamma);
+    this.sym = analyse(this.matrix, order);
+    this.work = new Float64Array(csr.n);
+  }
+
+  /** Numeric factorisation (call after checking `sym.nnz`, the fill estimate). */
+  factorise(): this {
+    this.f = factor(this.matrix, this.sym);
+    return this;
+  }
+
+  get ldl(): LdlFactor {
+    if (!this.f) this.factorise();
+    return this.f!;
+  }
+
+  solve(b: Float64Array, out?: Float64Array): Float64Array {
+    return ldlSolve(this.ldl, b, out, this.work);
+  }
+
+  /** diag(K^-1) by selected inversion. */
+  inverseDiagonal(): Float64Array {
+    return inverseDiagonal(this.ldl);
+  }
+
+  /** Solve with refinement on double-double residuals of the ties (linalg/refine.ts). */
+  solveRefined(b: Float64Array, target = 1e-13): Refined {
+    return refine(this.csr, this.inT, this.gamma, b, this.solve(b), (r) => this.solve(r), target);
+  }
+}

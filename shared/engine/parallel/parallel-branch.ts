@@ -1,0 +1,129 @@
+/**
+ * Branch and bound on several worker threads: the main thread prepares the pieces (roots split
+ * into two-starter pieces, sorted by bound, plan-exhaustive.ts), the workers take them from a
+ * shared counter and share the best total (branch-shared.ts), the main thread reports progress
+ * every 100 ms and raises the stop flag at the time limit or on cancel. The incumbent is the
+ * heuristic plan, so the answer is never worse than it. The first pieces are searched on this
+ * thread for up to SOLO_MS, so small searches never pay for starting workers. Node only (piscina).
+ */
+import { Piscina } from 'piscina';
+import { BranchSearch, type ExhaustiveOutcome } from '../plan-exhaustive';
+import type { PlanContext } from '../plan-context';
+import type { AbsorbingState } from '../dense-state';
+import { shouldStop } from '../plan-search-meter';
+import { SharedSearchState } from './branch-shared';
+import type { BranchWorkerData, BranchWorkerResult } from './branch-worker';
+
+function workerFile(): URL {
+  const here = import.meta.url;
+  return new URL(here.endsWith('.ts') ? './branch-worker.ts' : './branch-worker.js', here);
+}
+
+const SOLO_MS = 2000;
+
+let poolCache: { pool: Piscina; threads: number } | undefined;
+
+/** One pool per process, reused across searches (idle workers are unref'd and leave after a minute). */
+function branchPool(threads: number): Piscina {
+  if (!poolCache || poolCache.threads !== threads) {
+    void poolCache?.pool.destroy();
+    poolCache = {
+      pool: new Piscina({ filename: workerFile().href, minThreads: 0, maxThreads: threads, idleTimeout: 60_000 }),
+      threads,
+    };
+  }
+  return poolCache.pool;
+}
+
+export async function exhaustiveParallel(
+  ctx: PlanContext,
+  start: AbsorbingState,
+  threads: number,
+  soloMs = SOLO_MS,
+): Promise<ExhaustiveOutcome> {
+  const main = new BranchSearch(ctx, start);
+  const items = main.prepare();
+  const t0 = performance.now();
+  let next = 0;
+  main.searchItems(items, () => (next < items.length && performance.now() - t0 < soloMs ? next++ : -1));
+  if (next >= items.length || main.halted) return main.outcome();
+  const solo = main.outcome();
+  const preClosed = main.closedSets();
+  const space = main.space();
+  const soloRaw = solo.state.total / start.scale;
+  const state = SharedSearchState.create(threads, soloRaw, next);
+  const incumbent = { starters: [...solo.state.starters], rawTotal: soloRaw, scale: start.scale };
+  const remaining = Math.max(1, ctx.deadline - performance.now());
+  const base: Omit<BranchWorkerData, 'slot'> = {
+    room: ctx.room,
+    k: ctx.k,
+    mustInclude: ctx.mustInclude,
+    exclude: ctx.exclude,
+    ergodic: ctx.ergodic(),
+    items,
+    incumbent,
+    timeLimitMs: remaining,
+    sab: state.sab,
+    threads,
+  };
+  const lowerRaw = (): number => {
+    let lb = state.best();
+    const from = Math.max(0, Math.min(items.length, state.taken()) - threads);
+    if (from < items.length) lb = Math.min(lb, items[from].bound);
+    for (let t = 0; t < threads; t++) lb = Math.min(lb, state.slot(t)[0]);
+    return Math.max(ctx.n - ctx.k, lb);
+  };
+  const status = () => {
+    let closed = preClosed;
+    let nodes = 0;
+    for (let t = 0; t < threads; t++) {
+      closed += state.slot(t)[1];
+      nodes += state.slot(t)[2];
+    }
+    return { closed, nodes };
+  };
+  const timer = setInterval(() => {
+    if (shouldStop(ctx) || performance.now() > ctx.deadline) state.requestStop();
+    const { closed, nodes } = status();
+    const best = state.best() * start.scale;
+    const lb = Math.min(best, lowerRaw() * start.scale);
+    ctx.options.onProgress?.({
+      stage: 'exhaustive',
+      done: Math.round((1000 * closed) / space),
+      of: 1000,
+      fraction: Math.min(1, closed / space),
+      bestTotal: best,
+      lowerBound: lb,
+      gap: best > 0 ? (best - lb) / best : 0,
+      nodes,
+    });
+  }, 100);
+  let results: BranchWorkerResult[];
+  const pool = branchPool(threads);
+  try {
+    results = (await Promise.all(Array.from({ length: threads }, (_, slot) => pool.run({ ...base, slot })))) as BranchWorkerResult[];
+  } finally {
+    clearInterval(timer);
+  }
+  const stopped = shouldStop(ctx);
+  const halted = results.some((r) => r.halted);
+  let best = { starters: incumbent.starters, rawTotal: incumbent.rawTotal };
+  for (const r of results) if (r.rawTotal < best.rawTotal - 1e-12 * Math.abs(best.rawTotal)) best = r;
+  let lb = best.rawTotal;
+  if (halted) {
+    lb = lowerRaw();
+    for (const r of results) lb = Math.min(lb, r.pendingRaw);
+  }
+  const { closed, nodes } = status();
+  return {
+    state: { starters: best.starters, total: best.rawTotal * start.scale },
+    complete: !halted,
+    stopped: halted && stopped,
+    nodes: Math.max(
+      nodes,
+      results.reduce((t, r) => t + r.nodes, 0),
+    ),
+    lowerBound: Math.max(ctx.n - ctx.k, Math.min(lb, best.rawTotal)) * start.scale,
+    searchLeft: halted ? Math.min(1, Math.max(0, 1 - closed / space)) : 0,
+  };
+}

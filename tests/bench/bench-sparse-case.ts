@@ -1,0 +1,49 @@
+/**
+ * One case of the sparse benchmark in a fresh process, so its peak memory is its own:
+ * `tsx tests/bench/bench-sparse-case.ts KIND N K [EDGEFILE]` with KIND grid | small-world | screen-*.
+ * Prints one JSON line: wall ms, process CPU ms, peak resident MB, path, fill, total, starters.
+ * With EDGEFILE the room is also written there for the Python peers.
+ */
+import { writeFileSync } from 'node:fs';
+import { plan, type PlanMethodChoice } from '../../shared/engine/index';
+import { edgesText, gridEdges, roomFromEdges, smallWorldEdges, type EdgeList } from './large-rooms';
+
+export function benchEdges(kind: string, n: number): EdgeList {
+  return kind.endsWith('grid') ? gridEdges(Math.round(Math.sqrt(n)), 5) : smallWorldEdges(n, 3, 0.1, 5);
+}
+
+function main(): void {
+  const [kind, nText, kText, edgeFile] = process.argv.slice(2);
+  const n = Number(nText);
+  const k = Number(kText);
+  const edges = benchEdges(kind, n);
+  if (edgeFile) writeFileSync(edgeFile, edgesText(edges));
+  const room = roomFromEdges(edges);
+  const method: PlanMethodChoice = kind.startsWith('screen') ? ('screen' as PlanMethodChoice) : 'greedy';
+  const runs = Number(process.env.RH_BENCH_RUNS ?? (n <= 3000 ? 3 : 1));
+  const walls: { wall: number; cpu: number }[] = [];
+  let result = plan(room, { k, method });
+  for (let r = 0; r < runs; r++) {
+    const c = process.cpuUsage();
+    const t = performance.now();
+    result = plan(room, { k, method });
+    const d = process.cpuUsage(c);
+    walls.push({ wall: performance.now() - t, cpu: (d.user + d.system) / 1000 });
+  }
+  walls.sort((a, b) => a.wall - b.wall);
+  const mid = walls[Math.floor(walls.length / 2)];
+  const out = {
+    ms: mid.wall,
+    cpuMs: mid.cpu,
+    maxRssMb: process.resourceUsage().maxRSS / 1024,
+    path: result.solverPath ?? 'dense',
+    fill: result.fill ?? null,
+    total: result.total,
+    lowerBound: result.lowerBound,
+    starters: result.starters,
+    m: edges.src.length,
+  };
+  process.stdout.write(JSON.stringify(out) + '\n');
+}
+
+main();
