@@ -52,7 +52,9 @@ class LimiterStore extends RedisStore {
 
   override async get(key: string): Promise<ClientRateLimitInfo | undefined> {
     try {
-      return await super.get(key);
+      // A missing key comes back from ioredis as null, which rate-limit-redis reads as NaN hits.
+      const info = await super.get(key);
+      return info && Number.isFinite(info.totalHits) ? info : undefined;
     } catch {
       this.reload();
       return undefined;
