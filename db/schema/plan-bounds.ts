@@ -30,8 +30,5 @@ export const planBounds = mysqlTable(
     bestStarters: json('best_starters').$type<number[]>(),
     updatedAt: updatedAt(),
   },
-  (t) => [
-    uniqueIndex('plan_bounds_key_uq').on(t.roomId, t.roomVersion, t.k, t.constraintsKey),
-    index('plan_bounds_room_idx').on(t.roomId),
-  ],
+  (t) => [uniqueIndex('plan_bounds_key_uq').on(t.roomId, t.roomVersion, t.k, t.constraintsKey), index('plan_bounds_room_idx').on(t.roomId)],
 );

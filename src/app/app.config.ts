@@ -3,6 +3,7 @@ import { type ApplicationConfig, provideBrowserGlobalErrorListeners } from '@ang
 import { provideRouter, withComponentInputBinding, withPreloading } from '@angular/router';
 import { routes } from './app.routes';
 import { busyInterceptor } from './core/busy-interceptor';
+import { csrfRetryInterceptor } from './core/csrf-retry-interceptor';
 import { errorInterceptor } from './core/error-interceptor';
 import { FacilitatorPreload } from './core/preload';
 
@@ -13,7 +14,7 @@ export const appConfig: ApplicationConfig = {
     // The server sets XSRF-TOKEN; HttpClient echoes it as X-XSRF-TOKEN on writes.
     provideHttpClient(
       withXsrfConfiguration({ cookieName: 'XSRF-TOKEN', headerName: 'X-XSRF-TOKEN' }),
-      withInterceptors([busyInterceptor, errorInterceptor]),
+      withInterceptors([busyInterceptor, errorInterceptor, csrfRetryInterceptor]),
     ),
   ],
 };

@@ -21,6 +21,9 @@ describe('admin console API', () => {
       String(account.id),
     ])) as any;
     assert.equal(rows[0].n, 0, 'stored sessions removed');
+    // The CSRF token was bound to the ended session: the first write is refused as stale (403), and
+    // the fresh token that answer set gets as far as the sign-in check (401), as the client's retry does.
+    assert.equal((await fac.post('/api/auth/password', body)).status, 403);
     assert.equal((await fac.post('/api/auth/password', body)).status, 401);
     assert.equal((await fac.get('/api/auth/me')).body.user, null);
     const refused = await server.client().post('/api/auth/sign-in', { email: account.email, password: account.password });
