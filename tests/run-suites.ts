@@ -35,7 +35,7 @@ const suites: Suite[] = [
   },
   {
     name: 'server',
-    command: `DB_NAME=${dbName} bash scripts/test-db.sh && node --import tsx --test --test-concurrency=1 --test-reporter=tap $(find tests/server -name '*.test.ts' | sort)`,
+    command: `DB_NAME=${dbName} bash scripts/test-db.sh && node --import tsx --test --test-concurrency=1 --test-timeout=300000 --test-reporter=tap $(find tests/server -name '*.test.ts' | sort)`,
     count: nodeTap,
   },
   {

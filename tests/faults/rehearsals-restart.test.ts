@@ -14,7 +14,7 @@ import { simulate } from '../../shared/engine/index';
 import type { RehearsalDetail } from '../../shared/api/plans';
 import { TestClient } from '../support/http-client';
 import { createAccount } from '../support/test-server';
-import { makeRoom, ringRoom, type MadeRoom } from './plans-support';
+import { makeRoom, ringRoom, type MadeRoom } from '../server/plans-support';
 
 const PORT = Number(process.env['PLANS_TEST_PORT'] ?? 4440);
 const url = `http://127.0.0.1:${PORT}`;
