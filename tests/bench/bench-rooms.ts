@@ -34,6 +34,15 @@ export function sparseRoom(n: number, m: number, directed: boolean, seed: number
     dst[e] = t;
     w[e] = 0.1 + 2 * r();
   }
+  return roomFromTieArrays(n, src, dst, w, directed);
+}
+
+/**
+ * A prepared room from parallel tie arrays (tie q asks from src[q] to dst[q] with strength w[q]; an
+ * undirected room stores each tie both ways), CSR built by counting sort with rows sorted by column.
+ */
+export function roomFromTieArrays(n: number, src: Int32Array, dst: Int32Array, w: Float64Array, directed: boolean): PreparedRoom {
+  const m = src.length;
   const entries = directed ? m : 2 * m;
   const rowStart = new Int32Array(n + 1);
   for (let e = 0; e < m; e++) {

@@ -5,8 +5,8 @@
  * with probability p). Strengths in [0.5, 1.5) unless `unit`. Also writes the edge list so the
  * Python peers read the very same room.
  */
-import { roomFromCsr, type PreparedRoom } from '../../shared/engine/index';
-import { rng } from './bench-rooms';
+import type { PreparedRoom } from '../../shared/engine/index';
+import { rng, roomFromTieArrays } from './bench-rooms';
 
 export interface EdgeList {
   readonly n: number;
@@ -16,40 +16,7 @@ export interface EdgeList {
 }
 
 export function roomFromEdges(e: EdgeList): PreparedRoom {
-  const { n, src, dst, w } = e;
-  const m = src.length;
-  const rowStart = new Int32Array(n + 1);
-  for (let q = 0; q < m; q++) {
-    rowStart[src[q] + 1]++;
-    rowStart[dst[q] + 1]++;
-  }
-  for (let i = 0; i < n; i++) rowStart[i + 1] += rowStart[i];
-  const at = rowStart.slice(0, n);
-  const col = new Int32Array(2 * m);
-  const weight = new Float64Array(2 * m);
-  const outStrength = new Float64Array(n);
-  const put = (a: number, b: number, x: number) => {
-    const p = at[a]++;
-    col[p] = b;
-    weight[p] = x;
-    outStrength[a] += x;
-  };
-  for (let q = 0; q < m; q++) {
-    put(src[q], dst[q], w[q]);
-    put(dst[q], src[q], w[q]);
-  }
-  for (let i = 0; i < n; i++) {
-    const a = rowStart[i];
-    const b = rowStart[i + 1];
-    const idx = Array.from({ length: b - a }, (_, q) => a + q).sort((x, y) => col[x] - col[y]);
-    const c2 = idx.map((q) => col[q]);
-    const w2 = idx.map((q) => weight[q]);
-    for (let q = 0; q < c2.length; q++) {
-      col[a + q] = c2[q];
-      weight[a + q] = w2[q];
-    }
-  }
-  return roomFromCsr({ n, rowStart, col, weight, outStrength }, false);
+  return roomFromTieArrays(e.n, e.src, e.dst, e.w, false);
 }
 
 export function gridEdges(side: number, seed: number, unit = false): EdgeList {
