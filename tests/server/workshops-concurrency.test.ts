@@ -16,9 +16,11 @@ describe('concurrent link sheets, reset-claim and revoke', () => {
     const ids = [...byName.values()];
     const requests = Array.from({ length: 90 }, (_, i) => {
       const pick = ids[i % ids.length];
-      if (i % 3 === 0) return client.post(`/api/workshops/${id}/links/sheet`, { replace: true });
-      if (i % 3 === 1) return client.post(`/api/workshops/${id}/participants/${pick}/reset-claim`);
-      return client.post(`/api/workshops/${id}/links/revoke`, { participantIds: [pick, ids[(i + 5) % ids.length]] });
+      const other = ids[(i + 5) % ids.length];
+      if (i % 4 === 0) return client.post(`/api/workshops/${id}/links/sheet`, {});
+      if (i % 4 === 1) return client.post(`/api/workshops/${id}/links/reissue`, { participantIds: [pick, other], confirm: true });
+      if (i % 4 === 2) return client.post(`/api/workshops/${id}/participants/${pick}/reset-claim`);
+      return client.post(`/api/workshops/${id}/links/revoke`, { participantIds: [pick, other] });
     });
     const statuses = (await Promise.all(requests)).map((r) => r.status);
     const failures = statuses.filter((s) => s >= 500);
@@ -27,7 +29,7 @@ describe('concurrent link sheets, reset-claim and revoke', () => {
       statuses.every((s) => s === 200 || s === 204),
       `all answered: ${[...new Set(statuses)].join(', ')}`,
     );
-    const sheet = await client.post(`/api/workshops/${id}/links/sheet`, { replace: true });
+    const sheet = await client.post(`/api/workshops/${id}/links/sheet`, {});
     assert.equal(sheet.status, 200);
     const detail = await client.get(`/api/workshops/${id}`);
     for (const p of detail.body.participants as { name: string; activeLinks?: number }[]) {
