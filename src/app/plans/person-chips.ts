@@ -56,7 +56,7 @@ import type { PersonDto } from '../../../shared/api/rooms';
     }
     .n {
       font-weight: 700;
-      color: var(--rh-clay);
+      color: var(--rh-clay-text);
       margin-right: 4px;
     }
   `,

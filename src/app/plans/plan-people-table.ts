@@ -79,7 +79,7 @@ import type { PlanPersonDto } from '../../../shared/api/plans';
       text-align: right;
     }
     .starter {
-      color: var(--rh-clay);
+      color: var(--rh-clay-text);
       font-weight: 600;
     }
     .is-starter {
