@@ -184,7 +184,7 @@ test('import a CSV with errors, read the row errors, fix and commit; export Grap
   await expect(dialog.getByTestId('import-counts')).toContainText('4 people · 4 ties · 2 groups');
   await dialog.getByRole('button', { name: 'Import', exact: true }).click();
   await expect(dialog).toBeHidden();
-  await expect(page.getByText('4 people · 4 ties')).toBeVisible();
+  await expect(page.getByText('4 people · 4 ties', { exact: true })).toBeVisible();
   await expect(personLocator(page, 'Cy Fenn')).toBeVisible();
   await waitSaved(page);
 
@@ -205,7 +205,7 @@ test('import a CSV with errors, read the row errors, fix and commit; export Grap
   await expect(page.getByRole('dialog').getByTestId('import-counts')).toContainText('replaces 4 people and 4 ties');
   await page.getByRole('dialog').getByRole('button', { name: 'Import', exact: true }).click();
   await expect(page.getByRole('dialog')).toBeHidden();
-  await expect(page.getByText('4 people · 4 ties')).toBeVisible();
+  await expect(page.getByText('4 people · 4 ties', { exact: true })).toBeVisible();
   await page.getByRole('tab', { name: /People/ }).click();
   for (const name of ['Ada Wren', 'Bo Lark', 'Cy Fenn', 'Di Holt'])
     await expect(page.getByRole('cell', { name, exact: true })).toBeVisible();
@@ -227,7 +227,9 @@ test('import a CSV with errors, read the row errors, fix and commit; export Grap
   await expect(newDialog.getByTestId('import-counts')).toContainText('4 people · 4 ties · 2 groups');
   await newDialog.getByRole('button', { name: 'Import', exact: true }).click();
   await page.waitForURL((u) => /\/rooms\/\d+$/.test(u.pathname) && u.href !== roomUrl);
-  await expect(page.getByText('4 people · 4 ties')).toBeVisible();
+  // The dialog may still be closing when the new room's page appears: wait for it, then read the room's own line.
+  await expect(newDialog).toBeHidden();
+  await expect(page.getByText('4 people · 4 ties', { exact: true })).toBeVisible();
   await expect(personLocator(page, 'Di Holt')).toBeVisible();
 
   // The PNG of the map is made in the browser.
