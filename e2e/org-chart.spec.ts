@@ -62,7 +62,7 @@ test('an org chart becomes a room: choose columns, read row errors, fix, import,
   await expect(dialog.getByTestId('import-counts')).toContainText('6 people · 7 ties · 3 groups');
   await dialog.getByRole('button', { name: 'Import', exact: true }).click();
   await page.waitForURL(/\/rooms\/\d+$/);
-  await expect(page.getByText('6 people · 7 ties')).toBeVisible();
+  await expect(page.getByText('6 people · 7 ties', { exact: true })).toBeVisible();
   await expect(page.locator('g.person[data-name="Lale Crane"]')).toBeVisible();
   await keepScreenshot(page, 'org-chart-room');
 

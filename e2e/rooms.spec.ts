@@ -43,7 +43,7 @@ test('build a room with the seating builder, then move and tie people on the map
   await page.getByRole('button', { name: 'Save as a new room' }).click();
   await page.waitForURL(/\/rooms\/\d+$/);
   await expect(personLocator(page, 'Seat 24')).toBeVisible();
-  await expect(page.getByText('24 people · 87 ties')).toBeVisible();
+  await expect(page.getByText('24 people · 87 ties', { exact: true })).toBeVisible();
   await expect(page.getByTestId('summary-ties')).toHaveText('87');
 
   // Drag Seat 1 somewhere else; the new place is saved.
@@ -65,7 +65,7 @@ test('build a room with the seating builder, then move and tie people on the map
   await page.mouse.down();
   for (let i = 1; i <= 12; i++) await page.mouse.move(a.x + ((b.x - a.x) * i) / 12, a.y + ((b.y - a.y) * i) / 12);
   await page.mouse.up();
-  await expect(page.getByText('24 people · 88 ties')).toBeVisible();
+  await expect(page.getByText('24 people · 88 ties', { exact: true })).toBeVisible();
   await expect(page.getByRole('region', { name: 'Selected tie' })).toContainText('Seat 1 — Seat 20');
   const strength = page.getByLabel('Strength (how often they talk)');
   await strength.fill('0');
@@ -81,9 +81,9 @@ test('build a room with the seating builder, then move and tie people on the map
   await page.locator('app-room-map svg.rh-map-svg').click({ position: { x: 5, y: 5 } });
   await page.keyboard.press('Control+z'); // strength back to 1
   await page.keyboard.press('Control+z'); // the tie goes
-  await expect(page.getByText('24 people · 87 ties')).toBeVisible();
+  await expect(page.getByText('24 people · 87 ties', { exact: true })).toBeVisible();
   await page.keyboard.press('Control+Shift+z');
-  await expect(page.getByText('24 people · 88 ties')).toBeVisible();
+  await expect(page.getByText('24 people · 88 ties', { exact: true })).toBeVisible();
   await waitSaved(page);
 
   // Rubber band (Shift-drag on the background) selects a whole table; pin them all.
@@ -108,14 +108,14 @@ test('build a room with the seating builder, then move and tie people on the map
   await personLocator(page, 'Seat 24').locator('path.shape').click();
   await expect(page.getByRole('region', { name: 'Selected person' })).toContainText('Seat 24');
   await page.keyboard.press('Delete');
-  await expect(page.getByText('23 people · 81 ties')).toBeVisible();
+  await expect(page.getByText('23 people · 81 ties', { exact: true })).toBeVisible();
   await page.getByRole('button', { name: 'Undo' }).last().click();
-  await expect(page.getByText('24 people · 88 ties')).toBeVisible();
+  await expect(page.getByText('24 people · 88 ties', { exact: true })).toBeVisible();
   await waitSaved(page);
 
   // After a reload the moved person and the new tie are still there.
   await page.reload();
-  await expect(page.getByText('24 people · 88 ties')).toBeVisible();
+  await expect(page.getByText('24 people · 88 ties', { exact: true })).toBeVisible();
   expect(await personLocator(page, 'Seat 1').getAttribute('transform')).toBe(after);
 
   // The tables: rename a person inline, with validation.
@@ -141,7 +141,7 @@ test('build a room with the seating builder, then move and tie people on the map
   await expect(addTie.getByText('A tie joins two different people.')).toBeVisible();
   await addTie.getByLabel('Other person').fill('Seat 13');
   await addTie.getByLabel('Strength').press('Enter');
-  await expect(page.getByText('24 people · 89 ties')).toBeVisible();
+  await expect(page.getByText('24 people · 89 ties', { exact: true })).toBeVisible();
   await waitSaved(page);
   await keepScreenshot(page, 'rooms-ties-table');
 });
@@ -279,7 +279,7 @@ test('frame times while dragging on a room of 300 people and 1,500 ties', async 
   const room = (await res.json()) as { id: number };
 
   await page.goto(`/rooms/${room.id}`);
-  await expect(page.getByText('300 people · 1500 ties')).toBeVisible();
+  await expect(page.getByText('300 people · 1500 ties', { exact: true })).toBeVisible();
   // The first layout runs and saves; wait for it to settle.
   await waitSaved(page);
   await page.getByRole('button', { name: 'Fit to screen' }).click();
@@ -515,7 +515,7 @@ test('a room of 3,000 people opens as a fixed layout without freezing the page',
   const room = (await res.json()) as { id: number };
   const t0 = Date.now();
   await page.goto(`/rooms/${room.id}`);
-  await expect(page.getByText('3000 people · 6000 ties')).toBeVisible({ timeout: 60_000 });
+  await expect(page.getByText('3000 people · 6000 ties', { exact: true })).toBeVisible({ timeout: 60_000 });
   await expect(page.locator('g.person')).toHaveCount(n);
   await expect(page.getByText('A room this large is shown as a fixed layout')).toBeVisible();
   const opened = Date.now() - t0;

@@ -72,4 +72,16 @@ describe('SignIn form', () => {
     await settle();
     expect(navigate).toHaveBeenCalledWith('/admin');
   });
+
+  it('stays on the form and says why when the server warns the session cookie will not be kept', async () => {
+    const navigate = spyOn(TestBed.inject(Router), 'navigateByUrl').and.resolveTo(true);
+    await type(input('email'), 'someone@example.test');
+    await type(input('password'), 'right-password');
+    await submit();
+    const warning = 'Signed in, but your browser reached the server over plain http while PUBLIC_URL starts with https://.';
+    http.expectOne('/api/auth/sign-in').flush({ user: { id: 2, email: 'someone@example.test', name: 'S', role: 'facilitator' }, warning });
+    await settle();
+    expect(navigate).not.toHaveBeenCalled();
+    expect(el.querySelector('[role=alert]')?.textContent?.trim()).toBe(warning);
+  });
 });

@@ -56,7 +56,12 @@ export default class SignIn implements OnInit {
     this.error.set(null);
     try {
       const { email, password } = this.form.getRawValue();
-      const user = await this.auth.signIn(email, password);
+      const { user, warning } = await this.auth.signIn(email, password);
+      if (warning) {
+        // Moving on would land on the sign-in page again with no reason given: say why here.
+        this.error.set(warning);
+        return;
+      }
       const next = this.next();
       const home = user.role === 'admin' ? '/admin' : '/rooms';
       await this.router.navigateByUrl(next && next.startsWith('/') && !next.startsWith('//') ? next : home);

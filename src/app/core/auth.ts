@@ -30,12 +30,16 @@ export class Auth {
     return res.user;
   }
 
-  async signIn(email: string, password: string): Promise<Account> {
+  /**
+   * Signs in. `warning` is set when the server accepted the password but the browser will not
+   * keep the session (a Secure cookie over plain http): the form shows it instead of moving on.
+   */
+  async signIn(email: string, password: string): Promise<{ user: Account; warning?: string }> {
     // The sign-in form shows its own error beside the button; no snackbar that outlives the page.
     const own = { context: new HttpContext().set(HANDLES_ERRORS, true) };
-    const res = await firstValueFrom(this.http.post<{ user: Account }>('/api/auth/sign-in', { email, password }, own));
+    const res = await firstValueFrom(this.http.post<{ user: Account; warning?: string }>('/api/auth/sign-in', { email, password }, own));
     this.current.set(res.user);
-    return res.user;
+    return res.warning ? { user: res.user, warning: res.warning } : { user: res.user };
   }
 
   async signOut(): Promise<void> {

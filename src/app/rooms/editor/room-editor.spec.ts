@@ -105,6 +105,32 @@ describe('RoomEditor saving', () => {
     expect(editor.saveState()).toBe('saved');
   });
 
+  it('a save refused while another large change is being written stays queued and is sent again by itself', async () => {
+    jasmine.clock().install();
+    try {
+      editor.setTieStrength('t21', 6);
+      const saving = editor.flush();
+      http
+        .expectOne('/api/rooms/5/edits')
+        .flush(
+          { error: { code: 'busy_writing', message: 'You already have 1 large change being saved.' } },
+          { status: 429, statusText: 'Too Many Requests' },
+        );
+      await saving;
+      expect(editor.saveState()).toBe('unsaved');
+      expect(editor.saveError()).toContain('You already have 1 large change being saved.');
+      http.expectNone('/api/rooms/5/edits');
+      jasmine.clock().tick(3000);
+      const again = http.expectOne('/api/rooms/5/edits');
+      expect(again.request.body.ops).toEqual([{ op: 'updateTie', id: 21, strength: 6 }]);
+      again.flush({ version: 4, layoutOnly: false, people: {}, ties: {} });
+    } finally {
+      jasmine.clock().uninstall();
+    }
+    await new Promise((r) => setTimeout(r));
+    expect(editor.saveState()).toBe('saved');
+  });
+
   it('moves alone are layout-only (no version); a viewer cannot change anything', async () => {
     editor.movePeople([{ lid: 'p12', x: 80, y: 9, pinned: true }]);
     const saving = editor.flush();

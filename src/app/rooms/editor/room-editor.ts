@@ -16,6 +16,9 @@ import { Outbox } from './outbox';
 import { type EditorOp, type EditorPerson, type EditorTie, type Move, type PersonFields, RoomModel } from './room-model';
 import { Selection } from './selection';
 
+/** How long to wait before resending when the server is still saving another large change (it answers Retry-After: 2). */
+const BUSY_RETRY_MS = 2500;
+
 export type SaveState = 'saved' | 'unsaved' | 'saving' | 'failed' | 'conflict';
 export type RoomMeta = Omit<RoomDto, 'people' | 'ties'>;
 
@@ -344,6 +347,14 @@ export class RoomEditor implements OnDestroy {
           (e.details as unknown as StaleVersionDetails) ?? { currentVersion: room.version, yourVersion: room.version, message: e.message },
         );
         this.saveState.set('conflict');
+      } else if (e.status === 429 && e.code === 'busy_writing') {
+        // The server is still saving this person's other large change: keep everything queued,
+        // say so, and send it again by itself shortly.
+        this.saveError.set(`${e.message} Ripplehall will send it again in a few seconds.`);
+        this.saveState.set('unsaved');
+        this.inFlight = false;
+        this.scheduleSave(BUSY_RETRY_MS);
+        return;
       } else {
         const fields = e.details?.fields?.map((f) => `${f.field}: ${f.message}`).join('; ');
         this.saveError.set(fields ? `${e.message} (${fields})` : e.message);

@@ -13,7 +13,12 @@ import { RoomEditor } from '../editor/room-editor';
         <span class="rh-state rh-ok" role="status"><mat-icon>cloud_done</mat-icon>All changes saved</span>
       }
       @case ('unsaved') {
-        <span class="rh-state" role="status"><mat-icon>edit</mat-icon>Unsaved changes…</span>
+        <span class="rh-state" role="status"
+          ><mat-icon>edit</mat-icon>Unsaved changes…
+          @if (editor.saveError(); as why) {
+            {{ why }}
+          }
+        </span>
       }
       @case ('saving') {
         <span class="rh-state" role="status"><mat-icon>cloud_upload</mat-icon>Saving…</span>
