@@ -39,7 +39,7 @@ export class Auth {
     const own = { context: new HttpContext().set(HANDLES_ERRORS, true) };
     const res = await firstValueFrom(this.http.post<{ user: Account; warning?: string }>('/api/auth/sign-in', { email, password }, own));
     this.current.set(res.user);
-    return res.warning ? { user: res.user, warning: res.warning } : { user: res.user };
+    return res;
   }
 
   async signOut(): Promise<void> {

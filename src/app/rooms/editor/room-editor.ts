@@ -352,7 +352,6 @@ export class RoomEditor implements OnDestroy {
         // say so, and send it again by itself shortly.
         this.saveError.set(`${e.message} Ripplehall will send it again in a few seconds.`);
         this.saveState.set('unsaved');
-        this.inFlight = false;
         this.scheduleSave(BUSY_RETRY_MS);
         return;
       } else {
