@@ -172,7 +172,12 @@ async function main() {
     };
     for (let i = 0; i < RUNS; i++) {
       if (i > 0) await (await signInStep(browser)).ctx.close();
-      await facilitatorRound(first.page, ids, i);
+      await facilitatorRound(first.page, ids, i).catch(async (err: unknown) => {
+        const shot = process.env['BENCH_FAIL_PNG'] ?? 'bench-ui-failure.png';
+        await first.page.screenshot({ path: shot, fullPage: true }).catch(() => undefined);
+        console.error(`Round ${i + 1} failed on ${first.page.url()}; the page is in ${shot}`);
+        throw err;
+      });
       await phoneRound(browser, ids.phonePath);
     }
   } finally {
