@@ -178,7 +178,7 @@ describe('PlanPage', () => {
     }
   }
 
-  const text = () => (router.routeNativeElement as HTMLElement).textContent ?? '';
+  const text = () => ((router.routeNativeElement as HTMLElement).textContent ?? '').replace(/\s+/g, ' ');
   const submit = () => loader.getHarness(MatButtonHarness.with({ ancestor: 'app-plan-form-panel', selector: '[type=submit]' }));
   const budget = () => loader.getHarness(MatInputHarness.with({ selector: '[formcontrolname=k]' }));
   const shownArea = () => (router.routeNativeElement as HTMLElement).querySelector<HTMLElement>('.shown')!;
