@@ -237,7 +237,11 @@ describe('RehearsalPage', () => {
     await (await startButton()).click();
     const req = http.expectOne({ method: 'POST', url: '/api/plans/1/rehearsals' });
     expect(req.request.body).toEqual({ runs: 200, seed: 'studio-1', idempotencyKey: jasmine.any(String) });
-    req.flush({ rehearsal: rehearsal({ planId: 1 }), job: job(31, { status: 'queued', queuePosition: 1 }), reused: false } satisfies RehearsalStarted);
+    req.flush({
+      rehearsal: rehearsal({ planId: 1 }),
+      job: job(31, { status: 'queued', queuePosition: 1 }),
+      reused: false,
+    } satisfies RehearsalStarted);
     await settle();
     answerHistory();
     await settle();
@@ -246,7 +250,9 @@ describe('RehearsalPage', () => {
     const bar = await loader.getHarness(MatProgressBarHarness);
     expect(await bar.getMode()).toBe('determinate');
     expect(text()).toContain('Waiting: number 1 in your queue.');
-    expect(await (await startButton()).isDisabled()).withContext('one rehearsal at a time').toBeTrue();
+    expect(await (await startButton()).isDisabled())
+      .withContext('one rehearsal at a time')
+      .toBeTrue();
     FakeEventSource.opened[0].send({ type: 'progress', job: job(31, { progress: 0.25 }), fraction: 0.25, done: 50, of: 200 });
     await settle();
     expect(await bar.getValue()).toBe(25);

@@ -152,7 +152,14 @@ describe('WorkshopPage', () => {
     const req = http.expectOne({ method: 'POST', url: '/api/workshops/3/links/reissue' });
     expect(req.request.body).toEqual({ participantIds: [1], confirm: true });
     const links: IssuedLink[] = [
-      { participantId: 1, name: 'Ines', email: 'ines@example.test', url: 'https://ripplehall.test/s/abc', expiresAt: '2027-01-01T00:00:00Z', qr: 'data:image/svg+xml;base64,PHN2Zy8+' },
+      {
+        participantId: 1,
+        name: 'Ines',
+        email: 'ines@example.test',
+        url: 'https://ripplehall.test/s/abc',
+        expiresAt: '2027-01-01T00:00:00Z',
+        qr: 'data:image/svg+xml;base64,PHN2Zy8+',
+      },
     ];
     req.flush(links);
     await answerReads();
