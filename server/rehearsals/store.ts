@@ -4,6 +4,7 @@ import { users } from '../../db/schema/accounts';
 import { jobs, plans, rehearsals } from '../../db/schema/plans';
 import { db, type Tx } from '../db';
 import type { JobStatus } from '../../shared/api/plans';
+import { firstOf } from '../../shared/checked';
 
 export type RehearsalRow = typeof rehearsals.$inferSelect;
 export type NewRehearsal = typeof rehearsals.$inferInsert;
@@ -22,7 +23,7 @@ export interface RehearsalListRow {
 const roomNumber = sql<number>`(select count(*) from rehearsals r2 where r2.room_id = ${rehearsals.roomId} and r2.id <= ${rehearsals.id})`;
 
 export async function insertRehearsal(values: NewRehearsal, tx: Tx | typeof db = db): Promise<number> {
-  const [{ id }] = await tx.insert(rehearsals).values(values).$returningId();
+  const { id } = firstOf(await tx.insert(rehearsals).values(values).$returningId(), 'new rehearsal id');
   return id;
 }
 

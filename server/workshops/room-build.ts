@@ -11,6 +11,7 @@ import type { SignedInUser } from '../types';
 import { loadRoomFor } from '../rooms/access';
 import { answeredIds, nominationsOf, participantsById, type WorkshopRow } from './store';
 import { missingMeaning, tiesFromAnswers } from './ties-from-answers';
+import { itemAt } from '../../shared/checked';
 
 /**
  * Builds or updates the workshop's room from the survey answers, in one transaction:
@@ -82,12 +83,13 @@ export async function buildRoom(w: WorkshopRow, owner: SignedInUser, mode: Build
         toAdd.map((p) => ({ key: nextKey(), name: p.name, group: null, email: p.email, x: null, y: null, pinned: false })),
         first,
       );
-      for (let i = 0; i < toAdd.length; i++) {
-        personOf.set(toAdd[i].id, ids[i]);
+      for (const [i, participant] of toAdd.entries()) {
+        const personId = itemAt(ids, i, 'new person id');
+        personOf.set(participant.id, personId);
         await tx
           .update(workshopParticipants)
-          .set({ personId: String(ids[i]) })
-          .where(eq(workshopParticipants.id, toAdd[i].id));
+          .set({ personId: String(personId) })
+          .where(eq(workshopParticipants.id, participant.id));
       }
     }
     const surveyPeople = [...personOf.values()];

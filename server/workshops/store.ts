@@ -11,6 +11,7 @@ import {
 } from '../../db/schema/workshops';
 import type { Facilitator, ParticipantRow, WorkshopSummary } from '../../shared/api/workshops';
 import { db, type Tx } from '../db';
+import { firstOf } from '../../shared/checked';
 
 /** Data access for the facilitator side of workshops. */
 type Conn = Tx | typeof db;
@@ -186,4 +187,53 @@ export async function activeLinkCount(participantId: number): Promise<number> {
  */
 export async function lockWorkshop(tx: Tx, workshopId: number): Promise<void> {
   await tx.select({ id: workshops.id }).from(workshops).where(eq(workshops.id, workshopId)).for('update');
+}
+
+export type NewWorkshop = typeof workshops.$inferInsert;
+
+export async function insertWorkshop(values: NewWorkshop, tx: Conn = db): Promise<number> {
+  const { id } = firstOf(await tx.insert(workshops).values(values).$returningId(), 'new workshop id');
+  return id;
+}
+
+export async function updateWorkshop(workshopId: number, patch: Partial<NewWorkshop>, tx: Conn = db): Promise<void> {
+  if (Object.keys(patch).length) await tx.update(workshops).set(patch).where(eq(workshops.id, workshopId));
+}
+
+export async function deleteWorkshop(workshopId: number, tx: Conn = db): Promise<void> {
+  await tx.delete(workshops).where(eq(workshops.id, workshopId));
+}
+
+export async function roomNameOf(roomId: number | null, tx: Conn = db): Promise<string | null> {
+  if (roomId === null) return null;
+  const [row] = await tx.select({ name: rooms.name }).from(rooms).where(eq(rooms.id, roomId));
+  return row?.name ?? null;
+}
+
+/** Rows a DELETE or UPDATE changed (mysql2's ResultSetHeader). */
+const affected = (result: unknown): number => (result as { affectedRows?: number }).affectedRows ?? 0;
+
+/** Adds a co-facilitator (adding one twice is a no-op). */
+export async function insertFacilitator(workshopId: number, userId: number, tx: Conn = db): Promise<void> {
+  await tx.insert(workshopFacilitators).values({ workshopId, userId }).onDuplicateKeyUpdate({ set: { userId } });
+}
+
+/** Whether a row was removed (false: that user does not co-facilitate this workshop). */
+export async function deleteFacilitator(workshopId: number, userId: number, tx: Conn = db): Promise<boolean> {
+  const [result] = await tx
+    .delete(workshopFacilitators)
+    .where(and(eq(workshopFacilitators.workshopId, workshopId), eq(workshopFacilitators.userId, userId)));
+  return affected(result) > 0;
+}
+
+/** Whether a row was removed (false: no such participant in this workshop). */
+export async function deleteParticipant(workshopId: number, participantId: number, tx: Conn = db): Promise<boolean> {
+  const [result] = await tx
+    .delete(workshopParticipants)
+    .where(and(eq(workshopParticipants.workshopId, workshopId), eq(workshopParticipants.id, participantId)));
+  return affected(result) > 0;
+}
+
+export async function clearClaim(participantId: number, tx: Conn = db): Promise<void> {
+  await tx.update(workshopParticipants).set({ claimedAt: null }).where(eq(workshopParticipants.id, participantId));
 }

@@ -15,6 +15,7 @@ import type { RehearsalDetail } from '../../shared/api/plans';
 import { TestClient } from '../support/http-client';
 import { createAccount } from '../support/test-server';
 import { makeRoom, ringRoom, type MadeRoom } from '../server/plans-support';
+import { firstOf } from '../../shared/checked';
 
 const PORT = Number(process.env['PLANS_TEST_PORT'] ?? 4440);
 const url = `http://127.0.0.1:${PORT}`;
@@ -61,6 +62,7 @@ async function stopChild(child: Child, signal: NodeJS.Signals): Promise<void> {
 
 async function jobStatus(id: number): Promise<string> {
   const [row] = await db.select({ status: jobs.status }).from(jobs).where(eq(jobs.id, id));
+  assert.ok(row, `job ${id} has no row`);
   return row.status;
 }
 
@@ -69,6 +71,7 @@ async function waitForStatus(id: number, wanted: (s: string, progress: number) =
   const until = Date.now() + timeoutMs;
   for (;;) {
     const [row] = await db.select({ status: jobs.status, progress: jobs.progress }).from(jobs).where(eq(jobs.id, id));
+    assert.ok(row, `job ${id} has no row`);
     if (wanted(row.status, row.progress)) return;
     if (Date.now() > until) throw new Error(`job ${id} is ${row.status} at ${row.progress} after ${timeoutMs} ms`);
     await new Promise((r) => setTimeout(r, 100));
@@ -127,7 +130,7 @@ describe('rehearsals across process deaths', () => {
   it('kill -9 mid-rehearsal: the next process resumes it and stores the undisturbed numbers', async () => {
     const { rehearsalId, jobId } = await start('kill-9');
     await waitForStatus(jobId, (s, progress) => s === 'running' && progress > 0);
-    await stopChild(children[0], 'SIGKILL');
+    await stopChild(firstOf(children, 'started servers'), 'SIGKILL');
     assert.equal(await jobStatus(jobId), 'running', 'the killed process could not end its job');
     children.push(await startChild());
     await waitForStatus(jobId, (s) => s !== 'queued' && s !== 'running');
