@@ -1,16 +1,14 @@
 /** Sample cascades for the projector replay: the people (with their current map positions) and each stored cascade. */
-import { eq } from 'drizzle-orm';
 import type { ReplayIndex, ReplaySample } from '../../shared/api/plans';
 import { itemAt } from '../../shared/checked';
-import { people as peopleTable } from '../../db/schema/rooms';
 import { notFound } from '../core/http-error';
-import { db } from '../db';
 import { parseSnapshot } from '../plans/dto';
 import { personAt } from '../plans/snapshot';
 import { findPlan } from '../plans/store';
 import { planError } from '../plans/validate';
 import type { StoredSample } from './results';
 import type { LoadedRehearsal } from './service';
+import { personPositions } from './store';
 
 function samplesOf(row: LoadedRehearsal): StoredSample[] {
   if (row.job.status !== 'done' || !row.rehearsal.samples)
@@ -22,14 +20,7 @@ export async function replayIndex(row: LoadedRehearsal): Promise<ReplayIndex> {
   const samples = samplesOf(row);
   const plan = (await findPlan(row.rehearsal.planId))!;
   const snap = parseSnapshot(plan);
-  const positions = new Map(
-    (
-      await db
-        .select({ id: peopleTable.id, x: peopleTable.x, y: peopleTable.y })
-        .from(peopleTable)
-        .where(eq(peopleTable.roomId, plan.roomId))
-    ).map((p) => [p.id, p]),
-  );
+  const positions = new Map((await personPositions(plan.roomId)).map((p) => [p.id, p]));
   const starters = (plan.starters ?? []).map((s) => s.personId);
   const isStarter = new Set(starters);
   return {

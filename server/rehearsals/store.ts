@@ -2,6 +2,7 @@
 import { and, desc, eq, getTableColumns, gte, lt, sql, type SQL } from 'drizzle-orm';
 import { users } from '../../db/schema/accounts';
 import { jobs, plans, rehearsals } from '../../db/schema/plans';
+import { people } from '../../db/schema/rooms';
 import { db, type Tx } from '../db';
 import type { JobStatus } from '../../shared/api/plans';
 import { firstOf } from '../../shared/checked';
@@ -74,4 +75,9 @@ export async function listRehearsals(roomId: number, f: RehearsalFilter): Promis
 
 export async function deleteRehearsal(id: number): Promise<void> {
   await db.delete(rehearsals).where(eq(rehearsals.id, id));
+}
+
+/** Where each person of a room sits on its map (the replay draws the room as the editor shows it). */
+export async function personPositions(roomId: number): Promise<{ id: number; x: number | null; y: number | null }[]> {
+  return db.select({ id: people.id, x: people.x, y: people.y }).from(people).where(eq(people.roomId, roomId));
 }

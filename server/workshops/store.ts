@@ -1,6 +1,6 @@
 import { and, asc, count, desc, eq, inArray, isNotNull, isNull, gt, or, sql } from 'drizzle-orm';
 import { users } from '../../db/schema/accounts';
-import { rooms } from '../../db/schema/rooms';
+import { roomShares, rooms, ties } from '../../db/schema/rooms';
 import {
   participantLinks,
   surveyNominations,
@@ -236,4 +236,35 @@ export async function deleteParticipant(workshopId: number, participantId: numbe
 
 export async function clearClaim(participantId: number, tx: Conn = db): Promise<void> {
   await tx.update(workshopParticipants).set({ claimedAt: null }).where(eq(workshopParticipants.id, participantId));
+}
+
+/** The role of the share `userId` holds on the room directly, if any. */
+export async function directShareRole(roomId: number, userId: number, tx: Conn = db): Promise<'editor' | 'viewer' | null> {
+  const [share] = await tx
+    .select({ role: roomShares.role })
+    .from(roomShares)
+    .where(and(eq(roomShares.roomId, roomId), eq(roomShares.userId, userId)));
+  return share?.role ?? null;
+}
+
+export async function facilitatorUserIds(workshopId: number, tx: Conn = db): Promise<number[]> {
+  const rows = await tx
+    .select({ userId: workshopFacilitators.userId })
+    .from(workshopFacilitators)
+    .where(eq(workshopFacilitators.workshopId, workshopId));
+  return rows.map((r) => r.userId);
+}
+
+/** Records which person of the room stands for the participant (the row built or matched for them). */
+export async function setParticipantPerson(participantId: number, personId: number, tx: Conn = db): Promise<void> {
+  await tx
+    .update(workshopParticipants)
+    .set({ personId: String(personId) })
+    .where(eq(workshopParticipants.id, participantId));
+}
+
+/** Removes the room's ties between survey people, before the survey's answers are written again. */
+export async function deleteTiesAmong(roomId: number, personIds: number[], tx: Conn = db): Promise<void> {
+  if (!personIds.length) return;
+  await tx.delete(ties).where(and(eq(ties.roomId, roomId), inArray(ties.sourceId, personIds), inArray(ties.targetId, personIds)));
 }
