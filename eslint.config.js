@@ -3,7 +3,19 @@ import tseslint from 'typescript-eslint';
 import angular from 'angular-eslint';
 
 export default tseslint.config(
-  { ignores: ['node_modules/', 'dist/', '.angular/', '.data/', 'coverage/', 'test-results/', 'db/migrations/', 'e2e/artifacts/'] },
+  {
+    ignores: [
+      'node_modules/',
+      'dist/',
+      '.angular/',
+      '.data/',
+      'coverage/',
+      'test-results/',
+      'db/migrations/',
+      'e2e/artifacts/',
+      'out-tsc/',
+    ],
+  },
   {
     files: ['**/*.ts'],
     extends: [...tseslint.configs.recommended, ...angular.configs.tsRecommended],
