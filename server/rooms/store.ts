@@ -1,5 +1,5 @@
 /** Rooms data access (Drizzle on MariaDB: select / join only, bulk inserts in chunks). */
-import { and, asc, desc, eq, exists, inArray, like, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, exists, gte, inArray, like, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import type { Page, PersonDto, RoomListItem, RoomSettings, TieDto, TieListItem } from '../../shared/api/rooms';
 import { firstOf, itemAt } from '../../shared/checked';
@@ -53,6 +53,7 @@ export async function insertContent(
   firstOrder = 0,
 ): Promise<number[]> {
   const ids: number[] = [];
+  let firstId: number | undefined;
   for (let at = 0; at < folk.length; at += CHUNK) {
     const rows = folk.slice(at, at + CHUNK).map((p, i) => ({
       roomId,
@@ -67,8 +68,9 @@ export async function insertContent(
       orderIndex: firstOrder + at + i,
     }));
     const got = await tx.insert(people).values(rows).$returningId();
-    ids.push(...got.map((g) => g.id));
+    firstId ??= got[0]?.id;
   }
+  if (firstId !== undefined) ids.push(...(await newIdsByKey(tx, roomId, firstId, folk)));
   for (let at = 0; at < links.length; at += CHUNK) {
     const rows = links.slice(at, at + CHUNK).map((t) => ({
       roomId,
@@ -355,15 +357,41 @@ export async function insertTieRows(
   roomId: number,
   links: { sourceId: number; targetId: number; strength: number }[],
 ): Promise<number[]> {
-  const ids: number[] = [];
+  let firstId: number | undefined;
   for (let at = 0; at < links.length; at += CHUNK) {
     const got = await tx
       .insert(ties)
       .values(links.slice(at, at + CHUNK).map((l) => ({ roomId, ...l })))
       .$returningId();
-    ids.push(...got.map((g) => g.id));
+    firstId ??= got[0]?.id;
   }
-  return ids;
+  if (firstId === undefined) return [];
+  const rows = await tx
+    .select({ id: ties.id, sourceId: ties.sourceId, targetId: ties.targetId })
+    .from(ties)
+    .where(and(eq(ties.roomId, roomId), gte(ties.id, firstId)));
+  const byPair = new Map(rows.map((r) => [`${r.sourceId}:${r.targetId}`, r.id]));
+  return links.map((l) => idOrThrow(byPair.get(`${l.sourceId}:${l.targetId}`), 'tie'));
+}
+
+/*
+ * The ids of rows just inserted are read back by their natural key, not counted up from the
+ * first one: a multi-row insert's ids are consecutive only where auto_increment_increment is 1,
+ * and a Galera cluster sets it to the cluster size. The room's row is locked (or the room is
+ * new), so every row of the room with an id from the first new one on is one of ours.
+ */
+async function newIdsByKey(tx: Q, roomId: number, firstId: number, folk: PersonRowInput[]): Promise<number[]> {
+  const rows = await tx
+    .select({ id: people.id, key: people.personKey })
+    .from(people)
+    .where(and(eq(people.roomId, roomId), gte(people.id, firstId)));
+  const byKey = new Map(rows.map((r) => [r.key, r.id]));
+  return folk.map((p) => idOrThrow(byKey.get(p.key), 'person'));
+}
+
+function idOrThrow(id: number | undefined, what: string): number {
+  if (id === undefined) throw new Error(`a ${what} just inserted was not found again`);
+  return id;
 }
 
 /** Many positions in one statement per chunk (a drag of many people is one autosave). */
