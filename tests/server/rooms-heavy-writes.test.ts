@@ -7,6 +7,7 @@ import { TestClient } from '../support/http-client';
 import { signedInClient, startTestServer, type TestServer } from '../support/test-server';
 import { startWebProcess } from '../support/web-process';
 import { createPathRoom } from './rooms-helpers';
+import { firstOf } from '../../shared/checked';
 
 /**
  * One user's heavy writes cannot occupy the database for everyone: small edit batches, at most
@@ -44,7 +45,7 @@ describe('heavy writes', () => {
       "SELECT COUNT(*) AS n FROM information_schema.PROCESSLIST WHERE INFO LIKE '%from `rooms`%for update%' AND DB = ? AND ID <> CONNECTION_ID()",
       [config.DB_NAME],
     )) as unknown as [{ n: number }[]];
-    return Number(rows[0].n);
+    return Number(firstOf(rows, 'waiter count').n);
   }
 
   async function until(check: () => Promise<boolean>) {

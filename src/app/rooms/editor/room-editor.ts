@@ -212,7 +212,8 @@ export class RoomEditor implements OnDestroy {
       }
     }
     for (const lid of lids) ops.push({ op: 'deletePerson', lid });
-    const label = lids.length === 1 ? `Delete ${this.model.people.get(lids[0])?.name ?? 'person'}` : `Delete ${lids.length} people`;
+    const only = lids.length === 1 ? lids[0] : undefined;
+    const label = only !== undefined ? `Delete ${this.model.people.get(only)?.name ?? 'person'}` : `Delete ${lids.length} people`;
     this.execute(label, ops);
     this.selection.keepOnly(
       (l) => this.model.people.has(l),
