@@ -133,6 +133,13 @@ class FakeEventSource extends EventTarget {
   }
 }
 
+/** The stream the page opened last (a test fails here if it opened none). */
+function lastSource(): FakeEventSource {
+  const s = FakeEventSource.opened.at(-1);
+  if (!s) throw new Error('the page opened no event stream');
+  return s;
+}
+
 describe('PlanPage', () => {
   let router: RouterTestingHarness;
   let http: HttpTestingController;
@@ -215,7 +222,7 @@ describe('PlanPage', () => {
     expect(await bar.getMode()).toBe('determinate');
     expect(await bar.getValue()).toBe(0);
     expect(FakeEventSource.opened.map((s) => s.url)).toEqual(['/api/jobs/44/events']);
-    FakeEventSource.opened[0].send({
+    lastSource().send({
       type: 'progress',
       job: job(44, { progress: 0.4 }),
       fraction: 0.4,
@@ -247,7 +254,7 @@ describe('PlanPage', () => {
     await (await loader.getHarness(MatButtonHarness.with({ ancestor: 'app-plan-progress', text: /Cancel/ }))).click();
     const cancel = http.expectOne({ method: 'POST', url: '/api/jobs/45/cancel' });
     cancel.flush(job(45, { status: 'cancelled' }));
-    FakeEventSource.opened[0].send({ type: 'cancelled', job: job(45, { status: 'cancelled' }) });
+    lastSource().send({ type: 'cancelled', job: job(45, { status: 'cancelled' }) });
     await settle();
     http.expectOne('/api/rooms/5/plans').flush([summary(plan(7))]);
     await settle();
@@ -257,7 +264,7 @@ describe('PlanPage', () => {
     expect(shownArea().classList).not.toContain('busy');
     expect(shownArea().hasAttribute('inert')).toBeFalse();
     expect(await (await submit()).isDisabled()).toBeFalse();
-    expect(FakeEventSource.opened[0].readyState).withContext('the stream is closed').toBe(2);
+    expect(lastSource().readyState).withContext('the stream is closed').toBe(2);
   });
 
   it('when the job is done the new plan replaces the previous one', async () => {
@@ -269,7 +276,7 @@ describe('PlanPage', () => {
     await settle();
     http.expectOne('/api/rooms/5/plans').flush([summary(plan(7))]);
     await settle();
-    FakeEventSource.opened[0].send({ type: 'done', job: job(46, { status: 'done', progress: 1 }) });
+    lastSource().send({ type: 'done', job: job(46, { status: 'done', progress: 1 }) });
     await settle();
     http.expectOne('/api/plans/8').flush(plan(8, { name: 'Quick plan' }));
     await settle();

@@ -131,6 +131,13 @@ class FakeEventSource extends EventTarget {
   }
 }
 
+/** The stream the page opened last (a test fails here if it opened none). */
+function lastSource(): FakeEventSource {
+  const s = FakeEventSource.opened.at(-1);
+  if (!s) throw new Error('the page opened no event stream');
+  return s;
+}
+
 describe('RehearsalPage', () => {
   let router: RouterTestingHarness;
   let http: HttpTestingController;
@@ -253,7 +260,7 @@ describe('RehearsalPage', () => {
     expect(await (await startButton()).isDisabled())
       .withContext('one rehearsal at a time')
       .toBeTrue();
-    FakeEventSource.opened[0].send({ type: 'progress', job: job(31, { progress: 0.25 }), fraction: 0.25, done: 50, of: 200 });
+    lastSource().send({ type: 'progress', job: job(31, { progress: 0.25 }), fraction: 0.25, done: 50, of: 200 });
     await settle();
     expect(await bar.getValue()).toBe(25);
     expect(text()).toContain('25% · 50 of 200 cascades');
@@ -269,7 +276,7 @@ describe('RehearsalPage', () => {
     answerHistory();
     await (await loader.getHarness(MatButtonHarness.with({ text: /Cancel/ }))).click();
     http.expectOne({ method: 'POST', url: '/api/rehearsals/9/cancel' }).flush(rehearsal({ status: 'cancelled' }));
-    FakeEventSource.opened[0].send({ type: 'cancelled', job: job(31, { status: 'cancelled' }) });
+    lastSource().send({ type: 'cancelled', job: job(31, { status: 'cancelled' }) });
     await settle();
     answerHistory();
     await settle();

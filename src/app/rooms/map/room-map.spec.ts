@@ -182,6 +182,7 @@ describe('RoomMap (with its tools and side panel)', () => {
 
     const tools = await loader.getHarness(MatButtonToggleGroupHarness.with({ selector: '[aria-label="Pointer tool"]' }));
     const [move, ties] = await tools.getToggles();
+    if (!move || !ties) throw new Error('the pointer tool has two toggles');
     expect(await move.isChecked()).toBeTrue();
     expect(host.querySelector('.rh-map-area')?.classList).not.toContain('rh-tie-tool');
     await ties.check();
