@@ -70,8 +70,11 @@ export function exhaustiveSearch(ctx: PlanContext, incumbent: Incumbent): Exhaus
 export class BranchSearch {
   private readonly k: number;
   private readonly scale: number;
+  /** Pruning threshold: the best raw total known to this thread, its own or another thread's (link). */
   private best: number;
+  /** This thread's best set and its raw total (never another thread's total: the two must match). */
   private bestSet: number[];
+  private ownBest: number;
   readonly floor: number;
   private readonly levels: Level[] = [];
   private readonly binom: Float64Array[];
@@ -92,6 +95,7 @@ export class BranchSearch {
     this.k = ctx.k;
     this.scale = incumbent.scale;
     this.best = incumbent.rawTotal;
+    this.ownBest = incumbent.rawTotal;
     this.bestSet = [...incumbent.starters];
     this.floor = n - ctx.k; // raw hops: every non-starter needs at least one (identity 6)
     this.binom = binomialTable(n, ctx.k);
@@ -132,6 +136,7 @@ export class BranchSearch {
   leaf(total: number, set: () => number[]): void {
     if (total < this.best - 1e-12 * Math.abs(this.best)) {
       this.best = total;
+      this.ownBest = total;
       this.bestSet = set();
       this.link?.offer(total);
     }
@@ -187,7 +192,7 @@ export class BranchSearch {
     const lowerRaw = complete ? this.best : Math.min(this.best, this.pendingBound());
     this.meter.finish();
     return {
-      state: { starters: this.bestSet, total: this.best * this.scale },
+      state: { starters: this.bestSet, total: this.ownBest * this.scale },
       complete,
       stopped: this.meter.stopped,
       nodes: this.meter.nodes,

@@ -159,6 +159,32 @@ describe('branch and bound on worker threads', () => {
   });
 });
 
+describe('branch and bound sharing its best total with other threads', () => {
+  it("returns its own best set with that set's own total, even when another thread holds a lower total", async () => {
+    const { planStart } = await import('../../shared/engine/plan');
+    const { BranchSearch } = await import('../../shared/engine/plan-exhaustive');
+    for (const seed of [3, 17, 41]) {
+      const g = randomRoom(24, 30, false, seed);
+      const step = planStart(g, { k: 4, method: 'exhaustive' });
+      assert.ok(!('result' in step));
+      const best = plan(g, { k: 4, method: 'exhaustive' });
+      assert.ok(best.certified);
+      const scale = 1 / (1 - step.ctx.room.laziness);
+      // Another thread has (say) already found a total below everything this thread can reach.
+      const lower = (best.total / scale) * 0.9;
+      const link = { best: () => lower, offer: () => undefined, publish: () => undefined };
+      const incumbent = { starters: [...step.start.starters], rawTotal: step.start.rawTotal, scale };
+      const search = new BranchSearch(step.ctx, incumbent, link);
+      const items = search.prepare();
+      let next = 0;
+      search.searchItems(items, () => (next < items.length ? next++ : -1));
+      const out = search.outcome();
+      const own = exactReach(g, out.state.starters).total;
+      assert.ok(relClose(out.state.total, own, 1e-9), `seed ${seed}: reported ${out.state.total}, the set's total is ${own}`);
+    }
+  });
+});
+
 describe('bounding search after a heuristic plan', () => {
   it('boundMs keeps the heuristic plan and raises its proven bound to the certified optimum on a small room', () => {
     const g = randomRoom(30, 40, false, 12);
