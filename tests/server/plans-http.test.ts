@@ -221,7 +221,10 @@ describe('plans API', () => {
     assert.equal(plan.starters.length, 9);
     assert.equal(plan.certified, false);
     assert.equal(plan.extras?.stopped, true);
-    assert.ok(plan.warnings.some((w) => /stopped after \d+ steps/.test(w)), plan.warnings.join(' | '));
+    assert.ok(
+      plan.warnings.some((w) => /stopped after \d+ steps/.test(w)),
+      plan.warnings.join(' | '),
+    );
     assert.ok(plan.lowerBound! <= plan.total! && plan.gap! > 0);
   });
 

@@ -78,18 +78,22 @@ group; when K is too small for that, the command says so (exit status 2).`,
     const nu = numberFlag(argv, 'nu', 0, 1, true);
     const seconds = numberFlag(argv, 'time-limit', 0.001, 1e6, true);
     const noShow = numberFlag(argv, 'no-show', 0, 0.5, true);
-    const r = await planWithWorkers(graph, {
-      k,
-      method,
-      ...walkOptions(argv),
-      ...(nu !== undefined ? { nu } : {}),
-      ...(seconds !== undefined ? { timeLimitMs: seconds * 1000 } : {}),
-      ...(noShow !== undefined ? { noShow } : {}),
-      mustInclude: people(graph, argv, 'include', file),
-      exclude: people(graph, argv, 'exclude', file),
-      // The screen of a very large room runs for minutes: one progress line per evaluated set on stderr.
-      ...(method === 'screen' ? { onProgress: (p: PlanProgress) => process.stderr.write(`${p.stage} ${p.done}/${p.of}\n`) } : {}),
-    });
+    const r = await planWithWorkers(
+      graph,
+      {
+        k,
+        method,
+        ...walkOptions(argv),
+        ...(nu !== undefined ? { nu } : {}),
+        ...(seconds !== undefined ? { timeLimitMs: seconds * 1000 } : {}),
+        ...(noShow !== undefined ? { noShow } : {}),
+        mustInclude: people(graph, argv, 'include', file),
+        exclude: people(graph, argv, 'exclude', file),
+        // The screen of a very large room runs for minutes: one progress line per evaluated set on stderr.
+        ...(method === 'screen' ? { onProgress: (p: PlanProgress) => process.stderr.write(`${p.stage} ${p.done}/${p.of}\n`) } : {}),
+      },
+      Math.min(2, availableParallelism()),
+    );
     const finite = (v: number) => (Number.isFinite(v) ? v : null);
     return {
       result: {
