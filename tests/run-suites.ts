@@ -39,6 +39,12 @@ const suites: Suite[] = [
     count: nodeTap,
   },
   {
+    // Two web and two worker processes with their own MariaDB and Redis; kill -9 of each mid-rehearsal.
+    name: 'faults',
+    command: 'FAULTS_REPORTER=tap bash scripts/faults.sh',
+    count: nodeTap,
+  },
+  {
     name: 'client (Karma)',
     command: 'npx ng test --watch=false --no-progress',
     count: (output, code) => {

@@ -14,10 +14,11 @@ import { after, before, describe, it } from 'node:test';
 import { eq, inArray } from 'drizzle-orm';
 import { jobs } from '../../db/schema/plans';
 import { rooms } from '../../db/schema/rooms';
-import { db, pool } from '../../server/db';
+import { db } from '../../server/db';
 import { simulate } from '../../shared/engine/index';
 import type { JobEvent, RehearsalDetail } from '../../shared/api/plans';
 import { TestClient } from '../support/http-client';
+import { closeFaultTest } from './close';
 import { createAccount } from '../support/test-server';
 import { makeRoom, readEvents, ringRoom } from '../server/plans-support';
 
@@ -76,7 +77,7 @@ describe('faults during a shared rehearsal', () => {
   const procs: Proc[] = [];
   after(async () => {
     for (const p of procs) if (p.alive()) p.proc.kill('SIGKILL');
-    await pool.end();
+    await closeFaultTest();
   });
 
   const web = (port: number) => ({ PORT: String(port), HOST: '127.0.0.1', WEB_ONLY: 'true' });

@@ -1,6 +1,8 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
+import { spawn } from 'node:child_process';
 import { randomBytes, randomInt } from 'node:crypto';
+import { createServer as createNetServer, type AddressInfo } from 'node:net';
 
 // Own process (node --test isolates files): low limits, and trust proxy so that each test
 // can speak from an address of its own through X-Forwarded-For.
@@ -10,7 +12,10 @@ process.env['RATE_LIMIT_RESET_PER_15MIN'] = '2';
 process.env['RATE_LIMIT_IP_PER_15MIN'] = '6';
 process.env['TRUST_PROXY'] = 'true';
 process.env['RATE_LIMIT_LINK_PER_15MIN'] = '3';
+// One counter scope for this process and the second web process it starts (it inherits the env).
+process.env['RATE_LIMIT_SCOPE'] = `rate-limit-test-${process.pid}`;
 const { createAccount, startTestServer } = await import('../support/test-server');
+const { TestClient } = await import('../support/http-client');
 const { lastMailId, mailsTo, waitForMail } = await import('./mail-support');
 const { issueToken } = await import('../../server/auth/tokens');
 const { db } = await import('../../server/db');
@@ -111,4 +116,64 @@ describe('rate limits on sign-in and password reset', () => {
     assert.equal(good.status, 200, 'a real invitation still opens from the same address');
     assert.equal(good.body.email, invited.email);
   });
+  it('the account back-off holds across web processes: failures on one count on the other (the counters live in Redis)', async () => {
+    const other = await startWebProcess();
+    try {
+      const account = await createAccount('facilitator');
+      // Each try from an address of its own, so only the per-account back-off can answer 429.
+      const tryOn = async (url: string, password: string) =>
+        (
+          await new TestClient(url).request(
+            'POST',
+            '/api/auth/sign-in',
+            { email: account.email, password },
+            { headers: { 'x-forwarded-for': freshIp() } },
+          )
+        ).status;
+      assert.equal(await tryOn(server.url, 'guess-a'), 401);
+      assert.equal(await tryOn(other.url, 'guess-b'), 401);
+      assert.equal(await tryOn(server.url, 'guess-c'), 401);
+      assert.equal(await tryOn(other.url, 'guess-d'), 429, 'the second process knows of the failures seen by the first');
+      assert.equal(await tryOn(server.url, 'guess-e'), 429);
+    } finally {
+      await other.stop();
+    }
+  });
 });
+
+/** A second web process (a real child, WEB_ONLY) on a free port, on the same MariaDB and Redis. */
+async function startWebProcess(): Promise<{ url: string; stop(): Promise<void> }> {
+  const port = await new Promise<number>((resolve) => {
+    const probe = createNetServer().listen(0, '127.0.0.1', () => {
+      const p = (probe.address() as AddressInfo).port;
+      probe.close(() => resolve(p));
+    });
+  });
+  // Not a test process: it must not inherit the test runner's context.
+  const { NODE_TEST_CONTEXT: _context, ...env } = process.env;
+  const child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
+    env: { ...env, PORT: String(port), HOST: '127.0.0.1', WEB_ONLY: 'true', LOG_LEVEL: 'warn' },
+    stdio: ['ignore', 'ignore', 'pipe'],
+  });
+  let stderr = '';
+  child.stderr.on('data', (d: Buffer) => (stderr += d.toString()));
+  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
+  const url = `http://127.0.0.1:${port}`;
+  for (let i = 0; ; i++) {
+    if (child.exitCode !== null) throw new Error(`the second web process exited: ${stderr}`);
+    const up = await fetch(`${url}/api/health`).then(
+      (r) => r.ok,
+      () => false,
+    );
+    if (up) break;
+    if (i > 600) throw new Error(`the second web process did not start in 60 s: ${stderr}`);
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  return {
+    url,
+    stop: async () => {
+      child.kill('SIGTERM');
+      await exited;
+    },
+  };
+}
