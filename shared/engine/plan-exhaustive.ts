@@ -258,9 +258,21 @@ export class BranchSearch {
           this.meter.close(part);
           continue;
         }
+        // Big pieces also carry their own dual bound, so the pieces are searched in the order of
+        // the stronger bound and the pending bound of a stopped search rises with the share closed.
+        let bound = Math.max(lv.childLb[p], root.bound);
+        if (r - 1 >= DUAL_R && part >= DUAL_MIN) {
+          const piece = this.levels[1].state;
+          s.childInto(piece, lv.order[p], lv.gain[p], lv.order, p + 1, s.m);
+          bound = Math.max(bound, piece.dualBound(r - 1, this.scratch, this.picked));
+          if (this.pruneAt(Math.max(this.floor, bound))) {
+            this.meter.close(part);
+            continue;
+          }
+        }
         const cand = new Int32Array(s.m - p - 1);
         for (let q = p + 1; q < s.m; q++) cand[q - p - 1] = s.ids[lv.order[q]];
-        out.push({ set: [...root.set, s.ids[lv.order[p]]], cand, bound: lv.childLb[p] });
+        out.push({ set: [...root.set, s.ids[lv.order[p]]], cand, bound });
       }
     }
     return out;
@@ -283,7 +295,7 @@ export class BranchSearch {
       this.meter.close(1);
       return;
     }
-    this.node(this.levels[0].state.load(s, root.cand), r, 0);
+    this.node(this.levels[0].state.load(s, root.cand), r, 0, root.bound);
   }
 
   /** Smallest bound over everything not yet decided (raw): pending roots and pending children on the stack. */
@@ -316,7 +328,8 @@ export class BranchSearch {
     }
   }
 
-  private node(s: CandState, r: number, depth: number): void {
+  /** `inherited`: a proven bound on every set below this node (its own bound as a child). */
+  private node(s: CandState, r: number, depth: number, inherited: number): void {
     if (this.meter.tick()) return;
     if ((this.meter.nodes & 255) === 0) this.sync();
     const lv = this.levels[depth];
@@ -330,6 +343,12 @@ export class BranchSearch {
     if (!this.nodeBounds(s, lv, r)) {
       this.meter.close(this.sets(m, r));
       return;
+    }
+    // A child's sets are the node's sets, so the node's bound holds for them too: the pending
+    // bound of a stopped search is then never below the bound of the piece being searched.
+    for (let p = 0; p <= m; p++) {
+      if (lv.childLb[p] < inherited && p < m) lv.childLb[p] = inherited;
+      if (lv.suffixMin[p] < inherited) lv.suffixMin[p] = inherited;
     }
     lv.size = m;
     for (let p = 0; p < m; p++) {
@@ -346,7 +365,7 @@ export class BranchSearch {
       else {
         const next = this.levels[depth + 1];
         s.childInto(next.state, lv.order[p], lv.gain[p], lv.order, p + 1, m);
-        this.node(next.state, r - 1, depth + 1);
+        this.node(next.state, r - 1, depth + 1, lv.childLb[p]);
         next.size = 0;
         if (this.meter.halted) return;
         continue;
