@@ -70,10 +70,18 @@ class LimiterStore extends RedisStore {
   }
 }
 
-export function createLimiterStore(prefix: string): Store {
+/** The Redis key prefix of a counter (scoped per test process under NODE_ENV=test). */
+export function counterKeyPrefix(prefix: string): string {
   const scope = config.NODE_ENV === 'test' ? `${config.RATE_LIMIT_SCOPE ?? process.pid}:` : '';
+  return `${QUEUE_PREFIX}:rl:${scope}${prefix}:`;
+}
+
+/** The connection the counters use, for counters of another shape (server/core/heavy-writes.ts). */
+export const counterRedis = redis;
+
+export function createLimiterStore(prefix: string): Store {
   return new LimiterStore({
-    prefix: `${QUEUE_PREFIX}:rl:${scope}${prefix}:`,
+    prefix: counterKeyPrefix(prefix),
     sendCommand: (command: string, ...args: string[]) => redis().call(command, ...args) as Promise<never>,
   });
 }

@@ -25,6 +25,7 @@ import * as store from './store';
 import { config } from '../config';
 import { boundForRow, boundOf, boundsFor, recordComputation, recordSweepBounds } from './bounds';
 import { mergeSweeps } from './sweep';
+import { personAt } from './snapshot';
 import { checkHandMade, checkPlannerRequest, indicesOfPeople, planError } from './validate';
 
 export type LoadedPlan = PlanRow & { createdByName: string };
@@ -275,8 +276,8 @@ export async function comparePlans(a: LoadedPlan, b: LoadedPlan): Promise<PlanCo
   const hb = hops(b);
   const ids = [...ha.snap.personIds, ...hb.snap.personIds.filter((id) => !ha.map.has(id))];
   const nameOf = new Map<number, string>();
-  hb.snap.personIds.forEach((id, i) => nameOf.set(id, hb.snap.names[i]));
-  ha.snap.personIds.forEach((id, i) => nameOf.set(id, ha.snap.names[i]));
+  hb.snap.personIds.forEach((id, i) => nameOf.set(id, personAt(hb.snap, i).name));
+  ha.snap.personIds.forEach((id, i) => nameOf.set(id, personAt(ha.snap, i).name));
   const people = ids.map((personId) => {
     const va = ha.map.get(personId) ?? null;
     const vb = hb.map.get(personId) ?? null;

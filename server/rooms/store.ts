@@ -1,7 +1,8 @@
 /** Rooms data access (Drizzle on MariaDB: select / join only, bulk inserts in chunks). */
-import { and, asc, desc, eq, exists, inArray, like, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, exists, gte, inArray, like, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import type { Page, PersonDto, RoomListItem, RoomSettings, TieDto, TieListItem } from '../../shared/api/rooms';
+import { firstOf, itemAt } from '../../shared/checked';
 import { users } from '../../db/schema/accounts';
 import { people, roomShares, rooms, ties } from '../../db/schema/rooms';
 import { db, type Tx } from '../db';
@@ -36,11 +37,11 @@ export async function insertRoom(
   tx: Q,
   values: { ownerId: number; name: string; description: string; settings: RoomSettings },
 ): Promise<number> {
-  const [{ id }] = await tx
+  const inserted = await tx
     .insert(rooms)
     .values({ ownerId: values.ownerId, name: values.name, description: values.description, ...values.settings })
     .$returningId();
-  return id;
+  return firstOf(inserted, 'new room id').id;
 }
 
 /** Inserts people and ties (by index into `folk`); returns the new person ids in order. */
@@ -52,6 +53,7 @@ export async function insertContent(
   firstOrder = 0,
 ): Promise<number[]> {
   const ids: number[] = [];
+  let firstId: number | undefined;
   for (let at = 0; at < folk.length; at += CHUNK) {
     const rows = folk.slice(at, at + CHUNK).map((p, i) => ({
       roomId,
@@ -66,12 +68,16 @@ export async function insertContent(
       orderIndex: firstOrder + at + i,
     }));
     const got = await tx.insert(people).values(rows).$returningId();
-    ids.push(...got.map((g) => g.id));
+    firstId ??= got[0]?.id;
   }
+  if (firstId !== undefined) ids.push(...(await newIdsByKey(tx, roomId, firstId, folk)));
   for (let at = 0; at < links.length; at += CHUNK) {
-    const rows = links
-      .slice(at, at + CHUNK)
-      .map((t) => ({ roomId, sourceId: ids[t.source], targetId: ids[t.target], strength: t.strength }));
+    const rows = links.slice(at, at + CHUNK).map((t) => ({
+      roomId,
+      sourceId: itemAt(ids, t.source, 'tie source person'),
+      targetId: itemAt(ids, t.target, 'tie target person'),
+      strength: t.strength,
+    }));
     await tx.insert(ties).values(rows);
   }
   return ids;
@@ -167,15 +173,15 @@ export async function maxOrder(tx: Q, roomId: number): Promise<number> {
 }
 
 export async function countContent(tx: Q, roomId: number): Promise<{ people: number; ties: number }> {
-  const [p] = await tx
+  const p = await tx
     .select({ n: sql<number>`COUNT(*)` })
     .from(people)
     .where(eq(people.roomId, roomId));
-  const [t] = await tx
+  const t = await tx
     .select({ n: sql<number>`COUNT(*)` })
     .from(ties)
     .where(eq(ties.roomId, roomId));
-  return { people: Number(p.n), ties: Number(t.n) };
+  return { people: Number(firstOf(p, 'people count').n), ties: Number(firstOf(t, 'tie count').n) };
 }
 
 // ---- lists ----
@@ -211,10 +217,11 @@ export async function listRooms(userId: number, p: ListParams<string> & { scope:
   const tieCount = sql<number>`(SELECT COUNT(*) FROM ${ties} WHERE ${ties.roomId} = ${rooms.id})`;
   const order = p.direction === 'desc' ? desc : asc;
   const sortBy = { name: rooms.name, updatedAt: rooms.updatedAt, people: peopleCount, ties: tieCount }[p.sort] ?? rooms.updatedAt;
-  const [{ total }] = await db
+  const counted = await db
     .select({ total: sql<number>`COUNT(*)` })
     .from(rooms)
     .where(where);
+  const { total } = firstOf(counted, 'room count');
   const rows = await db
     .select({
       room: rooms,
@@ -261,10 +268,11 @@ export async function listPeople(roomId: number, p: ListParams<string> & { group
   const sortBy = { order: people.orderIndex, name: people.name, key: people.personKey, group: people.groupName, email: people.email }[
     p.sort
   ];
-  const [{ total }] = await db
+  const counted = await db
     .select({ total: sql<number>`COUNT(*)` })
     .from(people)
     .where(where);
+  const { total } = firstOf(counted, 'people count');
   const items = await db
     .select(personColumns)
     .from(people)
@@ -287,12 +295,13 @@ export async function listTies(roomId: number, p: ListParams<string> & { personI
   const where = and(...filters);
   const order = p.direction === 'desc' ? desc : asc;
   const sortBy = { source: s.name, target: t.name, strength: ties.strength }[p.sort] ?? s.name;
-  const [{ total }] = await db
+  const counted = await db
     .select({ total: sql<number>`COUNT(*)` })
     .from(ties)
     .innerJoin(s, eq(s.id, ties.sourceId))
     .innerJoin(t, eq(t.id, ties.targetId))
     .where(where);
+  const { total } = firstOf(counted, 'tie count');
   const items = await db
     .select({
       id: ties.id,
@@ -348,15 +357,41 @@ export async function insertTieRows(
   roomId: number,
   links: { sourceId: number; targetId: number; strength: number }[],
 ): Promise<number[]> {
-  const ids: number[] = [];
+  let firstId: number | undefined;
   for (let at = 0; at < links.length; at += CHUNK) {
     const got = await tx
       .insert(ties)
       .values(links.slice(at, at + CHUNK).map((l) => ({ roomId, ...l })))
       .$returningId();
-    ids.push(...got.map((g) => g.id));
+    firstId ??= got[0]?.id;
   }
-  return ids;
+  if (firstId === undefined) return [];
+  const rows = await tx
+    .select({ id: ties.id, sourceId: ties.sourceId, targetId: ties.targetId })
+    .from(ties)
+    .where(and(eq(ties.roomId, roomId), gte(ties.id, firstId)));
+  const byPair = new Map(rows.map((r) => [`${r.sourceId}:${r.targetId}`, r.id]));
+  return links.map((l) => idOrThrow(byPair.get(`${l.sourceId}:${l.targetId}`), 'tie'));
+}
+
+/*
+ * The ids of rows just inserted are read back by their natural key, not counted up from the
+ * first one: a multi-row insert's ids are consecutive only where auto_increment_increment is 1,
+ * and a Galera cluster sets it to the cluster size. The room's row is locked (or the room is
+ * new), so every row of the room with an id from the first new one on is one of ours.
+ */
+async function newIdsByKey(tx: Q, roomId: number, firstId: number, folk: PersonRowInput[]): Promise<number[]> {
+  const rows = await tx
+    .select({ id: people.id, key: people.personKey })
+    .from(people)
+    .where(and(eq(people.roomId, roomId), gte(people.id, firstId)));
+  const byKey = new Map(rows.map((r) => [r.key, r.id]));
+  return folk.map((p) => idOrThrow(byKey.get(p.key), 'person'));
+}
+
+function idOrThrow(id: number | undefined, what: string): number {
+  if (id === undefined) throw new Error(`a ${what} just inserted was not found again`);
+  return id;
 }
 
 /** Many positions in one statement per chunk (a drag of many people is one autosave). */

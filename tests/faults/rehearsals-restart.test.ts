@@ -18,6 +18,7 @@ import { TestClient } from '../support/http-client';
 import { closeFaultTest } from './close';
 import { createAccount } from '../support/test-server';
 import { makeRoom, ringRoom, type MadeRoom } from '../server/plans-support';
+import { firstOf } from '../../shared/checked';
 
 const PORT = Number(process.env['PLANS_TEST_PORT'] ?? 4440);
 const url = `http://127.0.0.1:${PORT}`;
@@ -65,6 +66,7 @@ async function stopChild(child: Child, signal: NodeJS.Signals): Promise<void> {
 
 async function jobStatus(id: number): Promise<string> {
   const [row] = await db.select({ status: jobs.status }).from(jobs).where(eq(jobs.id, id));
+  assert.ok(row, `job ${id} has no row`);
   return row.status;
 }
 
@@ -145,7 +147,7 @@ describe('rehearsals across process deaths', () => {
   it('kill -9 mid-rehearsal: the next process resumes it and stores the undisturbed numbers', async () => {
     const { rehearsalId, jobId } = await start('kill-9');
     await waitForStatus(jobId, (s, progress) => s === 'running' && progress > 0);
-    await stopChild(children[0], 'SIGKILL');
+    await stopChild(firstOf(children, 'started servers'), 'SIGKILL');
     assert.equal(await jobStatus(jobId), 'running', 'the killed process could not end its job');
     children.push(await startChild());
     await waitForStatus(jobId, (s) => s !== 'queued' && s !== 'running');

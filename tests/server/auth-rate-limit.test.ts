@@ -1,8 +1,6 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
-import { spawn } from 'node:child_process';
 import { randomBytes, randomInt } from 'node:crypto';
-import { createServer as createNetServer, type AddressInfo } from 'node:net';
 
 // Own process (node --test isolates files): low limits, and trust proxy so that each test
 // can speak from an address of its own through X-Forwarded-For.
@@ -16,6 +14,7 @@ process.env['RATE_LIMIT_LINK_PER_15MIN'] = '3';
 process.env['RATE_LIMIT_SCOPE'] = `rate-limit-test-${process.pid}`;
 const { createAccount, startTestServer } = await import('../support/test-server');
 const { TestClient } = await import('../support/http-client');
+const { startWebProcess } = await import('../support/web-process');
 const { lastMailId, mailsTo, waitForMail } = await import('./mail-support');
 const { issueToken } = await import('../../server/auth/tokens');
 const { db } = await import('../../server/db');
@@ -140,40 +139,3 @@ describe('rate limits on sign-in and password reset', () => {
     }
   });
 });
-
-/** A second web process (a real child, WEB_ONLY) on a free port, on the same MariaDB and Redis. */
-async function startWebProcess(): Promise<{ url: string; stop(): Promise<void> }> {
-  const port = await new Promise<number>((resolve) => {
-    const probe = createNetServer().listen(0, '127.0.0.1', () => {
-      const p = (probe.address() as AddressInfo).port;
-      probe.close(() => resolve(p));
-    });
-  });
-  // Not a test process: it must not inherit the test runner's context.
-  const { NODE_TEST_CONTEXT: _context, ...env } = process.env;
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
-    env: { ...env, PORT: String(port), HOST: '127.0.0.1', WEB_ONLY: 'true', LOG_LEVEL: 'warn' },
-    stdio: ['ignore', 'ignore', 'pipe'],
-  });
-  let stderr = '';
-  child.stderr.on('data', (d: Buffer) => (stderr += d.toString()));
-  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
-  const url = `http://127.0.0.1:${port}`;
-  for (let i = 0; ; i++) {
-    if (child.exitCode !== null) throw new Error(`the second web process exited: ${stderr}`);
-    const up = await fetch(`${url}/api/health`).then(
-      (r) => r.ok,
-      () => false,
-    );
-    if (up) break;
-    if (i > 600) throw new Error(`the second web process did not start in 60 s: ${stderr}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
-  return {
-    url,
-    stop: async () => {
-      child.kill('SIGTERM');
-      await exited;
-    },
-  };
-}
