@@ -258,8 +258,7 @@ export class BranchSearch {
           this.meter.close(part);
           continue;
         }
-        // Big pieces also carry their own dual bound, so the pieces are searched in the order of
-        // the stronger bound and the pending bound of a stopped search rises with the share closed.
+        // Big pieces also carry their own dual bound (and are searched in the order of the stronger bound).
         let bound = Math.max(lv.childLb[p], root.bound);
         if (r - 1 >= DUAL_R && part >= DUAL_MIN) {
           const piece = this.levels[1].state;
@@ -344,12 +343,9 @@ export class BranchSearch {
       this.meter.close(this.sets(m, r));
       return;
     }
-    // A child's sets are the node's sets, so the node's bound holds for them too: the pending
-    // bound of a stopped search is then never below the bound of the piece being searched.
-    for (let p = 0; p <= m; p++) {
-      if (lv.childLb[p] < inherited && p < m) lv.childLb[p] = inherited;
-      if (lv.suffixMin[p] < inherited) lv.suffixMin[p] = inherited;
-    }
+    // A child's sets are the node's sets, so the node's bound holds for them too (inherited bound).
+    for (let p = 0; p < m; p++) lv.childLb[p] = Math.max(lv.childLb[p], inherited);
+    for (let p = 0; p < m; p++) lv.suffixMin[p] = Math.max(lv.suffixMin[p], inherited);
     lv.size = m;
     for (let p = 0; p < m; p++) {
       lv.at = p;
