@@ -12,6 +12,7 @@ import type { SimTask } from '../../shared/engine/simulate/pool';
 import { prepareRoom } from '../../shared/engine/room';
 import type { PlanSearchProgress } from '../../shared/api/plans';
 import { config } from '../config';
+import { JobFailure } from './handlers';
 import type { PlanPoolResult, PlanPoolTask } from './plan-worker';
 
 let planPool: Piscina | undefined;
@@ -80,7 +81,8 @@ export async function runInPlanPool(task: PlanPoolTask, control: PlanRunControl)
   let grace: ReturnType<typeof setTimeout> | undefined;
   const onStopEarly = () => {
     if (stopFlag) Atomics.store(new Int32Array(stopFlag), 0, 1);
-    grace ??= setTimeout(() => stop.abort(new Error('The stopped search did not hand back its plan in time.')), STOP_GRACE_MS);
+    const late = new JobFailure(`The search was asked to stop but did not hand back its plan within ${STOP_GRACE_MS / 1000} s.`);
+    grace ??= setTimeout(() => stop.abort(late), STOP_GRACE_MS);
   };
   if (control.stopEarly?.aborted) onStopEarly();
   else control.stopEarly?.addEventListener('abort', onStopEarly, { once: true });
@@ -90,7 +92,8 @@ export async function runInPlanPool(task: PlanPoolTask, control: PlanRunControl)
     const payload = { ...task, ...(stopFlag ? { stopFlag } : {}), ...(channel ? { port: channel.port2 } : {}) };
     return (await plans().run(payload, { signal: stop.signal, transferList: channel ? [channel.port2] : [] })) as PlanPoolResult;
   } catch (e) {
-    if (stop.signal.aborted && stop.signal.reason instanceof TimeLimitError) throw stop.signal.reason;
+    if (stop.signal.aborted && (stop.signal.reason instanceof TimeLimitError || stop.signal.reason instanceof JobFailure))
+      throw stop.signal.reason;
     throw e;
   } finally {
     clearTimeout(timer);
