@@ -1,7 +1,7 @@
 /**
  * Job events and cancel signals between processes, over Redis pub/sub: any worker publishes, every
- * web process hears and feeds its SSE streams; a cancel asked in any web process reaches the
- * worker running the job. In-process listeners subscribe by job id. Redis being down loses live
+ * web process hears and feeds its SSE streams; a cancel (or a stop that keeps the best result)
+ * asked in any web process reaches the worker running the job. In-process listeners subscribe by job id. Redis being down loses live
  * events only (the job row in MariaDB stays the truth; a stream opened later starts from it).
  */
 import { EventEmitter } from 'node:events';
@@ -12,6 +12,7 @@ import { newRedis, QUEUE_PREFIX } from './redis';
 
 const EVENTS = `${QUEUE_PREFIX}:job-events`;
 const CANCELS = `${QUEUE_PREFIX}:job-cancels`;
+const STOPS = `${QUEUE_PREFIX}:job-stops`;
 
 const local = new EventEmitter();
 local.setMaxListeners(0);
@@ -33,12 +34,13 @@ export function startEvents(): void {
         const event = JSON.parse(text) as JobEvent;
         local.emit(`job:${event.job.id}`, event);
       } else if (channel === CANCELS) local.emit('cancel', Number(text));
+      else if (channel === STOPS) local.emit('stop', Number(text));
     } catch (err) {
       logger.warn({ err }, 'unreadable job event');
     }
   });
   // ioredis subscribes again after every reconnect.
-  void sub.subscribe(EVENTS, CANCELS).catch((err: unknown) => logger.warn({ err }, 'subscribing to job events failed'));
+  void sub.subscribe(EVENTS, CANCELS, STOPS).catch((err: unknown) => logger.warn({ err }, 'subscribing to job events failed'));
 }
 
 export function publishJobEvent(event: JobEvent): void {
@@ -63,6 +65,19 @@ export function onCancel(listener: (jobId: number) => void): () => void {
   startEvents();
   local.on('cancel', listener);
   return () => local.off('cancel', listener);
+}
+
+/** Asks the worker running the job to stop early and keep its best result (plan searches). */
+export function publishStop(jobId: number): void {
+  publisher()
+    .publish(STOPS, String(jobId))
+    .catch((err: unknown) => logger.warn({ err, jobId }, 'publishing a stop failed'));
+}
+
+export function onStop(listener: (jobId: number) => void): () => void {
+  startEvents();
+  local.on('stop', listener);
+  return () => local.off('stop', listener);
 }
 
 export async function closeEvents(): Promise<void> {

@@ -13,6 +13,8 @@ export type EndStatus = 'failed' | 'cancelled' | 'interrupted';
 
 export interface JobContext {
   readonly signal: AbortSignal;
+  /** Raised when the user asks a running job to stop and keep what it has (plan searches). */
+  readonly stopEarly: AbortSignal;
   /** `extra` rides along on the progress event (a plan search's `search` report). */
   progress(fraction: number, done?: number, of?: number, extra?: Pick<JobEvent, 'search'>): void;
 }

@@ -1,4 +1,7 @@
-/** Piscina worker of the plan pool: planners, hand-made scoring and k-sweeps off the request thread. */
+/**
+ * Piscina worker of the plan pool: planners (their branch and bound on worker threads of its own),
+ * hand-made scoring and k-sweeps off the request thread.
+ */
 import type { MessagePort } from 'node:worker_threads';
 import {
   asFailure,
@@ -15,11 +18,11 @@ import type { KSweepResult } from '../../shared/api/plans';
 export type PlanPoolTask = (PlannerTask | HandMadeTask | SweepTask) & { port?: MessagePort };
 export type PlanPoolResult = ComputeOutcome<PlanComputation> | ComputeOutcome<KSweepResult>;
 
-export default function runPlanTask(task: PlanPoolTask): PlanPoolResult {
+export default async function runPlanTask(task: PlanPoolTask): Promise<PlanPoolResult> {
   try {
     switch (task.kind) {
       case 'planner':
-        return { ok: runPlanner(task, (fraction, search) => task.port?.postMessage({ fraction, search })) };
+        return { ok: await runPlanner(task, (fraction, search) => task.port?.postMessage({ fraction, search })) };
       case 'hand-made':
         return scoreHandMade(task);
       default:

@@ -12,6 +12,7 @@ import type { SimTask } from '../../shared/engine/simulate/pool';
 import { prepareRoom } from '../../shared/engine/room';
 import type { PlanSearchProgress } from '../../shared/api/plans';
 import { config } from '../config';
+import { JobFailure } from './handlers';
 import type { PlanPoolResult, PlanPoolTask } from './plan-worker';
 
 let planPool: Piscina | undefined;
@@ -52,12 +53,22 @@ export class TimeLimitError extends Error {
 }
 
 export interface PlanRunControl {
+  /** Cancel: the worker thread is ended and nothing is returned. */
   signal?: AbortSignal;
+  /**
+   * Stop early: a running search returns the best plan found so far with its proven gap (the
+   * engine checks the flag between search steps); a task that has not returned STOP_GRACE_MS
+   * later is ended as on cancel.
+   */
+  stopEarly?: AbortSignal;
   /** Hard stop (the worker thread is ended), in ms. */
   hardLimitMs: number;
   /** `search`: what a plan search has found and proven so far (plan tasks only). */
   onProgress?: (fraction: number, search?: PlanSearchProgress) => void;
 }
+
+/** How long a stopped search may take to hand back its best plan before its thread is ended. */
+export const STOP_GRACE_MS = 10_000;
 
 /** Runs one task in the plan pool; a cancel or the hard time limit ends the worker thread. */
 export async function runInPlanPool(task: PlanPoolTask, control: PlanRunControl): Promise<PlanPoolResult> {
@@ -66,17 +77,29 @@ export async function runInPlanPool(task: PlanPoolTask, control: PlanRunControl)
   const timer = setTimeout(() => stop.abort(new TimeLimitError(Math.round(control.hardLimitMs / 1000))), control.hardLimitMs);
   const onCancel = () => stop.abort(control.signal?.reason);
   control.signal?.addEventListener('abort', onCancel, { once: true });
+  const stopFlag = task.kind === 'planner' ? new SharedArrayBuffer(4) : undefined;
+  let grace: ReturnType<typeof setTimeout> | undefined;
+  const onStopEarly = () => {
+    if (stopFlag) Atomics.store(new Int32Array(stopFlag), 0, 1);
+    const late = new JobFailure(`The search was asked to stop but did not hand back its plan within ${STOP_GRACE_MS / 1000} s.`);
+    grace ??= setTimeout(() => stop.abort(late), STOP_GRACE_MS);
+  };
+  if (control.stopEarly?.aborted) onStopEarly();
+  else control.stopEarly?.addEventListener('abort', onStopEarly, { once: true });
   const channel = control.onProgress ? new MessageChannel() : undefined;
   channel?.port1.on('message', (m: { fraction: number; search?: PlanSearchProgress }) => control.onProgress?.(m.fraction, m.search));
   try {
-    const payload = channel ? { ...task, port: channel.port2 } : task;
+    const payload = { ...task, ...(stopFlag ? { stopFlag } : {}), ...(channel ? { port: channel.port2 } : {}) };
     return (await plans().run(payload, { signal: stop.signal, transferList: channel ? [channel.port2] : [] })) as PlanPoolResult;
   } catch (e) {
-    if (stop.signal.aborted && stop.signal.reason instanceof TimeLimitError) throw stop.signal.reason;
+    if (stop.signal.aborted && (stop.signal.reason instanceof TimeLimitError || stop.signal.reason instanceof JobFailure))
+      throw stop.signal.reason;
     throw e;
   } finally {
     clearTimeout(timer);
+    clearTimeout(grace);
     control.signal?.removeEventListener('abort', onCancel);
+    control.stopEarly?.removeEventListener('abort', onStopEarly);
     channel?.port1.close();
   }
 }

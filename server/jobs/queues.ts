@@ -6,7 +6,7 @@
 import { Job, Queue, type ConnectionOptions, type JobsOptions } from 'bullmq';
 import { config, redisUrl } from '../config';
 import { logger } from '../core/logging';
-import { publishCancel } from './events';
+import { publishCancel, publishStop } from './events';
 import { emitJob, endOpenJob } from './lifecycle';
 import { findJob, openJobsOf, type JobRow } from './store';
 import { QUEUE_PREFIX, redisOptions, watchConnection, within } from './redis';
@@ -90,6 +90,15 @@ export async function wakeUser(userId: number): Promise<void> {
   } catch (err) {
     logger.warn({ err: (err as Error).message, userId }, 'moving waiting jobs up failed; they start on their next check');
   }
+}
+
+/**
+ * A running plan stops its search and ends as usual with the best plan found so far (its warning
+ * says it was stopped, with the proven gap); anything else is cancelled.
+ */
+export async function stopJobEarly(row: JobRow): Promise<void> {
+  if (row.kind !== 'plan' || row.status !== 'running') return cancelJob(row);
+  publishStop(row.id);
 }
 
 export async function cancelJob(row: JobRow): Promise<void> {

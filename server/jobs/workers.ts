@@ -10,7 +10,7 @@
 import { DelayedError, UnrecoverableError, WaitingChildrenError, Worker, type Job } from 'bullmq';
 import { config } from '../config';
 import { logger } from '../core/logging';
-import { onCancel } from './events';
+import { onCancel, onStop } from './events';
 import { handlerOf, isChunked, JobFailure, type ChunkedJobHandler, type JobHandler } from './handlers';
 import { emitJob, endOpenJob, finishJob, withDbRetry } from './lifecycle';
 import { CHUNKS_QUEUE, chunkId, connection, entryOptions, JOBS_QUEUE, queue, wakeUser, type ChunkData, type JobData } from './queues';
@@ -24,8 +24,11 @@ const PUT_OFF_MS = 2000;
 const SHUTDOWN = 'shutdown';
 
 const running = new Map<number, Set<AbortController>>();
+/** Stop-early controllers of the whole jobs running here. */
+const stops = new Map<number, AbortController>();
 const workers: Worker[] = [];
 let stopCancels: (() => void) | undefined;
+let stopStops: (() => void) | undefined;
 let stopping = false;
 
 function track(jobId: number): AbortController {
@@ -64,12 +67,15 @@ async function processJob(bull: Job<JobData>, token?: string): Promise<unknown> 
 
 async function runWhole(bull: Job<JobData>, token: string | undefined, row: JobRow, handler: JobHandler): Promise<unknown> {
   const control = track(row.id);
+  const early = new AbortController();
+  stops.set(row.id, early);
   let lastEmit = 0;
   let lastWrite = 0;
   let progress = row.progress;
   try {
     const commit = await handler.run(row, {
       signal: control.signal,
+      stopEarly: early.signal,
       progress: (fraction, done, of, extra) => {
         if (control.signal.aborted) return;
         progress = Math.max(progress, Math.min(1, Math.max(0, fraction)));
@@ -92,6 +98,7 @@ async function runWhole(bull: Job<JobData>, token: string | undefined, row: JobR
     return failOrRetry(row, err);
   } finally {
     untrack(row.id, control);
+    if (stops.get(row.id) === early) stops.delete(row.id);
   }
 }
 
@@ -232,6 +239,7 @@ export function startWorkers(): void {
   stopCancels = onCancel((jobId) => {
     for (const c of running.get(jobId) ?? []) c.abort('cancelled');
   });
+  stopStops = onStop((jobId) => stops.get(jobId)?.abort('stop'));
   workers.push(makeWorker<JobData>(JOBS_QUEUE, processJob, config.WORKERS * 2));
   workers.push(makeWorker<ChunkData>(CHUNKS_QUEUE, processChunk, config.WORKERS));
   startReconciler();
@@ -242,6 +250,7 @@ export async function stopWorkers(): Promise<void> {
   stopping = true;
   stopReconciler();
   stopCancels?.();
+  stopStops?.();
   for (const set of running.values()) for (const c of set) c.abort(SHUTDOWN);
   const all = workers.splice(0);
   await Promise.all(all.map((w) => w.close().catch((err: unknown) => logger.warn({ err }, 'closing a worker failed'))));

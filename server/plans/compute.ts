@@ -11,11 +11,13 @@ import {
   prepareRoom,
   reachCurve,
   type PlanMethodChoice,
+  type PlanOptions,
   type PlanProgress,
   type PlanResult,
   type PreparedRoom,
   type RoomGraph,
 } from '../../shared/engine/index';
+import { planWithWorkers } from '../../shared/engine/parallel/index';
 import type { PlanSearchProgress, PlanSettingsSnapshot, ReachQuantileDto } from '../../shared/api/plans';
 
 export interface RoomSnapshot {
@@ -39,6 +41,13 @@ export interface PlannerTask {
   exclude: number[];
   /** Chance (0..0.5) that a starter does not show up. */
   noShow?: number;
+  /** Threads for the branch and bound of exhaustive and auto plans (default 2). */
+  threads?: number;
+  /**
+   * A one-element Int32Array view of this buffer set to 1 asks a running search to stop and
+   * return the best plan found so far with its proven gap (stopped early).
+   */
+  stopFlag?: SharedArrayBuffer;
 }
 
 export interface HandMadeTask {
@@ -172,12 +181,20 @@ export function curveFor(room: PreparedRoom, starters: readonly number[], minute
   };
 }
 
-export function runPlanner(task: PlannerTask, onProgress?: (fraction: number, search: PlanSearchProgress) => void): PlanComputation {
+/**
+ * The planner on the task's snapshot. The branch and bound runs on `task.threads` threads
+ * (planWithWorkers); a raised stop flag ends it with the best plan found so far.
+ */
+export async function runPlanner(
+  task: PlannerTask,
+  onProgress?: (fraction: number, search: PlanSearchProgress) => void,
+): Promise<PlanComputation> {
   const room = prepared(task.snapshot);
   const started = performance.now();
   const limitMs = task.timeLimitMs ?? 10_000;
+  const flag = task.stopFlag ? new Int32Array(task.stopFlag) : null;
   let last = 0;
-  const r = plan(room, {
+  const options: PlanOptions = {
     k: task.k,
     method: task.method,
     ...(task.nu !== undefined ? { nu: task.nu } : {}),
@@ -200,7 +217,10 @@ export function runPlanner(task: PlannerTask, onProgress?: (fraction: number, se
         onProgress?.(f, search);
       }
     },
-  });
+    ...(flag ? { shouldStop: () => Atomics.load(flag, 0) === 1 } : {}),
+  };
+  const threads = task.threads ?? 2;
+  const r = threads > 1 ? await planWithWorkers(room, options, threads) : plan(room, options);
   const reach = exactReach(room, r.starters);
   return {
     methodUsed: r.method,

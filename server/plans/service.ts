@@ -201,6 +201,7 @@ export const planJobHandler: JobHandler = {
     const snapshot = parseSnapshot(row);
     const outcome = (await runInPlanPool(plannerTask(snapshot, row), {
       signal: ctx.signal,
+      stopEarly: ctx.stopEarly,
       hardLimitMs: hardLimitMs(row.timeLimitSeconds),
       onProgress: (f, search) => ctx.progress(f, undefined, undefined, search ? { search } : undefined),
     })) as ComputeOutcome<PlanComputation>;

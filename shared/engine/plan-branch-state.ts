@@ -99,23 +99,30 @@ export class CandState {
    * Bound 4 of docs/bounds.md for every set S ∪ B, B an r-subset of the candidates: with Y the
    * greedy r-completion of S within the candidates, F(S ∪ B) >= F(S ∪ B ∪ Y) >= F(S ∪ Y) - (sum of
    * the r largest gains at S ∪ Y) (monotonicity, then the completion lemma). Strong when r is
-   * large, where the plain top-r sum at S is weak. O(r m^2) using `scratch`.
+   * large, where the plain top-r sum at S is weak. The greedy steps keep N as N_CC minus r
+   * rank-one terms (identity 1 applied once per step: N'_ab = N_ab - u_a v_b with u = N_·x / N_xx,
+   * v = N_x·), so only the diagonal, h, c and one column and row per step are formed:
+   * O(m r^2) using `scratch`'s buffers, instead of O(r m^2).
    */
   dualBound(r: number, scratch: CandState, picked: Uint8Array): number {
     const m = this.m;
-    scratch.m = m;
-    scratch.F = this.F;
-    scratch.N.set(this.N.subarray(0, m * m));
-    scratch.h.set(this.h.subarray(0, m));
-    scratch.c.set(this.c.subarray(0, m));
+    const N = this.N;
+    const { h, c } = scratch;
+    const store = scratch.lowRankBuf(2 * r * m); // u_s at [2 s m, ..), v_s at [(2 s + 1) m, ..)
+    const d = scratch.diagBuf(m);
+    for (let a = 0; a < m; a++) {
+      h[a] = this.h[a];
+      c[a] = this.c[a];
+      d[a] = N[a * m + a];
+    }
     picked.fill(0, 0, m);
-    const { N, h, c } = scratch;
+    let F = this.F;
     for (let step = 0; step < r; step++) {
       let x = -1;
       let gx = -Infinity;
       for (let q = 0; q < m; q++) {
         if (picked[q]) continue;
-        const g = (h[q] * c[q]) / N[q * m + q];
+        const g = (h[q] * c[q]) / d[q];
         if (g > gx) {
           gx = g;
           x = q;
@@ -123,27 +130,44 @@ export class CandState {
       }
       if (x < 0) return -Infinity;
       picked[x] = 1;
-      scratch.F -= Math.max(0, gx);
+      F -= Math.max(0, gx);
+      const uo = 2 * step * m;
+      const vo = uo + m;
+      // Column and row of x in the current N: the original entries minus the earlier rank-one terms.
       const rx = x * m;
-      const nxx = N[rx + x];
+      for (let a = 0; a < m; a++) {
+        store[uo + a] = N[a * m + x];
+        store[vo + a] = N[rx + a];
+      }
+      for (let s = 0; s < step; s++) {
+        const us = 2 * s * m;
+        const vs = us + m;
+        const ux = store[us + x];
+        const vx = store[vs + x];
+        for (let a = 0; a < m; a++) {
+          store[uo + a] -= store[us + a] * vx;
+          store[vo + a] -= ux * store[vs + a];
+        }
+      }
+      const nxx = d[x];
       const hx = h[x];
       const cx = c[x];
       for (let a = 0; a < m; a++) {
+        const ua = store[uo + a] / nxx;
+        store[uo + a] = ua;
         if (picked[a]) continue;
-        const fa = N[a * m + x] / nxx;
-        if (fa !== 0) {
-          const ra = a * m;
-          for (let b = 0; b < m; b++) N[ra + b] -= fa * N[rx + b];
-        }
-        h[a] -= fa * hx;
+        const va = store[vo + a];
+        d[a] -= ua * va;
+        h[a] -= ua * hx;
+        c[a] -= (cx * va) / nxx;
       }
-      for (let b = 0; b < m; b++) if (!picked[b]) c[b] -= (cx * N[rx + b]) / nxx;
     }
     // The r largest gains at S ∪ Y among the others (people of Y gain nothing).
-    const top = new Float64Array(r);
+    const top = scratch.topBuf(r);
+    top.fill(0);
     for (let q = 0; q < m; q++) {
       if (picked[q]) continue;
-      const g = Math.max(0, (h[q] * c[q]) / N[q * m + q]);
+      const g = Math.max(0, (h[q] * c[q]) / d[q]);
       if (g <= top[r - 1]) continue;
       let at = r - 1;
       while (at > 0 && top[at - 1] < g) {
@@ -154,6 +178,26 @@ export class CandState {
     }
     let sum = 0;
     for (let q = 0; q < r; q++) sum += top[q];
-    return scratch.F - sum;
+    return F - sum;
+  }
+
+  private diag?: Float64Array;
+  private top?: Float64Array;
+
+  private lowRank?: Float64Array;
+
+  lowRankBuf(size: number): Float64Array {
+    if (!this.lowRank || this.lowRank.length < size) this.lowRank = new Float64Array(Math.max(size, 2 * this.ids.length));
+    return this.lowRank;
+  }
+
+  diagBuf(m: number): Float64Array {
+    if (!this.diag || this.diag.length < m) this.diag = new Float64Array(this.ids.length);
+    return this.diag;
+  }
+
+  topBuf(r: number): Float64Array {
+    if (!this.top || this.top.length < r) this.top = new Float64Array(Math.max(r, 16));
+    return this.top.subarray(0, r);
   }
 }

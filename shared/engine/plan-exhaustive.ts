@@ -40,8 +40,13 @@ export interface ExhaustiveOutcome {
 
 /** Rooms up to this size are split into two-starter pieces before the search (memory O(n^3)). */
 const SPLIT_LIMIT = 150;
-/** Nodes with at least this many k-sets below them also get the dual bound (O(r m^2)). */
+/**
+ * Nodes with at least DUAL_R starters still to add and DUAL_MIN k-sets below them also get the
+ * dual bound (O(m r^2)). Measured on 60-person six-group rooms at k = 9, 10: at r = 4 and 5 it
+ * pruned almost nothing and cost 30-40 % of the search time; from r = 6 it pays for itself.
+ */
 const DUAL_MIN = 5000;
+const DUAL_R = 6;
 
 export interface Incumbent {
   readonly starters: readonly number[];
@@ -70,8 +75,11 @@ export function exhaustiveSearch(ctx: PlanContext, incumbent: Incumbent): Exhaus
 export class BranchSearch {
   private readonly k: number;
   private readonly scale: number;
+  /** Pruning threshold: the best raw total known to this thread, its own or another thread's (link). */
   private best: number;
+  /** This thread's best set and its raw total (never another thread's total: the two must match). */
   private bestSet: number[];
+  private ownBest: number;
   readonly floor: number;
   private readonly levels: Level[] = [];
   private readonly binom: Float64Array[];
@@ -92,6 +100,7 @@ export class BranchSearch {
     this.k = ctx.k;
     this.scale = incumbent.scale;
     this.best = incumbent.rawTotal;
+    this.ownBest = incumbent.rawTotal;
     this.bestSet = [...incumbent.starters];
     this.floor = n - ctx.k; // raw hops: every non-starter needs at least one (identity 6)
     this.binom = binomialTable(n, ctx.k);
@@ -132,6 +141,7 @@ export class BranchSearch {
   leaf(total: number, set: () => number[]): void {
     if (total < this.best - 1e-12 * Math.abs(this.best)) {
       this.best = total;
+      this.ownBest = total;
       this.bestSet = set();
       this.link?.offer(total);
     }
@@ -187,7 +197,7 @@ export class BranchSearch {
     const lowerRaw = complete ? this.best : Math.min(this.best, this.pendingBound());
     this.meter.finish();
     return {
-      state: { starters: this.bestSet, total: this.best * this.scale },
+      state: { starters: this.bestSet, total: this.ownBest * this.scale },
       complete,
       stopped: this.meter.stopped,
       nodes: this.meter.nodes,
@@ -248,9 +258,20 @@ export class BranchSearch {
           this.meter.close(part);
           continue;
         }
+        // Big pieces also carry their own dual bound (and are searched in the order of the stronger bound).
+        let bound = Math.max(lv.childLb[p], root.bound);
+        if (r - 1 >= DUAL_R && part >= DUAL_MIN) {
+          const piece = this.levels[1].state;
+          s.childInto(piece, lv.order[p], lv.gain[p], lv.order, p + 1, s.m);
+          bound = Math.max(bound, piece.dualBound(r - 1, this.scratch, this.picked));
+          if (this.pruneAt(Math.max(this.floor, bound))) {
+            this.meter.close(part);
+            continue;
+          }
+        }
         const cand = new Int32Array(s.m - p - 1);
         for (let q = p + 1; q < s.m; q++) cand[q - p - 1] = s.ids[lv.order[q]];
-        out.push({ set: [...root.set, s.ids[lv.order[p]]], cand, bound: lv.childLb[p] });
+        out.push({ set: [...root.set, s.ids[lv.order[p]]], cand, bound });
       }
     }
     return out;
@@ -273,7 +294,7 @@ export class BranchSearch {
       this.meter.close(1);
       return;
     }
-    this.node(this.levels[0].state.load(s, root.cand), r, 0);
+    this.node(this.levels[0].state.load(s, root.cand), r, 0, root.bound);
   }
 
   /** Smallest bound over everything not yet decided (raw): pending roots and pending children on the stack. */
@@ -306,7 +327,8 @@ export class BranchSearch {
     }
   }
 
-  private node(s: CandState, r: number, depth: number): void {
+  /** `inherited`: a proven bound on every set below this node (its own bound as a child). */
+  private node(s: CandState, r: number, depth: number, inherited: number): void {
     if (this.meter.tick()) return;
     if ((this.meter.nodes & 255) === 0) this.sync();
     const lv = this.levels[depth];
@@ -321,6 +343,9 @@ export class BranchSearch {
       this.meter.close(this.sets(m, r));
       return;
     }
+    // A child's sets are the node's sets, so the node's bound holds for them too (inherited bound).
+    for (let p = 0; p < m; p++) lv.childLb[p] = Math.max(lv.childLb[p], inherited);
+    for (let p = 0; p < m; p++) lv.suffixMin[p] = Math.max(lv.suffixMin[p], inherited);
     lv.size = m;
     for (let p = 0; p < m; p++) {
       lv.at = p;
@@ -336,7 +361,7 @@ export class BranchSearch {
       else {
         const next = this.levels[depth + 1];
         s.childInto(next.state, lv.order[p], lv.gain[p], lv.order, p + 1, m);
-        this.node(next.state, r - 1, depth + 1);
+        this.node(next.state, r - 1, depth + 1, lv.childLb[p]);
         next.size = 0;
         if (this.meter.halted) return;
         continue;
@@ -364,7 +389,7 @@ export class BranchSearch {
    */
   private nodeBounds(s: CandState, lv: Level, r: number): boolean {
     childBounds(s, lv, r, this.buf, this);
-    if (r < 4 || this.sets(s.m, r) < DUAL_MIN) return true;
+    if (r < DUAL_R || this.sets(s.m, r) < DUAL_MIN) return true;
     const dual = s.dualBound(r, this.scratch, this.picked);
     if (this.pruneAt(Math.max(this.floor, dual))) return false;
     const m = s.m;

@@ -58,6 +58,54 @@ describe('lower bounds never exceed the brute-force optimum (property-based, see
   });
 });
 
+describe('dual bound of a search node (bound 4 of docs/bounds.md, property-based, seeded)', () => {
+  // Source of the device: Minoux, "Accelerated greedy algorithms for maximizing submodular set
+  // functions" (1978), and Nemhauser, Wolsey & Fisher, "An analysis of approximations for
+  // maximizing submodular set functions" (1978): F(X) - top_r gains at X bounds every set near X.
+  it('never exceeds the best completion S ∪ B over all r-subsets B of the candidates, and equals F(S ∪ Y) - top_r gains', async () => {
+    const { AbsorbingState, prepareRoom } = await import('../../shared/engine/index');
+    const { CandState } = await import('../../shared/engine/plan-branch-state');
+    const arb = fc.record({
+      n: fc.integer({ min: 6, max: 11 }),
+      extra: fc.integer({ min: 0, max: 20 }),
+      directed: fc.boolean(),
+      seed: fc.integer({ min: 1, max: 1_000_000 }),
+      s: fc.integer({ min: 1, max: 2 }),
+      r: fc.integer({ min: 1, max: 4 }),
+    });
+    fc.assert(
+      fc.property(arb, ({ n, extra, directed, seed, s, r }) => {
+        const room = prepareRoom(randomRoom(n, extra, directed, seed, true), {});
+        const set = Array.from({ length: s }, (_, q) => (q * 5 + seed) % n).filter((v, q, a) => a.indexOf(v) === q);
+        const cand = Int32Array.from(Array.from({ length: n }, (_, i) => i).filter((i) => !set.includes(i)));
+        if (cand.length < r + 1) return;
+        const full = AbsorbingState.fromStarters(room, set);
+        const node = new CandState(n).load(full, cand);
+        const dual = node.dualBound(r, new CandState(n), new Uint8Array(n));
+        let best = Infinity;
+        for (const b of kSets(cand.length, r)) best = Math.min(best, exactReach(room, [...set, ...b.map((q) => cand[q])]).total);
+        assert.ok(dual <= best + 1e-9 * best, `dual ${dual} > best completion ${best}`);
+        // Independent value: greedy r-completion Y by exact totals, then F(S ∪ Y) - top_r gains.
+        const Y = [...set];
+        for (let step = 0; step < r; step++) {
+          const totals = [...cand].filter((c) => !Y.includes(c)).map((c) => ({ c, t: exactReach(room, [...Y, c]).total }));
+          totals.sort((a, b) => a.t - b.t);
+          if (totals.length > 1 && Math.abs(totals[1].t - totals[0].t) < 1e-7 * totals[0].t) return; // a near tie: greedy may pick either
+          Y.push(totals[0].c);
+        }
+        const fy = exactReach(room, Y).total;
+        const gains = [...cand]
+          .filter((c) => !Y.includes(c))
+          .map((c) => Math.max(0, fy - exactReach(room, [...Y, c]).total))
+          .sort((a, b) => b - a);
+        const expected = fy - gains.slice(0, r).reduce((t, g) => t + g, 0);
+        assert.ok(relClose(dual, expected, 1e-8), `dual ${dual}, independent ${expected}`);
+      }),
+      { numRuns: 300, seed: 4242 },
+    );
+  });
+});
+
 describe('branch and bound (property-based, seeded)', () => {
   it('finds the optimum, certified implies lowerBound = total, never worse than widened/swap at any time limit', () => {
     fc.assert(
@@ -156,6 +204,32 @@ describe('branch and bound on worker threads', () => {
     assert.ok(relClose(one.total, two.total, 1e-9));
     assert.equal(two.lowerBound, two.total);
     for (let q = 1; q < fractions.length; q++) assert.ok(fractions[q] >= fractions[q - 1] - 1e-12);
+  });
+});
+
+describe('branch and bound sharing its best total with other threads', () => {
+  it("returns its own best set with that set's own total, even when another thread holds a lower total", async () => {
+    const { planStart } = await import('../../shared/engine/plan');
+    const { BranchSearch } = await import('../../shared/engine/plan-exhaustive');
+    for (const seed of [3, 17, 41]) {
+      const g = randomRoom(24, 30, false, seed);
+      const step = planStart(g, { k: 4, method: 'exhaustive' });
+      assert.ok(!('result' in step));
+      const best = plan(g, { k: 4, method: 'exhaustive' });
+      assert.ok(best.certified);
+      const scale = 1 / (1 - step.ctx.room.laziness);
+      // Another thread has (say) already found a total below everything this thread can reach.
+      const lower = (best.total / scale) * 0.9;
+      const link = { best: () => lower, offer: () => undefined, publish: () => undefined };
+      const incumbent = { starters: [...step.start.starters], rawTotal: step.start.rawTotal, scale };
+      const search = new BranchSearch(step.ctx, incumbent, link);
+      const items = search.prepare();
+      let next = 0;
+      search.searchItems(items, () => (next < items.length ? next++ : -1));
+      const out = search.outcome();
+      const own = exactReach(g, out.state.starters).total;
+      assert.ok(relClose(out.state.total, own, 1e-9), `seed ${seed}: reported ${out.state.total}, the set's total is ${own}`);
+    }
   });
 });
 

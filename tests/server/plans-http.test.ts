@@ -202,6 +202,36 @@ describe('plans API', () => {
     assert.ok(done.lowerBound! <= done.total! && done.gap! >= 0);
   });
 
+  it('a running search asked to stop keeps its best plan so far, marked as stopped, with its proven gap', async () => {
+    const big = await makeRoom(client, ringRoom(110, 200, 5), 'Ring 110 stop');
+    const slow = await client.post(`/api/rooms/${big.id}/plans`, { k: 9, method: 'exhaustive', timeLimitSeconds: 60 });
+    assert.equal(slow.status, 202, slow.text);
+    const jobId = slow.body.job.id;
+    const until = Date.now() + 30_000;
+    while ((await client.get(`/api/jobs/${jobId}`)).body.status !== 'running') {
+      assert.ok(Date.now() < until, 'the job never started');
+      await new Promise((res) => setTimeout(res, 50));
+    }
+    await new Promise((res) => setTimeout(res, 2500));
+    assert.equal((await client.post(`/api/jobs/${jobId}/cancel`, { keepBest: 'yes' })).status, 400);
+    const asked = Date.now();
+    const stop = await client.post(`/api/jobs/${jobId}/cancel`, { keepBest: true });
+    assert.equal(stop.status, 200, stop.text);
+    const job = await waitForJob(client, jobId);
+    assert.equal(job.status, 'done', job.message ?? '');
+    assert.ok(Date.now() - asked < 15_000, `the stopped search took ${Date.now() - asked} ms to hand back its plan`);
+    const plan = (await client.get<PlanDetail>(`/api/plans/${slow.body.plan.id}`)).body;
+    assert.equal(plan.status, 'ready');
+    assert.equal(plan.starters.length, 9);
+    assert.equal(plan.certified, false);
+    assert.equal(plan.extras?.stopped, true);
+    assert.ok(
+      plan.warnings.some((w) => /stopped after \d+ steps/.test(w)),
+      plan.warnings.join(' | '),
+    );
+    assert.ok(plan.lowerBound! <= plan.total! && plan.gap! > 0);
+  });
+
   it('briefing sheet: data, CSV safe against formula injection, PDF', async () => {
     const graph = karateClub();
     const room = await makeRoom(client, graph, 'Karate briefing', { minutesPerHop: 4 });

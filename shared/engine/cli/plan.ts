@@ -1,4 +1,5 @@
 /** `plan`: choose k starters (shared/engine/plan.ts) with total, rank, proven bound and certification. */
+import { availableParallelism } from 'node:os';
 import type { NoShowReport, PlanMethodChoice, PlanProgress } from '../plan-types';
 import { CliError, integerFlag, numberFlag, type Flags } from './args';
 import { clipId, ID_LIST_HELP, ms, ROOM_FLAGS, ROOM_HELP, WALK_FLAGS, WALK_HELP, walkOptions, warningNotes, type Command } from './command';
@@ -65,7 +66,9 @@ group; when K is too small for that, the command says so (exit status 2).`,
   async run(argv: Flags) {
     const start = performance.now();
     // Loaded on use, so a problem in one engine module cannot break the other commands.
-    const { plan, PLAN_METHODS } = await import('../plan');
+    const { PLAN_METHODS } = await import('../plan');
+    // Branch and bound (exhaustive, auto) runs on two worker threads when the machine has them.
+    const { planWithWorkers } = await import('../parallel/index');
     const { graph, warnings, file } = loadRoom(argv);
     const k = integerFlag(argv, 'k', 1, 1e9)!;
     const method = (argv.get('method') ?? 'auto') as PlanMethodChoice;
@@ -75,18 +78,22 @@ group; when K is too small for that, the command says so (exit status 2).`,
     const nu = numberFlag(argv, 'nu', 0, 1, true);
     const seconds = numberFlag(argv, 'time-limit', 0.001, 1e6, true);
     const noShow = numberFlag(argv, 'no-show', 0, 0.5, true);
-    const r = plan(graph, {
-      k,
-      method,
-      ...walkOptions(argv),
-      ...(nu !== undefined ? { nu } : {}),
-      ...(seconds !== undefined ? { timeLimitMs: seconds * 1000 } : {}),
-      ...(noShow !== undefined ? { noShow } : {}),
-      mustInclude: people(graph, argv, 'include', file),
-      exclude: people(graph, argv, 'exclude', file),
-      // The screen of a very large room runs for minutes: one progress line per evaluated set on stderr.
-      ...(method === 'screen' ? { onProgress: (p: PlanProgress) => process.stderr.write(`${p.stage} ${p.done}/${p.of}\n`) } : {}),
-    });
+    const r = await planWithWorkers(
+      graph,
+      {
+        k,
+        method,
+        ...walkOptions(argv),
+        ...(nu !== undefined ? { nu } : {}),
+        ...(seconds !== undefined ? { timeLimitMs: seconds * 1000 } : {}),
+        ...(noShow !== undefined ? { noShow } : {}),
+        mustInclude: people(graph, argv, 'include', file),
+        exclude: people(graph, argv, 'exclude', file),
+        // The screen of a very large room runs for minutes: one progress line per evaluated set on stderr.
+        ...(method === 'screen' ? { onProgress: (p: PlanProgress) => process.stderr.write(`${p.stage} ${p.done}/${p.of}\n`) } : {}),
+      },
+      Math.min(2, availableParallelism()),
+    );
     const finite = (v: number) => (Number.isFinite(v) ? v : null);
     return {
       result: {

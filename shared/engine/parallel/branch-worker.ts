@@ -32,7 +32,9 @@ export interface BranchWorkerResult {
   readonly pendingRaw: number;
 }
 
-export default function runBranchWorker(data: BranchWorkerData): BranchWorkerResult {
+/** `{ warm: true }` only loads this code (the pool starts its threads while the caller searches). */
+export default function runBranchWorker(data: BranchWorkerData | { warm: true }): BranchWorkerResult | null {
+  if ('warm' in data) return null;
   const shared = new SharedSearchState(data.sab, data.threads);
   const ctx = planContext(data.room, {
     k: data.k,

@@ -205,9 +205,10 @@ export default class PlanPage {
     }
   }
 
-  protected async cancelJob(): Promise<void> {
+  /** keepBest: a running search stops and its best plan so far opens when the job ends. */
+  protected async cancelJob(keepBest = false): Promise<void> {
     const j = this.job();
-    if (j) await firstValueFrom(this.api.cancelJob(j.jobId));
+    if (j) await firstValueFrom(this.api.cancelJob(j.jobId, keepBest));
   }
 
   protected async open(planId: number): Promise<void> {

@@ -15,7 +15,10 @@ const STAGES: Record<string, string> = {
   bounds: 'Proving how close the plan is',
 };
 
-/** A plan being computed: a bar driven by the search itself, what it has found and proven so far, and cancel. */
+/**
+ * A plan being computed: a bar driven by the search itself, what it has found and proven so far,
+ * stop (keep the best plan so far) and cancel (keep nothing).
+ */
 @Component({
   selector: 'app-plan-progress',
   imports: [DecimalPipe, PercentPipe, MatButtonModule, MatIconModule, MatProgressBarModule, MatTooltipModule],
@@ -56,7 +59,19 @@ const STAGES: Record<string, string> = {
           }
         }
       </div>
-      <button mat-stroked-button type="button" (click)="cancelled.emit()"><mat-icon>stop_circle</mat-icon>Cancel</button>
+      <div class="actions">
+        @if (bestAverage() !== null && !position()) {
+          <button
+            mat-stroked-button
+            type="button"
+            (click)="stopped.emit()"
+            matTooltip="Ends the search now and keeps the best plan it has found, with how far from the best it can still be"
+          >
+            <mat-icon>flag</mat-icon>Stop, keep the best
+          </button>
+        }
+        <button mat-stroked-button type="button" (click)="cancelled.emit()"><mat-icon>stop_circle</mat-icon>Cancel</button>
+      </div>
     </div>
   `,
   styles: `
@@ -72,6 +87,12 @@ const STAGES: Record<string, string> = {
     }
     mat-progress-bar {
       grid-column: 1 / -1;
+    }
+    .actions {
+      display: flex;
+      flex-wrap: wrap;
+      gap: 8px;
+      justify-content: flex-end;
     }
     .lines p {
       margin: 2px 0;
@@ -90,6 +111,8 @@ export class PlanProgress {
   readonly people = input(0);
   readonly k = input(0);
   readonly cancelled = output<void>();
+  /** Stop the search and keep its best plan (the job then ends with that plan). */
+  readonly stopped = output<void>();
 
   protected readonly percent = computed(() => Math.round(Math.min(1, Math.max(0, this.progress())) * 1000) / 10);
   protected readonly stageWords = computed(() => STAGES[this.search()?.stage ?? ''] ?? 'Computing');

@@ -73,8 +73,9 @@ export class PlansApi {
     return this.http.get<JobDto>(`/api/jobs/${jobId}`, QUIET);
   }
 
-  cancelJob(jobId: number): Observable<JobDto> {
-    return this.http.post<JobDto>(`/api/jobs/${jobId}/cancel`, {});
+  /** keepBest: a running plan search stops and ends with its best plan so far instead of nothing. */
+  cancelJob(jobId: number, keepBest = false): Observable<JobDto> {
+    return this.http.post<JobDto>(`/api/jobs/${jobId}/cancel`, keepBest ? { keepBest: true } : {});
   }
 
   startRehearsal(planId: number, body: StartRehearsalRequest): Observable<RehearsalStarted> {
