@@ -33,9 +33,9 @@ describe('PlanProgress', () => {
     let cancelled = 0;
     fixture.componentInstance.stopped.subscribe(() => stopped++);
     fixture.componentInstance.cancelled.subscribe(() => cancelled++);
-    buttons(el)[0].click();
+    buttons(el)[0]!.click();
     expect([stopped, cancelled]).toEqual([1, 0]);
-    buttons(el)[1].click();
+    buttons(el)[1]!.click();
     expect([stopped, cancelled]).toEqual([1, 1]);
 
     // While the plan waits in the queue there is no search to stop.
