@@ -1,7 +1,6 @@
-import { and, eq, sql, type SQL } from 'drizzle-orm';
+import { sql, type SQL } from 'drizzle-orm';
 import { roomShares, rooms } from '../../db/schema/rooms';
 import { workshopFacilitators, workshops } from '../../db/schema/workshops';
-import { db } from '../db';
 
 /**
  * Room access has two reasons, kept apart so that each can end on its own:
@@ -18,15 +17,4 @@ export function workshopEditorOf(userId: number): SQL<boolean> {
     WHERE ${workshops.roomId} = ${rooms.id} AND ${workshopFacilitators.userId} = ${userId}
       AND (${workshops.ownerId} = ${rooms.ownerId} OR EXISTS (SELECT 1 FROM ${roomShares} AS owner_share
         WHERE owner_share.room_id = ${rooms.id} AND owner_share.user_id = ${workshops.ownerId} AND owner_share.role = 'editor')))`;
-}
-
-/** The rooms `userId` may edit as a co-facilitator (one query, for lists). */
-export async function workshopRoomIdsOf(userId: number): Promise<number[]> {
-  const rows = await db
-    .selectDistinct({ roomId: rooms.id })
-    .from(workshopFacilitators)
-    .innerJoin(workshops, eq(workshops.id, workshopFacilitators.workshopId))
-    .innerJoin(rooms, eq(rooms.id, workshops.roomId))
-    .where(and(eq(workshopFacilitators.userId, userId), workshopEditorOf(userId)));
-  return rows.map((r) => r.roomId);
 }

@@ -6,7 +6,7 @@ import { users } from '../../db/schema/accounts';
 import { people, roomShares, rooms, ties } from '../../db/schema/rooms';
 import { db, type Tx } from '../db';
 import type { RoomRow } from './access';
-import { workshopRoomIdsOf } from './grants';
+import { workshopEditorOf } from './grants';
 
 type Q = Tx | typeof db;
 const CHUNK = 1000;
@@ -190,10 +190,16 @@ export interface ListParams<S extends string> {
 
 const iso = (d: Date) => d.toISOString();
 
+/**
+ * One page of the rooms `userId` may open, in one statement: the access reasons (owner, direct
+ * share, co-facilitated workshop) are subqueries of the same select, the total comes with every
+ * row (`COUNT(*) OVER ()`, computed before LIMIT), and the people and tie counts are correlated
+ * counts on the (room_id, ...) indexes, taken only for the rows of the page unless the page is
+ * sorted by them. Only a page past the end needs a second statement, for its total.
+ */
 export async function listRooms(userId: number, p: ListParams<string> & { scope: 'all' | 'mine' | 'shared' }): Promise<Page<RoomListItem>> {
   const mine = eq(rooms.ownerId, userId);
-  const helperRooms = await workshopRoomIdsOf(userId);
-  const helper = helperRooms.length ? inArray(rooms.id, helperRooms) : sql`FALSE`;
+  const helper = workshopEditorOf(userId);
   const sharedWithMe = or(
     exists(
       db
@@ -211,18 +217,21 @@ export async function listRooms(userId: number, p: ListParams<string> & { scope:
   const tieCount = sql<number>`(SELECT COUNT(*) FROM ${ties} WHERE ${ties.roomId} = ${rooms.id})`;
   const order = p.direction === 'desc' ? desc : asc;
   const sortBy = { name: rooms.name, updatedAt: rooms.updatedAt, people: peopleCount, ties: tieCount }[p.sort] ?? rooms.updatedAt;
-  const [{ total }] = await db
-    .select({ total: sql<number>`COUNT(*)` })
-    .from(rooms)
-    .where(where);
   const rows = await db
     .select({
-      room: rooms,
+      id: rooms.id,
+      name: rooms.name,
+      description: rooms.description,
+      ownerId: rooms.ownerId,
+      version: rooms.version,
+      updatedAt: rooms.updatedAt,
       ownerName: users.name,
       shareRole: roomShares.role,
-      helper: sql<number>`${helper}`,
+      // Only asked where it changes the access shown: not owned, no direct editor share.
+      helper: sql<number>`CASE WHEN ${rooms.ownerId} <> ${userId} AND (${roomShares.role} IS NULL OR ${roomShares.role} <> 'editor') THEN ${helper} ELSE 0 END`,
       people: peopleCount,
       ties: tieCount,
+      total: sql<number>`COUNT(*) OVER ()`,
     })
     .from(rooms)
     .innerJoin(users, eq(users.id, rooms.ownerId))
@@ -231,22 +240,31 @@ export async function listRooms(userId: number, p: ListParams<string> & { scope:
     .orderBy(order(sortBy), asc(rooms.id))
     .limit(p.pageSize)
     .offset(p.page * p.pageSize);
+  const total = rows.length ? Number(rows[0].total) : p.page > 0 ? await countRooms(where) : 0;
   return {
-    total: Number(total),
+    total,
     page: p.page,
     pageSize: p.pageSize,
     items: rows.map((r) => ({
-      id: r.room.id,
-      name: r.room.name,
-      description: r.room.description,
-      access: r.room.ownerId === userId ? 'owner' : Number(r.helper) ? 'editor' : (r.shareRole ?? 'viewer'),
+      id: r.id,
+      name: r.name,
+      description: r.description,
+      access: r.ownerId === userId ? 'owner' : Number(r.helper) ? 'editor' : (r.shareRole ?? 'viewer'),
       ownerName: r.ownerName,
       people: Number(r.people),
       ties: Number(r.ties),
-      version: r.room.version,
-      updatedAt: iso(r.room.updatedAt),
+      version: r.version,
+      updatedAt: iso(r.updatedAt),
     })),
   };
+}
+
+async function countRooms(where: SQL | undefined): Promise<number> {
+  const [{ total }] = await db
+    .select({ total: sql<number>`COUNT(*)` })
+    .from(rooms)
+    .where(where);
+  return Number(total);
 }
 
 export async function listPeople(roomId: number, p: ListParams<string> & { group?: string }): Promise<Page<PersonDto>> {
