@@ -1,4 +1,4 @@
-import { sql, type SQL } from 'drizzle-orm';
+import { sql, type Placeholder, type SQL } from 'drizzle-orm';
 import { roomShares, rooms } from '../../db/schema/rooms';
 import { workshopFacilitators, workshops } from '../../db/schema/workshops';
 
@@ -11,7 +11,7 @@ import { workshopFacilitators, workshops } from '../../db/schema/workshops';
  * The second is never written into room_shares, so removing a co-facilitator or deleting the
  * workshop ends it at once, and a direct viewer share is neither upgraded nor lost.
  */
-export function workshopEditorOf(userId: number): SQL<boolean> {
+export function workshopEditorOf(userId: number | Placeholder): SQL<boolean> {
   return sql<boolean>`EXISTS (SELECT 1 FROM ${workshopFacilitators}
     INNER JOIN ${workshops} ON ${workshops.id} = ${workshopFacilitators.workshopId}
     WHERE ${workshops.roomId} = ${rooms.id} AND ${workshopFacilitators.userId} = ${userId}

@@ -1,5 +1,5 @@
 /** Rooms data access (Drizzle on MariaDB: select / join only, bulk inserts in chunks). */
-import { and, asc, desc, eq, exists, inArray, like, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNotNull, like, or, sql, type Placeholder, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import type { Page, PersonDto, RoomListItem, RoomSettings, TieDto, TieListItem } from '../../shared/api/rooms';
 import { users } from '../../db/schema/accounts';
@@ -190,34 +190,31 @@ export interface ListParams<S extends string> {
 
 const iso = (d: Date) => d.toISOString();
 
+type RoomScope = 'all' | 'mine' | 'shared';
+type Param<T> = T | Placeholder;
+
 /**
- * One page of the rooms `userId` may open, in one statement: the access reasons (owner, direct
- * share, co-facilitated workshop) are subqueries of the same select, the total comes with every
- * row (`COUNT(*) OVER ()`, computed before LIMIT), and the people and tie counts are correlated
- * counts on the (room_id, ...) indexes, taken only for the rows of the page unless the page is
- * sorted by them. Only a page past the end needs a second statement, for its total.
+ * Which rooms `userId` may open: owned, shared directly (the left-joined `room_shares` row of the
+ * caller, unique per room and user), or co-facilitated through a workshop.
  */
-export async function listRooms(userId: number, p: ListParams<string> & { scope: 'all' | 'mine' | 'shared' }): Promise<Page<RoomListItem>> {
+function roomFilter(userId: Param<number>, scope: RoomScope, pattern: Param<string> | undefined) {
   const mine = eq(rooms.ownerId, userId);
-  const helper = workshopEditorOf(userId);
-  const sharedWithMe = or(
-    exists(
-      db
-        .select({ one: sql`1` })
-        .from(roomShares)
-        .where(and(eq(roomShares.roomId, rooms.id), eq(roomShares.userId, userId))),
-    ),
-    helper,
-  );
-  const scope = p.scope === 'mine' ? mine : p.scope === 'shared' ? sharedWithMe : or(mine, sharedWithMe);
-  const filters: (SQL | undefined)[] = [scope];
-  if (p.q) filters.push(or(like(rooms.name, contains(p.q)), like(rooms.description, contains(p.q))));
-  const where = and(...filters);
+  const sharedWithMe = or(isNotNull(roomShares.role), workshopEditorOf(userId));
+  const filters = [scope === 'mine' ? mine : scope === 'shared' ? sharedWithMe : or(mine, sharedWithMe)];
+  if (pattern !== undefined) filters.push(or(like(rooms.name, pattern), like(rooms.description, pattern)));
+  return and(...filters);
+}
+
+const myShare = (userId: Param<number>) => and(eq(roomShares.roomId, rooms.id), eq(roomShares.userId, userId));
+
+/** The list statement of one shape (scope, sort, direction, search or not), built once per process. */
+function roomPageQuery(scope: RoomScope, sort: string, direction: 'asc' | 'desc', search: boolean) {
+  const userId = sql.placeholder('userId');
   const peopleCount = sql<number>`(SELECT COUNT(*) FROM ${people} WHERE ${people.roomId} = ${rooms.id})`;
   const tieCount = sql<number>`(SELECT COUNT(*) FROM ${ties} WHERE ${ties.roomId} = ${rooms.id})`;
-  const order = p.direction === 'desc' ? desc : asc;
-  const sortBy = { name: rooms.name, updatedAt: rooms.updatedAt, people: peopleCount, ties: tieCount }[p.sort] ?? rooms.updatedAt;
-  const rows = await db
+  const order = direction === 'desc' ? desc : asc;
+  const sortBy = { name: rooms.name, updatedAt: rooms.updatedAt, people: peopleCount, ties: tieCount }[sort] ?? rooms.updatedAt;
+  return db
     .select({
       id: rooms.id,
       name: rooms.name,
@@ -227,20 +224,37 @@ export async function listRooms(userId: number, p: ListParams<string> & { scope:
       updatedAt: rooms.updatedAt,
       ownerName: users.name,
       shareRole: roomShares.role,
-      // Only asked where it changes the access shown: not owned, no direct editor share.
-      helper: sql<number>`CASE WHEN ${rooms.ownerId} <> ${userId} AND (${roomShares.role} IS NULL OR ${roomShares.role} <> 'editor') THEN ${helper} ELSE 0 END`,
+      // Asked only where it changes the access shown: not owned, no direct editor share.
+      helper: sql<number>`CASE WHEN ${rooms.ownerId} <> ${userId} AND (${roomShares.role} IS NULL OR ${roomShares.role} <> 'editor') THEN ${workshopEditorOf(userId)} ELSE 0 END`,
       people: peopleCount,
       ties: tieCount,
       total: sql<number>`COUNT(*) OVER ()`,
     })
     .from(rooms)
     .innerJoin(users, eq(users.id, rooms.ownerId))
-    .leftJoin(roomShares, and(eq(roomShares.roomId, rooms.id), eq(roomShares.userId, userId)))
-    .where(where)
+    .leftJoin(roomShares, myShare(userId))
+    .where(roomFilter(userId, scope, search ? sql.placeholder('pattern') : undefined))
     .orderBy(order(sortBy), asc(rooms.id))
-    .limit(p.pageSize)
-    .offset(p.page * p.pageSize);
-  const total = rows.length ? Number(rows[0].total) : p.page > 0 ? await countRooms(where) : 0;
+    .limit(sql.placeholder('limit'))
+    .offset(sql.placeholder('offset'))
+    .prepare();
+}
+
+const roomPageQueries = new Map<string, ReturnType<typeof roomPageQuery>>();
+
+/**
+ * One page of the rooms `userId` may open, in one statement: the access reasons are a join and
+ * a subquery of the same select, the total comes with every row (`COUNT(*) OVER ()`, computed
+ * before LIMIT), and the people and tie counts are correlated counts on the (room_id, ...)
+ * indexes. Only a page past the end needs a second statement, for its total.
+ */
+export async function listRooms(userId: number, p: ListParams<string> & { scope: RoomScope }): Promise<Page<RoomListItem>> {
+  const shape = `${p.scope}|${p.sort}|${p.direction}|${p.q ? 'q' : ''}`;
+  let query = roomPageQueries.get(shape);
+  if (!query) roomPageQueries.set(shape, (query = roomPageQuery(p.scope, p.sort, p.direction, !!p.q)));
+  const pattern = p.q ? contains(p.q) : undefined;
+  const rows = await query.execute({ userId, pattern, limit: p.pageSize, offset: p.page * p.pageSize });
+  const total = rows.length ? Number(rows[0].total) : p.page > 0 ? await countRooms(userId, p.scope, pattern) : 0;
   return {
     total,
     page: p.page,
@@ -259,11 +273,12 @@ export async function listRooms(userId: number, p: ListParams<string> & { scope:
   };
 }
 
-async function countRooms(where: SQL | undefined): Promise<number> {
+async function countRooms(userId: number, scope: RoomScope, pattern: string | undefined): Promise<number> {
   const [{ total }] = await db
     .select({ total: sql<number>`COUNT(*)` })
     .from(rooms)
-    .where(where);
+    .leftJoin(roomShares, myShare(userId))
+    .where(roomFilter(userId, scope, pattern));
   return Number(total);
 }
 
