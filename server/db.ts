@@ -14,6 +14,9 @@ export const pool = mysql.createPool({
   connectionLimit: config.DB_POOL_SIZE,
   connectTimeout: 5000,
   charset: 'utf8mb4',
+  // mysql2 captures a stack trace for every query (about 3 % of a signed-in read's CPU). Failed
+  // queries keep their call site anyway: drizzle wraps them in an error raised where it awaited.
+  trace: false,
 });
 
 /**

@@ -272,6 +272,11 @@ function roomPageQuery(scope: RoomScope, sort: string, direction: 'asc' | 'desc'
 
 const roomPageQueries = new Map<string, ReturnType<typeof roomPageQuery>>();
 
+/**
+ * One page of the rooms `userId` may open, in one statement: the access reasons are a join and
+ * a subquery of the same select, and the total comes with every row (`COUNT(*) OVER ()`,
+ * computed before LIMIT). Only a page past the end needs a second statement, for its total.
+ */
 export async function listRooms(userId: number, p: ListParams<string> & { scope: RoomScope }): Promise<Page<RoomListItem>> {
   const shape = `${p.scope}|${p.sort}|${p.direction}|${p.q ? 'q' : ''}`;
   let query = roomPageQueries.get(shape);
