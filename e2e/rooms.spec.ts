@@ -1,4 +1,5 @@
 import { readFileSync, writeFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
 import type { APIRequestContext, Page } from '@playwright/test';
 import { DEMO, expect, keepScreenshot, signIn, test } from './fixtures';
 
@@ -241,6 +242,12 @@ test('import a CSV with errors, read the row errors, fix and commit; export Grap
   const pngPath = `${dir}/map.png`;
   await pngFile.saveAs(pngPath);
   expect(readFileSync(pngPath).subarray(1, 4).toString()).toBe('PNG');
+  // Framed around everything drawn, names included: a white margin on every side, none wide.
+  const margins = pngMargins(readFileSync(pngPath));
+  for (const side of ['top', 'right', 'bottom', 'left'] as const) {
+    expect(margins[side], `${side} margin of the map picture (px)`).toBeGreaterThanOrEqual(8);
+    expect(margins[side], `${side} margin of the map picture (px)`).toBeLessThanOrEqual(120);
+  }
 
   // The rooms list finds the room; delete asks first and says everything goes.
   await page.goto('/rooms');
@@ -527,3 +534,28 @@ test('a room of 3,000 people opens as a fixed layout without freezing the page',
   console.log(`3,000 people / 6,000 ties: map drawn ${opened} ms after navigation; find and centre ${Date.now() - t1} ms`);
   await keepScreenshot(page, 'rooms-map-3000');
 });
+
+/** White space (px) between each edge of a PNG and the first pixel that is not near-white. */
+function pngMargins(file: Buffer): { top: number; right: number; bottom: number; left: number } {
+  // pngjs ships with the QR-code package the server uses; it has no type declarations of its own.
+  const { PNG } = createRequire(import.meta.url)('pngjs') as {
+    PNG: { sync: { read(b: Buffer): { width: number; height: number; data: Buffer } } };
+  };
+  const img = PNG.sync.read(file);
+  let top = img.height,
+    bottom = -1,
+    left = img.width,
+    right = -1;
+  for (let y = 0; y < img.height; y++) {
+    for (let x = 0; x < img.width; x++) {
+      const i = (y * img.width + x) * 4;
+      const ink = img.data[i]! < 245 || img.data[i + 1]! < 245 || img.data[i + 2]! < 245;
+      if (!ink) continue;
+      top = Math.min(top, y);
+      bottom = Math.max(bottom, y);
+      left = Math.min(left, x);
+      right = Math.max(right, x);
+    }
+  }
+  return { top, right: img.width - 1 - right, bottom: img.height - 1 - bottom, left };
+}

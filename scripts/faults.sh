@@ -19,4 +19,4 @@ bash scripts/db.sh reset "$DB_NAME" >/dev/null
 bash scripts/redis.sh start
 redis-cli -h 127.0.0.1 -p "$REDIS_PORT" flushall >/dev/null
 npx tsx db/migrate.ts >/dev/null
-node --import tsx --test --test-reporter="${FAULTS_REPORTER:-spec}" tests/faults/faults.test.ts
+node --import tsx --test --test-concurrency=1 --test-timeout=300000 --test-reporter="${FAULTS_REPORTER:-spec}" tests/faults/faults.test.ts tests/faults/rehearsals-restart.test.ts

@@ -3,6 +3,7 @@ import { users } from '../db/schema/accounts';
 import { hashPassword } from '../server/auth/passwords';
 import { config } from '../server/config';
 import { db } from '../server/db';
+import { firstOf } from '../shared/checked';
 
 /** The demo facilitator the README names; invented person. */
 export const DEMO_FACILITATOR = {
@@ -15,11 +16,11 @@ export const DEMO_FACILITATOR = {
 export async function ensureAccount(email: string, name: string, role: 'admin' | 'facilitator', password: string) {
   const [existing] = await db.select({ id: users.id }).from(users).where(eq(users.email, email));
   if (existing) return existing.id;
-  const [{ id }] = await db
+  const inserted = await db
     .insert(users)
     .values({ email, name, role, status: 'active', passwordHash: await hashPassword(password) })
     .$returningId();
-  return id;
+  return firstOf(inserted, 'new account id').id;
 }
 
 export async function seedAccounts() {

@@ -9,6 +9,7 @@ import { db } from '../server/db';
 import { createWithContent } from '../server/rooms/service';
 import type { RoomContent } from '../server/rooms/content';
 import type { PersonRowInput, TieRowInput } from '../server/rooms/store';
+import { itemAt } from '../shared/checked';
 
 export const DEMO_ROOMS = {
   allHands: 'Quillmere Works all-hands',
@@ -95,7 +96,7 @@ export function allHandsContent(): RoomContent {
     return {
       key: `qw${String(i + 1).padStart(2, '0')}`,
       name,
-      group: teams[team],
+      group: itemAt(teams, team, 'demo team'),
       email: null,
       x: round(400 + 260 * Math.cos(angle) + 70 * Math.cos(a)),
       y: round(400 + 260 * Math.sin(angle) + 70 * Math.sin(a)),

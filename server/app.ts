@@ -1,5 +1,5 @@
 import { randomBytes } from 'node:crypto';
-import { existsSync, readFileSync } from 'node:fs';
+import { readFileSync, statSync } from 'node:fs';
 import type { IncomingMessage, ServerResponse } from 'node:http';
 import { fileURLToPath } from 'node:url';
 import express, { type Express, type NextFunction, type Request, type Response } from 'express';
@@ -79,18 +79,20 @@ function noStore(_req: Request, res: Response, next: NextFunction) {
 /** The built Angular app, with the CSP nonce written into index.html on every request. */
 function serveClient(app: Express) {
   const indexFile = `${browserDir}/index.html`;
-  let template: string | undefined;
+  // Read again when the build changes it, so a rebuild never serves chunk names that are gone.
+  let template: { text: string; mtimeMs: number } | undefined;
   const index = (_req: Request, res: Response) => {
-    if (!existsSync(indexFile)) {
+    const mtimeMs = statSync(indexFile, { throwIfNoEntry: false })?.mtimeMs;
+    if (mtimeMs === undefined) {
       res.status(503).type('text').send('The client is not built yet: run `npm start` (or `npx ng build`).');
       return;
     }
-    template ??= readFileSync(indexFile, 'utf8');
+    if (template?.mtimeMs !== mtimeMs) template = { text: readFileSync(indexFile, 'utf8'), mtimeMs };
     const nonce = res.locals['cspNonce'] as string;
     res
       .type('html')
       .set('Cache-Control', 'no-store')
-      .send(template.replace('<app-root', `<app-root ngCspNonce="${nonce}"`).replaceAll('<style', `<style nonce="${nonce}"`));
+      .send(template.text.replace('<app-root', `<app-root ngCspNonce="${nonce}"`).replaceAll('<style', `<style nonce="${nonce}"`));
   };
   app.get('/', index);
   app.use(express.static(browserDir, { index: false, maxAge: '1h' }));

@@ -49,6 +49,14 @@ const schema = z.object({
   /** Failed sign-ins per account in 15 minutes, over all addresses (NIST SP 800-63B 5.2.2: at most 100). */
   SIGNIN_ACCOUNT_MAX_FAILURES: z.coerce.number().int().min(1).max(100).default(100),
   RATE_LIMIT_IP_PER_15MIN: z.coerce.number().int().positive().default(100),
+  /**
+   * Tests only: the key scope of the Redis counters. Under NODE_ENV=test each process counts on
+   * its own (the scope is its pid) unless processes that must share counters name one scope.
+   */
+  RATE_LIMIT_SCOPE: z
+    .string()
+    .regex(/^[A-Za-z0-9_-]{1,40}$/)
+    .optional(),
   /** Password-reset requests per account and address (the per-address cap is RATE_LIMIT_IP_PER_15MIN). */
   RATE_LIMIT_RESET_PER_15MIN: z.coerce.number().int().positive().default(5),
   /** Failed participant-link lookups per address (made-up, expired or revoked links). */

@@ -6,6 +6,7 @@ import { rooms } from '../../db/schema/rooms';
 import { workshops } from '../../db/schema/workshops';
 import type { AccountRole, AccountSortKey } from '../../shared/api/accounts';
 import { db, type Tx } from '../db';
+import { firstOf } from '../../shared/checked';
 
 /** Data access for the admin console: accounts, audit log and the captured outbox. */
 
@@ -36,7 +37,7 @@ export async function listAccounts(q: PageQuery & { sort: AccountSortKey; dir: '
     .orderBy(order, asc(users.id))
     .limit(q.size)
     .offset(q.page * q.size);
-  const [{ total }] = await db.select({ total: count() }).from(users).where(where);
+  const { total } = firstOf(await db.select({ total: count() }).from(users).where(where), 'account count');
   return { rows, total };
 }
 
@@ -59,7 +60,7 @@ export async function activeAdminIds(): Promise<number[]> {
 }
 
 export async function insertInvitedUser(tx: Tx, email: string, name: string, role: AccountRole): Promise<number> {
-  const [{ id }] = await tx.insert(users).values({ email, name, role, status: 'invited' }).$returningId();
+  const { id } = firstOf(await tx.insert(users).values({ email, name, role, status: 'invited' }).$returningId(), 'new account id');
   return id;
 }
 
@@ -108,7 +109,7 @@ export async function listAudit(q: PageQuery & { filter: string }) {
     .orderBy(desc(auditLog.id))
     .limit(q.size)
     .offset(q.page * q.size);
-  const [{ total }] = await db.select({ total: count() }).from(base().as('matching'));
+  const { total } = firstOf(await db.select({ total: count() }).from(base().as('matching')), 'audit entry count');
   return { rows, total };
 }
 
@@ -119,7 +120,7 @@ export async function listOutbox(q: PageQuery) {
     .orderBy(desc(mailMessages.id))
     .limit(q.size)
     .offset(q.page * q.size);
-  const [{ total }] = await db.select({ total: count() }).from(mailMessages);
+  const { total } = firstOf(await db.select({ total: count() }).from(mailMessages), 'outbox count');
   return { rows, total };
 }
 

@@ -5,7 +5,7 @@
  * process counts the same attempts. While Redis is away the stores fail open (nothing counted,
  * nobody blocked) instead of failing the request: locking everyone out during a Redis restart
  * would be worse than a few seconds without limits. Under NODE_ENV=test each test process counts
- * on its own (keys carry the pid), as the in-memory counters of one process did.
+ * on its own (keys carry the pid, or RATE_LIMIT_SCOPE for test processes that share counters).
  */
 import type { ClientRateLimitInfo, IncrementResponse, Options, Store } from 'express-rate-limit';
 import { Redis } from 'ioredis';
@@ -70,10 +70,18 @@ class LimiterStore extends RedisStore {
   }
 }
 
+/** The Redis key prefix of a counter (scoped per test process under NODE_ENV=test). */
+export function counterKeyPrefix(prefix: string): string {
+  const scope = config.NODE_ENV === 'test' ? `${config.RATE_LIMIT_SCOPE ?? process.pid}:` : '';
+  return `${QUEUE_PREFIX}:rl:${scope}${prefix}:`;
+}
+
+/** The connection the counters use, for counters of another shape (server/core/heavy-writes.ts). */
+export const counterRedis = redis;
+
 export function createLimiterStore(prefix: string): Store {
-  const scope = config.NODE_ENV === 'test' ? `${process.pid}:` : '';
   return new LimiterStore({
-    prefix: `${QUEUE_PREFIX}:rl:${scope}${prefix}:`,
+    prefix: counterKeyPrefix(prefix),
     sendCommand: (command: string, ...args: string[]) => redis().call(command, ...args) as Promise<never>,
   });
 }

@@ -17,16 +17,21 @@ export async function hashPassword(password: string): Promise<string> {
   return `scrypt$${N}$${r}$${p}$${salt.toString('base64url')}$${key.toString('base64url')}`;
 }
 
+/** scrypt$N$r$p$salt$hash, split at '$'. */
+type StoredFields = [tag: string, n: string, r: string, p: string, salt: string, hash: string];
+const hasSixFields = (parts: string[]): parts is StoredFields => parts.length === 6;
+
 export async function verifyPassword(password: string, stored: string | null | undefined): Promise<boolean> {
   const parts = (stored ?? '').split('$');
-  if (parts.length !== 6 || parts[0] !== 'scrypt') {
+  if (!hasSixFields(parts) || parts[0] !== 'scrypt') {
     // Spend the same time as a real check, so timing does not reveal unknown accounts.
     await hashPassword(password);
     return false;
   }
-  const [N, r, p] = parts.slice(1, 4).map(Number);
-  const salt = Buffer.from(parts[4], 'base64url');
-  const expected = Buffer.from(parts[5], 'base64url');
+  const [, nText, rText, pText, saltText, hashText] = parts;
+  const [N, r, p] = [Number(nText), Number(rText), Number(pText)];
+  const salt = Buffer.from(saltText, 'base64url');
+  const expected = Buffer.from(hashText, 'base64url');
   const key = await scrypt(password, salt, expected.length, { N, r, p, maxmem: maxmem(N, r) });
   return timingSafeEqual(key, expected);
 }

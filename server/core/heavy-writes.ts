@@ -1,23 +1,48 @@
+import { randomUUID } from 'node:crypto';
 import type { NextFunction, Request, Response } from 'express';
+import { counterKeyPrefix, counterRedis } from '../auth/limiter-store';
 import { config } from '../config';
 import { HttpError } from './http-error';
 
 /**
  * Heavy writes (edit batches, imports, rooms created with content) each hold a database
  * connection and row locks for a while. One account may run at most MAX_HEAVY_WRITES_PER_USER
- * of them at once (per web process), so no single user can occupy the pool that everyone else's
- * requests need. The slot is freed when the answer is sent or the client goes away.
+ * of them at once over all web processes, so no single user can occupy the pool that everyone
+ * else's requests need. The slots live in Redis beside the rate-limit counters: a sorted set per
+ * account of slot tokens scored by their start, taken and counted in one script; a slot older
+ * than SLOT_TTL_MS (a process that died mid-write) no longer counts. The slot is freed when the
+ * answer is sent or the client goes away. While Redis is away the slots fail open, as the rate
+ * limits do.
  *
  * `res.locals.clientGone` is an AbortSignal that fires when the client disconnects before the
  * answer: heavy writes check it before they commit, so an abandoned batch is rolled back.
  */
-const running = new Map<number, number>();
+const SLOT_TTL_MS = 10 * 60 * 1000;
+const TAKE_SLOT = `
+redis.call('ZREMRANGEBYSCORE', KEYS[1], '-inf', ARGV[1] - ARGV[2])
+local n = redis.call('ZCARD', KEYS[1])
+if n >= tonumber(ARGV[3]) then return n end
+redis.call('ZADD', KEYS[1], ARGV[1], ARGV[4])
+redis.call('PEXPIRE', KEYS[1], ARGV[2])
+return -1`;
 
-export function heavyWrite(req: Request, res: Response, next: NextFunction): void {
+/** Takes a slot for `token`: -1 when taken, else the number of writes already running. */
+async function takeSlot(key: string, token: string): Promise<number> {
+  try {
+    const r = await counterRedis().eval(TAKE_SLOT, 1, key, Date.now(), SLOT_TTL_MS, config.MAX_HEAVY_WRITES_PER_USER, token);
+    return Number(r);
+  } catch {
+    return -1;
+  }
+}
+
+export async function heavyWrite(req: Request, res: Response, next: NextFunction): Promise<void> {
   const userId = req.user?.id;
   if (userId === undefined) return next();
-  const now = running.get(userId) ?? 0;
-  if (now >= config.MAX_HEAVY_WRITES_PER_USER) {
+  const key = `${counterKeyPrefix('heavy-writes')}${userId}`;
+  const token = randomUUID();
+  const now = await takeSlot(key, token);
+  if (now >= 0) {
     res.set('Retry-After', '2');
     return next(
       new HttpError(
@@ -27,7 +52,6 @@ export function heavyWrite(req: Request, res: Response, next: NextFunction): voi
       ),
     );
   }
-  running.set(userId, now + 1);
   const gone = new AbortController();
   res.locals['clientGone'] = gone.signal;
   let freed = false;
@@ -35,9 +59,9 @@ export function heavyWrite(req: Request, res: Response, next: NextFunction): voi
     if (!res.writableFinished) gone.abort();
     if (freed) return;
     freed = true;
-    const left = (running.get(userId) ?? 1) - 1;
-    if (left > 0) running.set(userId, left);
-    else running.delete(userId);
+    counterRedis()
+      .zrem(key, token)
+      .catch(() => undefined); // it expires by itself
   });
   next();
 }

@@ -3,12 +3,13 @@ import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { users } from '../../db/schema/accounts';
 import { jobs, plans, rehearsals } from '../../db/schema/plans';
 import { db, type Tx } from '../db';
+import { firstOf } from '../../shared/checked';
 
 export type JobRow = typeof jobs.$inferSelect;
 export type NewJob = typeof jobs.$inferInsert;
 
 export async function insertJob(values: NewJob, tx: Tx | typeof db = db): Promise<number> {
-  const [{ id }] = await tx.insert(jobs).values(values).$returningId();
+  const { id } = firstOf(await tx.insert(jobs).values(values).$returningId(), 'new job id');
   return id;
 }
 

@@ -125,7 +125,7 @@ async function addChunks(bull: Job<JobData>, token: string | undefined, row: Job
     return failOrRetry(row, err);
   }
   const parent = { id: bull.id!, queue: bull.queueQualifiedName };
-  const of = ranges.length ? ranges[ranges.length - 1].to : 0;
+  const of = ranges.at(-1)?.to ?? 0;
   await queue(CHUNKS_QUEUE).addBulk(
     ranges.map((r, index) => ({
       name: 'chunk',

@@ -17,6 +17,7 @@ import { boundKey, keyText, type BoundKey } from './bound-key';
 import type { PlanComputation } from './compute';
 import type { BoundRow, PlanListRow } from './store';
 import * as store from './store';
+import { itemAt } from '../../shared/checked';
 
 /** Relative tolerance under which two totals are the same number (solver rounding). */
 export const SAME_TOTAL = 1e-9;
@@ -61,7 +62,7 @@ export async function recordComputation(
       lowerBound: Number.isFinite(c.lowerBound) ? Math.min(c.lowerBound, c.total) : coverBound(row.people, row.k, scale),
       lowerSource: sourceOf(c, row.people, row.k, scale),
       bestTotal: c.total,
-      bestStarters: c.starters.map((i) => personIds[i]),
+      bestStarters: c.starters.map((i) => itemAt(personIds, i, 'starter person id')),
     },
     tx,
   );

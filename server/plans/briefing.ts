@@ -14,6 +14,8 @@ import { parseResults, parseSnapshot } from './dto';
 import type { LoadedPlan } from './service';
 import { roomName, roomVersion } from './store';
 import { planError } from './validate';
+import { personAt } from './snapshot';
+import { itemAt } from '../../shared/checked';
 
 const fmt = (v: number, digits = 1) => (Math.round(v * 10 ** digits) / 10 ** digits).toFixed(digits);
 
@@ -70,11 +72,12 @@ export async function briefingCsv(plan: LoadedPlan): Promise<string> {
   rows.sort((a, b) => (a.order ?? Infinity) - (b.order ?? Infinity) || a.hops - b.hops || a.i - b.i);
   const out: string[][] = [['briefing order', 'person key', 'name', 'group', 'role', 'expected hops to hear', 'expected minutes']];
   for (const r of rows) {
+    const person = personAt(snap, r.i);
     out.push([
       r.order === null ? '' : String(r.order),
-      snap.graph.ids[r.i],
-      snap.names[r.i],
-      snap.graph.groups?.[r.i] ?? '',
+      person.key,
+      person.name,
+      person.group ?? '',
       r.order === null ? 'hears by word of mouth' : 'brief first',
       Number.isFinite(r.hops) ? r.hops.toFixed(3) : '',
       Number.isFinite(r.hops) ? (r.hops * mph).toFixed(1) : '',
@@ -165,7 +168,10 @@ function starterTable(doc: Doc, sheet: BriefingSheet): void {
   const row = (cells: string[], font: 'body' | 'strong') => {
     const y = doc.y;
     doc.font(font).fontSize(11);
-    cells.forEach((c, i) => doc.text(c, cols[i].x, y, { width: cols[i].w, lineBreak: false, ellipsis: true }));
+    cells.forEach((c, i) => {
+      const col = itemAt(cols, i, 'briefing table column');
+      doc.text(c, col.x, y, { width: col.w, lineBreak: false, ellipsis: true });
+    });
     doc
       .moveTo(56, y + 16)
       .lineTo(539, y + 16)

@@ -3,6 +3,7 @@ import type { PlanDetail, PlanMethodChoiceDto, PlanMethodUsed, PlanSummary, Reac
 import type { RoomSnapshot, StoredCurve } from './compute';
 import { sharedScores } from './bounds';
 import type { BoundRow, PlanListRow, PlanRow } from './store';
+import { personAt } from './snapshot';
 
 export interface StoredPlanResults {
   /** Expected hops per person, engine order (null: cannot be reached). */
@@ -84,10 +85,11 @@ export function planDetail(row: PlanRow & { createdByName: string }, currentRoom
   const order = new Map((row.starters ?? []).map((s, i) => [s.personId, i + 1]));
   const perPerson = snap.personIds.map((personId, i) => {
     const h = results.h[i] ?? Infinity;
+    const { name, group } = personAt(snap, i);
     return {
       personId,
-      name: snap.names[i],
-      group: snap.graph.groups?.[i] ?? null,
+      name,
+      group,
       starter: order.has(personId),
       order: order.get(personId) ?? null,
       expectedHops: h,

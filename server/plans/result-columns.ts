@@ -2,15 +2,16 @@
 import type { StoredAbsence, StoredPlanExtras } from '../../db/schema/plans';
 import type { PlanComputation, RoomSnapshot } from './compute';
 import type { StoredPlanResults } from './dto';
+import { personAt } from './snapshot';
 import type { NewPlan } from './store';
 
+const who = (snapshot: RoomSnapshot, i: number) => {
+  const { personId, name } = personAt(snapshot, i);
+  return { personId, name };
+};
+
 function starterInfo(snapshot: RoomSnapshot, indices: readonly number[]) {
-  return indices.map((i) => ({
-    personId: snapshot.personIds[i],
-    key: snapshot.graph.ids[i],
-    name: snapshot.names[i],
-    group: snapshot.graph.groups?.[i] ?? null,
-  }));
+  return indices.map((i) => personAt(snapshot, i));
 }
 
 export function resultColumns(snapshot: RoomSnapshot, c: PlanComputation): Partial<NewPlan> {
@@ -40,22 +41,21 @@ function extrasColumn(snapshot: RoomSnapshot, c: PlanComputation): StoredPlanExt
   const b = c.extras.bestSingle;
   return {
     ...c.extras,
-    bestSingle: b ? { personId: snapshot.personIds[b.person], name: snapshot.names[b.person], total: b.total } : null,
+    bestSingle: b ? { ...who(snapshot, b.person), total: b.total } : null,
   };
 }
 
 function absenceColumn(snapshot: RoomSnapshot, c: PlanComputation): StoredAbsence | null {
   const a = c.absence;
   if (!a) return null;
-  const who = (i: number) => ({ personId: snapshot.personIds[i], name: snapshot.names[i] });
   return {
     expectedTotal: a.expectedTotal,
     nobodyChance: a.nobodyChance,
-    worstAbsence: a.worstAbsence ? { ...who(a.worstAbsence.person), total: a.worstAbsence.total } : null,
+    worstAbsence: a.worstAbsence ? { ...who(snapshot, a.worstAbsence.person), total: a.worstAbsence.total } : null,
     standIns: a.standIns.map((s) => ({
-      ...who(s.starter),
-      standInId: s.person === null ? null : snapshot.personIds[s.person],
-      standInName: s.person === null ? null : snapshot.names[s.person],
+      ...who(snapshot, s.starter),
+      standInId: s.person === null ? null : personAt(snapshot, s.person).personId,
+      standInName: s.person === null ? null : personAt(snapshot, s.person).name,
       total: s.total,
     })),
   };

@@ -10,6 +10,7 @@ import { notFound } from '../core/http-error';
 import { db } from '../db';
 import { roomAccess, idOf } from '../jobs/access';
 import { jobDto } from '../jobs/dto';
+import { onJobEvent } from '../jobs/events';
 import { runInPlanPool } from '../jobs/pools';
 import { checkJobQuota, checkPlanQuota } from '../jobs/quotas';
 import { JobFailure, jobRunner, type JobHandler } from '../jobs/runner';
@@ -24,6 +25,7 @@ import * as store from './store';
 import { config } from '../config';
 import { boundForRow, boundOf, boundsFor, recordComputation, recordSweepBounds } from './bounds';
 import { mergeSweeps } from './sweep';
+import { personAt } from './snapshot';
 import { checkHandMade, checkPlannerRequest, indicesOfPeople, planError } from './validate';
 
 export type LoadedPlan = PlanRow & { createdByName: string };
@@ -51,6 +53,27 @@ export function runsInBackground(body: CreatePlanRequest, n: number): boolean {
   if (body.background) return true;
   const fast = body.method === 'greedy' || body.method === 'swap' || body.method === 'widened';
   return !fast || n > PLAN_LIMITS.inlineMaxPeople;
+}
+
+/** An automatic plan the caller did not ask to run in the background, of a room awaited inline otherwise. */
+function answersInline(body: CreatePlanRequest, n: number): boolean {
+  return !body.background && (body.method ?? 'auto') === 'auto' && n <= PLAN_LIMITS.inlineMaxPeople;
+}
+
+/** How a job ended, if it ends within `ms` (listening starts before the job is queued); null otherwise. */
+function jobEnd(jobId: number, ms: number): Promise<string | null> {
+  return new Promise((resolve) => {
+    const stop = onJobEvent(jobId, (e) => {
+      if (e.type === 'queued' || e.type === 'started' || e.type === 'progress') return;
+      settle(e.type);
+    });
+    const timer = setTimeout(() => settle(null), ms);
+    function settle(v: string | null) {
+      clearTimeout(timer);
+      stop();
+      resolve(v);
+    }
+  });
 }
 
 function plannerTask(
@@ -123,7 +146,13 @@ export async function createPlan(
       return { planId, jobId };
     });
     const job = (await findJob(jobId))!;
+    // A quick automatic plan is answered in this request (one round trip instead of a stream).
+    const ended = answersInline(body, room.n) ? jobEnd(jobId, PLAN_LIMITS.autoAnswerWithinMs) : null;
     await jobRunner.enqueue(job);
+    if ((await ended) === 'done') {
+      const row = await store.findPlan(planId);
+      if (row?.status === 'ready') return { status: 201, body: planDetail(row, snapshot.version, await boundOf(row)) };
+    }
     const plan = (await store.findPlan(planId))!;
     const started = planSummary(plan, snapshot.version, await boundOf(plan));
     return { status: 202, body: { plan: started, job: jobDto(job, await jobRunner.positionOf(job)) } };
@@ -246,8 +275,8 @@ export async function comparePlans(a: LoadedPlan, b: LoadedPlan): Promise<PlanCo
   const hb = hops(b);
   const ids = [...ha.snap.personIds, ...hb.snap.personIds.filter((id) => !ha.map.has(id))];
   const nameOf = new Map<number, string>();
-  hb.snap.personIds.forEach((id, i) => nameOf.set(id, hb.snap.names[i]));
-  ha.snap.personIds.forEach((id, i) => nameOf.set(id, ha.snap.names[i]));
+  hb.snap.personIds.forEach((id, i) => nameOf.set(id, personAt(hb.snap, i).name));
+  ha.snap.personIds.forEach((id, i) => nameOf.set(id, personAt(ha.snap, i).name));
   const people = ids.map((personId) => {
     const va = ha.map.get(personId) ?? null;
     const vb = hb.map.get(personId) ?? null;

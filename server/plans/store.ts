@@ -6,6 +6,7 @@ import { jobs, plans, rehearsals } from '../../db/schema/plans';
 import { rooms } from '../../db/schema/rooms';
 import { db, type Tx } from '../db';
 import type { BoundKey } from './bound-key';
+import { firstOf } from '../../shared/checked';
 
 export type PlanRow = typeof plans.$inferSelect;
 export type NewPlan = typeof plans.$inferInsert;
@@ -15,7 +16,7 @@ export type PlanListRow = Omit<PlanRow, 'snapshot' | 'results'> & { createdByNam
 const { snapshot: _snapshot, results: _results, ...listColumns } = getTableColumns(plans);
 
 export async function insertPlan(values: NewPlan, tx: Tx | typeof db = db): Promise<number> {
-  const [{ id }] = await tx.insert(plans).values(values).$returningId();
+  const { id } = firstOf(await tx.insert(plans).values(values).$returningId(), 'new plan id');
   return id;
 }
 

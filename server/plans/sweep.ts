@@ -5,6 +5,7 @@
  */
 import { exactReach, isEngineError, plan, runGenerator, type PreparedRoom } from '../../shared/engine/index';
 import type { KSweepPoint, KSweepResult } from '../../shared/api/plans';
+import { firstOf, itemAt } from '../../shared/checked';
 import { prepared, type RoomSnapshot } from './compute';
 
 export const RANDOM_DRAWS = 20;
@@ -22,7 +23,7 @@ export function mergeSweeps(parts: KSweepResult[], elapsedMs: number): KSweepRes
   }
   if (partial > 0)
     notes.add(`For ${partial} values of k some random draws left people who can never hear; the random baseline averages the others.`);
-  return { ...parts[0], points, notes: [...notes], elapsedMs };
+  return { ...firstOf(parts, 'k-sweep parts'), points, notes: [...notes], elapsedMs };
 }
 
 export interface SweepTask {
@@ -53,8 +54,9 @@ function planned(room: PreparedRoom, k: number, method: 'greedy' | 'widened' | '
 function mostTies(room: PreparedRoom): number[] {
   const { csr, n } = room;
   const s = Float64Array.from(csr.outStrength);
-  if (room.directed) for (let e = 0; e < csr.col.length; e++) s[csr.col[e]] += csr.weight[e];
-  return Array.from({ length: n }, (_, i) => i).sort((a, b) => s[b] - s[a] || a - b);
+  const strength = (i: number) => itemAt(s, i, 'tie strength');
+  if (room.directed) csr.col.forEach((to, e) => (s[to] = strength(to) + itemAt(csr.weight, e, 'tie weight')));
+  return Array.from({ length: n }, (_, i) => i).sort((a, b) => strength(b) - strength(a) || a - b);
 }
 
 function randomAverage(room: PreparedRoom, k: number, seed: string): { mean: number | null; finite: number } {
@@ -66,7 +68,7 @@ function randomAverage(room: PreparedRoom, k: number, seed: string): { mean: num
     const order = Array.from({ length: room.n }, (_, i) => i);
     for (let i = 0; i < k; i++) {
       const j = i + Math.floor(rand() * (room.n - i));
-      [order[i], order[j]] = [order[j], order[i]];
+      [order[i], order[j]] = [itemAt(order, j, 'draw order'), itemAt(order, i, 'draw order')];
     }
     const a = averageOrNull(room, order.slice(0, k));
     if (a !== null) {

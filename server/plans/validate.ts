@@ -9,6 +9,7 @@ import { PLAN_LIMITS, type CreatePlanRequest } from '../../shared/api/plans';
 import { planRequestProblems, startersProblem, type RuleProblem } from '../../shared/api/plan-rules';
 import { HttpError } from '../core/http-error';
 import type { RoomSnapshot } from './compute';
+import { personAt } from './snapshot';
 
 export function planError(code: string, message: string, details?: Record<string, unknown>): HttpError {
   return new HttpError(400, code, message, details);
@@ -33,8 +34,9 @@ export function indicesOfPeople(snapshot: RoomSnapshot, ids: readonly number[], 
     );
   }
   const dupes = ids.filter((id, i) => ids.indexOf(id) !== i);
-  if (dupes.length > 0)
-    throw planError('INVALID_STARTERS', `${what}: ${snapshot.names[index.get(dupes[0])!]} is listed twice.`, { personIds: dupes });
+  const twice = dupes[0] === undefined ? undefined : index.get(dupes[0]);
+  if (twice !== undefined)
+    throw planError('INVALID_STARTERS', `${what}: ${personAt(snapshot, twice).name} is listed twice.`, { personIds: dupes });
   return ids.map((id) => index.get(id)!);
 }
 

@@ -7,6 +7,7 @@
  * fold, so a rehearsal of that size equals simulate() in one thread.
  */
 import { REHEARSAL_LIMITS } from '../../shared/api/plans';
+import { firstOf, lastOf } from '../../shared/checked';
 import { prepareRoom, type PreparedRoom } from '../../shared/engine/room';
 import { mergePartials } from '../../shared/engine/simulate/partial';
 import { planSimulation, type SimulateOptions } from '../../shared/engine/simulate/plan';
@@ -77,7 +78,10 @@ function inputs(jobId: number): Promise<Inputs> {
 export const rehearsalJobHandler: ChunkedJobHandler = {
   async chunks(job: JobRow): Promise<ChunkRange[]> {
     const { rehearsal, room } = await inputs(job.id);
-    return queueChunks(rehearsal.runs, room.n).map((group) => ({ from: group[0].from, to: group[group.length - 1].to }));
+    return queueChunks(rehearsal.runs, room.n).map((group) => ({
+      from: firstOf(group, 'chunk group').from,
+      to: lastOf(group, 'chunk group').to,
+    }));
   },
 
   async runChunk(job: JobRow, range: ChunkRange, signal: AbortSignal): Promise<string> {

@@ -1,14 +1,14 @@
 /** Sample cascades for the projector replay: the people (with their current map positions) and each stored cascade. */
-import { eq } from 'drizzle-orm';
 import type { ReplayIndex, ReplaySample } from '../../shared/api/plans';
-import { people as peopleTable } from '../../db/schema/rooms';
+import { itemAt } from '../../shared/checked';
 import { notFound } from '../core/http-error';
-import { db } from '../db';
 import { parseSnapshot } from '../plans/dto';
+import { personAt } from '../plans/snapshot';
 import { findPlan } from '../plans/store';
 import { planError } from '../plans/validate';
 import type { StoredSample } from './results';
 import type { LoadedRehearsal } from './service';
+import { personPositions } from './store';
 
 function samplesOf(row: LoadedRehearsal): StoredSample[] {
   if (row.job.status !== 'done' || !row.rehearsal.samples)
@@ -20,14 +20,7 @@ export async function replayIndex(row: LoadedRehearsal): Promise<ReplayIndex> {
   const samples = samplesOf(row);
   const plan = (await findPlan(row.rehearsal.planId))!;
   const snap = parseSnapshot(plan);
-  const positions = new Map(
-    (
-      await db
-        .select({ id: peopleTable.id, x: peopleTable.x, y: peopleTable.y })
-        .from(peopleTable)
-        .where(eq(peopleTable.roomId, plan.roomId))
-    ).map((p) => [p.id, p]),
-  );
+  const positions = new Map((await personPositions(plan.roomId)).map((p) => [p.id, p]));
   const starters = (plan.starters ?? []).map((s) => s.personId);
   const isStarter = new Set(starters);
   return {
@@ -39,8 +32,8 @@ export async function replayIndex(row: LoadedRehearsal): Promise<ReplayIndex> {
     people: snap.personIds.map((personId, index) => ({
       index,
       personId,
-      name: snap.names[index],
-      group: snap.graph.groups?.[index] ?? null,
+      name: personAt(snap, index).name,
+      group: personAt(snap, index).group,
       x: positions.get(personId)?.x ?? null,
       y: positions.get(personId)?.y ?? null,
       starter: isStarter.has(personId),
@@ -63,8 +56,10 @@ export async function replaySample(row: LoadedRehearsal, rawN: string): Promise<
   for (const st of plan.starters ?? []) heardAt[index.get(st.personId)!] = 0;
   const chains = s.people.map((person, q) => {
     const capped = s.capped[q] === 1;
-    if (!capped) heardAt[person] = s.hops[q];
-    return { person, path: s.path.slice(s.pathStart[q], s.pathStart[q + 1]), hops: s.hops[q], truncated: s.truncated[q] === 1, capped };
+    const hops = itemAt(s.hops, q, 'sample hops');
+    if (!capped) heardAt[person] = hops;
+    const path = s.path.slice(itemAt(s.pathStart, q, 'sample path start'), itemAt(s.pathStart, q + 1, 'sample path end'));
+    return { person, path, hops, truncated: s.truncated[q] === 1, capped };
   });
   const lastHop = chains.reduce((m, c) => (c.capped ? m : Math.max(m, c.hops)), 0);
   return { rehearsalId: row.rehearsal.id, n, run: s.run, seed: row.rehearsal.seed, heardAt, chains, lastHop };

@@ -13,6 +13,7 @@ import {
   type StartRehearsalRequest,
 } from '../../shared/api/plans';
 import { runsProblem, seedProblem } from '../../shared/api/plan-rules';
+import { itemAt } from '../../shared/checked';
 import { Z99 } from '../../shared/engine/index';
 import { config } from '../config';
 import { conflict, notFound } from '../core/http-error';
@@ -25,6 +26,7 @@ import { jobRunner } from '../jobs/runner';
 import { clearJobKey, findJob, findJobByKey, insertJob, updateJob } from '../jobs/store';
 import { parseSnapshot } from '../plans/dto';
 import type { LoadedPlan } from '../plans/service';
+import { personAt } from '../plans/snapshot';
 import { findPlan } from '../plans/store';
 import { planError } from '../plans/validate';
 import type { RoomNeed } from '../rooms/access';
@@ -161,22 +163,27 @@ export async function rehearsalDetail(row: LoadedRehearsal): Promise<RehearsalDe
   if (!results) return { ...base, people: [], reach: null, hopCap: null, hops: null, samples: 0, minutesPerHop: mph };
   const starters = new Set((plan!.starters ?? []).map((s) => s.personId));
   const people = snap.personIds.map((personId, i) => {
-    const half = Z99 * results.stderr[i];
+    // The stored columns were written for this snapshot, one entry per person.
+    const of = <T>(column: readonly T[], name: string): T => itemAt(column, i, `rehearsal ${name}`);
+    const mean = of(results.mean, 'mean');
+    const stderr = of(results.stderr, 'stderr');
+    const half = Z99 * stderr;
+    const { name, group } = personAt(snap, i);
     return {
       personId,
-      name: snap.names[i],
-      group: snap.graph.groups?.[i] ?? null,
+      name,
+      group,
       starter: starters.has(personId),
-      walked: results.walked[i] === 1,
-      mean: results.mean[i],
-      sd: results.sd[i],
-      stderr: results.stderr[i],
-      low95: results.low95[i],
-      high95: results.high95[i],
-      low99: results.mean[i] - half,
-      high99: results.mean[i] + half,
+      walked: of(results.walked, 'walked') === 1,
+      mean,
+      sd: of(results.sd, 'sd'),
+      stderr,
+      low95: of(results.low95, 'low95'),
+      high95: of(results.high95, 'high95'),
+      low99: mean - half,
+      high99: mean + half,
       analytic: results.analytic[i] ?? Infinity,
-      capped: results.capped[i],
+      capped: of(results.capped, 'capped'),
       inInterval99: results.inside99[i] === 1,
     };
   });

@@ -2,8 +2,10 @@
 import { and, desc, eq, getTableColumns, gte, lt, sql, type SQL } from 'drizzle-orm';
 import { users } from '../../db/schema/accounts';
 import { jobs, plans, rehearsals } from '../../db/schema/plans';
+import { people } from '../../db/schema/rooms';
 import { db, type Tx } from '../db';
 import type { JobStatus } from '../../shared/api/plans';
+import { firstOf } from '../../shared/checked';
 
 export type RehearsalRow = typeof rehearsals.$inferSelect;
 export type NewRehearsal = typeof rehearsals.$inferInsert;
@@ -22,7 +24,7 @@ export interface RehearsalListRow {
 const roomNumber = sql<number>`(select count(*) from rehearsals r2 where r2.room_id = ${rehearsals.roomId} and r2.id <= ${rehearsals.id})`;
 
 export async function insertRehearsal(values: NewRehearsal, tx: Tx | typeof db = db): Promise<number> {
-  const [{ id }] = await tx.insert(rehearsals).values(values).$returningId();
+  const { id } = firstOf(await tx.insert(rehearsals).values(values).$returningId(), 'new rehearsal id');
   return id;
 }
 
@@ -73,4 +75,9 @@ export async function listRehearsals(roomId: number, f: RehearsalFilter): Promis
 
 export async function deleteRehearsal(id: number): Promise<void> {
   await db.delete(rehearsals).where(eq(rehearsals.id, id));
+}
+
+/** Where each person of a room sits on its map (the replay draws the room as the editor shows it). */
+export async function personPositions(roomId: number): Promise<{ id: number; x: number | null; y: number | null }[]> {
+  return db.select({ id: people.id, x: people.x, y: people.y }).from(people).where(eq(people.roomId, roomId));
 }

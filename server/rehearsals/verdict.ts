@@ -9,6 +9,7 @@
  */
 import { Z99 } from '../../shared/engine/index';
 import type { AgreementVerdict } from '../../shared/api/plans';
+import { itemAt } from '../../shared/checked';
 
 export interface VerdictInput {
   mean: ArrayLike<number>;
@@ -32,10 +33,10 @@ export function verdictOf(v: VerdictInput): AgreementVerdict & { inside: Uint8Ar
   let ok = 0;
   for (let i = 0; i < v.mean.length; i++) {
     const a = v.analytic[i];
-    if (!v.walked[i] || a === null || !Number.isFinite(a)) continue;
+    if (!v.walked[i] || typeof a !== 'number' || !Number.isFinite(a)) continue;
     checked++;
-    const half = Z99 * v.stderr[i];
-    if (Math.abs(a - v.mean[i]) <= half + 1e-12 * Math.max(1, Math.abs(a))) {
+    const half = Z99 * itemAt(v.stderr, i, 'rehearsal stderr');
+    if (Math.abs(a - itemAt(v.mean, i, 'rehearsal mean')) <= half + 1e-12 * Math.max(1, Math.abs(a))) {
       ok++;
       inside[i] = 1;
     }

@@ -15,6 +15,7 @@ import { failFields, keyMaker, pairKey } from './content';
 import type { EditBatchInput, EditOpInput } from './schemas';
 import { staleVersion } from './service';
 import * as store from './store';
+import { itemAt } from '../../shared/checked';
 
 interface PersonState {
   key: string;
@@ -213,7 +214,7 @@ async function write(tx: Tx, roomId: number, steps: Step[]): Promise<Pick<RoomEd
       case 'addPeople': {
         const ids = await store.insertPeopleRows(tx, roomId, step.rows, order + 1);
         order += step.rows.length;
-        step.tempIds.forEach((t, i) => (newPeople[t] = ids[i]));
+        step.tempIds.forEach((t, i) => (newPeople[t] = itemAt(ids, i, 'new person id')));
         break;
       }
       case 'updatePerson':
@@ -228,7 +229,7 @@ async function write(tx: Tx, roomId: number, steps: Step[]): Promise<Pick<RoomEd
           roomId,
           step.rows.map((r) => ({ sourceId: idOf(r.source), targetId: idOf(r.target), strength: r.strength })),
         );
-        step.tempIds.forEach((t, i) => t !== undefined && (newTies[t] = ids[i]));
+        step.tempIds.forEach((t, i) => t !== undefined && (newTies[t] = itemAt(ids, i, 'new tie id')));
         break;
       }
       case 'updateTie':

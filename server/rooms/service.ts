@@ -75,18 +75,15 @@ export async function updateRoom(roomId: number, patch: RoomPatch): Promise<void
 async function checkUndirectedPairs(tx: Tx, roomId: number): Promise<void> {
   const links = await store.roomTies(tx, roomId);
   const seen = new Set<string>();
-  const pairs: string[] = [];
+  const pairs: { a: number; b: number }[] = [];
   for (const t of links) {
     const k = pairKey(t.sourceId, t.targetId, false);
-    if (seen.has(k)) pairs.push(k);
+    if (seen.has(k)) pairs.push({ a: Math.min(t.sourceId, t.targetId), b: Math.max(t.sourceId, t.targetId) }); // as pairKey orders them
     seen.add(k);
   }
   if (pairs.length === 0) return;
   const folk = new Map((await store.roomPeople(tx, roomId)).map((p) => [p.id, p.name]));
-  const named = pairs.slice(0, 5).map((k) => {
-    const [a, b] = k.split(':').map(Number);
-    return `${folk.get(a)} - ${folk.get(b)}`;
-  });
+  const named = pairs.slice(0, 5).map(({ a, b }) => `${folk.get(a)} - ${folk.get(b)}`);
   throw new HttpError(
     409,
     'reciprocal_ties',

@@ -1,12 +1,11 @@
 /** Rooms data access (Drizzle on MariaDB: select / join only, bulk inserts in chunks). */
-import { and, asc, desc, eq, inArray, isNotNull, like, or, sql, type Placeholder, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, like, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
-import type { Page, PersonDto, RoomListItem, RoomSettings, TieDto, TieListItem } from '../../shared/api/rooms';
-import { users } from '../../db/schema/accounts';
-import { people, roomShares, rooms, ties } from '../../db/schema/rooms';
+import type { Page, PersonDto, RoomSettings, TieDto, TieListItem } from '../../shared/api/rooms';
+import { firstOf, itemAt } from '../../shared/checked';
+import { people, rooms, ties } from '../../db/schema/rooms';
 import { db, type Tx } from '../db';
 import type { RoomRow } from './access';
-import { workshopEditorOf } from './grants';
 
 type Q = Tx | typeof db;
 const CHUNK = 1000;
@@ -36,11 +35,11 @@ export async function insertRoom(
   tx: Q,
   values: { ownerId: number; name: string; description: string; settings: RoomSettings },
 ): Promise<number> {
-  const [{ id }] = await tx
+  const inserted = await tx
     .insert(rooms)
     .values({ ownerId: values.ownerId, name: values.name, description: values.description, ...values.settings })
     .$returningId();
-  return id;
+  return firstOf(inserted, 'new room id').id;
 }
 
 /** Inserts people and ties (by index into `folk`); returns the new person ids in order. */
@@ -52,6 +51,7 @@ export async function insertContent(
   firstOrder = 0,
 ): Promise<number[]> {
   const ids: number[] = [];
+  let firstId: number | undefined;
   for (let at = 0; at < folk.length; at += CHUNK) {
     const rows = folk.slice(at, at + CHUNK).map((p, i) => ({
       roomId,
@@ -66,12 +66,16 @@ export async function insertContent(
       orderIndex: firstOrder + at + i,
     }));
     const got = await tx.insert(people).values(rows).$returningId();
-    ids.push(...got.map((g) => g.id));
+    firstId ??= got[0]?.id;
   }
+  if (firstId !== undefined) ids.push(...(await newIdsByKey(tx, roomId, firstId, folk)));
   for (let at = 0; at < links.length; at += CHUNK) {
-    const rows = links
-      .slice(at, at + CHUNK)
-      .map((t) => ({ roomId, sourceId: ids[t.source], targetId: ids[t.target], strength: t.strength }));
+    const rows = links.slice(at, at + CHUNK).map((t) => ({
+      roomId,
+      sourceId: itemAt(ids, t.source, 'tie source person'),
+      targetId: itemAt(ids, t.target, 'tie target person'),
+      strength: t.strength,
+    }));
     await tx.insert(ties).values(rows);
   }
   return ids;
@@ -167,15 +171,15 @@ export async function maxOrder(tx: Q, roomId: number): Promise<number> {
 }
 
 export async function countContent(tx: Q, roomId: number): Promise<{ people: number; ties: number }> {
-  const [p] = await tx
+  const p = await tx
     .select({ n: sql<number>`COUNT(*)` })
     .from(people)
     .where(eq(people.roomId, roomId));
-  const [t] = await tx
+  const t = await tx
     .select({ n: sql<number>`COUNT(*)` })
     .from(ties)
     .where(eq(ties.roomId, roomId));
-  return { people: Number(p.n), ties: Number(t.n) };
+  return { people: Number(firstOf(p, 'people count').n), ties: Number(firstOf(t, 'tie count').n) };
 }
 
 // ---- lists ----
@@ -188,130 +192,7 @@ export interface ListParams<S extends string> {
   q?: string;
 }
 
-const iso = (d: Date) => d.toISOString();
-
-type RoomScope = 'all' | 'mine' | 'shared';
-type Param<T> = T | Placeholder;
-
-/**
- * Which rooms `userId` may open: owned, shared directly (the left-joined `room_shares` row of the
- * caller, unique per room and user), or co-facilitated through a workshop.
- */
-function roomFilter(userId: Param<number>, scope: RoomScope, pattern: Param<string> | undefined) {
-  const mine = eq(rooms.ownerId, userId);
-  const sharedWithMe = or(isNotNull(roomShares.role), workshopEditorOf(userId));
-  const filters = [scope === 'mine' ? mine : scope === 'shared' ? sharedWithMe : or(mine, sharedWithMe)];
-  if (pattern !== undefined) filters.push(or(like(rooms.name, pattern), like(rooms.description, pattern)));
-  return and(...filters);
-}
-
-const myShare = (userId: Param<number>) => and(eq(roomShares.roomId, rooms.id), eq(roomShares.userId, userId));
-
-/**
- * The list statement of one shape (scope, sort, direction, search or not), built once per process.
- * The page is chosen and ordered without the description: sorting rows that carry a TEXT column
- * makes MariaDB put its sort table on disk (Aria), which cost more than the rest of the request.
- * The outer select adds the description and the counts for the page's rows only; `pos` keeps
- * the inner order (the outer select has none, so that it sorts nothing).
- */
-function roomPageQuery(scope: RoomScope, sort: string, direction: 'asc' | 'desc', search: boolean) {
-  const userId = sql.placeholder('userId');
-  const countOf = (table: typeof people | typeof ties, roomId: SQL | typeof rooms.id) =>
-    sql<number>`(SELECT COUNT(*) FROM ${table} WHERE ${table.roomId} = ${roomId})`;
-  const order = direction === 'desc' ? desc : asc;
-  const sortBy =
-    { name: rooms.name, updatedAt: rooms.updatedAt, people: countOf(people, rooms.id), ties: countOf(ties, rooms.id) }[sort] ??
-    rooms.updatedAt;
-  const ordering = [order(sortBy), asc(rooms.id)];
-  const page = db
-    .select({
-      id: rooms.id,
-      name: rooms.name,
-      ownerId: rooms.ownerId,
-      version: rooms.version,
-      updatedAt: rooms.updatedAt,
-      ownerName: sql<string>`${users.name}`.as('owner_name'),
-      shareRole: sql<'editor' | 'viewer' | null>`${roomShares.role}`.as('share_role'),
-      // Asked only where it changes the access shown: not owned, no direct editor share.
-      helper:
-        sql<number>`CASE WHEN ${rooms.ownerId} <> ${userId} AND (${roomShares.role} IS NULL OR ${roomShares.role} <> 'editor') THEN ${workshopEditorOf(userId)} ELSE 0 END`.as(
-          'helper',
-        ),
-      total: sql<number>`COUNT(*) OVER ()`.as('total'),
-      pos: sql<number>`ROW_NUMBER() OVER (ORDER BY ${sql.join(ordering, sql`, `)})`.as('pos'),
-    })
-    .from(rooms)
-    .innerJoin(users, eq(users.id, rooms.ownerId))
-    .leftJoin(roomShares, myShare(userId))
-    .where(roomFilter(userId, scope, search ? sql.placeholder('pattern') : undefined))
-    .orderBy(...ordering)
-    .limit(sql.placeholder('limit'))
-    .offset(sql.placeholder('offset'))
-    .as('page');
-  const described = alias(rooms, 'described');
-  return db
-    .select({
-      id: page.id,
-      name: page.name,
-      description: described.description,
-      ownerId: page.ownerId,
-      version: page.version,
-      updatedAt: page.updatedAt,
-      ownerName: page.ownerName,
-      shareRole: page.shareRole,
-      helper: page.helper,
-      people: countOf(people, sql`${page.id}`),
-      ties: countOf(ties, sql`${page.id}`),
-      total: page.total,
-      pos: page.pos,
-    })
-    .from(page)
-    .innerJoin(described, eq(described.id, page.id))
-    .prepare();
-}
-
-const roomPageQueries = new Map<string, ReturnType<typeof roomPageQuery>>();
-
-/**
- * One page of the rooms `userId` may open, in one statement: the access reasons are a join and
- * a subquery of the same select, and the total comes with every row (`COUNT(*) OVER ()`,
- * computed before LIMIT). Only a page past the end needs a second statement, for its total.
- */
-export async function listRooms(userId: number, p: ListParams<string> & { scope: RoomScope }): Promise<Page<RoomListItem>> {
-  const shape = `${p.scope}|${p.sort}|${p.direction}|${p.q ? 'q' : ''}`;
-  let query = roomPageQueries.get(shape);
-  if (!query) roomPageQueries.set(shape, (query = roomPageQuery(p.scope, p.sort, p.direction, !!p.q)));
-  const pattern = p.q ? contains(p.q) : undefined;
-  const rows = (await query.execute({ userId, pattern, limit: p.pageSize, offset: p.page * p.pageSize })).sort(
-    (a, b) => Number(a.pos) - Number(b.pos),
-  );
-  const total = rows.length ? Number(rows[0].total) : p.page > 0 ? await countRooms(userId, p.scope, pattern) : 0;
-  return {
-    total,
-    page: p.page,
-    pageSize: p.pageSize,
-    items: rows.map((r) => ({
-      id: r.id,
-      name: r.name,
-      description: r.description,
-      access: r.ownerId === userId ? 'owner' : Number(r.helper) ? 'editor' : (r.shareRole ?? 'viewer'),
-      ownerName: r.ownerName,
-      people: Number(r.people),
-      ties: Number(r.ties),
-      version: r.version,
-      updatedAt: iso(r.updatedAt),
-    })),
-  };
-}
-
-async function countRooms(userId: number, scope: RoomScope, pattern: string | undefined): Promise<number> {
-  const [{ total }] = await db
-    .select({ total: sql<number>`COUNT(*)` })
-    .from(rooms)
-    .leftJoin(roomShares, myShare(userId))
-    .where(roomFilter(userId, scope, pattern));
-  return Number(total);
-}
+export const iso = (d: Date) => d.toISOString();
 
 export async function listPeople(roomId: number, p: ListParams<string> & { group?: string }): Promise<Page<PersonDto>> {
   const filters: (SQL | undefined)[] = [eq(people.roomId, roomId)];
@@ -325,10 +206,11 @@ export async function listPeople(roomId: number, p: ListParams<string> & { group
   const sortBy = { order: people.orderIndex, name: people.name, key: people.personKey, group: people.groupName, email: people.email }[
     p.sort
   ];
-  const [{ total }] = await db
+  const counted = await db
     .select({ total: sql<number>`COUNT(*)` })
     .from(people)
     .where(where);
+  const { total } = firstOf(counted, 'people count');
   const items = await db
     .select(personColumns)
     .from(people)
@@ -351,12 +233,13 @@ export async function listTies(roomId: number, p: ListParams<string> & { personI
   const where = and(...filters);
   const order = p.direction === 'desc' ? desc : asc;
   const sortBy = { source: s.name, target: t.name, strength: ties.strength }[p.sort] ?? s.name;
-  const [{ total }] = await db
+  const counted = await db
     .select({ total: sql<number>`COUNT(*)` })
     .from(ties)
     .innerJoin(s, eq(s.id, ties.sourceId))
     .innerJoin(t, eq(t.id, ties.targetId))
     .where(where);
+  const { total } = firstOf(counted, 'tie count');
   const items = await db
     .select({
       id: ties.id,
@@ -412,15 +295,41 @@ export async function insertTieRows(
   roomId: number,
   links: { sourceId: number; targetId: number; strength: number }[],
 ): Promise<number[]> {
-  const ids: number[] = [];
+  let firstId: number | undefined;
   for (let at = 0; at < links.length; at += CHUNK) {
     const got = await tx
       .insert(ties)
       .values(links.slice(at, at + CHUNK).map((l) => ({ roomId, ...l })))
       .$returningId();
-    ids.push(...got.map((g) => g.id));
+    firstId ??= got[0]?.id;
   }
-  return ids;
+  if (firstId === undefined) return [];
+  const rows = await tx
+    .select({ id: ties.id, sourceId: ties.sourceId, targetId: ties.targetId })
+    .from(ties)
+    .where(and(eq(ties.roomId, roomId), gte(ties.id, firstId)));
+  const byPair = new Map(rows.map((r) => [`${r.sourceId}:${r.targetId}`, r.id]));
+  return links.map((l) => idOrThrow(byPair.get(`${l.sourceId}:${l.targetId}`), 'tie'));
+}
+
+/*
+ * The ids of rows just inserted are read back by their natural key, not counted up from the
+ * first one: a multi-row insert's ids are consecutive only where auto_increment_increment is 1,
+ * and a Galera cluster sets it to the cluster size. The room's row is locked (or the room is
+ * new), so every row of the room with an id from the first new one on is one of ours.
+ */
+async function newIdsByKey(tx: Q, roomId: number, firstId: number, folk: PersonRowInput[]): Promise<number[]> {
+  const rows = await tx
+    .select({ id: people.id, key: people.personKey })
+    .from(people)
+    .where(and(eq(people.roomId, roomId), gte(people.id, firstId)));
+  const byKey = new Map(rows.map((r) => [r.key, r.id]));
+  return folk.map((p) => idOrThrow(byKey.get(p.key), 'person'));
+}
+
+function idOrThrow(id: number | undefined, what: string): number {
+  if (id === undefined) throw new Error(`a ${what} just inserted was not found again`);
+  return id;
 }
 
 /** Many positions in one statement per chunk (a drag of many people is one autosave). */

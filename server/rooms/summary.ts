@@ -7,6 +7,7 @@
  */
 import { classStructure, isEngineError, plan, prepareRoom, type RoomGraph } from '../../shared/engine/index';
 import type { PersonRefDto, RoomGroupProblem, RoomHint, RoomSummary } from '../../shared/api/rooms';
+import { firstOf, itemAt } from '../../shared/checked';
 import type { LoadedRoomGraph } from './access';
 
 const HINT_DENSE_MAX = 400;
@@ -15,8 +16,9 @@ const NAMED = 12;
 /** Connected parts ignoring direction (union-find). */
 function connectedParts(graph: RoomGraph): number {
   const parent = Int32Array.from({ length: graph.ids.length }, (_, i) => i);
+  const up = (i: number) => itemAt(parent, i, 'union-find parent');
   const find = (i: number): number => {
-    while (parent[i] !== i) i = parent[i] = parent[parent[i]];
+    while (up(i) !== i) i = parent[i] = up(up(i));
     return i;
   };
   let parts = graph.ids.length;
@@ -35,7 +37,7 @@ export function summarize(loaded: LoadedRoomGraph): RoomSummary {
   const { graph, personIds, names, settings, version } = loaded;
   const n = graph.ids.length;
   const m = graph.ties.length;
-  const ref = (i: number): PersonRefDto => ({ id: personIds[i], name: names[i] });
+  const ref = (i: number): PersonRefDto => ({ id: itemAt(personIds, i, 'person id'), name: itemAt(names, i, 'person name') });
   const groups = new Set(graph.groups?.filter((g) => g !== null)).size;
   const possible = settings.directed ? n * (n - 1) : (n * (n - 1)) / 2;
   const base: RoomSummary = {
@@ -67,7 +69,8 @@ export function summarize(loaded: LoadedRoomGraph): RoomSummary {
   const describe = (members: number[]) => members.slice(0, NAMED).map(ref);
   if (closed.length > 1) {
     for (const members of closed) {
-      if (members.length === 1 && !touched[members[0]]) continue; // listed as isolated
+      const first = firstOf(members, 'closed group');
+      if (members.length === 1 && !touched[first]) continue; // listed as isolated
       base.problems.push(
         settings.directed
           ? {
@@ -75,7 +78,7 @@ export function summarize(loaded: LoadedRoomGraph): RoomSummary {
               people: describe(members),
               size: members.length,
               message:
-                `${members.length === 1 ? `${names[members[0]]} asks` : `These ${members.length} people ask only each other`}: ` +
+                `${members.length === 1 ? `${itemAt(names, first, 'person name')} asks` : `These ${members.length} people ask only each other`}: ` +
                 'the message gets in only if one of them is briefed. Brief one of them, or add a tie from one of them to someone outside.',
             }
           : {
@@ -109,19 +112,23 @@ function cannotLeave(
   names: string[],
   describe: (m: number[]) => PersonRefDto[],
 ): RoomGroupProblem[] {
+  const componentOf = (i: number) => itemAt(structure.component, i, 'component');
   const asked = new Uint8Array(structure.componentCount);
   for (let i = 0; i < n; i++) {
-    for (let e = rowStart[i]; e < rowStart[i + 1]; e++) {
-      const c = structure.component[col[e]];
-      if (c !== structure.component[i]) asked[c] = 1;
+    const own = componentOf(i);
+    const end = itemAt(rowStart, i + 1, 'tie row end');
+    for (let e = itemAt(rowStart, i, 'tie row start'); e < end; e++) {
+      const c = componentOf(itemAt(col, e, 'tie target'));
+      if (c !== own) asked[c] = 1;
     }
   }
   const members = new Map<number, number[]>();
   for (let i = 0; i < n; i++) {
-    const c = structure.component[i];
-    if (asked[c] || structure.closedOf[i] >= 0) continue; // closed groups are reported above
-    if (!members.has(c)) members.set(c, []);
-    members.get(c)!.push(i);
+    const c = componentOf(i);
+    if (asked[c] || itemAt(structure.closedOf, i, 'closed group') >= 0) continue; // closed groups are reported above
+    const list = members.get(c);
+    if (list) list.push(i);
+    else members.set(c, [i]);
   }
   if (members.size === 0) return [];
   const groups = [...members.values()];
@@ -139,7 +146,7 @@ function cannotLeave(
       kind: 'cannot-leave',
       people: describe(singles),
       size: singles.length,
-      message: `Nobody asks ${singles.length === 1 ? names[singles[0]] : `these ${singles.length} people`}: briefing ${singles.length === 1 ? 'them' : 'one of them'} reaches only ${singles.length === 1 ? 'them' : 'that person'}. Choose starters others ask.`,
+      message: `Nobody asks ${singles.length === 1 ? itemAt(names, firstOf(singles, 'single'), 'person name') : `these ${singles.length} people`}: briefing ${singles.length === 1 ? 'them' : 'one of them'} reaches only ${singles.length === 1 ? 'them' : 'that person'}. Choose starters others ask.`,
     });
   }
   return out;
@@ -161,14 +168,15 @@ function hint(loaded: LoadedRoomGraph, summary: RoomSummary, notes: string[]): R
   try {
     const room = prepareRoom(graph, { laziness: settings.laziness, mixing: settings.mixing });
     const best = plan(room, { k: 1, method: n <= HINT_DENSE_MAX ? 'greedy' : 'lazy-greedy' });
-    const s = best.starters[0];
+    const s = firstOf(best.starters, 'hint starter');
+    const name = itemAt(names, s, 'person name');
     const minutes = best.average * settings.minutesPerHop;
     return {
-      starter: { id: personIds[s], name: names[s] },
+      starter: { id: itemAt(personIds, s, 'person id'), name },
       average: best.average,
       minutes,
       message:
-        `Briefing only ${names[s]} gives a room average of ${best.average.toFixed(1)} expected hops to hear (about ${Math.round(minutes)} minutes). ` +
+        `Briefing only ${name} gives a room average of ${best.average.toFixed(1)} expected hops to hear (about ${Math.round(minutes)} minutes). ` +
         'This says where they sit in the map, not what they are worth. Plan with more starters to bring it down.',
     };
   } catch (e) {

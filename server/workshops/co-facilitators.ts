@@ -1,8 +1,4 @@
-import { and, eq } from 'drizzle-orm';
-import { roomShares } from '../../db/schema/rooms';
-import { workshopFacilitators } from '../../db/schema/workshops';
-import { db } from '../db';
-import type { WorkshopRow } from './store';
+import { directShareRole, facilitatorUserIds, type WorkshopRow } from './store';
 
 /**
  * Co-facilitators run the workshop's room with the owner: while they co-facilitate, they have
@@ -19,18 +15,10 @@ export interface RoomAccessNote {
 
 export async function roomAccessNote(w: WorkshopRow, userId: number): Promise<RoomAccessNote> {
   if (w.roomId === null) return { roomId: null, directShare: null };
-  const [share] = await db
-    .select({ role: roomShares.role })
-    .from(roomShares)
-    .where(and(eq(roomShares.roomId, w.roomId), eq(roomShares.userId, userId)));
-  return { roomId: w.roomId, directShare: share?.role ?? null };
+  return { roomId: w.roomId, directShare: await directShareRole(w.roomId, userId) };
 }
 
 /** The co-facilitators of a workshop (user ids), for the audit line when it is deleted. */
 export async function coFacilitatorIds(workshopId: number): Promise<number[]> {
-  const rows = await db
-    .select({ userId: workshopFacilitators.userId })
-    .from(workshopFacilitators)
-    .where(eq(workshopFacilitators.workshopId, workshopId));
-  return rows.map((r) => r.userId);
+  return facilitatorUserIds(workshopId);
 }

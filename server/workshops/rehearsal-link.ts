@@ -5,6 +5,7 @@ import { replayIndex, replaySample } from '../rehearsals/replay';
 import { loadRehearsalFor } from '../rehearsals/service';
 import type { SignedInUser } from '../types';
 import type { DebriefInput } from './debrief';
+import { itemAt } from '../../shared/checked';
 
 /** What the debrief needs from one rehearsal and one of its stored cascades (plans server). */
 export async function loadReplayForDebrief(
@@ -32,7 +33,7 @@ export async function loadReplayForDebrief(
       name: p.name,
       starter: p.starter,
       expectedHops: hops.get(p.personId) ?? null,
-      heardAt: cascade.heardAt[p.index],
+      heardAt: itemAt(cascade.heardAt, p.index, 'cascade heard-at'),
     })),
   };
 }

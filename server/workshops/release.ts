@@ -1,11 +1,8 @@
-import { eq } from 'drizzle-orm';
-import { workshops } from '../../db/schema/workshops';
-import { db } from '../db';
 import { HttpError } from '../core/http-error';
 import type { SignedInUser } from '../types';
 import { composeDebrief } from './debrief';
 import { loadReplayForDebrief } from './rehearsal-link';
-import type { WorkshopRow } from './store';
+import { updateWorkshop, type WorkshopRow } from './store';
 
 /**
  * Releases the debrief: fixes what participants will see (from one rehearsal of a plan on
@@ -26,5 +23,5 @@ export async function releaseDebrief(
     throw new HttpError(400, 'wrong_room', 'That rehearsal belongs to another room. Choose a rehearsal of this workshop’s room.');
   }
   const snapshot = composeDebrief({ ...replay, rehearsalId: body.rehearsalId, sampleRun: body.sampleRun });
-  await db.update(workshops).set({ debrief: snapshot, showStarters: body.showStarters, status: 'debrief' }).where(eq(workshops.id, w.id));
+  await updateWorkshop(w.id, { debrief: snapshot, showStarters: body.showStarters, status: 'debrief' });
 }

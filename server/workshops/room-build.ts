@@ -1,6 +1,3 @@
-import { and, eq, inArray } from 'drizzle-orm';
-import { ties } from '../../db/schema/rooms';
-import { workshopParticipants, workshops } from '../../db/schema/workshops';
 import { DEFAULT_ROOM_SETTINGS } from '../../shared/api/rooms';
 import type { BuildMode, BuildResult, MissingAnswer } from '../../shared/api/workshops';
 import { db, type Tx } from '../db';
@@ -9,8 +6,17 @@ import { keyMaker } from '../rooms/content';
 import * as roomStore from '../rooms/store';
 import type { SignedInUser } from '../types';
 import { loadRoomFor } from '../rooms/access';
-import { answeredIds, nominationsOf, participantsById, type WorkshopRow } from './store';
+import {
+  answeredIds,
+  deleteTiesAmong,
+  nominationsOf,
+  participantsById,
+  setParticipantPerson,
+  updateWorkshop,
+  type WorkshopRow,
+} from './store';
 import { missingMeaning, tiesFromAnswers } from './ties-from-answers';
+import { itemAt } from '../../shared/checked';
 
 /**
  * Builds or updates the workshop's room from the survey answers, in one transaction:
@@ -56,7 +62,7 @@ export async function buildRoom(w: WorkshopRow, owner: SignedInUser, mode: Build
         description: `Built from the survey answers of the workshop “${w.title}” on ${w.sessionDate}.`,
         settings: { ...DEFAULT_ROOM_SETTINGS, directed },
       });
-      await tx.update(workshops).set({ roomId }).where(eq(workshops.id, w.id));
+      await updateWorkshop(w.id, { roomId }, tx);
     }
     const room = await roomStore.lockRoom(tx, roomId);
     if (!room) throw new HttpError(409, 'room_gone', 'The room of this workshop was deleted.');
@@ -82,16 +88,14 @@ export async function buildRoom(w: WorkshopRow, owner: SignedInUser, mode: Build
         toAdd.map((p) => ({ key: nextKey(), name: p.name, group: null, email: p.email, x: null, y: null, pinned: false })),
         first,
       );
-      for (let i = 0; i < toAdd.length; i++) {
-        personOf.set(toAdd[i].id, ids[i]);
-        await tx
-          .update(workshopParticipants)
-          .set({ personId: String(ids[i]) })
-          .where(eq(workshopParticipants.id, toAdd[i].id));
+      for (const [i, participant] of toAdd.entries()) {
+        const personId = itemAt(ids, i, 'new person id');
+        personOf.set(participant.id, personId);
+        await setParticipantPerson(participant.id, personId, tx);
       }
     }
     const surveyPeople = [...personOf.values()];
-    await tx.delete(ties).where(and(eq(ties.roomId, roomId), inArray(ties.sourceId, surveyPeople), inArray(ties.targetId, surveyPeople)));
+    await deleteTiesAmong(roomId, surveyPeople, tx);
     const edges = (await nominationsOf(w.id, tx))
       .filter((e) => personOf.has(e.from) && personOf.has(e.to))
       .map((e) => ({ from: personOf.get(e.from)!, to: personOf.get(e.to)!, level: e.level }));

@@ -42,10 +42,11 @@ export function parseRoster(text: string): { rows: RosterRow[]; issues: RosterIs
     start = 1;
   }
   const seen = new Set<string>();
-  for (let i = start; i < records.length; i++) {
+  for (const [i, record] of records.entries()) {
+    if (i < start) continue;
     const line = i + 1;
-    const name = (records[i][nameCol] ?? '').trim();
-    const email = emailCol >= 0 ? (records[i][emailCol] ?? '').trim() : '';
+    const name = (record[nameCol] ?? '').trim();
+    const email = emailCol >= 0 ? (record[emailCol] ?? '').trim() : '';
     if (!name) issues.push({ line, message: 'The name is empty.' });
     else if (name.length > NAME_MAX) issues.push({ line, message: `The name is longer than ${NAME_MAX} characters.` });
     else if (email && !EMAIL.test(email)) issues.push({ line, message: `“${email}” is not an e-mail address.` });

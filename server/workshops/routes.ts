@@ -1,13 +1,11 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { workshops } from '../../db/schema/workshops';
 import { BUILD_MODES, NAME_MAX, NOMINATION_LIMIT_MAX, ROSTER_MAX, TITLE_MAX, WORKSHOP_STATUSES } from '../../shared/api/workshops';
 import { db } from '../db';
 import { signedIn } from '../core/access';
 import { audit } from '../core/audit';
 import { parse } from '../core/validate';
 import { loadRoomFor } from '../rooms/access';
-import { eq } from 'drizzle-orm';
 import { issueJoinCode, joinUrl } from '../participants/links';
 import { loadWorkshopFor } from './access';
 import { releaseDebrief } from './release';
@@ -15,7 +13,7 @@ import { buildRoom, missingAnswers } from './room-build';
 import { parseRoster } from './roster';
 import { qrDataUrl } from './qr';
 import * as service from './service';
-import { listWorkshops, participantCounts } from './store';
+import { deleteWorkshop, insertWorkshop, listWorkshops, participantCounts, updateWorkshop } from './store';
 import type { SignedInUser } from '../types';
 import { findUserById } from '../auth/store';
 import { idOf } from '../core/ids';
@@ -86,16 +84,13 @@ workshopsRouter.get('/', signedIn(), async (req, res) => {
 workshopsRouter.post('/', signedIn(), async (req, res) => {
   const body = parse(createBody, req.body);
   if (body.roomId !== null) await loadRoomFor(req.user, body.roomId, 'edit');
-  const [{ id }] = await db
-    .insert(workshops)
-    .values({
-      ownerId: req.user!.id,
-      title: body.title,
-      sessionDate: body.sessionDate,
-      roomId: body.roomId,
-      nominationLimit: body.nominationLimit ?? 5,
-    })
-    .$returningId();
+  const id = await insertWorkshop({
+    ownerId: req.user!.id,
+    title: body.title,
+    sessionDate: body.sessionDate,
+    roomId: body.roomId,
+    nominationLimit: body.nominationLimit ?? 5,
+  });
   const loaded = await loadWorkshopFor(req.user, id);
   if (body.roomId !== null) await service.participantsFromRoom(loaded.workshop, req.user!);
   await audit(req, { action: 'workshop.created', targetType: 'workshop', targetId: id });
@@ -111,14 +106,14 @@ workshopsRouter.patch('/:id', signedIn(), async (req, res) => {
   const { workshop, owner } = await loadWorkshopFor(req.user, req.params['id']);
   const body = parse(patchBody, req.body);
   service.assertNotClosed(workshop);
-  if (Object.keys(body).length) await db.update(workshops).set(body).where(eq(workshops.id, workshop.id));
+  await updateWorkshop(workshop.id, body);
   res.json(await service.workshopDetail((await loadWorkshopFor(req.user, workshop.id)).workshop, owner));
 });
 
 workshopsRouter.delete('/:id', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id'], 'own');
   const helpers = await coFacilitatorIds(workshop.id);
-  await db.delete(workshops).where(eq(workshops.id, workshop.id));
+  await deleteWorkshop(workshop.id);
   // Their editor access to the workshop's room ended with the workshop (server/rooms/grants.ts).
   await audit(req, {
     action: 'workshop.deleted',
@@ -256,7 +251,7 @@ workshopsRouter.post('/:id/join-code', signedIn(), async (req, res) => {
 
 workshopsRouter.delete('/:id/join-code', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
-  await db.update(workshops).set({ joinCodeHash: null, joinCodeExpiresAt: null }).where(eq(workshops.id, workshop.id));
+  await updateWorkshop(workshop.id, { joinCodeHash: null, joinCodeExpiresAt: null });
   res.status(204).end();
 });
 

@@ -1,9 +1,6 @@
-import { and, eq } from 'drizzle-orm';
-import { users } from '../../db/schema/accounts';
-import { rooms } from '../../db/schema/rooms';
-import { workshopFacilitators, workshopParticipants, workshops } from '../../db/schema/workshops';
 import { STATUS_LABELS, STATUS_MOVES, type IssuedLink, type WorkshopDetail, type WorkshopStatus } from '../../shared/api/workshops';
 import { db, transaction } from '../db';
+import { findUserByEmail } from '../auth/store';
 import { badRequest, conflict, HttpError, notFound } from '../core/http-error';
 import { sendMail } from '../mail/transport';
 import { linksFor, participantUrl, reissueLinks, revokeLinks, revokeToken, type ShownLink } from '../participants/links';
@@ -14,11 +11,17 @@ import type { DebriefSnapshot } from './debrief';
 import { surveyLinkMail } from './mail';
 import { qrDataUrl } from './qr';
 import {
+  clearClaim,
+  deleteFacilitator,
+  deleteParticipant,
   facilitatorsOf,
+  insertFacilitator,
   insertParticipants,
   lockWorkshop,
   participantRows,
   participantsById,
+  roomNameOf,
+  updateWorkshop,
   type ParticipantDbRow,
   type WorkshopRow,
 } from './store';
@@ -26,11 +29,7 @@ import {
 /** Workshops domain: status moves, facilitators, participants and their links. */
 
 export async function workshopDetail(w: WorkshopRow, owner: boolean): Promise<WorkshopDetail> {
-  const [facilitators, participants, room] = await Promise.all([
-    facilitatorsOf(w),
-    participantRows(w.id),
-    w.roomId === null ? Promise.resolve([]) : db.select({ name: rooms.name }).from(rooms).where(eq(rooms.id, w.roomId)),
-  ]);
+  const [facilitators, participants, roomName] = await Promise.all([facilitatorsOf(w), participantRows(w.id), roomNameOf(w.roomId)]);
   const snap = w.debrief as DebriefSnapshot | null;
   return {
     id: w.id,
@@ -38,7 +37,7 @@ export async function workshopDetail(w: WorkshopRow, owner: boolean): Promise<Wo
     sessionDate: w.sessionDate,
     status: w.status,
     roomId: w.roomId,
-    roomName: room[0]?.name ?? null,
+    roomName,
     owner,
     nominationLimit: w.nominationLimit,
     linkDays: w.linkDays,
@@ -77,30 +76,24 @@ export async function moveStatus(w: WorkshopRow, to: WorkshopStatus): Promise<vo
   if (to === 'debrief' && !w.debrief) {
     throw new HttpError(409, 'not_released', 'Release the results first: choose a rehearsal and a cascade under Debrief.');
   }
-  await db.update(workshops).set({ status: to }).where(eq(workshops.id, w.id));
+  await updateWorkshop(w.id, { status: to });
 }
 
 /** Adds a co-facilitator; returns their id (the route audits the change and its room access). */
 export async function addFacilitator(w: WorkshopRow, email: string): Promise<number> {
-  const [user] = await db.select().from(users).where(eq(users.email, email.trim().toLowerCase()));
+  const user = await findUserByEmail(email);
   if (!user || user.status !== 'active') {
     throw badRequest('No active Ripplehall account uses that e-mail address. Ask an admin to invite them first.', {
       fields: [{ field: 'email', message: 'No active account uses this address.' }],
     });
   }
   if (user.id === w.ownerId) throw conflict('That is the owner of this workshop; they are already a facilitator.');
-  await db
-    .insert(workshopFacilitators)
-    .values({ workshopId: w.id, userId: user.id })
-    .onDuplicateKeyUpdate({ set: { userId: user.id } });
+  await insertFacilitator(w.id, user.id);
   return user.id;
 }
 
 export async function removeFacilitator(w: WorkshopRow, userId: number): Promise<void> {
-  const [result] = await db
-    .delete(workshopFacilitators)
-    .where(and(eq(workshopFacilitators.workshopId, w.id), eq(workshopFacilitators.userId, userId)));
-  if (!(result as { affectedRows?: number }).affectedRows) throw notFound('That co-facilitator');
+  if (!(await deleteFacilitator(w.id, userId))) throw notFound('That co-facilitator');
 }
 
 /** Adds participants, skipping names already on the list (case-insensitive). */
@@ -129,10 +122,7 @@ export async function participantsFromRoom(w: WorkshopRow, owner: SignedInUser):
 
 export async function removeParticipant(w: WorkshopRow, participantId: number): Promise<void> {
   assertNotClosed(w);
-  const [result] = await db
-    .delete(workshopParticipants)
-    .where(and(eq(workshopParticipants.workshopId, w.id), eq(workshopParticipants.id, participantId)));
-  if (!(result as { affectedRows?: number }).affectedRows) throw notFound('That participant');
+  if (!(await deleteParticipant(w.id, participantId))) throw notFound('That participant');
 }
 
 export async function resetClaim(w: WorkshopRow, participantId: number): Promise<void> {
@@ -140,7 +130,7 @@ export async function resetClaim(w: WorkshopRow, participantId: number): Promise
   if (!p) throw new HttpError(404, 'not_found', 'That participant was not found.');
   await transaction(async (tx) => {
     await lockWorkshop(tx, w.id);
-    await tx.update(workshopParticipants).set({ claimedAt: null }).where(eq(workshopParticipants.id, p.id));
+    await clearClaim(p.id, tx);
     await revokeLinks(tx, [p.id]);
   });
 }

@@ -1,6 +1,6 @@
 import { and, asc, count, desc, eq, inArray, isNotNull, isNull, gt, or, sql } from 'drizzle-orm';
 import { users } from '../../db/schema/accounts';
-import { rooms } from '../../db/schema/rooms';
+import { roomShares, rooms, ties } from '../../db/schema/rooms';
 import {
   participantLinks,
   surveyNominations,
@@ -11,6 +11,7 @@ import {
 } from '../../db/schema/workshops';
 import type { Facilitator, ParticipantRow, WorkshopSummary } from '../../shared/api/workshops';
 import { db, type Tx } from '../db';
+import { firstOf } from '../../shared/checked';
 
 /** Data access for the facilitator side of workshops. */
 type Conn = Tx | typeof db;
@@ -186,4 +187,84 @@ export async function activeLinkCount(participantId: number): Promise<number> {
  */
 export async function lockWorkshop(tx: Tx, workshopId: number): Promise<void> {
   await tx.select({ id: workshops.id }).from(workshops).where(eq(workshops.id, workshopId)).for('update');
+}
+
+export type NewWorkshop = typeof workshops.$inferInsert;
+
+export async function insertWorkshop(values: NewWorkshop, tx: Conn = db): Promise<number> {
+  const { id } = firstOf(await tx.insert(workshops).values(values).$returningId(), 'new workshop id');
+  return id;
+}
+
+export async function updateWorkshop(workshopId: number, patch: Partial<NewWorkshop>, tx: Conn = db): Promise<void> {
+  if (Object.keys(patch).length) await tx.update(workshops).set(patch).where(eq(workshops.id, workshopId));
+}
+
+export async function deleteWorkshop(workshopId: number, tx: Conn = db): Promise<void> {
+  await tx.delete(workshops).where(eq(workshops.id, workshopId));
+}
+
+export async function roomNameOf(roomId: number | null, tx: Conn = db): Promise<string | null> {
+  if (roomId === null) return null;
+  const [row] = await tx.select({ name: rooms.name }).from(rooms).where(eq(rooms.id, roomId));
+  return row?.name ?? null;
+}
+
+/** Rows a DELETE or UPDATE changed (mysql2's ResultSetHeader). */
+const affected = (result: unknown): number => (result as { affectedRows?: number }).affectedRows ?? 0;
+
+/** Adds a co-facilitator (adding one twice is a no-op). */
+export async function insertFacilitator(workshopId: number, userId: number, tx: Conn = db): Promise<void> {
+  await tx.insert(workshopFacilitators).values({ workshopId, userId }).onDuplicateKeyUpdate({ set: { userId } });
+}
+
+/** Whether a row was removed (false: that user does not co-facilitate this workshop). */
+export async function deleteFacilitator(workshopId: number, userId: number, tx: Conn = db): Promise<boolean> {
+  const [result] = await tx
+    .delete(workshopFacilitators)
+    .where(and(eq(workshopFacilitators.workshopId, workshopId), eq(workshopFacilitators.userId, userId)));
+  return affected(result) > 0;
+}
+
+/** Whether a row was removed (false: no such participant in this workshop). */
+export async function deleteParticipant(workshopId: number, participantId: number, tx: Conn = db): Promise<boolean> {
+  const [result] = await tx
+    .delete(workshopParticipants)
+    .where(and(eq(workshopParticipants.workshopId, workshopId), eq(workshopParticipants.id, participantId)));
+  return affected(result) > 0;
+}
+
+export async function clearClaim(participantId: number, tx: Conn = db): Promise<void> {
+  await tx.update(workshopParticipants).set({ claimedAt: null }).where(eq(workshopParticipants.id, participantId));
+}
+
+/** The role of the share `userId` holds on the room directly, if any. */
+export async function directShareRole(roomId: number, userId: number, tx: Conn = db): Promise<'editor' | 'viewer' | null> {
+  const [share] = await tx
+    .select({ role: roomShares.role })
+    .from(roomShares)
+    .where(and(eq(roomShares.roomId, roomId), eq(roomShares.userId, userId)));
+  return share?.role ?? null;
+}
+
+export async function facilitatorUserIds(workshopId: number, tx: Conn = db): Promise<number[]> {
+  const rows = await tx
+    .select({ userId: workshopFacilitators.userId })
+    .from(workshopFacilitators)
+    .where(eq(workshopFacilitators.workshopId, workshopId));
+  return rows.map((r) => r.userId);
+}
+
+/** Records which person of the room stands for the participant (the row built or matched for them). */
+export async function setParticipantPerson(participantId: number, personId: number, tx: Conn = db): Promise<void> {
+  await tx
+    .update(workshopParticipants)
+    .set({ personId: String(personId) })
+    .where(eq(workshopParticipants.id, participantId));
+}
+
+/** Removes the room's ties between survey people, before the survey's answers are written again. */
+export async function deleteTiesAmong(roomId: number, personIds: number[], tx: Conn = db): Promise<void> {
+  if (!personIds.length) return;
+  await tx.delete(ties).where(and(eq(ties.roomId, roomId), inArray(ties.sourceId, personIds), inArray(ties.targetId, personIds)));
 }

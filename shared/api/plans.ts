@@ -65,6 +65,11 @@ export const PLAN_LIMITS = {
   exhaustiveMaxPeople: 120,
   /** Plans above this many people (or exhaustive / auto) run as background jobs. */
   inlineMaxPeople: 400,
+  /**
+   * An automatic plan of a room up to inlineMaxPeople is a job too, but its request waits this
+   * long for it: a plan that is done by then is answered at once (201), the rest as a job (202).
+   */
+  autoAnswerWithinMs: 1200,
   /** Time limit for exhaustive and auto, seconds. */
   timeLimitSeconds: { min: 1, max: 300, default: 10 },
   /** Widened greedy's near-optimal threshold. */

@@ -1,4 +1,5 @@
 import { buildSeating, DEFAULT_SEATING, namesFromList, namesFromRosterCsv, type SeatingOptions, seatingProblems } from './seating';
+import { itemAt } from '../checked';
 
 /**
  * Tie counts per layout. The counts follow from elementary counting on simple graphs
@@ -51,7 +52,7 @@ describe('seating builder', () => {
     expect(one.counts.mingle).toBe(0);
     // Mingling ties join different tables and are weaker than neighbour ties.
     for (const t of r.ties.filter((x) => x.kind === 'mingle')) {
-      expect(r.people[t.source].group).not.toBe(r.people[t.target].group);
+      expect(itemAt(r.people, t.source, 'people').group).not.toBe(itemAt(r.people, t.target, 'people').group);
       expect(t.strength).toBe(DEFAULT_SEATING.mingleStrength);
     }
   });

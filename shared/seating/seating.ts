@@ -13,6 +13,7 @@
  * Mingling (round tables only): seat j of each table gets a weak tie to seat j of the next
  * table (tables in a ring), for the first `minglers` seats.
  */
+import { itemAt } from '../checked';
 
 export type SeatingKind = 'round' | 'rows' | 'u';
 
@@ -114,7 +115,7 @@ class Builder {
   }
 
   seat(index: number, group: string, x: number, y: number): void {
-    const entry = this.roster[index];
+    const entry = itemAt(this.roster, index, 'roster entry');
     this.people.push({ key: `s${index + 1}`, name: entry.name, group, email: entry.email, x: Math.round(x), y: Math.round(y) });
   }
 
@@ -244,9 +245,10 @@ export interface RosterParse {
 export function namesFromRosterCsv(text: string): RosterParse {
   const clean = text.replace(/^\uFEFF/, '');
   const lines = clean.split(/\r?\n/).filter((l) => l.trim().length > 0);
-  if (lines.length === 0) return { entries: [], errors: ['The roster file is empty.'] };
-  const delimiter = (lines[0].match(/;/g)?.length ?? 0) > (lines[0].match(/,/g)?.length ?? 0) ? ';' : ',';
-  const header = splitCsvLine(lines[0], delimiter).map((h) => h.trim().toLowerCase());
+  const first = lines[0];
+  if (first === undefined) return { entries: [], errors: ['The roster file is empty.'] };
+  const delimiter = (first.match(/;/g)?.length ?? 0) > (first.match(/,/g)?.length ?? 0) ? ';' : ',';
+  const header = splitCsvLine(first, delimiter).map((h) => h.trim().toLowerCase());
   const nameCol = header.findIndex((h) => ['name', 'full name', 'person', 'participant'].includes(h));
   const emailCol = header.findIndex((h) => ['email', 'e-mail', 'mail'].includes(h));
   if (nameCol < 0) {
@@ -254,8 +256,9 @@ export function namesFromRosterCsv(text: string): RosterParse {
   }
   const entries: RosterEntry[] = [];
   const errors: string[] = [];
-  for (let i = 1; i < lines.length; i++) {
-    const cells = splitCsvLine(lines[i], delimiter);
+  for (const [i, line] of lines.entries()) {
+    if (i === 0) continue; // the header
+    const cells = splitCsvLine(line, delimiter);
     const name = (cells[nameCol] ?? '').trim();
     if (!name) {
       errors.push(`Line ${i + 1}: the name is empty.`);

@@ -100,15 +100,20 @@ async function facilitatorRound(page: Page, ids: { room: number; roomName: strin
   );
   await page.goto(`/rooms/${ids.room}/plans`);
   await page.getByRole('heading', { name: 'Whom to brief first' }).waitFor();
-  await page.getByRole('spinbutton', { name: 'Budget k' }).fill(String(2 + (i % 3)));
+  const k = 2 + (i % 3);
+  await page.getByRole('spinbutton', { name: 'Budget k' }).fill(String(k));
+  const shownBefore = new URL(page.url()).searchParams.get('plan');
   await step(
     'make a plan',
     () => page.getByRole('button', { name: 'Find the starters' }).click(),
-    () =>
-      page
+    async () => {
+      // The new plan's own result: the address names another plan and it lists exactly k starters.
+      await page.waitForURL((u) => (u.searchParams.get('plan') ?? shownBefore) !== shownBefore, { timeout: 60_000 });
+      await page
         .locator('app-plan-result .starters .starter')
-        .nth(1 + (i % 3))
-        .waitFor({ timeout: 60_000 }),
+        .nth(k - 1)
+        .waitFor({ timeout: 60_000 });
+    },
   );
   await step(
     'open briefing sheet',
@@ -172,7 +177,12 @@ async function main() {
     };
     for (let i = 0; i < RUNS; i++) {
       if (i > 0) await (await signInStep(browser)).ctx.close();
-      await facilitatorRound(first.page, ids, i);
+      await facilitatorRound(first.page, ids, i).catch(async (err: unknown) => {
+        const shot = process.env['BENCH_FAIL_PNG'] ?? 'bench-ui-failure.png';
+        await first.page.screenshot({ path: shot, fullPage: true }).catch(() => undefined);
+        console.error(`Round ${i + 1} failed on ${first.page.url()}; the page is in ${shot}`);
+        throw err;
+      });
       await phoneRound(browser, ids.phonePath);
     }
   } finally {

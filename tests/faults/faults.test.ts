@@ -14,14 +14,22 @@ import { after, before, describe, it } from 'node:test';
 import { eq, inArray } from 'drizzle-orm';
 import { jobs } from '../../db/schema/plans';
 import { rooms } from '../../db/schema/rooms';
-import { db, pool } from '../../server/db';
+import { db } from '../../server/db';
 import { simulate } from '../../shared/engine/index';
 import type { JobEvent, RehearsalDetail } from '../../shared/api/plans';
 import { TestClient } from '../support/http-client';
+import { closeFaultTest } from './close';
 import { createAccount } from '../support/test-server';
 import { makeRoom, readEvents, ringRoom } from '../server/plans-support';
 
-const [PORT_A, PORT_B] = (process.env['FAULTS_WEB_PORTS'] ?? '4491,4492').split(',').map(Number);
+function webPorts(): [number, number] {
+  const text = process.env['FAULTS_WEB_PORTS'] ?? '4491,4492';
+  const [a, b] = text.split(',').map(Number);
+  if (a === undefined || b === undefined || !Number.isInteger(a) || !Number.isInteger(b))
+    throw new Error(`FAULTS_WEB_PORTS must be two ports like 4491,4492, not "${text}".`);
+  return [a, b];
+}
+const [PORT_A, PORT_B] = webPorts();
 const RUNS = 100_000;
 const SIZE = Number(process.env['FAULTS_ROOM_SIZE'] ?? 32);
 const SEED = 'fault-run';
@@ -69,14 +77,20 @@ function killPidFile(file: string): void {
 
 async function progressOf(jobId: number): Promise<{ status: string; progress: number }> {
   const [row] = await db.select({ status: jobs.status, progress: jobs.progress }).from(jobs).where(eq(jobs.id, jobId));
+  assert.ok(row, `job ${jobId} has no row`);
   return row;
 }
 
 describe('faults during a shared rehearsal', () => {
   const procs: Proc[] = [];
+  const named = (name: string): Proc => {
+    const p = procs.find((x) => x.name === name);
+    assert.ok(p, `no process named ${name}`);
+    return p;
+  };
   after(async () => {
     for (const p of procs) if (p.alive()) p.proc.kill('SIGKILL');
-    await pool.end();
+    await closeFaultTest();
   });
 
   const web = (port: number) => ({ PORT: String(port), HOST: '127.0.0.1', WEB_ONLY: 'true' });
@@ -142,9 +156,9 @@ describe('faults during a shared rehearsal', () => {
 
     const reached = (f: number) => until(`progress ${f}`, async () => (await progressOf(jobId)).progress >= f);
     await reached(0.05);
-    procs[2].proc.kill('SIGKILL');
+    named('worker 1').proc.kill('SIGKILL');
     await reached(0.15);
-    procs[0].proc.kill('SIGKILL');
+    named('web A').proc.kill('SIGKILL');
     await reached(0.25);
     killPidFile(`${process.env['REDIS_DATA_DIR']}/redis.pid`);
     execFileSync('bash', ['scripts/redis.sh', 'start'], { stdio: 'inherit' });
@@ -161,7 +175,7 @@ describe('faults during a shared rehearsal', () => {
     await writer;
     assert.equal(final.status, 'done', `the rehearsal ended ${final.status}`);
 
-    const survivors = [procs[1], procs[3]];
+    const survivors = [named('web B'), named('worker 2')];
     for (const p of survivors) assert.ok(p.alive(), `${p.name} died:\n${p.log()}`);
 
     const detail = (await b.get<RehearsalDetail>(`/api/rehearsals/${rehearsalId}`)).body;

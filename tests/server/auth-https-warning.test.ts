@@ -14,6 +14,7 @@ describe('PUBLIC_URL on https without TLS in front', () => {
 
   it('warns at start-up', () => {
     const [warning] = startupWarnings(config);
+    assert.ok(warning, 'one warning');
     assert.match(warning, /PUBLIC_URL is https:\/\/ripplehall\.example\.test.*TRUST_PROXY/);
   });
 

@@ -31,10 +31,11 @@ describe('invitation and password-reset links, through the SMTP fake', () => {
 
     // Only the SHA-256 of the token is stored, and it expires in 72 hours.
     const rows = await db.select().from(accountTokens).where(eq(accountTokens.userId, invited.body.id));
-    assert.equal(rows.length, 1);
-    assert.equal(rows[0].tokenHash, hashToken(token));
+    const [row] = rows;
+    assert.ok(row && rows.length === 1, `one token row, got ${rows.length}`);
+    assert.equal(row.tokenHash, hashToken(token));
     assert.ok(!JSON.stringify(rows).includes(token));
-    const hours = (rows[0].expiresAt.getTime() - rows[0].createdAt.getTime()) / 3600e3;
+    const hours = (row.expiresAt.getTime() - row.createdAt.getTime()) / 3600e3;
     assert.ok(Math.abs(hours - 72) < 0.01, `expires after ${hours} h`);
 
     const guest = server.client();
@@ -103,6 +104,7 @@ describe('invitation and password-reset links, through the SMTP fake', () => {
     });
     assert.equal(expired.status, 410);
     const [row] = await db.select().from(users).where(eq(users.id, body.id));
+    assert.ok(row, 'the account row');
     assert.equal(row.status, 'invited', 'nothing changed');
     assert.equal(row.passwordHash, null);
     assert.equal((await guest.post('/api/auth/invitation/check', { token: 'not a token' })).status, 410);
@@ -136,6 +138,7 @@ describe('invitation and password-reset links, through the SMTP fake', () => {
       .select()
       .from(accountTokens)
       .where(and(eq(accountTokens.tokenHash, hashToken(token)), eq(accountTokens.purpose, 'reset')));
+    assert.ok(row, 'the reset token row');
     const minutes = (row.expiresAt.getTime() - row.createdAt.getTime()) / 60e3;
     assert.ok(Math.abs(minutes - 60) < 0.1, `expires after ${minutes} min`);
 

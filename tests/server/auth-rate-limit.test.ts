@@ -10,7 +10,11 @@ process.env['RATE_LIMIT_RESET_PER_15MIN'] = '2';
 process.env['RATE_LIMIT_IP_PER_15MIN'] = '6';
 process.env['TRUST_PROXY'] = 'true';
 process.env['RATE_LIMIT_LINK_PER_15MIN'] = '3';
+// One counter scope for this process and the second web process it starts (it inherits the env).
+process.env['RATE_LIMIT_SCOPE'] = `rate-limit-test-${process.pid}`;
 const { createAccount, startTestServer } = await import('../support/test-server');
+const { TestClient } = await import('../support/http-client');
+const { startWebProcess } = await import('../support/web-process');
 const { lastMailId, mailsTo, waitForMail } = await import('./mail-support');
 const { issueToken } = await import('../../server/auth/tokens');
 const { db } = await import('../../server/db');
@@ -110,5 +114,28 @@ describe('rate limits on sign-in and password reset', () => {
     const good = await post('/api/auth/invitation/check', { token });
     assert.equal(good.status, 200, 'a real invitation still opens from the same address');
     assert.equal(good.body.email, invited.email);
+  });
+  it('the account back-off holds across web processes: failures on one count on the other (the counters live in Redis)', async () => {
+    const other = await startWebProcess();
+    try {
+      const account = await createAccount('facilitator');
+      // Each try from an address of its own, so only the per-account back-off can answer 429.
+      const tryOn = async (url: string, password: string) =>
+        (
+          await new TestClient(url).request(
+            'POST',
+            '/api/auth/sign-in',
+            { email: account.email, password },
+            { headers: { 'x-forwarded-for': freshIp() } },
+          )
+        ).status;
+      assert.equal(await tryOn(server.url, 'guess-a'), 401);
+      assert.equal(await tryOn(other.url, 'guess-b'), 401);
+      assert.equal(await tryOn(server.url, 'guess-c'), 401);
+      assert.equal(await tryOn(other.url, 'guess-d'), 429, 'the second process knows of the failures seen by the first');
+      assert.equal(await tryOn(server.url, 'guess-e'), 429);
+    } finally {
+      await other.stop();
+    }
   });
 });

@@ -10,6 +10,7 @@ import { config } from '../../server/config';
 import { errorHandler } from '../../server/core/error-handler';
 import { pool } from '../../server/db';
 import { TestClient } from '../support/http-client';
+import { firstOf, itemAt } from '../../shared/checked';
 
 /** A port nobody listens on: bind one, note it, close it. */
 async function closedPort(): Promise<number> {
@@ -35,7 +36,10 @@ describe('the database stopped or lost', () => {
     assert.equal(code, 1);
     const lines = stderr.trim().split('\n');
     assert.equal(lines.length, 1, stderr);
-    assert.match(lines[0], new RegExp(`Cannot reach MariaDB at 127\\.0\\.0\\.1:${port}.*bash scripts/db\\.sh start`));
+    assert.match(
+      itemAt(lines, 0, 'stderr line'),
+      new RegExp(`Cannot reach MariaDB at 127\\.0\\.0\\.1:${port}.*bash scripts/db\\.sh start`),
+    );
     assert.doesNotMatch(stderr, /\/work\/|node_modules|Failed query|^\s+at /m);
   });
 
@@ -63,7 +67,7 @@ describe('the database stopped or lost', () => {
         conn.threadId,
         'SELECT SLEEP%',
       ])) as unknown as [{ n: number }[]];
-      if (Number(rows[0].n) > 0) break;
+      if (Number(firstOf(rows, 'process count').n) > 0) break;
       await new Promise((r) => setTimeout(r, 20));
     }
     await pool.query(`KILL CONNECTION ${Number(conn.threadId)}`);

@@ -5,6 +5,7 @@ import { signedInClient, startTestServer, type TestServer } from '../support/tes
 import type { TestClient } from '../support/http-client';
 import { createPathRoom, upload } from './rooms-helpers';
 import { newWorkshop } from './workshops-support';
+import { itemAt } from '../../shared/checked';
 
 /**
  * 2,600 malformed requests and hostile uploads across the API (wrong types, huge strings, deep
@@ -13,7 +14,7 @@ import { newWorkshop } from './workshops-support';
  */
 const TOTAL = 2600;
 const rng = seedrandom('ripplehall-fuzz-1');
-const pick = <T>(xs: readonly T[]): T => xs[Math.floor(rng() * xs.length)];
+const pick = <T>(xs: readonly T[]): T => itemAt(xs, Math.floor(rng() * xs.length), 'fuzz choice');
 
 const deep = (levels: number): unknown => {
   let v: unknown = 1;

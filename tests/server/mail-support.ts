@@ -36,7 +36,7 @@ export async function mailsTo(to: string, afterId: number): Promise<CaughtMail[]
 
 /** The token of the first app link (…?token=…) in the plain-text part. */
 export function tokenFrom(mail: CaughtMail, path: string): string {
-  const match = new RegExp(`https?://\\S+${path.replace(/\//g, '\\/')}\\?token=([A-Za-z0-9_-]+)`).exec(mail.textBody ?? '');
-  if (!match) throw new Error(`no ${path} link in mail "${mail.subject}":\n${mail.textBody}`);
-  return match[1];
+  const token = new RegExp(`https?://\\S+${path.replace(/\//g, '\\/')}\\?token=([A-Za-z0-9_-]+)`).exec(mail.textBody ?? '')?.[1];
+  if (!token) throw new Error(`no ${path} link in mail "${mail.subject}":\n${mail.textBody}`);
+  return token;
 }

@@ -15,6 +15,7 @@ import { closePools } from '../../server/jobs/pools';
 import type { TestClient } from '../support/http-client';
 import { signedInClient, startTestServer, type TestServer } from '../support/test-server';
 import { karateClub, makeRoom, ringRoom, waitForJob, type MadeRoom } from './plans-support';
+import { itemAt } from '../../shared/checked';
 
 const run = promisify(execFile);
 const dir = mkdtempSync(join(tmpdir(), 'rh-plans-cli-'));
@@ -101,9 +102,9 @@ describe('plans agree with the command line', () => {
       '--method',
       'swap',
       '--include',
-      room.keys[5],
+      itemAt(room.keys, 5, 'room key'),
       '--exclude',
-      `${room.keys[0]},${room.keys[1]}`,
+      `${itemAt(room.keys, 0, 'room key')},${itemAt(room.keys, 1, 'room key')}`,
       ...walk,
     ]);
     assert.ok(plan.starters.some((s: { personId: number }) => s.personId === must[0]));

@@ -11,6 +11,7 @@ import type { KSweepResult, PlanDetail } from '../../shared/api/plans';
 import type { TestClient } from '../support/http-client';
 import { signedInClient, startTestServer, type TestServer } from '../support/test-server';
 import { karateClub, makeRoom, readEvents, ringRoom, waitForJob } from './plans-support';
+import { itemAt } from '../../shared/checked';
 
 const path = (n: number): RoomGraph => ({
   ids: Array.from({ length: n + 1 }, (_, i) => `v${i}`),
@@ -43,7 +44,7 @@ describe('plans API', () => {
     const r = await client.post<PlanDetail>(`/api/rooms/${room.id}/plans`, { starters: [room.personIds[0], room.personIds[n]] });
     assert.equal(r.status, 201, r.text);
     for (let i = 0; i <= n; i++) {
-      const p = r.body.perPerson[i];
+      const p = itemAt(r.body.perPerson, i, 'per-person row');
       assert.equal(p.personId, room.personIds[i]);
       assert.ok(Math.abs(p.expectedHops - i * (n - i)) < 1e-9, `person ${i}: ${p.expectedHops}`);
       assert.ok(Math.abs(p.expectedMinutes - 2 * i * (n - i)) < 1e-9);
@@ -65,8 +66,9 @@ describe('plans API', () => {
     const reach = r.body.reach!;
     const q = 1 - 1 / (n - 1);
     for (let t = 0; t < Math.min(40, reach.byHop.length); t++) {
-      assert.ok(Math.abs(reach.byHop[t] - (1 - q ** t)) < 1e-9, `hop ${t}: ${reach.byHop[t]}`);
-      assert.equal(reach.byMinute[t].minutes, 3 * t);
+      const byHop = itemAt(reach.byHop, t, 'reach by hop');
+      assert.ok(Math.abs(byHop - (1 - q ** t)) < 1e-9, `hop ${t}: ${byHop}`);
+      assert.equal(itemAt(reach.byMinute, t, 'reach by minute').minutes, 3 * t);
     }
     const half = reach.quantiles.find((x) => x.share === 0.5)!;
     const ninety = reach.quantiles.find((x) => x.share === 0.9)!;
@@ -136,8 +138,8 @@ describe('plans API', () => {
       for (const v of [p.greedy!, p.widened!, p.swap!, p.mostTies!, p.random!]) assert.ok(v >= p.lowerBound! - 1e-9, `bound at k = ${p.k}`);
       assert.ok(p.random! >= p.swap! - 1e-9);
     }
-    for (let i = 1; i < s.points.length; i++)
-      assert.ok(s.points[i].greedy! <= s.points[i - 1].greedy! + 1e-9, 'greedy average falls with k');
+    for (const [i, p] of s.points.entries())
+      if (i > 0) assert.ok(p.greedy! <= itemAt(s.points, i - 1, 'sweep point').greedy! + 1e-9, 'greedy average falls with k');
     const again = (await client.post<KSweepResult>(`/api/rooms/${room.id}/plans/sweep`, { maxK: 6, seed: 'abc' })).body;
     assert.deepEqual(again.points, s.points);
     const other = (await client.post<KSweepResult>(`/api/rooms/${room.id}/plans/sweep`, { maxK: 6, seed: 'xyz' })).body;
@@ -160,9 +162,11 @@ describe('plans API', () => {
     };
     const room = await makeRoom(client, two, 'Two parts');
     const s = (await client.post<KSweepResult>(`/api/rooms/${room.id}/plans/sweep`, { maxK: 4 })).body;
-    assert.equal(s.points[0].greedy, null);
-    assert.equal(s.points[0].mostTies, null, 'one starter cannot reach both parts');
-    assert.ok(s.points[1].greedy! > 0);
+    const [k1, k2] = s.points;
+    assert.ok(k1 && k2, `sweep points for k = 1 and 2, got ${s.points.length}`);
+    assert.equal(k1.greedy, null);
+    assert.equal(k1.mostTies, null, 'one starter cannot reach both parts');
+    assert.ok(k2.greedy! > 0);
     assert.ok(s.notes.some((n) => /closed groups/.test(n)));
     assert.ok(s.notes.some((n) => /^For \d+ values of k some random draws/.test(n)));
   });

@@ -15,6 +15,7 @@ import type { JobEvent, RehearsalDetail } from '../../shared/api/plans';
 import type { TestClient } from '../support/http-client';
 import { signedInClient, startTestServer, type TestServer } from '../support/test-server';
 import { karateClub, makeRoom, readEvents, ringRoom, waitForJob, type MadeRoom } from './plans-support';
+import { itemAt } from '../../shared/checked';
 
 describe('rehearsal jobs', () => {
   let server: TestServer;
@@ -51,7 +52,7 @@ describe('rehearsal jobs', () => {
     assert.equal(types.at(-1), 'done', types.join(','));
     const fractions = events.filter((e) => e.type === 'progress').map((e) => e.fraction!);
     assert.ok(fractions.length >= 2, `progress events: ${fractions.join(',')}`);
-    for (let i = 1; i < fractions.length; i++) assert.ok(fractions[i] >= fractions[i - 1], 'progress never goes back');
+    for (const [i, f] of fractions.entries()) if (i > 0) assert.ok(f >= itemAt(fractions, i - 1, 'progress'), 'progress never goes back');
     assert.ok(
       fractions.some((f) => f > 0 && f < 1),
       'some progress strictly between 0 and 1',
@@ -169,8 +170,10 @@ describe('rehearsal jobs', () => {
     await client.post(`/api/jobs/${starts[1].job.id}/cancel`, {});
     await client.post(`/api/jobs/${starts[2].job.id}/cancel`, {});
     const seen = (await events).events;
-    assert.equal(seen[0].type, 'queued');
-    assert.equal(seen[0].position, 1);
+    const [first] = seen;
+    assert.ok(first, 'at least one event');
+    assert.equal(first.type, 'queued');
+    assert.equal(first.position, 1);
     assert.ok(seen.some((e) => e.type === 'started'));
     assert.equal(seen.at(-1)!.type, 'cancelled');
   });
@@ -182,6 +185,7 @@ describe('rehearsal jobs', () => {
     // Another process ends the row (as a cancel from another web process would).
     assert.ok(await endJob(start.job.id, 'interrupted', 'Ended elsewhere; nothing partial was kept.'));
     const [row] = await db.select().from(jobs).where(eq(jobs.id, start.job.id));
+    assert.ok(row, 'the job row');
     assert.equal(row.status, 'interrupted');
     // This process's worker still computes; the final write must see the row is no longer running.
     await new Promise((r) => setTimeout(r, 200));

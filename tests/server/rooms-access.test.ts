@@ -3,7 +3,7 @@ import { after, before, describe, it } from 'node:test';
 import { createAccount, startTestServer, signedInClient, type TestServer } from '../support/test-server';
 import type { Reply, TestClient } from '../support/http-client';
 import { pool } from '../../server/db';
-import { createPathRoom, upload, type SmallRoom } from './rooms-helpers';
+import { createPathRoom, personOf, tieOf, type SmallRoom, upload } from './rooms-helpers';
 
 type Who = 'owner' | 'editor' | 'viewer' | 'stranger' | 'admin' | 'signedOut';
 type Expect = Record<Who, number>;
@@ -55,7 +55,7 @@ describe('rooms: who may do what', () => {
     [
       'layout moves',
       edit,
-      (c) => c.post(`/api/rooms/${room.id}/edits`, { ops: [{ op: 'movePeople', moves: [{ id: room.people[0].id, x: 1, y: 2 }] }] }),
+      (c) => c.post(`/api/rooms/${room.id}/edits`, { ops: [{ op: 'movePeople', moves: [{ id: personOf(room, 0).id, x: 1, y: 2 }] }] }),
     ],
     [
       'import dry run',
@@ -76,7 +76,10 @@ describe('rooms: who may do what', () => {
   }
 
   it('a viewer is told why they cannot change the room', async () => {
-    const reply = await clients.viewer.post(`/api/rooms/${room.id}/edits`, { version: 1, ops: [{ op: 'deleteTie', id: room.ties[0].id }] });
+    const reply = await clients.viewer.post(`/api/rooms/${room.id}/edits`, {
+      version: 1,
+      ops: [{ op: 'deleteTie', id: tieOf(room, 0).id }],
+    });
     assert.equal(reply.status, 403);
     assert.match(reply.body.error.message, /view this room but not change it/);
     const del = await clients.editor.delete(`/api/rooms/${room.id}`);

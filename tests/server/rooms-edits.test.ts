@@ -2,7 +2,7 @@ import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
 import { startTestServer, signedInClient, type TestServer } from '../support/test-server';
 import type { TestClient } from '../support/http-client';
-import { createPathRoom } from './rooms-helpers';
+import { createPathRoom, personOf, tieOf } from './rooms-helpers';
 
 describe('rooms: batch edits and tables', () => {
   let server: TestServer;
@@ -15,7 +15,7 @@ describe('rooms: batch edits and tables', () => {
 
   it('applies adds, ties by tempId, updates and moves in one batch and bumps the version', async () => {
     const room = await createPathRoom(client, 3);
-    const [a, b, c] = room.people;
+    const [a, b, c] = [personOf(room, 0), personOf(room, 1), personOf(room, 2)];
     const reply = await client.post(`/api/rooms/${room.id}/edits`, {
       version: 1,
       ops: [
@@ -24,7 +24,7 @@ describe('rooms: batch edits and tables', () => {
         { op: 'addTie', tempId: 't1', source: 'n1', target: a.id, strength: 2 },
         { op: 'addTie', source: 'n1', target: 'n2', strength: 0.5 },
         { op: 'updatePerson', id: b.id, name: 'Renamed B', email: 'b@example.org' },
-        { op: 'updateTie', id: room.ties[0].id, strength: 4 },
+        { op: 'updateTie', id: tieOf(room, 0).id, strength: 4 },
         {
           op: 'movePeople',
           moves: [
@@ -44,7 +44,7 @@ describe('rooms: batch edits and tables', () => {
     assert.equal(n1.group, 'Blue');
     assert.equal(got.people[4].key, 'nx2', 'new people go to the end of the stable order');
     assert.ok(got.ties.some((t: { id: number; strength: number }) => t.id === reply.body.ties.t1 && t.strength === 2));
-    assert.equal(got.ties.find((t: { id: number }) => t.id === room.ties[0].id).strength, 4);
+    assert.equal(got.ties.find((t: { id: number }) => t.id === tieOf(room, 0).id).strength, 4);
     const movedC = got.people.find((p: { id: number }) => p.id === c.id);
     assert.deepEqual([movedC.x, movedC.y, movedC.pinned], [5, 6, true]);
     assert.equal(got.people.find((p: { id: number }) => p.id === b.id).email, 'b@example.org');
@@ -57,7 +57,7 @@ describe('rooms: batch edits and tables', () => {
       version: 1,
       ops: [
         { op: 'addPerson', tempId: 'n1', name: 'Would be added' },
-        { op: 'deleteTie', id: room.ties[0].id },
+        { op: 'deleteTie', id: tieOf(room, 0).id },
         { op: 'addTie', source: 'n1', target: 999999, strength: 1 },
       ],
     });
@@ -73,7 +73,7 @@ describe('rooms: batch edits and tables', () => {
 
   it('names every bad op: self-tie, duplicate tie, bad strength, unknown tie, deleted person, duplicate key', async () => {
     const room = await createPathRoom(client, 3);
-    const [a, b, c] = room.people;
+    const [a, b, c] = [personOf(room, 0), personOf(room, 1), personOf(room, 2)];
     const reply = await client.post(`/api/rooms/${room.id}/edits`, {
       version: 1,
       ops: [
@@ -90,7 +90,7 @@ describe('rooms: batch edits and tables', () => {
     assert.deepEqual(fields, ['ops.0.target', 'ops.1', 'ops.3.target', 'ops.4.id', 'ops.5.key']);
     const strength = await client.post(`/api/rooms/${room.id}/edits`, {
       version: 1,
-      ops: [{ op: 'updateTie', id: room.ties[0].id, strength: 0 }],
+      ops: [{ op: 'updateTie', id: tieOf(room, 0).id, strength: 0 }],
     });
     assert.equal(strength.status, 400);
     assert.equal(strength.body.error.details.fields[0].field, 'ops.0.strength');
@@ -101,7 +101,7 @@ describe('rooms: batch edits and tables', () => {
 
   it('deleting a person deletes their ties', async () => {
     const room = await createPathRoom(client, 3);
-    const reply = await client.post(`/api/rooms/${room.id}/edits`, { version: 1, ops: [{ op: 'deletePerson', id: room.people[1].id }] });
+    const reply = await client.post(`/api/rooms/${room.id}/edits`, { version: 1, ops: [{ op: 'deletePerson', id: personOf(room, 1).id }] });
     assert.equal(reply.status, 200);
     const got = (await client.get(`/api/rooms/${room.id}`)).body;
     assert.equal(got.people.length, 2);
@@ -119,18 +119,18 @@ describe('rooms: batch edits and tables', () => {
     // A colleague's drag did not make my version-1 edit stale.
     const edit = await client.post(`/api/rooms/${room.id}/edits`, {
       version: 1,
-      ops: [{ op: 'updateTie', id: room.ties[0].id, strength: 3 }],
+      ops: [{ op: 'updateTie', id: tieOf(room, 0).id, strength: 3 }],
     });
     assert.equal(edit.status, 200);
     assert.equal(edit.body.version, 2);
-    const stale = await client.post(`/api/rooms/${room.id}/edits`, { version: 1, ops: [{ op: 'deleteTie', id: room.ties[0].id }] });
+    const stale = await client.post(`/api/rooms/${room.id}/edits`, { version: 1, ops: [{ op: 'deleteTie', id: tieOf(room, 0).id }] });
     assert.equal(stale.status, 409);
     assert.equal(stale.body.error.details.currentVersion, 2);
-    const noVersion = await client.post(`/api/rooms/${room.id}/edits`, { ops: [{ op: 'deleteTie', id: room.ties[0].id }] });
+    const noVersion = await client.post(`/api/rooms/${room.id}/edits`, { ops: [{ op: 'deleteTie', id: tieOf(room, 0).id }] });
     assert.equal(noVersion.status, 400);
     assert.equal(noVersion.body.error.details.fields[0].field, 'version');
     const badMove = await client.post(`/api/rooms/${room.id}/edits`, {
-      ops: [{ op: 'movePeople', moves: [{ id: room.people[0].id, x: Infinity, y: 0 }] }],
+      ops: [{ op: 'movePeople', moves: [{ id: personOf(room, 0).id, x: Infinity, y: 0 }] }],
     });
     assert.equal(badMove.status, 400);
   });

@@ -3,8 +3,11 @@ import { after, before, describe, it } from 'node:test';
 import mysql from 'mysql2/promise';
 import { config } from '../../server/config';
 import { pool } from '../../server/db';
+import { TestClient } from '../support/http-client';
 import { signedInClient, startTestServer, type TestServer } from '../support/test-server';
+import { startWebProcess } from '../support/web-process';
 import { createPathRoom } from './rooms-helpers';
+import { firstOf } from '../../shared/checked';
 
 /**
  * One user's heavy writes cannot occupy the database for everyone: small edit batches, at most
@@ -14,7 +17,11 @@ import { createPathRoom } from './rooms-helpers';
  */
 describe('heavy writes', () => {
   let server: TestServer;
-  before(async () => (server = await startTestServer()));
+  before(async () => {
+    // A counter scope this process shares with the second web process of the cross-process test.
+    config.RATE_LIMIT_SCOPE = `heavy-writes-test-${process.pid}`;
+    server = await startTestServer();
+  });
   after(async () => server.stop());
 
   const addPeople = (n: number, prefix: string) =>
@@ -38,7 +45,7 @@ describe('heavy writes', () => {
       "SELECT COUNT(*) AS n FROM information_schema.PROCESSLIST WHERE INFO LIKE '%from `rooms`%for update%' AND DB = ? AND ID <> CONNECTION_ID()",
       [config.DB_NAME],
     )) as unknown as [{ n: number }[]];
-    return Number(rows[0].n);
+    return Number(firstOf(rows, 'waiter count').n);
   }
 
   async function until(check: () => Promise<boolean>) {
@@ -73,6 +80,33 @@ describe('heavy writes', () => {
       assert.deepEqual(statuses, [200, 409], 'one saves, the other is stale (same version)');
     } finally {
       await lock.end();
+    }
+  });
+
+  it('the cap holds over all web processes: two writes here, the third on another process waits (429)', async () => {
+    const { client } = await signedInClient(server);
+    const room = await createPathRoom(client, 2);
+    const other = await startWebProcess({ RATE_LIMIT_SCOPE: config.RATE_LIMIT_SCOPE! });
+    const lock = await holdRoomLock(room.id);
+    try {
+      const first = client.post(`/api/rooms/${room.id}/edits`, { version: room.version, ops: addPeople(50, 'a') });
+      const second = client.post(`/api/rooms/${room.id}/edits`, { version: room.version, ops: addPeople(50, 'b') });
+      await until(async () => (await waitersOnRoom()) >= 2);
+      // The same session (sessions live in MariaDB) on the second process.
+      const there = new TestClient(other.url);
+      for (const [k, v] of client.cookies) there.cookies.set(k, v);
+      const third = await there.post(`/api/rooms/${room.id}/edits`, { version: room.version, ops: addPeople(50, 'c') });
+      assert.equal(third.status, 429, third.text);
+      assert.equal(third.body.error.code, 'busy_writing');
+      await lock.rollback();
+      assert.deepEqual([(await first).status, (await second).status].sort(), [200, 409]);
+      // Both slots are free again: the other process takes the next write.
+      const fresh = (await client.get(`/api/rooms/${room.id}`)).body.version as number;
+      const after = await there.post(`/api/rooms/${room.id}/edits`, { version: fresh, ops: addPeople(1, 'd') });
+      assert.equal(after.status, 200, after.text);
+    } finally {
+      await lock.end();
+      await other.stop();
     }
   });
 

@@ -168,14 +168,16 @@ describe('rooms: import of probe files', () => {
     const graph = {
       ids: ['a', 'b', 'c', 'd', 'e'],
       directed: false,
-      ties: [
-        [0, 1],
-        [1, 2],
-        [2, 3],
-        [3, 4],
-        [4, 0],
-        [1, 3],
-      ].map(([source, target]) => ({ source, target, strength: 1 })),
+      ties: (
+        [
+          [0, 1],
+          [1, 2],
+          [2, 3],
+          [3, 4],
+          [4, 0],
+          [1, 3],
+        ] as const
+      ).map(([source, target]) => ({ source, target, strength: 1 })),
     };
     // What the command line's `simulate --seed 07` runs: the engine with the seed text "07".
     assert.deepEqual(zeroSeven, Array.from(simulate(graph, [0], 500, '07').mean));

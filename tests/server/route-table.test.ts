@@ -40,7 +40,7 @@ export function listRoutes(stack: LayerLike[], prefix = ''): RouteEntry[] {
         }
       }
     } else if (layer.handle?.stack) {
-      const mount = Array.isArray(layer.rawPath) ? layer.rawPath[0] : (layer.rawPath ?? '/');
+      const mount = (Array.isArray(layer.rawPath) ? layer.rawPath[0] : layer.rawPath) ?? '/';
       out.push(...listRoutes(layer.handle.stack, join(prefix, mount)));
     }
   }

@@ -26,7 +26,12 @@ describe('workshop room build, debrief and who may reach what', () => {
     const { client: co, account: coAccount } = await signedInClient(server);
     const { client: stranger } = await signedInClient(server);
     const { id, byName } = await newWorkshop(owner, NAMES);
-    const [h, i, j, k] = NAMES.map((n) => byName.get(n.name)!);
+    const idOf = (name: string): number => {
+      const pid = byName.get(name);
+      assert.ok(pid, `${name} is on the list`);
+      return pid;
+    };
+    const [h, i, j, k] = [idOf('Hal Verity'), idOf('Ines Parrow'), idOf('Jon Bekker'), idOf('Kit Aldane')];
     assert.equal((await owner.post(`/api/workshops/${id}/facilitators`, { email: coAccount.email })).status, 201);
     const unknownCo = await owner.post(`/api/workshops/${id}/facilitators`, { email: 'nobody@test.ripplehall.local' });
     assert.equal(unknownCo.status, 400);

@@ -66,7 +66,7 @@ describe('stable participant links', () => {
       .select()
       .from(participantLinks)
       .where(eq(participantLinks.tokenHash, hashToken(kit)));
-    assert.ok(row.tokenSealed && !row.tokenSealed.includes(kit), 'no clear token in the database');
+    assert.ok(row?.tokenSealed && !row.tokenSealed.includes(kit), 'no clear token in the database');
     assert.equal(openToken(row.tokenSealed), kit);
     assert.notEqual(sealToken(kit), sealToken(kit), 'a fresh nonce each time');
     const flipped = row.tokenSealed.slice(0, -2) + (row.tokenSealed.endsWith('A') ? 'B' : 'A') + row.tokenSealed.slice(-1);

@@ -62,6 +62,7 @@ describe('co-facilitators and the workshop room', () => {
     assert.equal((await owner.delete(`/api/workshops/${workshopId}`)).status, 204);
     assert.equal((await coClient.get(`/api/rooms/${roomId}`)).status, 404);
     const deleted = await lastAudit('workshop.deleted', workshopId);
+    assert.ok(deleted, 'the deletion is audited');
     assert.deepEqual((deleted.detail as { roomAccessEnded: number[] }).roomAccessEnded, [co.id]);
   });
 
@@ -74,6 +75,7 @@ describe('co-facilitators and the workshop room', () => {
     assert.equal(shares.body.find((s: { userId: number }) => s.userId === co.id).role, 'viewer', 'the share itself stays viewer');
     assert.equal((await coClient.get(`/api/rooms/${roomId}`)).body.access, 'editor', 'editor while co-facilitating');
     const added = await lastAudit('workshop.facilitator_added', workshopId);
+    assert.ok(added, 'the addition is audited');
     assert.equal((added.detail as { directShare: string }).directShare, 'viewer');
     await owner.delete(`/api/workshops/${workshopId}/facilitators/${co.id}`);
     assert.equal((await coClient.get(`/api/rooms/${roomId}`)).body.access, 'viewer', 'back to the share the owner gave');

@@ -20,7 +20,7 @@ export class TestClient {
 
   private keepCookies(headers: Headers) {
     for (const line of headers.getSetCookie()) {
-      const [pair, ...attrs] = line.split(';');
+      const [pair = '', ...attrs] = line.split(';'); // split always yields at least one part
       const eq = pair.indexOf('=');
       const name = pair.slice(0, eq).trim();
       const value = pair.slice(eq + 1).trim();

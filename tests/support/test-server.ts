@@ -65,11 +65,12 @@ export async function createAccount(
 ): Promise<TestAccount> {
   sharedHash ??= hashPassword(TEST_PASSWORD);
   const email = `${role}-${randomUUID().slice(0, 8)}@test.ripplehall.local`;
-  const [{ id }] = await db
+  const [inserted] = await db
     .insert(users)
     .values({ email, name: `Test ${role}`, role, status, passwordHash: await sharedHash })
     .$returningId();
-  return { id, email, password: TEST_PASSWORD, role };
+  if (!inserted) throw new Error(`creating the test account ${email} returned no id`);
+  return { id: inserted.id, email, password: TEST_PASSWORD, role };
 }
 
 /** A client already signed in as a fresh account of the given role. */

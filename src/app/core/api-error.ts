@@ -11,6 +11,8 @@ export interface ApiError {
   code: string;
   message: string;
   details?: { fields?: FieldError[] } & Record<string, unknown>;
+  /** From a Retry-After header in seconds (429 and 503 answers), when the server sent one. */
+  retryAfterSeconds?: number;
 }
 
 export function toApiError(err: unknown): ApiError {
@@ -18,7 +20,9 @@ export function toApiError(err: unknown): ApiError {
   if (isApiError(err)) return err;
   if (err instanceof HttpErrorResponse) {
     const body = err.error?.error;
-    if (body?.message) return { status: err.status, code: body.code, message: body.message, details: body.details };
+    const retry = Number(err.headers?.get('Retry-After') ?? NaN);
+    const retryAfter = Number.isFinite(retry) && retry >= 0 ? { retryAfterSeconds: retry } : {};
+    if (body?.message) return { status: err.status, code: body.code, message: body.message, details: body.details, ...retryAfter };
     if (err.status === 0) {
       return { status: 0, code: 'offline', message: 'The server cannot be reached. Check your connection and try again.' };
     }

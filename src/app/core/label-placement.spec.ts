@@ -1,4 +1,5 @@
 import { overlaps, placeLabels } from './label-placement';
+import { itemAt } from '../../../shared/checked';
 
 describe('name placement on the map', () => {
   it('gives crowded people spots that overlap no other name and no person', () => {
@@ -12,10 +13,11 @@ describe('name placement on the map', () => {
     const placed = spots.filter((s) => s !== null);
     expect(placed.length).toBe(10);
     for (let i = 0; i < placed.length; i++) {
-      for (let j = i + 1; j < placed.length; j++) expect(overlaps(placed[i].box, placed[j].box)).toBeFalse();
+      for (let j = i + 1; j < placed.length; j++)
+        expect(overlaps(itemAt(placed, i, 'placed').box, itemAt(placed, j, 'placed').box)).toBeFalse();
       for (const p of items) {
         const shape = { x0: p.x - 12, y0: p.y - 12, x1: p.x + 12, y1: p.y + 12 };
-        expect(overlaps(placed[i].box, shape)).toBeFalse();
+        expect(overlaps(itemAt(placed, i, 'placed').box, shape)).toBeFalse();
       }
     }
   });
@@ -26,7 +28,8 @@ describe('name placement on the map', () => {
     expect(spots.some((s) => s === null)).toBeTrue();
     const placed = spots.filter((s) => s !== null);
     for (let i = 0; i < placed.length; i++)
-      for (let j = i + 1; j < placed.length; j++) expect(overlaps(placed[i].box, placed[j].box)).toBeFalse();
+      for (let j = i + 1; j < placed.length; j++)
+        expect(overlaps(itemAt(placed, i, 'placed').box, itemAt(placed, j, 'placed').box)).toBeFalse();
   });
 
   it('keeps the first choice (the name below the person) when there is room', () => {

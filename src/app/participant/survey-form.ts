@@ -74,7 +74,9 @@ export class SurveyForm {
   }
 
   protected control(id: number): FormControl<Pick> {
-    return this.form().controls[String(id)];
+    const control = this.form().controls[String(id)];
+    if (!control) throw new Error(`The survey has no answer for person ${id}.`);
+    return control;
   }
 
   protected toggle(id: number): void {

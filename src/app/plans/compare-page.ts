@@ -48,10 +48,16 @@ export default class ComparePage {
       .sort((x, y) => Math.abs(y.difference!) - Math.abs(x.difference!))
       .slice(0, 8);
   });
-  protected readonly hopsOf = computed(() =>
-    (this.details() ?? []).map((p) => new Map(p.perPerson.map((x) => [x.personId, x.expectedHops]))),
-  );
-  protected readonly startersOf = computed(() => (this.details() ?? []).map((p) => p.starters.map((s) => s.personId)));
+  /** What each plan's map draws: expected hops by person and the starters, for A and B. */
+  protected readonly planMaps = computed(() => {
+    const d = this.details();
+    if (!d) return null;
+    const mapOf = (p: PlanDetail) => ({
+      hops: new Map(p.perPerson.map((x) => [x.personId, x.expectedHops])),
+      starters: p.starters.map((s) => s.personId),
+    });
+    return [mapOf(d[0]), mapOf(d[1])] as const;
+  });
 
   constructor() {
     effect(() => {

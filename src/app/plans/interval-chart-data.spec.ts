@@ -1,4 +1,5 @@
 import { insideCount, intervalPointsFrom, niceAxis, rangePlot } from './interval-chart-data';
+import { itemAt } from '../../../shared/checked';
 
 describe('rangePlot', () => {
   // Path 0-1-2-3-4 with starters {0, 4}: h_i = i (n - i) = 3, 4, 3 (gambler's ruin; Levin, Peres,
@@ -14,7 +15,7 @@ describe('rangePlot', () => {
     expect(plot.rows.map((r) => r.name)).toEqual(['Ari', 'Cy', 'Bea']);
     expect(plot.max).toBe(5);
     expect(plot.ticks.map((t) => t.value)).toEqual([0, 1, 2, 3, 4, 5]);
-    const ari = plot.rows[0];
+    const ari = itemAt(plot.rows, 0, 'rows');
     expect(ari.lowPct).toBeCloseTo(57, 6);
     expect(ari.lowPct + ari.widthPct).toBeCloseTo(61.8, 6);
     expect(ari.analyticPct).toBeCloseTo(60, 6);

@@ -1,6 +1,7 @@
 import { TestBed } from '@angular/core/testing';
 import { IntervalChart } from './interval-chart';
 import type { IntervalPoint } from './interval-chart-data';
+import { itemAt } from '../../../shared/checked';
 
 /** 60 people with long names: the size of the demo all-hands room. Values invented, one disagreement. */
 const points: IntervalPoint[] = Array.from({ length: 60 }, (_, i) => ({
@@ -10,7 +11,7 @@ const points: IntervalPoint[] = Array.from({ length: 60 }, (_, i) => ({
   low: 9 + i,
   high: i === 7 ? 15 : 11.5 + i,
 }));
-points[7] = { ...points[7], analytic: 30 };
+points[7] = { ...itemAt(points, 7, 'points'), analytic: 30 };
 
 describe('IntervalChart sizing', () => {
   async function renderAt(width: number) {
@@ -40,9 +41,9 @@ describe('IntervalChart sizing', () => {
         }
       }
       // The interval stays visible: the bar has width and the diamond is hollow (transparent fill).
-      const bar = rows[0].querySelector('.bar')!.getBoundingClientRect();
+      const bar = itemAt(rows, 0, 'rows').querySelector('.bar')!.getBoundingClientRect();
       expect(bar.width).toBeGreaterThan(1);
-      expect(getComputedStyle(rows[0].querySelector('.diamond')!).backgroundColor).toBe('rgba(0, 0, 0, 0)');
+      expect(getComputedStyle(itemAt(rows, 0, 'rows').querySelector('.diamond')!).backgroundColor).toBe('rgba(0, 0, 0, 0)');
       host.remove();
     });
   }
@@ -51,7 +52,7 @@ describe('IntervalChart sizing', () => {
     const { el, host } = await renderAt(800);
     const outside = el.querySelectorAll('.rows .row.outside');
     expect(outside.length).toBe(1);
-    expect(outside[0].textContent).toContain('Participant with a long name 7');
+    expect(itemAt(outside, 0, 'outside').textContent).toContain('Participant with a long name 7');
     const summary = el.querySelector('details summary') as HTMLElement;
     expect(summary).not.toBeNull();
     summary.focus();

@@ -123,7 +123,7 @@ export class PlanMap {
         .attr('class', 'name')
         .attr('y', (d) => (d.order ? 22 : 17))
         .attr('text-anchor', 'middle')
-        .text((d) => d.name.split(' ')[0]);
+        .text((d) => d.name.split(' ')[0] ?? '');
     }
   }
 }

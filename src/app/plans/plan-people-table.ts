@@ -103,7 +103,7 @@ export class PlanPeopleTable {
     this.source.sortingDataAccessor = (p, key) => {
       if (key === 'order') return p.order ?? Number.MAX_SAFE_INTEGER;
       if (key === 'group') return p.group ?? '';
-      return (p as unknown as Record<string, string | number>)[key];
+      return (p as unknown as Record<string, string | number>)[key] ?? '';
     };
     effect(() => {
       this.source.sort = this.sort();

@@ -1,4 +1,5 @@
 import { reachChartData, reachedBy } from './reach-chart-data';
+import { itemAt } from '../../../shared/checked';
 
 describe('reachChartData', () => {
   // Complete graph K_4 with one starter: each of the 3 others hears at each hop with probability 1/3
@@ -8,18 +9,22 @@ describe('reachChartData', () => {
 
   it('maps shares by hop to percentages on a hop axis', () => {
     const data = reachChartData([{ label: 'Plan', share: k4 }], 'hop', 5);
-    const pts = data.datasets[0].data;
+    const pts = itemAt(data.datasets, 0, 'datasets').data;
     expect(pts.length).toBe(8);
     expect(pts[0]).toEqual({ x: 0, y: 0 });
-    expect(pts[1].x).toBe(1);
-    expect(pts[1].y).toBeCloseTo(33.333, 2);
-    expect(pts[2].y).toBeCloseTo(55.556, 2);
+    expect(itemAt(pts, 1, 'pts').x).toBe(1);
+    expect(itemAt(pts, 1, 'pts').y).toBeCloseTo(33.333, 2);
+    expect(itemAt(pts, 2, 'pts').y).toBeCloseTo(55.556, 2);
   });
 
   it('turns hops into minutes with the room setting', () => {
     const data = reachChartData([{ label: 'Plan', share: k4 }], 'minute', 2.5);
-    expect(data.datasets[0].data.map((p) => p.x).slice(0, 4)).toEqual([0, 2.5, 5, 7.5]);
-    expect(data.datasets[0].data[3].y).toBeCloseTo(100 * (1 - 8 / 27), 2);
+    expect(
+      itemAt(data.datasets, 0, 'datasets')
+        .data.map((p) => p.x)
+        .slice(0, 4),
+    ).toEqual([0, 2.5, 5, 7.5]);
+    expect(itemAt(itemAt(data.datasets, 0, 'datasets').data, 3, 'data').y).toBeCloseTo(100 * (1 - 8 / 27), 2);
   });
 
   it('pads a shorter curve with its final share and dashes the second series', () => {
@@ -31,15 +36,15 @@ describe('reachChartData', () => {
       'hop',
       1,
     );
-    expect(data.datasets[0].data.map((p) => p.y)).toEqual([0, 50, 100, 100, 100]);
-    expect(data.datasets[1].borderDash).toEqual([6, 4]);
-    expect(data.datasets[0].borderDash).toBeUndefined();
+    expect(itemAt(data.datasets, 0, 'datasets').data.map((p) => p.y)).toEqual([0, 50, 100, 100, 100]);
+    expect(itemAt(data.datasets, 1, 'datasets').borderDash).toEqual([6, 4]);
+    expect(itemAt(data.datasets, 0, 'datasets').borderDash).toBeUndefined();
   });
 
   it('cuts a long thin tail once every curve has reached 99.5%', () => {
     // 1 - (2/3)^t first reaches 0.995 at t = 14 (0.9966); 13 gives 0.9949.
     const long = Array.from({ length: 60 }, (_, t) => 1 - Math.pow(2 / 3, t));
-    expect(reachChartData([{ label: 'Plan', share: long }], 'hop', 1).datasets[0].data.length).toBe(17);
+    expect(reachChartData([{ label: 'Plan', share: long }], 'hop', 1).datasets.map((d) => d.data.length)).toEqual([17]);
     // A curve that never gets there keeps the whole length.
     expect(
       reachChartData(
@@ -49,9 +54,9 @@ describe('reachChartData', () => {
         ],
         'hop',
         1,
-      ).datasets[0].data.length,
-    ).toBe(60);
-    expect(reachChartData([{ label: 'Plan', share: long }], 'hop', 1, 1).datasets[0].data.length).toBe(60);
+      ).datasets.map((d) => d.data.length),
+    ).toEqual([60, 60]);
+    expect(reachChartData([{ label: 'Plan', share: long }], 'hop', 1, 1).datasets.map((d) => d.data.length)).toEqual([60]);
   });
 
   it('finds the hop and minute by which a share has heard', () => {

@@ -31,7 +31,7 @@ export function reachChartData(
     const colour = s.colour ?? SERIES_COLOURS[i % SERIES_COLOURS.length];
     const data: { x: number; y: number }[] = [];
     for (let t = 0; t < len; t++) {
-      const v = s.share.length === 0 ? 0 : s.share[Math.min(t, s.share.length - 1)];
+      const v = s.share[Math.min(t, s.share.length - 1)] ?? 0; // past the end: the last share; none: 0
       data.push({ x: round(t * scale), y: round(100 * v) });
     }
     return {
@@ -70,10 +70,8 @@ export function visibleLength(series: readonly ReachSeries[], trimShare: number)
  * and the same in minutes. Used for "90% will have heard within 40 minutes".
  */
 export function reachedBy(curve: readonly number[], share: number, minutesPerHop: number): { hop: number | null; minutes: number | null } {
-  for (let t = 0; t < curve.length; t++) {
-    if (curve[t] >= share - 1e-12) return { hop: t, minutes: round(t * minutesPerHop) };
-  }
-  return { hop: null, minutes: null };
+  const t = curve.findIndex((v) => v >= share - 1e-12);
+  return t < 0 ? { hop: null, minutes: null } : { hop: t, minutes: round(t * minutesPerHop) };
 }
 
 function round(v: number): number {

@@ -3,6 +3,7 @@ import { provideCharts, withDefaultRegisterables } from 'ng2-charts';
 import { BaseChartDirective } from 'ng2-charts';
 import { By } from '@angular/platform-browser';
 import { ReachChart } from './reach-chart';
+import { itemAt } from '../../../shared/checked';
 
 describe('ReachChart', () => {
   it('draws the curve by hop and switches the axis to minutes', async () => {
@@ -17,7 +18,9 @@ describe('ReachChart', () => {
       { x: 0, y: 0 },
       { x: 1, y: 100 },
     ]);
-    (fixture.nativeElement as HTMLElement).querySelectorAll('mat-button-toggle button')[1].dispatchEvent(new MouseEvent('click'));
+    itemAt((fixture.nativeElement as HTMLElement).querySelectorAll('mat-button-toggle button'), 1, 'toggle buttons').dispatchEvent(
+      new MouseEvent('click'),
+    );
     await fixture.whenStable();
     expect(chart.data?.datasets[0].data).toEqual([
       { x: 0, y: 0 },

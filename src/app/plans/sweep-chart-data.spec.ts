@@ -1,4 +1,5 @@
 import { sweepChartData, sweepSeriesFromPoints } from './sweep-chart-data';
+import { itemAt } from '../../../shared/checked';
 
 describe('sweepChartData', () => {
   it('lays every method on one ascending k axis with gaps where a method has no value', () => {
@@ -28,10 +29,10 @@ describe('sweepChartData', () => {
       },
     ]);
     expect(data.labels).toEqual([1, 2, 3]);
-    expect(data.datasets[0].data).toEqual([5.25, 3.5, 2.1]);
-    expect(data.datasets[1].data).toEqual([5.25, null, 2]);
+    expect(itemAt(data.datasets, 0, 'datasets').data).toEqual([5.25, 3.5, 2.1]);
+    expect(itemAt(data.datasets, 1, 'datasets').data).toEqual([5.25, null, 2]);
     // A baseline with an unreachable person has no finite average: a gap, not a made-up value.
-    expect(data.datasets[2].data).toEqual([9.1, null, null]);
+    expect(itemAt(data.datasets, 2, 'datasets').data).toEqual([9.1, null, null]);
   });
 
   it('labels methods plainly and dashes the baselines', () => {
@@ -40,8 +41,8 @@ describe('sweepChartData', () => {
       { method: 'most-ties', points: [{ k: 1, average: 2 }] },
     ]);
     expect(data.datasets.map((d) => d.label)).toEqual(['Widened greedy', 'Most ties (baseline)']);
-    expect(data.datasets[0].borderDash).toBeUndefined();
-    expect(data.datasets[1].borderDash).toEqual([5, 4]);
+    expect(itemAt(data.datasets, 0, 'datasets').borderDash).toBeUndefined();
+    expect(itemAt(data.datasets, 1, 'datasets').borderDash).toEqual([5, 4]);
   });
 });
 
@@ -52,14 +53,14 @@ describe('sweepSeriesFromPoints', () => {
       { k: 2, greedy: 3, widened: 2.9, swap: 2.9, mostTies: 3.6, random: null, lowerBound: 2.5 },
     ]);
     expect(series.map((s) => s.method)).toEqual(['greedy', 'widened', 'swap', 'mostTies', 'random', 'lowerBound']);
-    expect(series[5].points).toEqual([
+    expect(itemAt(series, 5, 'series').points).toEqual([
       { k: 1, average: 3.5 },
       { k: 2, average: 2.5 },
     ]);
-    expect(series[1].points).toEqual([
+    expect(itemAt(series, 1, 'series').points).toEqual([
       { k: 1, average: 4 },
       { k: 2, average: 2.9 },
     ]);
-    expect(sweepChartData(series).datasets[4].data).toEqual([7, null]);
+    expect(itemAt(sweepChartData(series).datasets, 4, 'datasets').data).toEqual([7, null]);
   });
 });

@@ -1,3 +1,4 @@
+import { itemAt } from '../../../shared/checked';
 import type { ReplayScene } from './replay-scene';
 import { chainFronts, hasHeard, type Timeline } from './replay-timeline';
 
@@ -33,8 +34,9 @@ export interface Frame {
 
 export function drawFrame(f: Frame): void {
   const { ctx, width, height, timeline: tl, scene } = f;
-  const px = (i: number) => scene.x[i];
-  const py = (i: number) => scene.y[i];
+  // The scene was laid out for this room: every person index has a position.
+  const px = (i: number) => itemAt(scene.x, i, 'replay x');
+  const py = (i: number) => itemAt(scene.y, i, 'replay y');
   const r = scene.r;
   ctx.fillStyle = REPLAY_COLOURS.background;
   ctx.fillRect(0, 0, width, height);
@@ -54,29 +56,26 @@ export function drawFrame(f: Frame): void {
   ctx.lineWidth = 2;
   ctx.setLineDash([5, 4]);
   ctx.beginPath();
-  const fx: number[] = [];
-  const fy: number[] = [];
+  const heads: { x: number; y: number }[] = [];
   for (const c of fronts) {
     // A question that has not left its asker yet is not drawn: at hop 0 it would sit on everyone.
     if (c.trail.length <= 1 && c.along < 0.02) continue;
     const x = px(c.from) + (px(c.to) - px(c.from)) * c.along;
     const y = py(c.from) + (py(c.to) - py(c.from)) * c.along;
-    ctx.moveTo(px(c.trail[0]), py(c.trail[0]));
-    for (let k = 1; k < c.trail.length; k++) ctx.lineTo(px(c.trail[k]), py(c.trail[k]));
+    c.trail.forEach((p, k) => (k === 0 ? ctx.moveTo(px(p), py(p)) : ctx.lineTo(px(p), py(p))));
     ctx.lineTo(x, y);
-    fx.push(x);
-    fy.push(y);
+    heads.push({ x, y });
   }
   ctx.stroke();
   ctx.setLineDash([]);
   ctx.fillStyle = REPLAY_COLOURS.front;
   ctx.beginPath();
   const d = r * 0.7;
-  for (let k = 0; k < fx.length; k++) {
-    ctx.moveTo(fx[k], fy[k] - d);
-    ctx.lineTo(fx[k] + d, fy[k]);
-    ctx.lineTo(fx[k], fy[k] + d);
-    ctx.lineTo(fx[k] - d, fy[k]);
+  for (const { x, y } of heads) {
+    ctx.moveTo(x, y - d);
+    ctx.lineTo(x + d, y);
+    ctx.lineTo(x, y + d);
+    ctx.lineTo(x - d, y);
     ctx.closePath();
   }
   ctx.fill();
@@ -143,7 +142,7 @@ function drawNames(f: Frame): void {
       const label = scene.labels[i];
       if (!label || hasHeard(tl, i, f.t) !== heardNow) continue;
       ctx.textAlign = label.spot.anchor === 'start' ? 'left' : label.spot.anchor === 'end' ? 'right' : 'center';
-      ctx.fillText(label.text, scene.x[i] + label.spot.dx, scene.y[i] + label.spot.dy);
+      ctx.fillText(label.text, itemAt(scene.x, i, 'replay x') + label.spot.dx, itemAt(scene.y, i, 'replay y') + label.spot.dy);
     }
   }
 }

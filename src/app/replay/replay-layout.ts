@@ -45,7 +45,7 @@ export function replayLayout(
       hi = Math.max(hi, v);
     }
     const span = hi - lo || 1;
-    for (let i = 0; i < a.length; i++) a[i] = hi === lo ? 0.5 : (a[i] - lo) / span;
+    a.forEach((v, i) => (a[i] = hi === lo ? 0.5 : (v - lo) / span));
   };
   norm(x);
   norm(y);

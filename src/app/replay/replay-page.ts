@@ -20,6 +20,7 @@ import { ReplayData } from './replay-data';
 import { replayLayout } from './replay-layout';
 import { replayScene, type ReplayScene } from './replay-scene';
 import { buildTimeline, clampTime, heardAtHop, reachedCount, stepHop, type Timeline } from './replay-timeline';
+import { itemAt } from '../../../shared/checked';
 
 const SPEEDS = [0.5, 1, 2, 4] as const;
 
@@ -63,7 +64,7 @@ export default class ReplayPage implements OnInit, OnDestroy {
     const tl = this.timeline();
     const idx = this.index();
     if (!tl || !idx) return [];
-    return heardAtHop(tl, this.hop()).map((i) => idx.people[i].name);
+    return heardAtHop(tl, this.hop()).map((i) => itemAt(idx.people, i, 'replay person').name);
   });
   /** At 1x a hop a second, but never longer than 40 s for the whole cascade (long tails). */
   protected readonly hopsPerSecond = computed(() => Math.max(1, (this.timeline()?.lastHop ?? 0) / 40) * this.speed());
@@ -222,7 +223,7 @@ export default class ReplayPage implements OnInit, OnDestroy {
         if (!l) return [];
         const b = l.spot.box;
         const box = [b.x0, b.y0, b.x1, b.y1].map((v) => v.toFixed(1)).join(' ');
-        return [{ text: l.text, name: this.names[i], initials: l.initials, box }];
+        return [{ text: l.text, name: itemAt(this.names, i, 'replay name'), initials: l.initials, box }];
       }),
     );
   }

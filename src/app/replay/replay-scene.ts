@@ -1,5 +1,9 @@
 import { forceCollide, forceSimulation, forceX, forceY, type SimulationNodeDatum } from 'd3-force';
 import { type Box, type LabelSpot, placeLabels } from '../core/label-placement';
+import { itemAt } from '../../../shared/checked';
+
+/** Per-person arrays here all have one entry per name; a miss is a bug and throws. */
+const at = (values: ArrayLike<number>, i: number): number => itemAt(values, i, 'replay scene value');
 
 /**
  * Where everyone sits on the projector, in canvas pixels, and where each name goes. Computed
@@ -52,7 +56,7 @@ export function replayScene(
     const start = fit(layout.x, layout.y, margin, width, height, h + r);
     const { x, y } = spread(start.x, start.y, widths, h, r, margin, width, height);
     const spots = placeLabels(
-      names.map((_, i) => ({ x: x[i], y: y[i], width: widths[i] })),
+      names.map((_, i) => ({ x: at(x, i), y: at(y, i), width: at(widths, i) })),
       r + 2,
       { height: h, bounds },
     );
@@ -71,10 +75,10 @@ function fit(nx: Float64Array, ny: Float64Array, margin: number, width: number, 
   const x = new Float64Array(nx.length);
   const y = new Float64Array(ny.length);
   const top = Math.min(margin, height / 4);
-  for (let i = 0; i < nx.length; i++) {
-    x[i] = margin + nx[i] * Math.max(1, width - 2 * margin);
-    y[i] = top + ny[i] * Math.max(1, height - top - bottom);
-  }
+  nx.forEach((v, i) => {
+    x[i] = margin + v * Math.max(1, width - 2 * margin);
+    y[i] = top + at(ny, i) * Math.max(1, height - top - bottom);
+  });
   return { x, y };
 }
 
@@ -86,18 +90,18 @@ function fit(nx: Float64Array, ny: Float64Array, margin: number, width: number, 
 function spread(x0: Float64Array, y0: Float64Array, widths: number[], h: number, r: number, margin: number, width: number, height: number) {
   // Work in a space where y is stretched, so round collision discs act as wide ellipses.
   const squash = 2.2;
-  const nodes: (SimulationNodeDatum & { i: number })[] = widths.map((_, i) => ({ i, x: x0[i], y: y0[i] * squash }));
+  const nodes: (SimulationNodeDatum & { i: number })[] = widths.map((_, i) => ({ i, x: at(x0, i), y: at(y0, i) * squash }));
   const sim = forceSimulation(nodes)
-    .force('collide', forceCollide<SimulationNodeDatum & { i: number }>((d) => widths[d.i] / 2 + r + 4).iterations(3))
-    .force('x', forceX<SimulationNodeDatum & { i: number }>((d) => x0[d.i]).strength(0.08))
-    .force('y', forceY<SimulationNodeDatum & { i: number }>((d) => y0[d.i] * squash).strength(0.08))
+    .force('collide', forceCollide<SimulationNodeDatum & { i: number }>((d) => at(widths, d.i) / 2 + r + 4).iterations(3))
+    .force('x', forceX<SimulationNodeDatum & { i: number }>((d) => at(x0, d.i)).strength(0.08))
+    .force('y', forceY<SimulationNodeDatum & { i: number }>((d) => at(y0, d.i) * squash).strength(0.08))
     .stop();
   sim.tick(160);
   const x = new Float64Array(widths.length);
   const y = new Float64Array(widths.length);
   nodes.forEach((d, i) => {
-    x[i] = d.x ?? x0[i];
-    y[i] = (d.y ?? y0[i] * squash) / squash;
+    x[i] = d.x ?? at(x0, i);
+    y[i] = (d.y ?? at(y0, i) * squash) / squash;
   });
   // Back into the canvas, keeping the spread's proportions.
   const scaled = normalise(x, y);
@@ -135,13 +139,13 @@ function finish(
   const missing = out.map((l, i) => (l ? -1 : i)).filter((i) => i >= 0);
   if (!missing.length) return out;
   // Everything placed so far stays an obstacle: place all again, full names first in the same order.
-  const items = names.map((s, i) => ({ x: x[i], y: y[i], width: measure(out[i] ? s : initialsOf(s), font) }));
+  const items = names.map((s, i) => ({ x: at(x, i), y: at(y, i), width: measure(out[i] ? s : initialsOf(s), font) }));
   const again = placeLabels(items, r + 2, { height: h, bounds });
   return names.map((s, i) => {
     const spot = again[i] ?? spots[i];
     const initials = !out[i];
     // Last resort: initials on the disc itself.
-    return { text: initials ? initialsOf(s) : s, initials, spot: spot ?? centred(x[i], y[i], measure(initialsOf(s), font), h) };
+    return { text: initials ? initialsOf(s) : s, initials, spot: spot ?? centred(at(x, i), at(y, i), measure(initialsOf(s), font), h) };
   });
 }
 

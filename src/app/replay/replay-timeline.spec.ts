@@ -53,7 +53,7 @@ describe('replay timeline', () => {
       chains: [{ person: 1, path: [1, 2], hops: 5, capped: false }],
     });
     const f = chainFronts(cut, 3.2)[0];
-    expect([f.from, f.to, f.along]).toEqual([2, 2, 0]);
+    expect([f?.from, f?.to, f?.along]).toEqual([2, 2, 0]);
   });
 
   it('clamps and steps whole hops for the keyboard and the scrubber', () => {

@@ -5,6 +5,8 @@
  * `hops`. Stored paths may be cut short (truncated): the front then waits on the last stored
  * person until the hop the walk really reached a starter.
  */
+import { itemAt } from '../../../shared/checked';
+
 export interface TimelineChain {
   readonly person: number;
   readonly path: readonly number[];
@@ -57,11 +59,12 @@ export function buildTimeline(input: TimelineInput): Timeline {
   for (const s of input.starters) if (s >= 0 && s < input.n) heardAt[s] = 0;
   const reachedBy = new Int32Array(lastHop + 1);
   let never = 0;
-  for (let i = 0; i < input.n; i++) {
-    if (heardAt[i] < 0) never++;
-    else reachedBy[heardAt[i]]++;
+  for (const h of heardAt) {
+    if (h < 0) never++;
+    else reachedBy[h] = itemAt(reachedBy, h, 'hop count') + 1;
   }
-  for (let t = 1; t <= lastHop; t++) reachedBy[t] += reachedBy[t - 1];
+  let soFar = 0;
+  reachedBy.forEach((count, t) => (reachedBy[t] = soFar += count)); // counts by hop -> reached by hop
   return { n: input.n, lastHop, heardAt, starters: new Set(input.starters), reachedBy, chains: input.chains, never };
 }
 
@@ -74,7 +77,7 @@ export function clampTime(tl: Timeline, t: number): number {
 /** True when person i has heard by time t (a person hears the moment their hop is reached). */
 export function hasHeard(tl: Timeline, i: number, t: number): boolean {
   const h = tl.heardAt[i];
-  return h >= 0 && h <= clampTime(tl, t) + 1e-9;
+  return h !== undefined && h >= 0 && h <= clampTime(tl, t) + 1e-9;
 }
 
 /** How many have heard by time t. */
@@ -99,8 +102,8 @@ export function chainFronts(tl: Timeline, t: number, tail = 4): ChainFront[] {
     const k = Math.floor(time);
     const along = time - k;
     const last = c.path.length - 1;
-    const from = c.path[Math.min(k, last)];
-    const to = k + 1 <= last ? c.path[k + 1] : from;
+    const from = itemAt(c.path, Math.min(k, last), 'chain path');
+    const to = k + 1 <= last ? itemAt(c.path, k + 1, 'chain path') : from;
     const trail = c.path.slice(Math.max(0, Math.min(k, last) - tail + 1), Math.min(k, last) + 1);
     out.push({ person: c.person, from, to, along: to === from ? 0 : along, trail });
   }

@@ -19,7 +19,7 @@ import { DayPipe } from '../core/date-format';
           <button mat-flat-button type="button" (click)="print()"><mat-icon>print</mat-icon>Print</button>
           <span class="rh-muted">
             @if (s.reissued) {
-              New links for {{ s.links.length === 1 ? s.links[0].name : s.links.length + ' people' }}: their earlier links no longer work.
+              New links for {{ s.links.length === 1 ? s.links[0]?.name : s.links.length + ' people' }}: their earlier links no longer work.
             } @else {
               Each person's own link: the same as in their e-mail, and the same on every sheet until you reissue it.
             }

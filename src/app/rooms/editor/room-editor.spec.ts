@@ -131,6 +131,32 @@ describe('RoomEditor saving', () => {
     expect(editor.saveState()).toBe('saved');
   });
 
+  it('the automatic resend waits as long as the Retry-After of the server asks', async () => {
+    jasmine.clock().install();
+    try {
+      editor.setTieStrength('t21', 7);
+      const saving = editor.flush();
+      http
+        .expectOne('/api/rooms/5/edits')
+        .flush(
+          { error: { code: 'busy_writing', message: 'You already have 2 large changes being saved.' } },
+          { status: 429, statusText: 'Too Many Requests', headers: { 'Retry-After': '6' } },
+        );
+      await saving;
+      expect(editor.saveError()).toContain('send it again in 6 seconds');
+      jasmine.clock().tick(5000);
+      http.expectNone('/api/rooms/5/edits');
+      jasmine.clock().tick(1500);
+      const again = http.expectOne('/api/rooms/5/edits');
+      expect(again.request.body.ops).toEqual([{ op: 'updateTie', id: 21, strength: 7 }]);
+      again.flush({ version: 4, layoutOnly: false, people: {}, ties: {} });
+    } finally {
+      jasmine.clock().uninstall();
+    }
+    await new Promise((r) => setTimeout(r));
+    expect(editor.saveState()).toBe('saved');
+  });
+
   it('moves alone are layout-only (no version); a viewer cannot change anything', async () => {
     editor.movePeople([{ lid: 'p12', x: 80, y: 9, pinned: true }]);
     const saving = editor.flush();

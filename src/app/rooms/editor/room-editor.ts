@@ -212,7 +212,8 @@ export class RoomEditor implements OnDestroy {
       }
     }
     for (const lid of lids) ops.push({ op: 'deletePerson', lid });
-    const label = lids.length === 1 ? `Delete ${this.model.people.get(lids[0])?.name ?? 'person'}` : `Delete ${lids.length} people`;
+    const only = lids.length === 1 ? lids[0] : undefined;
+    const label = only !== undefined ? `Delete ${this.model.people.get(only)?.name ?? 'person'}` : `Delete ${lids.length} people`;
     this.execute(label, ops);
     this.selection.keepOnly(
       (l) => this.model.people.has(l),
@@ -315,6 +316,9 @@ export class RoomEditor implements OnDestroy {
     const room = this.room();
     if (!room) return;
     this.inFlight = true;
+    // This save sends what a pending timer would have sent: the timer is not needed any more.
+    if (this.timer) clearTimeout(this.timer);
+    this.timer = null;
     this.saveState.set('saving');
     this.saveError.set(null);
     try {
@@ -350,9 +354,11 @@ export class RoomEditor implements OnDestroy {
       } else if (e.status === 429 && e.code === 'busy_writing') {
         // The server is still saving this person's other large change: keep everything queued,
         // say so, and send it again by itself shortly.
-        this.saveError.set(`${e.message} Ripplehall will send it again in a few seconds.`);
+        // The server's Retry-After decides when, within sensible bounds.
+        const wait = e.retryAfterSeconds !== undefined ? Math.min(30_000, Math.max(1000, e.retryAfterSeconds * 1000)) : BUSY_RETRY_MS;
+        this.saveError.set(`${e.message} Ripplehall will send it again in ${Math.round(wait / 1000)} seconds.`);
         this.saveState.set('unsaved');
-        this.scheduleSave(BUSY_RETRY_MS);
+        this.scheduleSave(wait);
         return;
       } else {
         const fields = e.details?.fields?.map((f) => `${f.field}: ${f.message}`).join('; ');

@@ -6,6 +6,8 @@
  * in our own order; each is paired with a shape of its own. Past eight groups the shapes
  * repeat with a hollow centre so the pairs stay distinct.
  */
+import { itemAt } from '../../../../shared/checked';
+
 export type ShapeName = 'circle' | 'square' | 'triangle' | 'diamond' | 'hexagon' | 'star' | 'pentagon' | 'cross';
 
 export interface GroupStyle {
@@ -27,9 +29,9 @@ export function groupStyles(groups: readonly string[]): Map<string, GroupStyle> 
     const round = Math.floor(i / SHAPES.length);
     out.set(group, {
       group,
-      shape: SHAPES[i % SHAPES.length],
+      shape: itemAt(SHAPES, i % SHAPES.length, 'group shape'),
       // Shift the colour by one for the second round so shape + colour pairs do not repeat.
-      fill: COLOURS[(i + round) % COLOURS.length],
+      fill: itemAt(COLOURS, (i + round) % COLOURS.length, 'group colour'),
       hollow: round % 2 === 1,
     });
   });

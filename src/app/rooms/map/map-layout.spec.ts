@@ -1,4 +1,5 @@
 import { EARLY_STOP_ABOVE, layoutMode, type MapNode, placeUnplaced, STATIC_FROM } from './map-layout';
+import { itemAt } from '../../../../shared/checked';
 
 describe('map layout limits', () => {
   it('runs the layout fully, stops it early, or shows a fixed layout by room size', () => {
@@ -15,11 +16,16 @@ describe('map layout limits', () => {
       ...Array.from({ length: 40 }, (_, i) => ({ lid: `n${i}`, group: i % 2 ? 'X' : 'Y', pinned: false })),
     ];
     expect(placeUnplaced(nodes)).toBeTrue();
-    expect(nodes[0].x).toBe(10);
+    expect(itemAt(nodes, 0, 'nodes').x).toBe(10);
     for (const n of nodes) expect(Number.isFinite(n.x!) && Number.isFinite(n.y!)).toBeTrue();
     for (let i = 1; i < nodes.length; i++) {
       for (let j = i + 1; j < nodes.length; j++) {
-        expect(Math.hypot(nodes[i].x! - nodes[j].x!, nodes[i].y! - nodes[j].y!)).toBeGreaterThan(10);
+        expect(
+          Math.hypot(
+            itemAt(nodes, i, 'nodes').x! - itemAt(nodes, j, 'nodes').x!,
+            itemAt(nodes, i, 'nodes').y! - itemAt(nodes, j, 'nodes').y!,
+          ),
+        ).toBeGreaterThan(10);
       }
     }
     expect(placeUnplaced(nodes)).toBeFalse();

@@ -721,13 +721,17 @@ export class RoomMap implements OnDestroy {
   svgForExport(): { svg: string; width: number; height: number } | null {
     const nodes = [...this.nodes.values()];
     if (!nodes.length) return null;
-    const pad = 40;
+    // The frame is the drawn content's own box (names included, so none is cut at the edge),
+    // in the viewport group's coordinates, i.e. before the pan and zoom.
+    const pad = 24;
+    // The hidden helpers (the tie draft line, the find ring) are left out of the frame.
+    const boxes = [this.peopleLayer.getBBox(), this.tieLayer.getBBox()].filter((b) => b.width > 0 || b.height > 0);
     const xs = nodes.map((n) => n.x!);
     const ys = nodes.map((n) => n.y!);
-    const x0 = Math.min(...xs) - pad;
-    const y0 = Math.min(...ys) - pad;
-    const width = Math.max(...xs) - x0 + pad;
-    const height = Math.max(...ys) - y0 + pad + 14;
+    const x0 = Math.min(...boxes.map((b) => b.x), ...xs) - pad;
+    const y0 = Math.min(...boxes.map((b) => b.y), ...ys) - pad;
+    const width = Math.max(...boxes.map((b) => b.x + b.width), ...xs) - x0 + pad;
+    const height = Math.max(...boxes.map((b) => b.y + b.height), ...ys) - y0 + pad;
     const clone = this.svgRef().nativeElement.cloneNode(true) as SVGSVGElement;
     clone.setAttribute('xmlns', SVG_NS);
     clone.setAttribute('viewBox', `${x0} ${y0} ${width} ${height}`);

@@ -40,7 +40,8 @@ export class MapInspector {
       return { kind: 'tie' as const, tie: t, source: m.people.get(t.source)?.name ?? '?', target: m.people.get(t.target)?.name ?? '?' };
     }
     if (s.size === 1) {
-      const p = m.people.get(s.ids()[0]);
+      const [id] = s.ids();
+      const p = id === undefined ? undefined : m.people.get(id);
       if (!p) return { kind: 'none' as const };
       return { kind: 'person' as const, person: p, ties: m.tiesOf(p.lid).length };
     }

@@ -23,6 +23,7 @@ import {
 import { toApiError } from '../../core/api-error';
 import { RoomsApi } from '../rooms-api';
 import { SeatingPreview } from './seating-preview';
+import { itemAt } from '../../../../shared/checked';
 
 /** Builds a room from a seating layout: choose the layout and names, look at the preview, save. */
 @Component({
@@ -122,7 +123,11 @@ export default class SeatingPage {
           name: this.form.controls.name.value.trim(),
           description: describe(this.options(), r.groups),
           people: r.people.map((p) => ({ key: p.key, name: p.name, group: p.group, email: p.email, x: p.x, y: p.y })),
-          ties: r.ties.map((t) => ({ source: r.people[t.source].key, target: r.people[t.target].key, strength: t.strength })),
+          ties: r.ties.map((t) => ({
+            source: itemAt(r.people, t.source, 'seated person').key,
+            target: itemAt(r.people, t.target, 'seated person').key,
+            strength: t.strength,
+          })),
         }),
       );
       await this.router.navigate(['/rooms', room.id]);

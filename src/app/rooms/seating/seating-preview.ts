@@ -1,6 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { SeatingResult } from '../../../../shared/seating/seating';
 import { groupStyles, shapePath } from '../map/group-style';
+import { itemAt } from '../../../../shared/checked';
 
 /** A small drawing of the generated seating: seats by group shape and colour, ties by kind. */
 @Component({
@@ -55,8 +56,8 @@ export class SeatingPreview {
     const y0 = Math.min(...ys) - pad;
     const box = `${x0} ${y0} ${Math.max(...xs) - x0 + pad} ${Math.max(...ys) - y0 + pad}`;
     const ties = r.ties.map((t) => {
-      const a = r.people[t.source];
-      const b = r.people[t.target];
+      const a = itemAt(r.people, t.source, 'seated person');
+      const b = itemAt(r.people, t.target, 'seated person');
       return {
         x1: a.x,
         y1: a.y,

@@ -109,7 +109,8 @@ export class TiesTable {
     const byKey = people.find((p) => p.key === v);
     if (byKey) return byKey.lid;
     const named = people.filter((p) => p.name === v);
-    return named.length === 1 ? named[0].lid : null;
+    const [only, ...others] = named;
+    return only && others.length === 0 ? only.lid : null;
   }
 
   protected filter(value: string): void {
