@@ -10,6 +10,7 @@ import { loadRoomFor, loadRoomGraph } from './access';
 import { applyEdits } from './edits';
 import { exportRoom, fileStem } from './export';
 import { importRouter } from './import-routes';
+import { listRooms } from './list-store';
 import { writeRoomOrgChart } from './org-chart';
 import { orgChartRouter } from './org-chart-routes';
 import * as schemas from './schemas';
@@ -27,7 +28,7 @@ roomsRouter.use(importRouter);
 
 roomsRouter.get('/', signedIn(), async (req, res) => {
   const q = parse(schemas.roomListQuery, req.query, 'query');
-  res.json(await store.listRooms(me(req).id, q));
+  res.json(await listRooms(me(req).id, q));
 });
 
 roomsRouter.post('/', signedIn(), heavyWrite, async (req, res) => {
