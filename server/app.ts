@@ -1,5 +1,6 @@
 import { randomBytes } from 'node:crypto';
 import { readFileSync, statSync } from 'node:fs';
+import type { IncomingMessage, ServerResponse } from 'node:http';
 import { fileURLToPath } from 'node:url';
 import express, { type Express, type NextFunction, type Request, type Response } from 'express';
 import cookieParser from 'cookie-parser';
@@ -23,31 +24,18 @@ export function createApp(): Express {
   app.set('trust proxy', config.TRUST_PROXY ? 1 : false);
   app.set('query parser', 'simple');
 
-  app.use((_req, res, next) => {
+  // Every /api answer is no-store: an ETag (a hash of each body) would never be used.
+  app.set('etag', false);
+
+  // Pages get a fresh CSP nonce each (Angular stamps its run-time styles with it); API answers
+  // style nothing, so they carry the same policy without a nonce, its header built once.
+  const pageHeaders = securityHeaders(secure, (_req, res) => `'nonce-${(res as Response).locals['cspNonce']}'`);
+  const apiHeaders = securityHeaders(secure);
+  app.use((req, res, next) => {
+    if (req.path.startsWith('/api/')) return apiHeaders(req, res, next);
     res.locals['cspNonce'] = randomBytes(16).toString('base64');
-    next();
+    pageHeaders(req, res, next);
   });
-  app.use(
-    helmet({
-      contentSecurityPolicy: {
-        useDefaults: true,
-        directives: {
-          'default-src': ["'self'"],
-          'script-src': ["'self'"],
-          // Angular inserts component styles at run time; it stamps them with this nonce.
-          'style-src': ["'self'", (_req, res) => `'nonce-${(res as Response).locals['cspNonce']}'`],
-          'img-src': ["'self'", 'data:', 'blob:'],
-          'font-src': ["'self'"],
-          'connect-src': ["'self'"],
-          'object-src': ["'none'"],
-          'frame-ancestors': ["'none'"],
-          'form-action': ["'self'"],
-          'upgrade-insecure-requests': secure ? [] : null,
-        },
-      },
-      strictTransportSecurity: secure,
-    }),
-  );
   app.use(requestLogger);
   app.use(express.json({ limit: '2mb' }));
   app.use(cookieParser());
@@ -58,6 +46,29 @@ export function createApp(): Express {
   serveClient(app);
   app.use(errorHandler);
   return app;
+}
+
+type NonceDirective = (req: IncomingMessage, res: ServerResponse) => string;
+
+function securityHeaders(secure: boolean, styleNonce?: NonceDirective) {
+  return helmet({
+    contentSecurityPolicy: {
+      useDefaults: true,
+      directives: {
+        'default-src': ["'self'"],
+        'script-src': ["'self'"],
+        'style-src': styleNonce ? ["'self'", styleNonce] : ["'self'"],
+        'img-src': ["'self'", 'data:', 'blob:'],
+        'font-src': ["'self'"],
+        'connect-src': ["'self'"],
+        'object-src': ["'none'"],
+        'frame-ancestors': ["'none'"],
+        'form-action': ["'self'"],
+        'upgrade-insecure-requests': secure ? [] : null,
+      },
+    },
+    strictTransportSecurity: secure,
+  });
 }
 
 function noStore(_req: Request, res: Response, next: NextFunction) {

@@ -1,23 +1,13 @@
 import session from 'express-session';
-import MySQLStoreFactory from 'express-mysql-session';
 import type { NextFunction, Request, Response } from 'express';
 import { config } from '../config';
 import { pool } from '../db';
+import { SessionStore } from './session-store';
 
 export const SESSION_COOKIE = 'rh.sid';
 
-const MySQLStore = MySQLStoreFactory(session as never);
-
 export function sessionMiddleware(secure: boolean) {
-  const store = new MySQLStore(
-    {
-      createDatabaseTable: false,
-      // The store's own clean-up timer keeps finished processes alive; ours below does not.
-      clearExpired: false,
-      schema: { tableName: 'sessions', columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' } },
-    },
-    pool as never,
-  );
+  const store = new SessionStore({ tableName: 'sessions', columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' } });
   setInterval(() => void store.clearExpiredSessions().catch(() => undefined), 15 * 60 * 1000).unref();
   throttleTouch(store);
   return session({

@@ -13,10 +13,12 @@ import {
   type PlannerTask,
 } from '../plans/compute';
 import { runSweep, type SweepTask } from '../plans/sweep';
+import { summarize, type SummaryTask } from '../rooms/summary';
 import type { KSweepResult } from '../../shared/api/plans';
+import type { RoomSummary } from '../../shared/api/rooms';
 
-export type PlanPoolTask = (PlannerTask | HandMadeTask | SweepTask) & { port?: MessagePort };
-export type PlanPoolResult = ComputeOutcome<PlanComputation> | ComputeOutcome<KSweepResult>;
+export type PlanPoolTask = (PlannerTask | HandMadeTask | SweepTask | SummaryTask) & { port?: MessagePort };
+export type PlanPoolResult = ComputeOutcome<PlanComputation> | ComputeOutcome<KSweepResult> | ComputeOutcome<RoomSummary>;
 
 export default async function runPlanTask(task: PlanPoolTask): Promise<PlanPoolResult> {
   try {
@@ -25,6 +27,8 @@ export default async function runPlanTask(task: PlanPoolTask): Promise<PlanPoolR
         return { ok: await runPlanner(task, (fraction, search) => task.port?.postMessage({ fraction, search })) };
       case 'hand-made':
         return scoreHandMade(task);
+      case 'summary':
+        return { ok: summarize(task.loaded) };
       default:
         return { ok: runSweep(task) };
     }

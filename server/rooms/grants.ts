@@ -1,7 +1,6 @@
-import { and, eq, sql, type SQL } from 'drizzle-orm';
+import { sql, type Placeholder, type SQL } from 'drizzle-orm';
 import { roomShares, rooms } from '../../db/schema/rooms';
 import { workshopFacilitators, workshops } from '../../db/schema/workshops';
-import { db } from '../db';
 
 /**
  * Room access has two reasons, kept apart so that each can end on its own:
@@ -12,21 +11,10 @@ import { db } from '../db';
  * The second is never written into room_shares, so removing a co-facilitator or deleting the
  * workshop ends it at once, and a direct viewer share is neither upgraded nor lost.
  */
-export function workshopEditorOf(userId: number): SQL<boolean> {
+export function workshopEditorOf(userId: number | Placeholder): SQL<boolean> {
   return sql<boolean>`EXISTS (SELECT 1 FROM ${workshopFacilitators}
     INNER JOIN ${workshops} ON ${workshops.id} = ${workshopFacilitators.workshopId}
     WHERE ${workshops.roomId} = ${rooms.id} AND ${workshopFacilitators.userId} = ${userId}
       AND (${workshops.ownerId} = ${rooms.ownerId} OR EXISTS (SELECT 1 FROM ${roomShares} AS owner_share
         WHERE owner_share.room_id = ${rooms.id} AND owner_share.user_id = ${workshops.ownerId} AND owner_share.role = 'editor')))`;
-}
-
-/** The rooms `userId` may edit as a co-facilitator (one query, for lists). */
-export async function workshopRoomIdsOf(userId: number): Promise<number[]> {
-  const rows = await db
-    .selectDistinct({ roomId: rooms.id })
-    .from(workshopFacilitators)
-    .innerJoin(workshops, eq(workshops.id, workshopFacilitators.workshopId))
-    .innerJoin(rooms, eq(rooms.id, workshops.roomId))
-    .where(and(eq(workshopFacilitators.userId, userId), workshopEditorOf(userId)));
-  return rows.map((r) => r.roomId);
 }

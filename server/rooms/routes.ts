@@ -10,15 +10,15 @@ import { loadRoomFor, loadRoomGraph } from './access';
 import { applyEdits } from './edits';
 import { exportRoom, fileStem } from './export';
 import { importRouter } from './import-routes';
+import { listRooms } from './list-store';
 import { writeRoomOrgChart } from './org-chart';
 import { orgChartRouter } from './org-chart-routes';
 import * as schemas from './schemas';
-import { createRoom, duplicateRoom, roomDto, updateRoom } from './service';
+import { createRoom, duplicateRoom, roomDto, roomSummary, updateRoom } from './service';
 import { idOf } from '../core/ids';
 import { clientGoneSignal, heavyWrite } from '../core/heavy-writes';
 import { addShare, changeShare, listShares, revokeShare } from './shares';
 import * as store from './store';
-import { summarize } from './summary';
 
 export const roomsRouter = Router();
 const me = (req: Request) => req.user!;
@@ -28,7 +28,7 @@ roomsRouter.use(importRouter);
 
 roomsRouter.get('/', signedIn(), async (req, res) => {
   const q = parse(schemas.roomListQuery, req.query, 'query');
-  res.json(await store.listRooms(me(req).id, q));
+  res.json(await listRooms(me(req).id, q));
 });
 
 roomsRouter.post('/', signedIn(), heavyWrite, async (req, res) => {
@@ -82,7 +82,7 @@ roomsRouter.get('/:id/ties', signedIn(), async (req, res) => {
 
 roomsRouter.get('/:id/summary', signedIn(), async (req, res) => {
   const { room } = await loadRoomFor(req.user, req.params.id, 'view');
-  res.json(summarize(await loadRoomGraph(room.id)));
+  res.json(await roomSummary(room.id));
 });
 
 const exportQuery = z.strictObject({ format: z.enum(EXPORT_FORMATS, `format must be one of ${EXPORT_FORMATS.join(', ')}.`) });

@@ -6,6 +6,9 @@ import { settingsOf, type LoadedRoom, type RoomRow } from './access';
 import { checkContent, pairKey, type RoomContent } from './content';
 import type { CreateRoomInput } from './schemas';
 import * as store from './store';
+import { runInPlanPool, TimeLimitError } from '../jobs/pools';
+import type { RoomSummary } from '../../shared/api/rooms';
+import { loadRoomGraph } from './access';
 
 export function staleVersion(room: RoomRow, yourVersion: number, withCurrent = false): HttpError {
   const details: StaleVersionDetails = { currentVersion: room.version, yourVersion, message: STALE_MESSAGE };
@@ -107,4 +110,25 @@ export async function duplicateRoom(loaded: LoadedRoom, ownerId: number, name?: 
     const copyName = name ?? `${room.name} (copy)`.slice(0, 120);
     return createWithContent(tx, ownerId, copyName, room.description, settingsOf(room), content);
   });
+}
+
+/** The summary takes at most this long (a room of the largest size plans in well under it). */
+const SUMMARY_LIMIT_MS = 60_000;
+
+/** Counts, parts, closed groups and the first hint, computed in the plan worker pool. */
+export async function roomSummary(roomId: number): Promise<RoomSummary> {
+  const loaded = await loadRoomGraph(roomId);
+  try {
+    const outcome = await runInPlanPool({ kind: 'summary', loaded }, { hardLimitMs: SUMMARY_LIMIT_MS });
+    if ('error' in outcome) throw new HttpError(422, 'summary_failed', outcome.error.message);
+    return outcome.ok as RoomSummary;
+  } catch (e) {
+    if (e instanceof TimeLimitError)
+      throw new HttpError(
+        503,
+        'summary_too_slow',
+        `The room summary took longer than ${SUMMARY_LIMIT_MS / 1000} s and was stopped. Try again later, or plan the room directly.`,
+      );
+    throw e;
+  }
 }

@@ -1,13 +1,11 @@
 /** Rooms data access (Drizzle on MariaDB: select / join only, bulk inserts in chunks). */
-import { and, asc, desc, eq, exists, gte, inArray, like, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, like, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
-import type { Page, PersonDto, RoomListItem, RoomSettings, TieDto, TieListItem } from '../../shared/api/rooms';
+import type { Page, PersonDto, RoomSettings, TieDto, TieListItem } from '../../shared/api/rooms';
 import { firstOf, itemAt } from '../../shared/checked';
-import { users } from '../../db/schema/accounts';
-import { people, roomShares, rooms, ties } from '../../db/schema/rooms';
+import { people, rooms, ties } from '../../db/schema/rooms';
 import { db, type Tx } from '../db';
 import type { RoomRow } from './access';
-import { workshopRoomIdsOf } from './grants';
 
 type Q = Tx | typeof db;
 const CHUNK = 1000;
@@ -194,67 +192,7 @@ export interface ListParams<S extends string> {
   q?: string;
 }
 
-const iso = (d: Date) => d.toISOString();
-
-export async function listRooms(userId: number, p: ListParams<string> & { scope: 'all' | 'mine' | 'shared' }): Promise<Page<RoomListItem>> {
-  const mine = eq(rooms.ownerId, userId);
-  const helperRooms = await workshopRoomIdsOf(userId);
-  const helper = helperRooms.length ? inArray(rooms.id, helperRooms) : sql`FALSE`;
-  const sharedWithMe = or(
-    exists(
-      db
-        .select({ one: sql`1` })
-        .from(roomShares)
-        .where(and(eq(roomShares.roomId, rooms.id), eq(roomShares.userId, userId))),
-    ),
-    helper,
-  );
-  const scope = p.scope === 'mine' ? mine : p.scope === 'shared' ? sharedWithMe : or(mine, sharedWithMe);
-  const filters: (SQL | undefined)[] = [scope];
-  if (p.q) filters.push(or(like(rooms.name, contains(p.q)), like(rooms.description, contains(p.q))));
-  const where = and(...filters);
-  const peopleCount = sql<number>`(SELECT COUNT(*) FROM ${people} WHERE ${people.roomId} = ${rooms.id})`;
-  const tieCount = sql<number>`(SELECT COUNT(*) FROM ${ties} WHERE ${ties.roomId} = ${rooms.id})`;
-  const order = p.direction === 'desc' ? desc : asc;
-  const sortBy = { name: rooms.name, updatedAt: rooms.updatedAt, people: peopleCount, ties: tieCount }[p.sort] ?? rooms.updatedAt;
-  const counted = await db
-    .select({ total: sql<number>`COUNT(*)` })
-    .from(rooms)
-    .where(where);
-  const { total } = firstOf(counted, 'room count');
-  const rows = await db
-    .select({
-      room: rooms,
-      ownerName: users.name,
-      shareRole: roomShares.role,
-      helper: sql<number>`${helper}`,
-      people: peopleCount,
-      ties: tieCount,
-    })
-    .from(rooms)
-    .innerJoin(users, eq(users.id, rooms.ownerId))
-    .leftJoin(roomShares, and(eq(roomShares.roomId, rooms.id), eq(roomShares.userId, userId)))
-    .where(where)
-    .orderBy(order(sortBy), asc(rooms.id))
-    .limit(p.pageSize)
-    .offset(p.page * p.pageSize);
-  return {
-    total: Number(total),
-    page: p.page,
-    pageSize: p.pageSize,
-    items: rows.map((r) => ({
-      id: r.room.id,
-      name: r.room.name,
-      description: r.room.description,
-      access: r.room.ownerId === userId ? 'owner' : Number(r.helper) ? 'editor' : (r.shareRole ?? 'viewer'),
-      ownerName: r.ownerName,
-      people: Number(r.people),
-      ties: Number(r.ties),
-      version: r.room.version,
-      updatedAt: iso(r.room.updatedAt),
-    })),
-  };
-}
+export const iso = (d: Date) => d.toISOString();
 
 export async function listPeople(roomId: number, p: ListParams<string> & { group?: string }): Promise<Page<PersonDto>> {
   const filters: (SQL | undefined)[] = [eq(people.roomId, roomId)];

@@ -9,7 +9,7 @@ import { EngineError } from './errors';
 import { ergodicFromWalk, ergodicSymmetric, isReversibleErgodic, type ErgodicData } from './ergodic';
 import type { PlanMethod, PlanOptions, PlanResult } from './plan-types';
 import { classStructure, type ClassStructure } from './reachability';
-import { exactReach } from './reach';
+import { DEFAULT_DENSE_LIMIT, exactReach } from './reach';
 import { checkPeople, prepareRoom, type PreparedRoom, type RoomInput } from './room';
 import { denseWalk } from './walk';
 
@@ -37,6 +37,8 @@ export interface PlanContext {
   deadline: number;
   /** Set by planners that estimate the worst single-starter total instead of computing it. */
   worstOverride?: number;
+  /** Set by planners that score every single starter on their own (the sparse first pick). */
+  bestSingleOverride?: { person: number; total: number };
 }
 
 export function planContext(input: RoomInput, options: PlanOptions): PlanContext {
@@ -253,6 +255,10 @@ export function finishPlan(ctx: PlanContext, method: PlanMethod, starters: numbe
 
 /** The best single starter (identity 3, tie-break of engine.md), or undefined without ergodic data. */
 function bestSingle(ctx: PlanContext): { person: number; total: number } | undefined {
+  if (ctx.bestSingleOverride) return ctx.bestSingleOverride;
+  // Above the dense limit the ergodic data (an n x n inverse, O(n^3)) would cost far more than
+  // the plan itself: the card is left out unless the planner scored every single starter.
+  if (ctx.n > (ctx.options.denseLimit ?? DEFAULT_DENSE_LIMIT)) return undefined;
   const e = ctx.ergodic();
   if (!e) return undefined;
   let best = -1;

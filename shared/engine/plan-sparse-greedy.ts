@@ -70,6 +70,7 @@ export function sparseGreedyPlan(ctx: PlanContext, maxFill = DEFAULT_MAX_FILL, m
     for (const p of ctx.mustInclude) addStarter(s, p);
     starters.push(...ctx.mustInclude);
   } else if (first.worst !== undefined) ctx.worstOverride = first.worst * scale;
+  if (first.bestSingle) ctx.bestSingleOverride = { person: first.bestSingle.person, total: first.bestSingle.total * scale };
   const scoredAll = first.scoredAll || (room.mixing > 0 && ctx.mustInclude.length === 0);
   const r = k - ctx.mustInclude.length;
   const record = () => {

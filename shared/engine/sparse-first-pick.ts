@@ -20,6 +20,8 @@ export interface FirstStarters {
   readonly scoredAll: boolean;
   /** Worst single-starter total (one worst member per closed group; unscaled), when scored here. */
   readonly worst?: number;
+  /** With one closed group: the best single starter over everyone and its total (unscaled). */
+  readonly bestSingle?: { person: number; total: number };
 }
 
 export function firstStarters(ctx: PlanContext, order: Int32Array, maxFill: number, maxWork: number): FirstStarters | null {
@@ -50,12 +52,14 @@ export function firstStarters(ctx: PlanContext, order: Int32Array, maxFill: numb
   const xdv = f.solve(bd);
   for (let i = 0; i < n; i++) if (grounded[i]) xd[i] = x1[i] = xdv[i] = 0;
   let worst = 0;
+  let bestSingle: FirstStarters['bestSingle'];
   for (const cls of classes) {
     const part = scorePart(ctx, cls, xd, x1, xdv);
     worst += part.worst;
+    if (classes.length === 1) bestSingle = part.bestAny;
     if (!cls.some((p) => isIn[p])) set.push(part.best);
   }
-  return { set, scoredAll: classes.length === 1 && ctx.mustInclude.length === 0, worst };
+  return { set, scoredAll: classes.length === 1 && ctx.mustInclude.length === 0, worst, ...(bestSingle ? { bestSingle } : {}) };
 }
 
 /** The best allowed single starter of a part (tie-break of docs/engine.md) and the worst single total. */
@@ -65,7 +69,7 @@ function scorePart(
   xd: Float64Array,
   x1: Float64Array,
   xdv: Float64Array,
-): { best: number; worst: number } {
+): { best: number; worst: number; bestAny?: { person: number; total: number } } {
   const d = ctx.room.csr.outStrength;
   const m = cls.length;
   if (m === 1) return { best: cls[0], worst: 0 };
@@ -82,6 +86,8 @@ function scorePart(
   const tol = tieTolerance(m);
   let best = -1;
   let bestT = Infinity;
+  let any = -1;
+  let anyT = Infinity;
   let worst = 0;
   for (const j of cls) {
     const lpjj = xd[j] - (2 * x1[j]) / m + s1 / (m * m);
@@ -92,6 +98,10 @@ function scorePart(
       best = j;
       bestT = t;
     }
+    if (beats(t, j, anyT, any, tol)) {
+      any = j;
+      anyT = t;
+    }
   }
-  return { best, worst };
+  return { best, worst, ...(any >= 0 ? { bestAny: { person: any, total: anyT } } : {}) };
 }

@@ -60,6 +60,10 @@ function compare(g: RoomGraph | ReturnType<typeof roomFromEdges>, o: PlanOptions
   // identity-6 and cover bounds must stay proven: never above the plan both found.
   assert.ok(sparse.lowerBound <= dense.total * (1 + 1e-9), `${label}: bound`);
   assert.ok(Math.abs(sparse.rank - dense.rank) <= 1e-9, `${label}: rank ${sparse.rank} vs ${dense.rank}`);
+  // The best single starter: from the pseudo-inverse diagonal on the sparse path, from the dense ergodic data here.
+  assert.equal(sparse.bestSingle?.person, dense.bestSingle?.person, `${label}: best single starter`);
+  if (dense.bestSingle && sparse.bestSingle)
+    assert.ok(Math.abs(sparse.bestSingle.total - dense.bestSingle.total) <= 1e-9 * dense.bestSingle.total, `${label}: best single total`);
 }
 
 describe('sparse exact greedy equals the dense greedy', () => {
@@ -78,6 +82,19 @@ describe('sparse exact greedy equals the dense greedy', () => {
     // A grid has many equal totals (symmetry): the tie-break by input order must agree too.
     compare(roomFromEdges(gridEdges(20, 3, true)), { k: 10, method: 'greedy' }, 'unit grid 400');
     compare(roomFromEdges(smallWorldEdges(1500, 3, 0.1, 4)), { k: 6, method: 'greedy', mixing: 0.05 }, 'small-world 1500');
+  });
+
+  it('above the dense limit no plan builds the dense ergodic data: the best single starter comes from the sparse first pick or is left out', () => {
+    const g = randomRoom(600, 1, 2, 11);
+    const dense = plan(g, { k: 2, method: 'greedy' });
+    const sparse = plan(g, { k: 2, method: 'greedy', denseLimit: 500 });
+    assert.equal(sparse.solverPath, 'sparse-factor');
+    assert.deepEqual(sparse.bestSingle?.person, dense.bestSingle?.person);
+    assert.ok(Math.abs(sparse.bestSingle!.total - dense.bestSingle!.total) <= 1e-9 * dense.bestSingle!.total);
+    // Lazy greedy scores only a few candidates: it reports no best single starter rather than an n x n inverse.
+    const lazy = plan(g, { k: 2, method: 'lazy-greedy', denseLimit: 500 });
+    assert.equal(lazy.bestSingle, undefined);
+    assert.deepEqual(lazy.starters.length, 2);
   });
 
   it('says which path ran and falls back to iterative solves when the factor would be too large', () => {

@@ -1,9 +1,13 @@
 import assert from 'node:assert/strict';
+import { createServer } from 'node:http';
+import type { AddressInfo } from 'node:net';
 import { after, before, describe, it } from 'node:test';
 import { eq } from 'drizzle-orm';
 import { users } from '../../db/schema/accounts';
 import { db, pool } from '../../server/db';
 import { hashPassword, verifyPassword } from '../../server/auth/passwords';
+import { createApp } from '../../server/app';
+import { TestClient } from '../support/http-client';
 import { createAccount, signedInClient, startTestServer, type TestServer } from '../support/test-server';
 
 describe('sign-in, sessions, CSRF and request checks', () => {
@@ -59,6 +63,39 @@ describe('sign-in, sessions, CSRF and request checks', () => {
     replay.cookies.set('rh.sid', cookie);
     assert.equal((await replay.get('/api/auth/me')).body.user, null);
     assert.equal((await replay.post('/api/auth/password', { currentPassword: 'x', newPassword: 'y'.repeat(12) })).status, 401);
+  });
+
+  it('two web processes read every session afresh: sign-out, deactivation and a role change count at once in both', async () => {
+    // A second app on the same database stands for another web process (its own session store).
+    const other = createServer(createApp());
+    await new Promise<void>((resolve) => other.listen(0, '127.0.0.1', () => resolve()));
+    try {
+      const otherUrl = `http://127.0.0.1:${(other.address() as AddressInfo).port}`;
+      const onBoth = async (cookies: Map<string, string>, path: string) =>
+        Promise.all(
+          [server.url, otherUrl].map(async (url) => {
+            const c = new TestClient(url);
+            for (const [k, v] of cookies) c.cookies.set(k, v);
+            return (await c.get(path)).status;
+          }),
+        );
+      const { client, account } = await signedInClient(server);
+      assert.deepEqual(await onBoth(client.cookies, '/api/rooms'), [200, 200]);
+      await db.update(users).set({ role: 'admin' }).where(eq(users.id, account.id));
+      assert.deepEqual(await onBoth(client.cookies, '/api/admin/accounts'), [200, 200]);
+      await db.update(users).set({ status: 'deactivated' }).where(eq(users.id, account.id));
+      assert.deepEqual(await onBoth(client.cookies, '/api/rooms'), [401, 401]);
+
+      const second = await signedInClient(server);
+      assert.deepEqual(await onBoth(second.client.cookies, '/api/rooms'), [200, 200]);
+      const elsewhere = new TestClient(otherUrl);
+      for (const [k, v] of second.client.cookies) elsewhere.cookies.set(k, v);
+      assert.equal((await elsewhere.post('/api/auth/sign-out')).status, 204);
+      assert.deepEqual(await onBoth(second.client.cookies, '/api/rooms'), [401, 401]);
+    } finally {
+      other.closeAllConnections();
+      await new Promise<void>((resolve) => other.close(() => resolve()));
+    }
   });
 
   it('rejects state-changing requests without the XSRF header or with a wrong one (403)', async () => {

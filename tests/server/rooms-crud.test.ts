@@ -176,6 +176,21 @@ describe('rooms: create, read, change, delete', () => {
     assert.equal(byName.body.items.length, 2);
     const byPeople = await client.get('/api/rooms?sort=people&direction=desc&pageSize=1');
     assert.equal(byPeople.body.items[0].people, 6);
+    // Every page keeps the order across pages and the same total, also a page past the end.
+    const all = await client.get('/api/rooms?sort=name&direction=desc&pageSize=100');
+    const names = all.body.items.map((r: { name: string }) => r.name);
+    assert.equal(names.length, all.body.total);
+    assert.equal(typeof all.body.items[0].description, 'string');
+    const pages = await Promise.all(
+      [...names.keys()].map((page) => client.get(`/api/rooms?sort=name&direction=desc&pageSize=1&page=${page}`)),
+    );
+    assert.deepEqual(
+      pages.map((p) => p.body.items[0]?.name),
+      names,
+    );
+    for (const p of pages) assert.equal(p.body.total, all.body.total);
+    const past = await client.get(`/api/rooms?pageSize=1&page=${all.body.total}`);
+    assert.deepEqual([past.body.items, past.body.total], [[], all.body.total]);
     const badSort = await client.get('/api/rooms?sort=salary');
     assert.equal(badSort.status, 400);
     assert.match(badSort.body.error.message, /sort must be one of/);
