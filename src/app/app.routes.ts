@@ -13,7 +13,27 @@ export const routes: Routes = [
   { path: 'rooms/:roomId/plans', canActivate: [signedInGuard], loadChildren: () => import('./plans/plans.routes') },
   { path: 'workshops', canActivate: [signedInGuard], loadChildren: () => import('./workshops/workshops.routes') },
   { path: 'admin', canActivate: [roleGuard('admin')], loadChildren: () => import('./admin/admin.routes') },
-  { path: 'p', loadChildren: () => import('./participant/participant.routes') },
+  // Participant pages (no account: a personal link or the projector's join code). Each is one lazy
+  // level below the app, not two: a phone opening its link waits for one fewer round of chunks.
+  {
+    path: 'p',
+    pathMatch: 'full',
+    data: { bare: true },
+    title: 'Your link · Ripplehall',
+    loadComponent: () => import('./participant/link-help'),
+  },
+  {
+    path: 'p/join/:code',
+    data: { bare: true },
+    title: 'Join a workshop · Ripplehall',
+    loadComponent: () => import('./participant/join-page'),
+  },
+  {
+    path: 'p/:token',
+    data: { bare: true },
+    title: 'Your workshop page · Ripplehall',
+    loadComponent: () => import('./participant/participant-page'),
+  },
   {
     path: 'replay/:rehearsalId',
     canActivate: [signedInGuard],

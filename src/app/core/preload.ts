@@ -10,7 +10,7 @@ import { type Observable, of } from 'rxjs';
 @Injectable({ providedIn: 'root' })
 export class FacilitatorPreload implements PreloadingStrategy {
   preload(route: Route, load: () => Observable<unknown>): Observable<unknown> {
-    if (route.path === 'p' || /^\/p(\/|$)/.test(globalThis.location?.pathname ?? '')) return of(null);
+    if (route.path === 'p' || route.path?.startsWith('p/') || /^\/p(\/|$)/.test(globalThis.location?.pathname ?? '')) return of(null);
     return load();
   }
 }
