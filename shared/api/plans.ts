@@ -53,9 +53,12 @@
  * TOO_MANY_CASCADES, INVALID_SEED, NOT_READY (plan or rehearsal not finished), NOT_RERUNNABLE. `error.details.suggest` names another method when
  * one would work. Rooms the caller cannot see answer 404; viewers get 403 on changes.
  */
+import type { JobDto } from './jobs';
 
 export const PLAN_METHOD_CHOICES = ['auto', 'greedy', 'widened', 'swap', 'exhaustive'] as const;
+
 export type PlanMethodChoiceDto = (typeof PLAN_METHOD_CHOICES)[number];
+
 /** What was actually run ('auto' resolves to one of the engine's methods). */
 export type PlanMethodUsed = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy' | 'screen' | 'hand-made';
 
@@ -77,19 +80,6 @@ export const PLAN_LIMITS = {
   /** Largest k of a k-sweep. */
   sweepMaxK: 20,
 } as const;
-
-export const REHEARSAL_LIMITS = {
-  /** Default cascades; the server's cap (config MAX_CASCADES) is reported in `ServerLimits`. */
-  defaultRuns: 5000,
-  /** Seeds: 1-64 characters of letters, digits, '-' and '_'. */
-  seedPattern: '^[A-Za-z0-9_-]{1,64}$',
-  idempotencyKeyMax: 100,
-  /** Whole cascades kept for the replay. */
-  samples: 3,
-} as const;
-
-/** Same plan, seed and runs started again within this window reuse the first job. */
-export const IDEMPOTENCY_WINDOW_MS = 10_000;
 
 export interface CreatePlanRequest {
   name?: string;
@@ -148,8 +138,6 @@ export interface UpdatePlanRequest {
   chosen?: boolean;
 }
 
-export type JobStatus = 'queued' | 'running' | 'done' | 'failed' | 'cancelled' | 'interrupted';
-export const JOB_STATUSES: readonly JobStatus[] = ['queued', 'running', 'done', 'failed', 'cancelled', 'interrupted'];
 export type PlanStatus = 'computing' | 'ready' | 'failed' | 'cancelled' | 'interrupted';
 
 export interface PlanStarterDto {
@@ -290,6 +278,7 @@ export interface KSweepRequest {
 }
 
 export type SweepSeries = 'greedy' | 'widened' | 'swap' | 'mostTies' | 'random';
+
 export const SWEEP_SERIES: readonly SweepSeries[] = ['greedy', 'widened', 'swap', 'mostTies', 'random'];
 
 export interface KSweepPoint {
@@ -317,218 +306,8 @@ export interface KSweepResult {
   notes: string[];
 }
 
-// ---- briefing sheet ----
-
-export interface BriefingSheet {
-  planId: number;
-  planName: string;
-  roomName: string;
-  roomVersion: number;
-  stale: boolean;
-  /** ISO date the sheet was produced. */
-  generatedAt: string;
-  minutesPerHop: number;
-  starters: (PlanStarterDto & { personKey: string })[];
-  people: number;
-  average: number;
-  averageMinutes: number;
-  /** "50% will have heard within N minutes", for shares 0.5, 0.9 (and 0.99). */
-  expectations: { share: number; hop: number | null; minutes: number | null; line: string }[];
-  cautions: string[];
-}
-
-export const MODEL_CAUTIONS: readonly string[] = [
-  'The model is a simplification of real conversation; treat these numbers as a planning aid.',
-  "A person's score says where they sit in the map, not what they are worth: never use it to judge or rank people's performance.",
-  'Who-talks-to-whom data about employees is personal data: keep this sheet to the people who need it.',
-];
-
-// ---- jobs ----
-
-export type JobKind = 'plan' | 'rehearsal';
-
-export interface JobDto {
-  id: number;
-  kind: JobKind;
-  status: JobStatus;
-  /** 0..1. */
-  progress: number;
-  /** 1-based place in the caller's queue while queued (null otherwise). */
-  queuePosition: number | null;
-  message: string | null;
-  planId: number | null;
-  rehearsalId: number | null;
-  createdAt: string;
-  startedAt: string | null;
-  finishedAt: string | null;
-}
-
-/** What a running plan search reports with each progress event. */
-export interface PlanSearchProgress {
-  /** Planner stage ('greedy', 'widened', 'swap', 'search', ...). */
-  stage: string;
-  /** Share of the search space closed (0..1), when the stage can tell it. */
-  closed: number | null;
-  /** Best total found so far. */
-  bestTotal: number | null;
-  /** Proven lower bound so far. */
-  lowerBound: number | null;
-  /** (bestTotal - lowerBound) / bestTotal: the proven gap so far. */
-  gapShare: number | null;
-  /** Search nodes visited so far. */
-  nodes: number | null;
-}
-
-export type JobEventType = 'queued' | 'started' | 'progress' | 'done' | 'failed' | 'cancelled' | 'interrupted';
-
-export interface JobEvent {
-  type: JobEventType;
-  job: JobDto;
-  /** queued: position in the queue. */
-  position?: number;
-  /** progress: 0..1, with `done` of `of` units (cascades for rehearsals). */
-  fraction?: number;
-  done?: number;
-  of?: number;
-  message?: string;
-  /** progress of a plan job: what the search has found and proven so far. */
-  search?: PlanSearchProgress;
-}
-
-// ---- rehearsals ----
-
-export interface StartRehearsalRequest {
-  /** Cascades (1..MAX_CASCADES). */
-  runs: number;
-  /** Default: a random seed, returned and stored. */
-  seed?: string;
-  /** A double click with the same key starts one job. */
-  idempotencyKey?: string;
-}
-
-export interface AgreementVerdict {
-  /** Share of people whose analytic expected hops lie inside the simulated 99% interval. */
-  shareInInterval99: number;
-  peopleChecked: number;
-  /** |simulated room average - analytic| <= 3 standard errors. */
-  averageWithin3se: boolean;
-  averageDifference: number;
-  averageStderr: number;
-  agrees: boolean;
-  line: string;
-}
-
-export interface RehearsalSummary {
-  id: number;
-  /** Its number within the room: the room's first rehearsal is 1 (the id runs across all rooms). */
-  number: number;
-  planId: number;
-  planName: string;
-  roomId: number;
-  status: JobStatus;
-  runs: number;
-  seed: string;
-  jobId: number;
-  progress: number;
-  queuePosition: number | null;
-  /** Simulated room average (null until done). */
-  average: number | null;
-  averageStderr: number | null;
-  analyticAverage: number | null;
-  capped: number | null;
-  elapsedMs: number | null;
-  verdict: AgreementVerdict | null;
-  rerunOf: number | null;
-  message: string | null;
-  createdBy: string;
-  createdAt: string;
-  finishedAt: string | null;
-}
-
-export interface RehearsalPersonDto {
-  personId: number;
-  name: string;
-  group: string | null;
-  starter: boolean;
-  /** False for starters (and people who cannot be reached). */
-  walked: boolean;
-  mean: number;
-  sd: number;
-  stderr: number;
-  low95: number;
-  high95: number;
-  low99: number;
-  high99: number;
-  analytic: number;
-  capped: number;
-  inInterval99: boolean;
-}
-
-export interface RehearsalDetail extends RehearsalSummary {
-  people: RehearsalPersonDto[];
-  reach: { simulated: number[]; analytic: number[] } | null;
-  hopCap: number | null;
-  hops: number | null;
-  samples: number;
-  minutesPerHop: number;
-}
-
-export interface RehearsalStarted {
-  rehearsal: RehearsalSummary;
-  job: JobDto;
-  /** True when an identical start (same key, or same plan + seed + runs just now) was reused. */
-  reused: boolean;
-}
-
-export interface ReplayPersonDto {
-  index: number;
-  personId: number;
-  name: string;
-  group: string | null;
-  x: number | null;
-  y: number | null;
-  starter: boolean;
-}
-
-export interface ReplayIndex {
-  rehearsalId: number;
-  seed: string;
-  runs: number;
-  minutesPerHop: number;
-  /** Person ids in briefing order. */
-  starters: number[];
-  people: ReplayPersonDto[];
-  ties: { source: number; target: number; strength: number }[];
-  directed: boolean;
-  samples: { n: number; run: number }[];
-}
-
-export interface ReplayChain {
-  /** The person whose question this is (index into ReplayIndex.people). */
-  person: number;
-  /** Indices visited, from the person to the starter reached. */
-  path: number[];
-  hops: number;
-  /** The stored path was cut (hops still counts the whole walk). */
-  truncated: boolean;
-  /** The walk hit the hop cap without reaching a starter. */
-  capped: boolean;
-}
-
-export interface ReplaySample {
-  rehearsalId: number;
-  n: number;
-  run: number;
-  seed: string;
-  /** heardAt[i] = hop at which person i heard (0 for starters; null: cannot be reached or capped). */
-  heardAt: (number | null)[];
-  chains: ReplayChain[];
-  lastHop: number;
-}
-
-/** The server's configured limits, for forms. GET /api/jobs/limits */
-export interface ServerLimits {
-  maxCascades: number;
-  maxJobsPerUser: number;
-  workers: number;
-}
+// The other parts of this contract, by concept; importing them from here keeps working.
+export * from './jobs';
+export * from './briefing';
+export * from './rehearsals';
+export * from './replay';
