@@ -19,6 +19,9 @@ export const rooms = mysqlTable(
     /** Set by an org-chart import: the CSV headers (JSON), so the export writes the same file back. */
     orgChart: text('org_chart'),
     version: int('version', { unsigned: true }).notNull().default(1),
+    /** People and ties in the room, kept by every content write (server/rooms/store.ts `refreshCounts`), so lists need not count. */
+    peopleCount: int('people_count', { unsigned: true }).notNull().default(0),
+    tiesCount: int('ties_count', { unsigned: true }).notNull().default(0),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },

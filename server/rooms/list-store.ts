@@ -1,10 +1,10 @@
 /** The rooms list (GET /api/rooms): one prepared statement per list shape. */
-import { and, asc, desc, eq, isNotNull, like, or, sql, type Placeholder, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, isNotNull, like, or, sql, type Placeholder } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import type { Page, RoomListItem } from '../../shared/api/rooms';
 import { firstOf } from '../../shared/checked';
 import { users } from '../../db/schema/accounts';
-import { people, roomShares, rooms, ties } from '../../db/schema/rooms';
+import { roomShares, rooms } from '../../db/schema/rooms';
 import { db } from '../db';
 import { workshopEditorOf } from './grants';
 import { contains, iso, type ListParams } from './store';
@@ -30,17 +30,15 @@ const myShare = (userId: Param<number>) => and(eq(roomShares.roomId, rooms.id), 
  * The list statement of one shape (scope, sort, direction, search or not), built once per process.
  * The page is chosen and ordered without the description: sorting rows that carry a TEXT column
  * makes MariaDB put its sort table on disk (Aria), which cost more than the rest of the request.
- * The outer select adds the description and the counts for the page's rows only; `pos` keeps
+ * The outer select adds the description for the page's rows only; `pos` keeps
  * the inner order (the outer select has none, so that it sorts nothing).
  */
 function roomPageQuery(scope: RoomScope, sort: string, direction: 'asc' | 'desc', search: boolean) {
   const userId = sql.placeholder('userId');
-  const countOf = (table: typeof people | typeof ties, roomId: SQL | typeof rooms.id) =>
-    sql<number>`(SELECT COUNT(*) FROM ${table} WHERE ${table.roomId} = ${roomId})`;
   const order = direction === 'desc' ? desc : asc;
+  // The counts are stored with the room (kept by every content write), never counted here.
   const sortBy =
-    { name: rooms.name, updatedAt: rooms.updatedAt, people: countOf(people, rooms.id), ties: countOf(ties, rooms.id) }[sort] ??
-    rooms.updatedAt;
+    { name: rooms.name, updatedAt: rooms.updatedAt, people: rooms.peopleCount, ties: rooms.tiesCount }[sort] ?? rooms.updatedAt;
   const ordering = [order(sortBy), asc(rooms.id)];
   const page = db
     .select({
@@ -49,6 +47,8 @@ function roomPageQuery(scope: RoomScope, sort: string, direction: 'asc' | 'desc'
       ownerId: rooms.ownerId,
       version: rooms.version,
       updatedAt: rooms.updatedAt,
+      people: sql<number>`${rooms.peopleCount}`.as('n_people'),
+      ties: sql<number>`${rooms.tiesCount}`.as('n_ties'),
       ownerName: sql<string>`${users.name}`.as('owner_name'),
       shareRole: sql<'editor' | 'viewer' | null>`${roomShares.role}`.as('share_role'),
       // Asked only where it changes the access shown: not owned, no direct editor share.
@@ -79,8 +79,8 @@ function roomPageQuery(scope: RoomScope, sort: string, direction: 'asc' | 'desc'
       ownerName: page.ownerName,
       shareRole: page.shareRole,
       helper: page.helper,
-      people: countOf(people, sql`${page.id}`),
-      ties: countOf(ties, sql`${page.id}`),
+      people: page.people,
+      ties: page.ties,
       total: page.total,
       pos: page.pos,
     })

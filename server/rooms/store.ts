@@ -78,12 +78,14 @@ export async function insertContent(
     }));
     await tx.insert(ties).values(rows);
   }
+  await refreshCounts(tx, roomId);
   return ids;
 }
 
 export async function clearContent(tx: Q, roomId: number): Promise<void> {
   await tx.delete(ties).where(eq(ties.roomId, roomId));
   await tx.delete(people).where(eq(people.roomId, roomId));
+  await refreshCounts(tx, roomId);
 }
 
 /** Locks the room row for the rest of the transaction (serialises edits of one room). */
@@ -92,10 +94,24 @@ export async function lockRoom(tx: Tx, roomId: number): Promise<RoomRow | undefi
   return row;
 }
 
+/*
+ * Every content change bumps the version (bumpVersion, updateRoomFields) and every bulk write goes
+ * through insertContent / clearContent: those are where the stored counts are brought up to date,
+ * inside the same transaction, so a list reads them instead of counting a room's rows each time.
+ */
+const counted = {
+  peopleCount: sql`(SELECT COUNT(*) FROM ${people} WHERE ${people.roomId} = ${rooms.id})`,
+  tiesCount: sql`(SELECT COUNT(*) FROM ${ties} WHERE ${ties.roomId} = ${rooms.id})`,
+};
+
+export async function refreshCounts(tx: Q, roomId: number): Promise<void> {
+  await tx.update(rooms).set(counted).where(eq(rooms.id, roomId));
+}
+
 export async function bumpVersion(tx: Q, roomId: number): Promise<void> {
   await tx
     .update(rooms)
-    .set({ version: sql`${rooms.version} + 1` })
+    .set({ version: sql`${rooms.version} + 1`, ...counted })
     .where(eq(rooms.id, roomId));
 }
 
@@ -109,7 +125,7 @@ export async function touchRoom(tx: Q, roomId: number): Promise<void> {
 export async function updateRoomFields(tx: Q, roomId: number, set: Partial<typeof rooms.$inferInsert>): Promise<void> {
   await tx
     .update(rooms)
-    .set({ ...set, version: sql`${rooms.version} + 1` })
+    .set({ ...set, version: sql`${rooms.version} + 1`, ...counted })
     .where(eq(rooms.id, roomId));
 }
 
