@@ -96,6 +96,9 @@ test('a facilitator runs a workshop from survey links to the debrief', async ({ 
   const phone = await browser.newContext({ viewport: PHONE, deviceScaleFactor: 2, isMobile: true, hasTouch: true });
   const ada = await phone.newPage();
   const adaPath = await mailLink('ada.quillon@example.test');
+  // Her page's chunks are announced in the HTML (fetched beside the app's own, not after it).
+  const preloads = async (path: string) => ((await (await ada.request.get(path)).text()).match(/rel="modulepreload"/g) ?? []).length;
+  expect(await preloads(adaPath)).toBeGreaterThan(await preloads('/sign-in'));
   await ada.goto(adaPath);
   await expect(ada.getByRole('heading', { name: 'Before you answer' })).toBeVisible();
   await expect(ada.getByText('works council')).toBeVisible();

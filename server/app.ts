@@ -1,5 +1,5 @@
 import { randomBytes } from 'node:crypto';
-import { readFileSync, statSync } from 'node:fs';
+import { readdirSync, readFileSync, statSync } from 'node:fs';
 import type { IncomingMessage, ServerResponse } from 'node:http';
 import { fileURLToPath } from 'node:url';
 import express, { type Express, type NextFunction, type Request, type Response } from 'express';
@@ -76,23 +76,48 @@ function noStore(_req: Request, res: Response, next: NextFunction) {
   next();
 }
 
+/**
+ * modulepreload links for the participant page's lazy chunk and the chunks it imports, read from
+ * the build: the route's `import("./chunk-….js")` in main-*.js, then that chunk's static imports.
+ * A phone opening its link then fetches them beside the app's own chunks instead of one round
+ * after another. If the build's shape ever differs, no link is added and the page loads as before.
+ */
+function participantPreloads(): string {
+  try {
+    const main = readdirSync(browserDir).find((f) => /^main-[A-Z0-9]+\.js$/.test(f));
+    if (!main) return '';
+    const route = /path:"p\/:token".{0,300}?import\("\.\/(chunk-[A-Z0-9]+\.js)"\)/.exec(readFileSync(`${browserDir}/${main}`, 'utf8'));
+    if (!route?.[1]) return '';
+    const chunk = readFileSync(`${browserDir}/${route[1]}`, 'utf8');
+    const deps = [...chunk.matchAll(/(?:from|import)\s*"\.\/(chunk-[A-Z0-9]+\.js)"/g)].map((m) => m[1]);
+    return [...new Set([route[1], ...deps])].map((f) => `<link rel="modulepreload" href="${f}">`).join('');
+  } catch {
+    return '';
+  }
+}
+
 /** The built Angular app, with the CSP nonce written into index.html on every request. */
 function serveClient(app: Express) {
   const indexFile = `${browserDir}/index.html`;
   // Read again when the build changes it, so a rebuild never serves chunk names that are gone.
-  let template: { text: string; mtimeMs: number } | undefined;
-  const index = (_req: Request, res: Response) => {
+  let template: { text: string; participant: string; mtimeMs: number } | undefined;
+  const index = (req: Request, res: Response) => {
     const mtimeMs = statSync(indexFile, { throwIfNoEntry: false })?.mtimeMs;
     if (mtimeMs === undefined) {
       res.status(503).type('text').send('The client is not built yet: run `npm start` (or `npx ng build`).');
       return;
     }
-    if (template?.mtimeMs !== mtimeMs) template = { text: readFileSync(indexFile, 'utf8'), mtimeMs };
+    if (template?.mtimeMs !== mtimeMs) {
+      const text = readFileSync(indexFile, 'utf8');
+      template = { text, participant: text.replace('</head>', `${participantPreloads()}</head>`), mtimeMs };
+    }
     const nonce = res.locals['cspNonce'] as string;
+    // A participant's own page (/p/<token>): its chunks are fetched with the app's, not after it.
+    const page = /^\/p\/[A-Za-z0-9_-]{20,}$/.test(req.path) ? template.participant : template.text;
     res
       .type('html')
       .set('Cache-Control', 'no-store')
-      .send(template.text.replace('<app-root', `<app-root ngCspNonce="${nonce}"`).replaceAll('<style', `<style nonce="${nonce}"`));
+      .send(page.replace('<app-root', `<app-root ngCspNonce="${nonce}"`).replaceAll('<style', `<style nonce="${nonce}"`));
   };
   app.get('/', index);
   app.use(express.static(browserDir, { index: false, maxAge: '1h' }));
