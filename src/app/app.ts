@@ -74,6 +74,8 @@ export class App implements OnInit {
 
   /** Pages without a guard (accept invitation, reset) still learn who is signed in, for the toolbar. */
   private checkSession(): void {
+    // A participant's phone (/p/…) has no account and no toolbar: it does not ask.
+    if (/^\/p(\/|$)/.test(globalThis.location?.pathname ?? '')) return;
     this.auth.load().catch(() => undefined);
   }
 
