@@ -39,8 +39,10 @@ async function step(name: string, act: () => Promise<unknown>, done: () => Promi
  * poll with a growing pause (up to half a second), which would count time after the result was
  * already on the screen.
  */
-async function onScreen<A>(page: Page, test: (arg: A) => boolean, arg?: A): Promise<void> {
-  await page.waitForFunction(test, arg as A, { polling: 'raf', timeout: 60_000 });
+async function onScreen<A extends string | number>(page: Page, test: (arg: A) => boolean, arg?: A): Promise<void> {
+  // The test runs in the page with `arg` as its one argument (a string or a number crosses as it is).
+  const inPage = test as unknown as Parameters<Page['waitForFunction']>[0];
+  await page.waitForFunction(inPage, arg, { polling: 'raf', timeout: 60_000 });
 }
 
 const quantile = (xs: number[], q: number) => {
