@@ -91,7 +91,11 @@ test('keyboard: select a person, move them with the arrow keys, tie them to some
   const tieTo = page.getByTestId('tie-to');
   await tieTo.focus();
   await page.keyboard.type('Zora');
+  // As a keyboard user does: wait for the list of matches before moving into it (an arrow key
+  // pressed before the panel opens is not a move into the list).
+  await expect(page.getByRole('option', { name: /Zora/ }).first()).toBeVisible();
   await page.keyboard.press('ArrowDown');
+  await expect(page.getByRole('option', { name: /Zora/ }).first()).toHaveClass(/mat-mdc-option-active/);
   await page.keyboard.press('Enter');
   await expect(page.getByText(new RegExp(`Tie added: ${name} and Zora`))).toBeVisible();
   await expect(page.getByRole('tab', { name: `Ties (${ties + 1})` })).toBeVisible();

@@ -585,6 +585,16 @@ export class RoomMap implements OnDestroy {
       .map((n) => ({ lid: n.lid, x: Math.round((n.x ?? 0) + d[0]), y: Math.round((n.y ?? 0) + d[1]), pinned: n.pinned }));
     this.sim?.stop();
     this.layoutRunning.set(false);
+    // The nodes take their new places now: a second key pressed before the redraw moves on from
+    // here, not from where the person was before the first key.
+    for (const m of moves) {
+      const n = this.nodes.get(m.lid);
+      if (!n) continue;
+      n.x = m.x;
+      n.y = m.y;
+      if (n.fx != null) n.fx = m.x;
+      if (n.fy != null) n.fy = m.y;
+    }
     this.editor.movePeople(moves);
   }
 
