@@ -10,8 +10,9 @@ import { MatProgressBarHarness } from '@angular/material/progress-bar/testing';
 import { MatSnackBarHarness } from '@angular/material/snack-bar/testing';
 import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
-import type { JobDto, JobEvent, PlanDetail, PlanStarted, PlanSummary } from '../../../shared/api/plans';
+import type { JobDto, PlanDetail, PlanStarted, PlanSummary } from '../../../shared/api/plans';
 import type { RoomDto } from '../../../shared/api/rooms';
+import { FakeEventSource, lastSource, useFakeEventSource } from './fake-event-source.spec';
 import PlanPage from './plan-page';
 
 const ROOM: RoomDto = {
@@ -115,43 +116,11 @@ function job(id: number, over: Partial<JobDto> = {}): JobDto {
   };
 }
 
-/** Stands in for the browser's EventSource: the test sends the server's job events by hand. */
-class FakeEventSource extends EventTarget {
-  static readonly CLOSED = 2;
-  static opened: FakeEventSource[] = [];
-  readyState = 1;
-  onerror: (() => void) | null = null;
-  constructor(readonly url: string) {
-    super();
-    FakeEventSource.opened.push(this);
-  }
-  close(): void {
-    this.readyState = 2;
-  }
-  send(e: JobEvent): void {
-    this.dispatchEvent(new MessageEvent(e.type, { data: JSON.stringify(e) }));
-  }
-}
-
-/** The stream the page opened last (a test fails here if it opened none). */
-function lastSource(): FakeEventSource {
-  const s = FakeEventSource.opened.at(-1);
-  if (!s) throw new Error('the page opened no event stream');
-  return s;
-}
-
 describe('PlanPage', () => {
   let router: RouterTestingHarness;
   let http: HttpTestingController;
   let loader: HarnessLoader;
-  let realEventSource: typeof EventSource;
-
-  beforeEach(() => {
-    realEventSource = window.EventSource;
-    FakeEventSource.opened = [];
-    (window as unknown as { EventSource: unknown }).EventSource = FakeEventSource;
-  });
-  afterEach(() => ((window as unknown as { EventSource: unknown }).EventSource = realEventSource));
+  useFakeEventSource();
 
   async function open(url: string, room: RoomDto = ROOM, saved: PlanDetail[] = []): Promise<void> {
     TestBed.configureTestingModule({

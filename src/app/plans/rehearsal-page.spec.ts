@@ -11,7 +11,8 @@ import { MatProgressBarHarness } from '@angular/material/progress-bar/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
-import type { JobDto, JobEvent, PlanSummary, RehearsalStarted, RehearsalSummary, ServerLimits } from '../../../shared/api/plans';
+import type { JobDto, PlanSummary, RehearsalStarted, RehearsalSummary, ServerLimits } from '../../../shared/api/plans';
+import { FakeEventSource, lastSource, useFakeEventSource } from './fake-event-source.spec';
 import RehearsalPage from './rehearsal-page';
 
 function planSummary(id: number, name: string, over: Partial<PlanSummary> = {}): PlanSummary {
@@ -113,43 +114,11 @@ function rehearsal(over: Partial<RehearsalSummary> = {}): RehearsalSummary {
   };
 }
 
-/** Stands in for the browser's EventSource: the test sends the server's job events by hand. */
-class FakeEventSource extends EventTarget {
-  static readonly CLOSED = 2;
-  static opened: FakeEventSource[] = [];
-  readyState = 1;
-  onerror: (() => void) | null = null;
-  constructor(readonly url: string) {
-    super();
-    FakeEventSource.opened.push(this);
-  }
-  close(): void {
-    this.readyState = 2;
-  }
-  send(e: JobEvent): void {
-    this.dispatchEvent(new MessageEvent(e.type, { data: JSON.stringify(e) }));
-  }
-}
-
-/** The stream the page opened last (a test fails here if it opened none). */
-function lastSource(): FakeEventSource {
-  const s = FakeEventSource.opened.at(-1);
-  if (!s) throw new Error('the page opened no event stream');
-  return s;
-}
-
 describe('RehearsalPage', () => {
   let router: RouterTestingHarness;
   let http: HttpTestingController;
   let loader: HarnessLoader;
-  let realEventSource: typeof EventSource;
-
-  beforeEach(() => {
-    realEventSource = window.EventSource;
-    FakeEventSource.opened = [];
-    (window as unknown as { EventSource: unknown }).EventSource = FakeEventSource;
-  });
-  afterEach(() => ((window as unknown as { EventSource: unknown }).EventSource = realEventSource));
+  useFakeEventSource();
 
   async function settle(): Promise<void> {
     for (let i = 0; i < 3; i++) {
