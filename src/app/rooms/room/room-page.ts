@@ -15,7 +15,7 @@ import { SettingsPanel } from '../panels/settings-panel';
 import { SummaryPanel } from '../panels/summary-panel';
 import { PeopleTable } from '../tables/people-table';
 import { TiesTable } from '../tables/ties-table';
-import { downloadMapPng } from './map-png';
+import { downloadMapPng } from '../map/map-export';
 import { MapInspector } from './map-inspector';
 import { MapPanel } from './map-panel';
 import { SaveStatus } from './save-status';
