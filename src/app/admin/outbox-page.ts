@@ -45,8 +45,11 @@ export default class OutboxPage implements AfterViewInit {
     this.reload.next();
   }
 
-  protected async open(row: OutboxRow): Promise<void> {
-    const message = await this.api.message(row.id);
+  protected open(row: OutboxRow): void {
+    this.api.message(row.id).subscribe((message) => this.show(message));
+  }
+
+  private show(message: OutboxMessage): void {
     this.selected.set(message);
     this.view.set(message.hasHtml ? 'html' : 'text');
     // Same-origin URL built from a numeric id only; the response itself forbids scripts.

@@ -1,4 +1,4 @@
-import { HttpClient, HttpContext, type HttpEvent, HttpParams } from '@angular/common/http';
+import { HttpClient, type HttpEvent, HttpParams } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import type { Observable } from 'rxjs';
 import type {
@@ -14,13 +14,13 @@ import type {
   ShareRole,
 } from '../../../shared/api/rooms';
 import type { OrgChartReport } from '../../../shared/api/org-chart';
-import { HANDLES_ERRORS } from '../core/error-interceptor';
+import { requestFlags } from '../core/request-flags';
 
 /** The rooms endpoints the pages call (the editor's own saving lives in RoomEditor). */
 @Injectable({ providedIn: 'root' })
 export class RoomsApi {
   private readonly http = inject(HttpClient);
-  private readonly selfHandled = new HttpContext().set(HANDLES_ERRORS, true);
+  private readonly selfHandled = requestFlags({ ownErrors: true });
 
   list(q: RoomListQuery): Observable<Page<RoomListItem>> {
     let params = new HttpParams();
@@ -41,7 +41,7 @@ export class RoomsApi {
   }
 
   summary(id: number): Observable<RoomSummary> {
-    return this.http.get<RoomSummary>(`/api/rooms/${id}/summary`, { context: this.selfHandled, headers: { 'X-Background': '1' } });
+    return this.http.get<RoomSummary>(`/api/rooms/${id}/summary`, { context: requestFlags({ ownErrors: true, quiet: true }) });
   }
 
   /** Dry run or commit of an import; `roomId` null creates a new room. Reports upload progress. */

@@ -10,6 +10,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatDialog } from '@angular/material/dialog';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
+import { catchError, concatMap, defer, forkJoin, from, type Observable, of, tap } from 'rxjs';
 import { REHEARSAL_LIMITS, type RehearsalSummary } from '../../../shared/api/plans';
 import {
   BUILD_MODES,
@@ -24,7 +25,8 @@ import {
   type WorkshopStatus,
 } from '../../../shared/api/workshops';
 import { toApiError } from '../core/api-error';
-import { confirmed } from '../core/confirm-dialog';
+import { type ConfirmData, whenConfirmed } from '../core/confirm-dialog';
+import { shownByInterceptor } from '../core/error-interceptor';
 import { LinkSheetStore } from './link-sheet-store';
 import { WorkshopsApi } from './workshops-api';
 import { DateTimePipe, DayPipe } from '../core/date-format';
@@ -95,22 +97,31 @@ export default class WorkshopPage implements OnInit, OnDestroy {
   private timer: ReturnType<typeof setInterval> | undefined;
   private workshopId = 0;
 
-  async ngOnInit(): Promise<void> {
+  ngOnInit(): void {
     this.workshopId = Number(this.id());
-    await this.reload();
-    // Live survey count: a light poll every 3 s (the shell's busy bar ignores it).
-    this.timer = setInterval(() => void this.poll(), 3000);
+    this.open();
   }
 
   ngOnDestroy(): void {
     clearInterval(this.timer);
   }
 
+  private open(): void {
+    this.reload().subscribe({
+      // Live survey count: a light poll every 3 s (the shell's busy bar ignores it).
+      complete: () => {
+        this.timer = setInterval(() => this.poll().subscribe(), 3000);
+      },
+      error: shownByInterceptor,
+    });
+  }
+
   /** Everything at once: the detail, the live count, the missing answers and the rehearsals. */
-  private async reload(): Promise<void> {
-    const [w] = await Promise.all([this.api.detail(this.workshopId), this.poll(), this.loadMissing()]);
-    this.show(w);
-    await this.loadRehearsals();
+  private reload(): Observable<unknown> {
+    return forkJoin([this.api.detail(this.workshopId), this.poll(), this.loadMissing()]).pipe(
+      tap(([w]) => this.show(w)),
+      concatMap(() => this.loadRehearsals()),
+    );
   }
 
   private show(w: WorkshopDetail): void {
@@ -122,125 +133,180 @@ export default class WorkshopPage implements OnInit, OnDestroy {
   }
 
   /** After a change to the participants: the fresh detail first, then the rest without waiting. */
-  private async refreshParticipants(): Promise<void> {
-    this.show(await this.api.detail(this.workshopId));
-    void this.poll();
-    void this.loadMissing().catch(() => undefined);
+  private refreshParticipants(): Observable<unknown> {
+    return this.api.detail(this.workshopId).pipe(
+      tap((w) => {
+        this.show(w);
+        this.refreshCounts();
+      }),
+    );
   }
 
-  private async poll(): Promise<void> {
-    const p = await this.api.progress(this.workshopId).catch(() => null);
-    if (p) this.progress.set(p);
+  /** The live count and the missing answers, in the background (a failure leaves them as they were). */
+  private refreshCounts(): void {
+    this.poll().subscribe();
+    this.loadMissing().subscribe({ error: () => undefined });
   }
 
-  private async loadMissing(): Promise<void> {
-    this.missing.set(await this.api.missing(this.workshopId, this.mode()));
+  /** The live count; never fails (a missed poll keeps the last count). */
+  private poll(): Observable<unknown> {
+    return this.api.progress(this.workshopId).pipe(
+      tap((p) => this.progress.set(p)),
+      catchError(() => of(null)),
+    );
   }
 
-  private async loadRehearsals(): Promise<void> {
-    const roomId = this.w()?.roomId;
-    if (roomId) this.rehearsals.set(await this.api.rehearsals(roomId).catch(() => []));
+  private loadMissing(): Observable<unknown> {
+    return this.api.missing(this.workshopId, this.mode()).pipe(tap((m) => this.missing.set(m)));
   }
 
-  protected async move(to: WorkshopStatus): Promise<void> {
-    const from = this.w()?.status;
-    if (to === 'closed') {
-      const ok = await confirmed(this.dialog, {
+  /** The room's rehearsals (read when subscribed, so a room just built counts); never fails. */
+  private loadRehearsals(): Observable<unknown> {
+    return defer(() => {
+      const roomId = this.w()?.roomId;
+      if (!roomId) return of(null);
+      return this.api.rehearsals(roomId).pipe(
+        catchError(() => of([])),
+        tap((r) => this.rehearsals.set(r)),
+      );
+    });
+  }
+
+  /** Runs a change; its failure has been shown by the error interceptor. */
+  private run(change: Observable<unknown>): void {
+    change.subscribe({ error: shownByInterceptor });
+  }
+
+  protected move(to: WorkshopStatus): void {
+    const ask = this.moveQuestion(to);
+    const moved = this.api.move(this.workshopId, to).pipe(
+      tap((w) => this.show(w)),
+      concatMap(() => this.poll()),
+    );
+    this.run(ask ? whenConfirmed(this.dialog, ask).pipe(concatMap(() => moved)) : moved);
+  }
+
+  /** What to ask before a move that cannot simply be taken back; null when there is nothing to ask. */
+  private moveQuestion(to: WorkshopStatus): ConfirmData | null {
+    if (to === 'closed')
+      return {
         title: 'Close the workshop?',
         message: 'A closed workshop cannot be reopened or changed. Participants keep seeing what was released to them.',
         confirm: 'Close the workshop',
         danger: true,
-      });
-      if (!ok) return;
-    }
-    if (to === 'running' && from === 'collecting') {
+      };
+    if (to === 'running' && this.w()?.status === 'collecting') {
       const p = this.progress();
       const waiting = p ? p.participants - p.answered : 0;
-      const ok = await confirmed(this.dialog, {
+      return {
         title: 'Close the survey and run?',
         message:
-          (waiting > 0 ? `${waiting} of ${p!.participants} have not answered yet. ` : 'Everyone has answered. ') +
+          (p && waiting > 0 ? `${waiting} of ${p.participants} have not answered yet. ` : 'Everyone has answered. ') +
           'Once closed, nobody can send or change answers and the QR code stops taking names. You can reopen the survey later.',
         confirm: 'Close the survey',
-      });
-      if (!ok) return;
+      };
     }
-    this.show(await this.api.move(this.workshopId, to));
-    await this.poll();
+    return null;
   }
 
-  protected async addFacilitator(): Promise<void> {
+  protected addFacilitator(): void {
     if (this.facilitatorForm.invalid) return;
-    this.show(await this.api.addFacilitator(this.workshopId, this.facilitatorForm.getRawValue().email));
-    this.facilitatorForm.reset();
+    this.run(
+      this.api.addFacilitator(this.workshopId, this.facilitatorForm.getRawValue().email).pipe(
+        tap((w) => {
+          this.show(w);
+          this.facilitatorForm.reset();
+        }),
+      ),
+    );
   }
 
-  protected async removeFacilitator(userId: number): Promise<void> {
-    await this.api.removeFacilitator(this.workshopId, userId);
-    await this.reload();
+  protected removeFacilitator(userId: number): void {
+    this.run(this.api.removeFacilitator(this.workshopId, userId).pipe(concatMap(() => this.reload())));
   }
 
-  protected async addPerson(): Promise<void> {
+  protected addPerson(): void {
     if (this.personForm.invalid) return;
     const { name, email } = this.personForm.getRawValue();
-    const r = await this.api.addPeople(this.workshopId, [{ name, email: email || null }]);
-    if (r.skipped.length) this.snack.open(`${r.skipped.join(', ')} is already on the list.`, 'OK', { duration: 5000 });
-    this.personForm.reset();
-    this.show(r.workshop);
-    void this.poll();
-    void this.loadMissing().catch(() => undefined);
+    this.run(
+      this.api.addPeople(this.workshopId, [{ name, email: email || null }]).pipe(
+        tap((r) => {
+          if (r.skipped.length) this.snack.open(`${r.skipped.join(', ')} is already on the list.`, 'OK', { duration: 5000 });
+          this.personForm.reset();
+          this.show(r.workshop);
+          this.refreshCounts();
+        }),
+      ),
+    );
   }
 
-  protected async uploadRoster(input: HTMLInputElement): Promise<void> {
+  protected uploadRoster(input: HTMLInputElement): void {
     const file = input.files?.[0];
     if (!file) return;
-    const csv = await file.text();
-    input.value = '';
-    try {
-      const r = await this.api.roster(this.workshopId, csv);
-      this.rosterIssues.set(r.issues);
-      this.snack.open(`${r.added} added${r.skipped.length ? `, ${r.skipped.length} already listed` : ''}.`, 'OK', { duration: 5000 });
-    } catch (err) {
-      const e = toApiError(err);
-      this.rosterIssues.set((e.details?.['issues'] as { line: number; message: string }[]) ?? []);
-    }
-    await this.refreshParticipants();
+    const sent = from(file.text()).pipe(
+      concatMap((csv) => {
+        input.value = '';
+        return this.api.roster(this.workshopId, csv);
+      }),
+      tap((r) => {
+        this.rosterIssues.set(r.issues);
+        this.snack.open(`${r.added} added${r.skipped.length ? `, ${r.skipped.length} already listed` : ''}.`, 'OK', { duration: 5000 });
+      }),
+      catchError((err: unknown) => {
+        const e = toApiError(err);
+        this.rosterIssues.set((e.details?.['issues'] as { line: number; message: string }[]) ?? []);
+        return of(null);
+      }),
+    );
+    this.run(sent.pipe(concatMap(() => this.refreshParticipants())));
   }
 
-  protected async fromRoom(): Promise<void> {
-    const r = await this.api.fromRoom(this.workshopId);
-    this.snack.open(`${r.added} people taken from the room.`, 'OK', { duration: 4000 });
-    await this.refreshParticipants();
+  protected fromRoom(): void {
+    this.run(
+      this.api.fromRoom(this.workshopId).pipe(
+        tap((r) => this.snack.open(`${r.added} people taken from the room.`, 'OK', { duration: 4000 })),
+        concatMap(() => this.refreshParticipants()),
+      ),
+    );
   }
 
-  protected async removeParticipant(pid: number, name: string): Promise<void> {
-    const ok = await confirmed(this.dialog, {
+  protected removeParticipant(pid: number, name: string): void {
+    const ask: ConfirmData = {
       title: `Remove ${name}?`,
       message: `${name} leaves the workshop: their link stops working and their answers are deleted.`,
       confirm: 'Remove and delete answers',
       danger: true,
-    });
-    if (!ok) return;
-    await this.api.removeParticipant(this.workshopId, pid);
-    await this.refreshParticipants();
+    };
+    this.run(
+      whenConfirmed(this.dialog, ask).pipe(
+        concatMap(() => this.api.removeParticipant(this.workshopId, pid)),
+        concatMap(() => this.refreshParticipants()),
+      ),
+    );
   }
 
-  protected async resetClaim(pid: number): Promise<void> {
-    await this.api.resetClaim(this.workshopId, pid);
-    this.snack.open('The name can be picked again; the earlier link no longer works.', 'OK', { duration: 5000 });
-    await this.refreshParticipants();
+  protected resetClaim(pid: number): void {
+    this.run(
+      this.api.resetClaim(this.workshopId, pid).pipe(
+        tap(() => this.snack.open('The name can be picked again; the earlier link no longer works.', 'OK', { duration: 5000 })),
+        concatMap(() => this.refreshParticipants()),
+      ),
+    );
   }
 
-  protected async revoke(pid: number, name: string): Promise<void> {
-    const ok = await confirmed(this.dialog, {
+  protected revoke(pid: number, name: string): void {
+    const ask: ConfirmData = {
       title: `End ${name}'s link?`,
       message: `The link ${name} holds (e-mailed, printed or picked on the join page) stops working at once. Their answers are kept. They get no new link until you print or e-mail one.`,
       confirm: 'End the link',
       danger: true,
-    });
-    if (!ok) return;
-    await this.api.revoke(this.workshopId, [pid]);
-    await this.refreshParticipants();
+    };
+    this.run(
+      whenConfirmed(this.dialog, ask).pipe(
+        concatMap(() => this.api.revoke(this.workshopId, [pid])),
+        concatMap(() => this.refreshParticipants()),
+      ),
+    );
   }
 
   protected toggleChosen(pid: number, on: boolean): void {
@@ -257,94 +323,128 @@ export default class WorkshopPage implements OnInit, OnDestroy {
   }
 
   /** The separate, confirmed action that replaces links: only the chosen people's links end. */
-  protected async reissue(ids: number[]): Promise<void> {
+  protected reissue(ids: number[]): void {
     const w = this.w();
     if (!w || !ids.length) return;
     const names = w.participants.filter((p) => ids.includes(p.id)).map((p) => p.name);
     const who = names.length === 1 ? names[0] : `${names.length} people`;
-    const ok = await confirmed(this.dialog, {
+    const ask: ConfirmData = {
       title: names.length === 1 ? `Reissue ${names[0]}'s link?` : `Reissue links for ${names.length} people?`,
       message:
         `The link ${names.length === 1 ? 'this person holds' : 'each of them holds'} stops working at once, including links already e-mailed or printed. ` +
         `Answers are kept and open with the new link. Everyone else keeps their link. Then print or e-mail the new ${names.length === 1 ? 'link' : 'links'} to ${who}.`,
       confirm: names.length === 1 ? 'Reissue the link' : `Reissue ${names.length} links`,
       danger: true,
-    });
-    if (!ok) return;
-    const links = await this.api.reissue(this.workshopId, ids);
-    this.chosen.set(new Set());
-    this.sheet.links.set({ workshopId: this.workshopId, title: w.title, links, reissued: true });
-    const ref = this.snack.open(`New ${links.length === 1 ? 'link' : 'links'} for ${who}; the old ones no longer work.`, 'Print them', {
-      duration: 10000,
-    });
-    ref.onAction().subscribe(() => void this.router.navigate(['/workshops', this.workshopId, 'sheet']));
-    await this.refreshParticipants();
+    };
+    this.run(
+      whenConfirmed(this.dialog, ask).pipe(
+        concatMap(() => this.api.reissue(this.workshopId, ids)),
+        tap((links) => {
+          this.chosen.set(new Set());
+          this.sheet.links.set({ workshopId: this.workshopId, title: w.title, links, reissued: true });
+          const ref = this.snack.open(
+            `New ${links.length === 1 ? 'link' : 'links'} for ${who}; the old ones no longer work.`,
+            'Print them',
+            {
+              duration: 10000,
+            },
+          );
+          ref.onAction().subscribe(() => void this.router.navigate(['/workshops', this.workshopId, 'sheet']));
+        }),
+        concatMap(() => this.refreshParticipants()),
+      ),
+    );
   }
 
-  protected async emailLinks(): Promise<void> {
-    const r = await this.api.email(this.workshopId);
-    const parts = [`Sent to ${r.sent.length}.`];
-    if (r.withoutEmail.length) parts.push(`${r.withoutEmail.length} without an address: print their links or use the QR code.`);
-    if (r.failed.length) parts.push(`Could not send to ${r.failed.join(', ')}; their links are unchanged.`);
-    this.snack.open(parts.join(' '), 'OK', { duration: 8000 });
-    await this.refreshParticipants();
+  protected emailLinks(): void {
+    this.run(
+      this.api.email(this.workshopId).pipe(
+        tap((r) => {
+          const parts = [`Sent to ${r.sent.length}.`];
+          if (r.withoutEmail.length) parts.push(`${r.withoutEmail.length} without an address: print their links or use the QR code.`);
+          if (r.failed.length) parts.push(`Could not send to ${r.failed.join(', ')}; their links are unchanged.`);
+          this.snack.open(parts.join(' '), 'OK', { duration: 8000 });
+        }),
+        concatMap(() => this.refreshParticipants()),
+      ),
+    );
   }
 
-  protected async printSheet(): Promise<void> {
+  protected printSheet(): void {
     this.sheet.links.set(null);
-    await this.router.navigate(['/workshops', this.workshopId, 'sheet']);
+    void this.router.navigate(['/workshops', this.workshopId, 'sheet']);
   }
 
-  protected async setMode(mode: BuildMode): Promise<void> {
+  protected setMode(mode: BuildMode): void {
     this.mode.set(mode);
-    await this.loadMissing();
+    this.run(this.loadMissing());
   }
 
-  protected async build(): Promise<void> {
-    const r = await this.api.build(this.workshopId, this.mode());
-    this.built.set(r);
-    this.missing.set(r.missing);
-    this.show(await this.api.detail(this.workshopId));
-    await this.loadRehearsals();
+  protected build(): void {
+    this.run(
+      this.api.build(this.workshopId, this.mode()).pipe(
+        tap((r) => {
+          this.built.set(r);
+          this.missing.set(r.missing);
+        }),
+        concatMap(() => this.api.detail(this.workshopId)),
+        tap((w) => this.show(w)),
+        concatMap(() => this.loadRehearsals()),
+      ),
+    );
   }
 
-  protected async release(): Promise<void> {
+  protected release(): void {
     const v = this.releaseForm.getRawValue();
     if (v.rehearsalId === null) return;
-    this.show(
-      await this.api.release(this.workshopId, { rehearsalId: v.rehearsalId, sampleRun: v.sampleRun, showStarters: v.showStarters }),
+    this.run(
+      this.api.release(this.workshopId, { rehearsalId: v.rehearsalId, sampleRun: v.sampleRun, showStarters: v.showStarters }).pipe(
+        tap((w) => {
+          this.show(w);
+          this.snack.open('Results released: participants now see their debrief on their own link.', 'OK', { duration: 6000 });
+        }),
+      ),
     );
-    this.snack.open('Results released: participants now see their debrief on their own link.', 'OK', { duration: 6000 });
   }
 
-  protected async toggleStarters(show: boolean): Promise<void> {
-    this.show(await this.api.patch(this.workshopId, { showStarters: show }));
+  protected toggleStarters(show: boolean): void {
+    this.run(this.api.patch(this.workshopId, { showStarters: show }).pipe(tap((w) => this.show(w))));
   }
 
-  protected async saveSettings(): Promise<void> {
+  protected saveSettings(): void {
     if (this.settingsForm.invalid) return;
-    const w = await this.api.patch(this.workshopId, this.settingsForm.getRawValue());
-    this.settingsForm.markAsPristine();
-    this.show(w);
-    this.snack.open('Settings saved.', 'OK', { duration: 3000 });
+    this.run(
+      this.api.patch(this.workshopId, this.settingsForm.getRawValue()).pipe(
+        tap((w) => {
+          this.settingsForm.markAsPristine();
+          this.show(w);
+          this.snack.open('Settings saved.', 'OK', { duration: 3000 });
+        }),
+      ),
+    );
   }
 
-  protected async deleteWorkshop(): Promise<void> {
+  protected deleteWorkshop(): void {
     const w = this.w();
     if (!w) return;
-    const ok = await confirmed(this.dialog, {
+    const ask: ConfirmData = {
       title: `Delete “${w.title}”?`,
       message: 'Its participants, their links and every survey answer are deleted. The room stays.',
       confirm: 'Delete the workshop',
       danger: true,
-    });
-    if (!ok) return;
-    await this.api.remove(this.workshopId);
-    this.snack.open('The workshop and all its survey data are deleted.', 'OK', { duration: 5000 });
-    await this.router.navigate(['/workshops']);
+    };
+    this.run(
+      whenConfirmed(this.dialog, ask).pipe(
+        concatMap(() => this.api.remove(this.workshopId)),
+        concatMap(() => {
+          this.snack.open('The workshop and all its survey data are deleted.', 'OK', { duration: 5000 });
+          return from(this.router.navigate(['/workshops']));
+        }),
+      ),
+    );
   }
 
-  protected async refreshRehearsals(): Promise<void> {
-    await this.loadRehearsals();
+  protected refreshRehearsals(): void {
+    this.run(this.loadRehearsals());
   }
 }
