@@ -6,17 +6,20 @@ import type {
   ImportReport,
   Page,
   RoomDto,
+  RoomEditBatch,
+  RoomEditResult,
   RoomListItem,
   RoomListQuery,
   RoomSummary,
   ShareDto,
   ShareRequest,
   ShareRole,
+  UpdateRoomRequest,
 } from '../../../shared/api/rooms';
 import type { OrgChartReport } from '../../../shared/api/org-chart';
 import { requestFlags } from '../core/request-flags';
 
-/** The rooms endpoints the pages call (the editor's own saving lives in RoomEditor). */
+/** The rooms endpoints: the pages' calls and the editor's loading and saving (RoomEditor decides when). */
 @Injectable({ providedIn: 'root' })
 export class RoomsApi {
   private readonly http = inject(HttpClient);
@@ -26,6 +29,21 @@ export class RoomsApi {
     let params = new HttpParams();
     for (const [k, v] of Object.entries(q)) if (v !== undefined && v !== '') params = params.set(k, String(v));
     return this.http.get<Page<RoomListItem>>('/api/rooms', { params });
+  }
+
+  /** The whole room for the editor, which shows a failure itself. */
+  room(id: number): Observable<RoomDto> {
+    return this.http.get<RoomDto>(`/api/rooms/${id}`, { context: this.selfHandled });
+  }
+
+  /** Name, description or settings, against the version the editor holds. */
+  update(id: number, body: UpdateRoomRequest): Observable<RoomDto> {
+    return this.http.patch<RoomDto>(`/api/rooms/${id}`, body, { context: this.selfHandled });
+  }
+
+  /** One batch of the editor's ops (with a version, unless it only moves people). */
+  edit(id: number, body: RoomEditBatch): Observable<RoomEditResult> {
+    return this.http.post<RoomEditResult>(`/api/rooms/${id}/edits`, body, { context: this.selfHandled });
   }
 
   create(body: CreateRoomRequest): Observable<RoomDto> {

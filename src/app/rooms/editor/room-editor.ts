@@ -1,16 +1,8 @@
-import { HttpClient, HttpContext } from '@angular/common/http';
 import { computed, inject, Injectable, type OnDestroy, signal } from '@angular/core';
-import { firstValueFrom } from 'rxjs';
-import type {
-  PersonDto,
-  RoomDto,
-  RoomEditResult,
-  RoomSettings,
-  StaleVersionDetails,
-  UpdateRoomRequest,
-} from '../../../../shared/api/rooms';
+import { concatMap, defer, type Observable, of, Subject, tap } from 'rxjs';
+import type { PersonDto, RoomDto, RoomSettings, StaleVersionDetails, UpdateRoomRequest } from '../../../../shared/api/rooms';
 import { type ApiError, toApiError } from '../../core/api-error';
-import { HANDLES_ERRORS } from '../../core/error-interceptor';
+import { RoomsApi } from '../rooms-api';
 import { CommandStack } from './command-stack';
 import { Outbox } from './outbox';
 import { type EditorOp, type EditorPerson, type EditorTie, type Move, type PersonFields, RoomModel } from './room-model';
@@ -39,8 +31,7 @@ const ROOM_SAVE_DELAY_MS = 700;
  */
 @Injectable()
 export class RoomEditor implements OnDestroy {
-  private readonly http = inject(HttpClient);
-  private readonly ctx = new HttpContext().set(HANDLES_ERRORS, true);
+  private readonly api = inject(RoomsApi);
 
   readonly model = new RoomModel();
   readonly stack = new CommandStack();
@@ -89,21 +80,20 @@ export class RoomEditor implements OnDestroy {
   ngOnDestroy(): void {
     if (this.timer) clearTimeout(this.timer);
     // Leaving the page: send what is left right away.
-    if (this.outbox.pending || this.pendingPatch) void this.flush();
+    if (this.outbox.pending || this.pendingPatch) this.flush();
   }
 
   get hasUnsaved(): boolean {
     return this.outbox.pending > 0 || !!this.pendingPatch || this.inFlight;
   }
 
-  async load(id: number): Promise<void> {
+  /** Loads the room (again), dropping what is not saved; a failure is kept in `loadError`. */
+  load(id: number): void {
     this.loadError.set(null);
-    try {
-      const dto = await firstValueFrom(this.http.get<RoomDto>(`/api/rooms/${id}`, { context: this.ctx }));
-      this.reset(dto);
-    } catch (err) {
-      this.loadError.set(toApiError(err));
-    }
+    this.api.room(id).subscribe({
+      next: (dto) => this.reset(dto),
+      error: (err: unknown) => this.loadError.set(toApiError(err)),
+    });
   }
 
   private reset(dto: RoomDto): void {
@@ -306,70 +296,95 @@ export class RoomEditor implements OnDestroy {
     this.dueAt = due;
     this.timer = setTimeout(() => {
       this.timer = null;
-      void this.flush();
+      this.flush();
     }, delay);
   }
 
-  /** Sends everything queued, one request at a time. Safe to call at any moment. */
-  async flush(): Promise<void> {
-    if (this.inFlight || this.saveState() === 'conflict') return;
+  /**
+   * Sends everything queued, one request at a time. Safe to call at any moment: it starts at once
+   * (nothing to subscribe), and the answer completes when this round of sending has ended, saved
+   * or not; while a round is in flight it completes at once and that round sends the rest.
+   */
+  flush(): Observable<void> {
     const room = this.room();
-    if (!room) return;
+    if (this.inFlight || this.saveState() === 'conflict' || !room) return of(undefined);
     this.inFlight = true;
     // This save sends what a pending timer would have sent: the timer is not needed any more.
     if (this.timer) clearTimeout(this.timer);
     this.timer = null;
     this.saveState.set('saving');
     this.saveError.set(null);
-    try {
-      while (this.pendingPatch || this.outbox.pending) {
-        if (this.pendingPatch) {
-          const body: UpdateRoomRequest = { version: this.room()!.version, ...this.pendingPatch };
-          if (!body.settings || !Object.keys(body.settings).length) delete body.settings;
-          const dto = await firstValueFrom(this.http.patch<RoomDto>(`/api/rooms/${room.id}`, body, { context: this.ctx }));
-          this.pendingPatch = null;
-          this.setVersion(dto.version, true);
-          continue;
-        }
-        const batch = this.outbox.next();
-        if (!batch) {
-          this.outbox.discard();
-          break;
-        }
-        const body = batch.layoutOnly ? { ops: batch.ops } : { version: this.room()!.version, ops: batch.ops };
-        const result = batch.ops.length
-          ? await firstValueFrom(this.http.post<RoomEditResult>(`/api/rooms/${room.id}/edits`, body, { context: this.ctx }))
-          : { version: this.room()!.version, layoutOnly: true, people: {}, ties: {} };
-        this.outbox.acknowledge(batch.count, result);
-        if (!result.layoutOnly) this.setVersion(result.version, true);
-      }
-      this.saveState.set('saved');
-    } catch (err) {
-      const e = toApiError(err);
-      if (e.status === 409) {
-        this.conflict.set(
-          (e.details as unknown as StaleVersionDetails) ?? { currentVersion: room.version, yourVersion: room.version, message: e.message },
+    const ended = new Subject<void>();
+    this.sendQueued(room.id).subscribe({
+      complete: () => {
+        this.saveState.set('saved');
+        this.inFlight = false;
+        // Changes made while the last request was in flight.
+        if (this.outbox.pending || this.pendingPatch) this.scheduleSave(0);
+        ended.complete();
+      },
+      error: (err: unknown) => {
+        this.saveFailed(toApiError(err), room);
+        this.inFlight = false;
+        ended.complete();
+      },
+    });
+    return ended.asObservable();
+  }
+
+  /** The pending room patch first, then the outbox batch by batch, until nothing is left. */
+  private sendQueued(roomId: number): Observable<unknown> {
+    return defer(() => {
+      const version = this.room()?.version ?? 0;
+      if (this.pendingPatch) {
+        const body: UpdateRoomRequest = { version, ...this.pendingPatch };
+        if (!body.settings || !Object.keys(body.settings).length) delete body.settings;
+        return this.api.update(roomId, body).pipe(
+          tap((dto) => {
+            this.pendingPatch = null;
+            this.setVersion(dto.version, true);
+          }),
+          concatMap(() => this.sendQueued(roomId)),
         );
-        this.saveState.set('conflict');
-      } else if (e.status === 429 && e.code === 'busy_writing') {
-        // The server is still saving this person's other large change: keep everything queued,
-        // say so, and send it again by itself shortly.
-        // The server's Retry-After decides when, within sensible bounds.
-        const wait = e.retryAfterSeconds !== undefined ? Math.min(30_000, Math.max(1000, e.retryAfterSeconds * 1000)) : BUSY_RETRY_MS;
-        this.saveError.set(`${e.message} Ripplehall will send it again in ${Math.round(wait / 1000)} seconds.`);
-        this.saveState.set('unsaved');
-        this.scheduleSave(wait);
-        return;
-      } else {
-        const fields = e.details?.fields?.map((f) => `${f.field}: ${f.message}`).join('; ');
-        this.saveError.set(fields ? `${e.message} (${fields})` : e.message);
-        this.saveState.set('failed');
       }
-    } finally {
-      this.inFlight = false;
+      if (!this.outbox.pending) return of(null);
+      const batch = this.outbox.next();
+      if (!batch) {
+        this.outbox.discard();
+        return of(null);
+      }
+      const body = batch.layoutOnly ? { ops: batch.ops } : { version, ops: batch.ops };
+      const sent = batch.ops.length ? this.api.edit(roomId, body) : of({ version, layoutOnly: true, people: {}, ties: {} });
+      return sent.pipe(
+        tap((result) => {
+          this.outbox.acknowledge(batch.count, result);
+          if (!result.layoutOnly) this.setVersion(result.version, true);
+        }),
+        concatMap(() => this.sendQueued(roomId)),
+      );
+    });
+  }
+
+  /** A stale version asks the user; a busy server gets the change again later; anything else is shown. */
+  private saveFailed(e: ApiError, room: RoomMeta): void {
+    if (e.status === 409) {
+      this.conflict.set(
+        (e.details as unknown as StaleVersionDetails) ?? { currentVersion: room.version, yourVersion: room.version, message: e.message },
+      );
+      this.saveState.set('conflict');
+    } else if (e.status === 429 && e.code === 'busy_writing') {
+      // The server is still saving this person's other large change: keep everything queued,
+      // say so, and send it again by itself shortly.
+      // The server's Retry-After decides when, within sensible bounds.
+      const wait = e.retryAfterSeconds !== undefined ? Math.min(30_000, Math.max(1000, e.retryAfterSeconds * 1000)) : BUSY_RETRY_MS;
+      this.saveError.set(`${e.message} Ripplehall will send it again in ${Math.round(wait / 1000)} seconds.`);
+      this.saveState.set('unsaved');
+      this.scheduleSave(wait);
+    } else {
+      const fields = e.details?.fields?.map((f) => `${f.field}: ${f.message}`).join('; ');
+      this.saveError.set(fields ? `${e.message} (${fields})` : e.message);
+      this.saveState.set('failed');
     }
-    // Changes made while the last request was in flight.
-    if (this.saveState() === 'saved' && (this.outbox.pending || this.pendingPatch)) this.scheduleSave(0);
   }
 
   private setVersion(version: number, content: boolean): void {
@@ -379,7 +394,7 @@ export class RoomEditor implements OnDestroy {
   }
 
   retry(): void {
-    void this.flush();
+    this.flush();
   }
 
   /** "Keep yours": apply the unsaved changes on top of the newer version. */
@@ -389,20 +404,20 @@ export class RoomEditor implements OnDestroy {
     this.setVersion(c.currentVersion, false);
     this.conflict.set(null);
     this.saveState.set('unsaved');
-    void this.flush();
+    this.flush();
   }
 
   /** "Reload": drop the unsaved changes and show the room as it is now. */
-  async reloadFromServer(): Promise<void> {
+  reloadFromServer(): void {
     const r = this.room();
     if (!r) return;
     this.conflict.set(null);
-    await this.load(r.id);
+    this.load(r.id);
   }
 
-  /** After an import replaced the room: send what is queued first, then load it again. */
-  async reloadAfterReplace(): Promise<void> {
-    await this.reloadFromServer();
+  /** After an import replaced the room: load it again. */
+  reloadAfterReplace(): void {
+    this.reloadFromServer();
   }
 }
 

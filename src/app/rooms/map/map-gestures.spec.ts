@@ -35,9 +35,8 @@ describe('MapGestures', () => {
   async function setup(room: RoomDto = ROOM): Promise<void> {
     TestBed.configureTestingModule({ providers: [RoomEditor, provideHttpClient(), provideHttpClientTesting()] });
     editor = TestBed.inject(RoomEditor);
-    const loading = editor.load(room.id);
+    editor.load(room.id);
     TestBed.inject(HttpTestingController).expectOne(`/api/rooms/${room.id}`).flush(room);
-    await loading;
     svg = document.createElementNS(SVG_NS, 'svg');
     overlay = document.createElementNS(SVG_NS, 'svg');
     svg.setAttribute('style', 'width: 400px; height: 300px; display: block; position: fixed; left: 0; top: 0');
