@@ -1,15 +1,13 @@
 import { computed, inject, Injectable, type OnDestroy, signal } from '@angular/core';
 import { concatMap, defer, type Observable, of, Subject, tap } from 'rxjs';
-import type { PersonDto, RoomDto, RoomSettings, StaleVersionDetails, UpdateRoomRequest } from '../../../../shared/api/rooms';
+import type { RoomDto, RoomSettings, StaleVersionDetails, UpdateRoomRequest } from '../../../../shared/api/rooms';
 import { type ApiError, toApiError } from '../../core/api-error';
 import { RoomsApi } from '../rooms-api';
 import { CommandStack } from './command-stack';
 import { Outbox } from './outbox';
 import { type EditorOp, type EditorPerson, type EditorTie, type Move, type PersonFields, RoomModel } from './room-model';
+import { saveFailure } from './save-failure';
 import { Selection } from './selection';
-
-/** How long to wait before resending when the server is still saving another large change (it answers Retry-After: 2). */
-const BUSY_RETRY_MS = 2500;
 
 export type SaveState = 'saved' | 'unsaved' | 'saving' | 'failed' | 'conflict';
 export type RoomMeta = Omit<RoomDto, 'people' | 'ties'>;
@@ -98,21 +96,8 @@ export class RoomEditor implements OnDestroy {
 
   private reset(dto: RoomDto): void {
     const { people, ties, ...meta } = dto;
-    this.model.people.clear();
-    this.model.ties.clear();
-    this.outbox.discard();
-    this.outbox.personIds.clear();
-    this.outbox.tieIds.clear();
-    for (const p of people) {
-      const lid = `p${p.id}`;
-      this.model.people.set(lid, { lid, ...fieldsOf(p) });
-      this.outbox.personIds.set(lid, p.id);
-    }
-    for (const t of ties) {
-      const lid = `t${t.id}`;
-      this.model.ties.set(lid, { lid, source: `p${t.sourceId}`, target: `p${t.targetId}`, strength: t.strength });
-      this.outbox.tieIds.set(lid, t.id);
-    }
+    this.model.replaceWith(people, ties);
+    this.outbox.restart(people, ties);
     this.stack.clear();
     this.selection.clear();
     this.pendingPatch = null;
@@ -205,11 +190,7 @@ export class RoomEditor implements OnDestroy {
     const only = lids.length === 1 ? lids[0] : undefined;
     const label = only !== undefined ? `Delete ${this.model.people.get(only)?.name ?? 'person'}` : `Delete ${lids.length} people`;
     this.execute(label, ops);
-    this.selection.keepOnly(
-      (l) => this.model.people.has(l),
-      (l) => this.model.ties.has(l),
-    );
-    this.selectionChanged();
+    this.dropGoneFromSelection();
   }
 
   /** Adds a tie, or returns the one already there between the two people. */
@@ -233,11 +214,7 @@ export class RoomEditor implements OnDestroy {
       lids.length === 1 ? 'Delete tie' : `Delete ${lids.length} ties`,
       lids.map((lid) => ({ op: 'deleteTie', lid })),
     );
-    this.selection.keepOnly(
-      (l) => this.model.people.has(l),
-      (l) => this.model.ties.has(l),
-    );
-    this.selectionChanged();
+    this.dropGoneFromSelection();
   }
 
   movePeople(moves: Move[], label = moves.length === 1 ? 'Move person' : `Move ${moves.length} people`): void {
@@ -268,6 +245,15 @@ export class RoomEditor implements OnDestroy {
     };
     this.saveState.set('unsaved');
     this.scheduleSave(ROOM_SAVE_DELAY_MS);
+  }
+
+  /** After a delete: the selection keeps only what is still in the room. */
+  private dropGoneFromSelection(): void {
+    this.selection.keepOnly(
+      (l) => this.model.people.has(l),
+      (l) => this.model.ties.has(l),
+    );
+    this.selectionChanged();
   }
 
   selectionChanged(): void {
@@ -367,22 +353,17 @@ export class RoomEditor implements OnDestroy {
 
   /** A stale version asks the user; a busy server gets the change again later; anything else is shown. */
   private saveFailed(e: ApiError, room: RoomMeta): void {
-    if (e.status === 409) {
-      this.conflict.set(
-        (e.details as unknown as StaleVersionDetails) ?? { currentVersion: room.version, yourVersion: room.version, message: e.message },
-      );
+    const failure = saveFailure(e, room.version);
+    if (failure.kind === 'conflict') {
+      this.conflict.set(failure.conflict);
       this.saveState.set('conflict');
-    } else if (e.status === 429 && e.code === 'busy_writing') {
-      // The server is still saving this person's other large change: keep everything queued,
-      // say so, and send it again by itself shortly.
-      // The server's Retry-After decides when, within sensible bounds.
-      const wait = e.retryAfterSeconds !== undefined ? Math.min(30_000, Math.max(1000, e.retryAfterSeconds * 1000)) : BUSY_RETRY_MS;
-      this.saveError.set(`${e.message} Ripplehall will send it again in ${Math.round(wait / 1000)} seconds.`);
+    } else if (failure.kind === 'busy') {
+      // Everything stays queued and is sent again by itself shortly.
+      this.saveError.set(failure.message);
       this.saveState.set('unsaved');
-      this.scheduleSave(wait);
+      this.scheduleSave(failure.waitMs);
     } else {
-      const fields = e.details?.fields?.map((f) => `${f.field}: ${f.message}`).join('; ');
-      this.saveError.set(fields ? `${e.message} (${fields})` : e.message);
+      this.saveError.set(failure.message);
       this.saveState.set('failed');
     }
   }
@@ -407,20 +388,11 @@ export class RoomEditor implements OnDestroy {
     this.flush();
   }
 
-  /** "Reload": drop the unsaved changes and show the room as it is now. */
+  /** "Reload" (and after an import replaced the room): drop the unsaved changes and show the room as it is now. */
   reloadFromServer(): void {
     const r = this.room();
     if (!r) return;
     this.conflict.set(null);
     this.load(r.id);
   }
-
-  /** After an import replaced the room: load it again. */
-  reloadAfterReplace(): void {
-    this.reloadFromServer();
-  }
-}
-
-function fieldsOf(p: PersonDto): PersonFields {
-  return { key: p.key, name: p.name, group: p.group, email: p.email, x: p.x, y: p.y, pinned: p.pinned };
 }

@@ -100,7 +100,7 @@ export default class RoomPage {
       .open(ImportDialog, { data, width: '860px', maxWidth: '96vw' })
       .afterClosed()
       .subscribe((committed) => {
-        if (committed) this.editor.reloadAfterReplace();
+        if (committed) this.editor.reloadFromServer();
       });
   }
 
