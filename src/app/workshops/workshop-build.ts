@@ -11,9 +11,9 @@ import { WorkshopStore } from './workshop-store';
   imports: [MatButtonModule, MatRadioModule],
   templateUrl: './workshop-build.html',
   styleUrl: './workshops.scss',
+  // The panel's section is itself one cell of the page's grid.
+  styles: ':host { display: contents; }',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  // The panel is one cell of the page's grid.
-  host: { style: 'display: contents' },
 })
 export class WorkshopBuild {
   readonly workshop = input.required<WorkshopDetail>();

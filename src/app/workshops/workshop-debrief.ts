@@ -28,9 +28,9 @@ import { WorkshopStore } from './workshop-store';
   ],
   templateUrl: './workshop-debrief.html',
   styleUrl: './workshops.scss',
+  // The panel's section is itself one cell of the page's grid.
+  styles: ':host { display: contents; }',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  // The panel is one cell of the page's grid.
-  host: { style: 'display: contents' },
 })
 export class WorkshopDebrief {
   readonly workshop = input.required<WorkshopDetail>();

@@ -24,8 +24,9 @@ type RosterIssue = { line: number; message: string };
   imports: [DateTimePipe, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatIconModule, MatInputModule, ReactiveFormsModule],
   templateUrl: './workshop-participants.html',
   styleUrl: './workshops.scss',
+  // The panel's section is itself one cell of the page's grid.
+  styles: ':host { display: contents; }',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  host: { style: 'display: contents' },
 })
 export class WorkshopParticipants {
   readonly workshop = input.required<WorkshopDetail>();

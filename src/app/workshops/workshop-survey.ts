@@ -14,9 +14,9 @@ import { WorkshopStore } from './workshop-store';
   imports: [MatButtonModule, MatIconModule, RouterLink],
   templateUrl: './workshop-survey.html',
   styleUrl: './workshops.scss',
+  // The panel's section is itself one cell of the page's grid.
+  styles: ':host { display: contents; }',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  // The panel is one cell of the page's grid.
-  host: { style: 'display: contents' },
 })
 export class WorkshopSurvey {
   readonly workshop = input.required<WorkshopDetail>();

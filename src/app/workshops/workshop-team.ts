@@ -15,9 +15,9 @@ import { WorkshopStore } from './workshop-store';
   imports: [MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, ReactiveFormsModule],
   templateUrl: './workshop-team.html',
   styleUrl: './workshops.scss',
+  // The panel's section is itself one cell of the page's grid.
+  styles: ':host { display: contents; }',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  // The panel is one cell of the page's grid.
-  host: { style: 'display: contents' },
 })
 export class WorkshopTeam {
   readonly workshop = input.required<WorkshopDetail>();
