@@ -8,6 +8,7 @@ import { MatTableModule } from '@angular/material/table';
 import { DomSanitizer, type SafeResourceUrl } from '@angular/platform-browser';
 import { catchError, merge, of, startWith, Subject, switchMap } from 'rxjs';
 import type { OutboxMessage, OutboxRow } from '../../../shared/api/accounts';
+import { shownByInterceptor } from '../core/error-interceptor';
 import { AdminApi } from './admin-api';
 import { DateTimePipe } from '../core/date-format';
 
@@ -46,7 +47,7 @@ export default class OutboxPage implements AfterViewInit {
   }
 
   protected open(row: OutboxRow): void {
-    this.api.message(row.id).subscribe((message) => this.show(message));
+    this.api.message(row.id).subscribe({ next: (message) => this.show(message), error: shownByInterceptor });
   }
 
   private show(message: OutboxMessage): void {
