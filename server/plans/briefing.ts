@@ -28,7 +28,7 @@ function shareWords(share: number): string {
 export async function briefingSheet(plan: LoadedPlan): Promise<BriefingSheet> {
   const results = parseResults(plan);
   if (plan.status !== 'ready' || !results || plan.average === null) {
-    throw planError('NOT_READY', 'This plan is not computed yet: the briefing sheet needs a finished plan.');
+    throw planError('not_ready', 'This plan is not computed yet: the briefing sheet needs a finished plan.');
   }
   const snap = parseSnapshot(plan);
   const mph = plan.settings.minutesPerHop;

@@ -75,7 +75,7 @@ export async function startRehearsal(
   body: StartRehearsalRequest,
   rerunOf: { id: number } | null = null,
 ): Promise<RehearsalStarted> {
-  if (plan.status !== 'ready') throw planError('NOT_READY', 'This plan is not computed yet: rehearse it once it is ready.');
+  if (plan.status !== 'ready') throw planError('not_ready', 'This plan is not computed yet: rehearse it once it is ready.');
   checkRuns(body.runs);
   if (body.seed !== undefined) checkSeed(body.seed);
   const seed = body.seed ?? randomSeed();

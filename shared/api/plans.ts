@@ -46,11 +46,12 @@
  * Plans keep a snapshot of the room they were computed on: `stale` says the room changed since;
  * the numbers, the briefing sheet and rehearsals always use the snapshot.
  *
- * Errors: 400 answers carry `error.code`; planner errors use the engine's EngineError codes
- * (INVALID_K, K_BELOW_CLOSED_GROUPS, MUST_INCLUDE_TOO_MANY, CONFLICTING_CONSTRAINTS,
- * NO_FEASIBLE_PLAN, EXHAUSTIVE_INFEASIBLE, UNKNOWN_PERSON, INVALID_OPTION, INVALID_STARTERS), plus
- * UNREACHABLE_PEOPLE (a hand-made plan leaves people who can never hear; `details.people`),
- * TOO_MANY_CASCADES, INVALID_SEED, NOT_READY (plan or rehearsal not finished), NOT_RERUNNABLE. `error.details.suggest` names another method when
+ * Errors (codes in ./errors.ts): planner errors use the engine's EngineError codes in snake_case
+ * (invalid_k, k_below_closed_groups, must_include_too_many, conflicting_constraints,
+ * no_feasible_plan, exhaustive_infeasible, unknown_person, invalid_option, invalid_starters), plus
+ * unreachable_people (a hand-made plan leaves people who can never hear; `details.people`),
+ * too_many_cascades, invalid_seed, not_ready (plan or rehearsal not finished), not_rerunnable.
+ * `error.details.suggest` names another method when
  * one would work. Rooms the caller cannot see answer 404; viewers get 403 on changes.
  */
 import type { JobDto } from './jobs';

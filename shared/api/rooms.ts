@@ -193,12 +193,6 @@ export interface RoomEditResult {
   ties: Record<string, number>;
 }
 
-/** Field-level errors in 400 answers: `error.details.fields`. Batch ops are named `ops.3.strength`. */
-export interface FieldError {
-  field: string;
-  message: string;
-}
-
 // ---- import ----
 
 export type ImportFormat = 'csv' | 'graphml' | 'json';
