@@ -9,6 +9,7 @@ import {
   TIE_SORTS,
   type RoomEditOp,
 } from '../../shared/api/rooms';
+import { LIST_LIMITS, pageQueryFields } from '../../shared/api/lists';
 
 const text = (what: string, max: number) =>
   z
@@ -135,26 +136,18 @@ export type EditOpInput = z.infer<typeof editOp>;
 // Keeps the zod shapes and the shared contract in step: a mismatch fails the type check.
 export const opShapeCheck: (op: EditOpInput) => RoomEditOp = (op) => op;
 
-const page = {
-  page: z.coerce.number({ error: 'page must be a number.' }).int().min(0, 'page starts at 0.').default(0),
-  pageSize: z.coerce.number().int().min(1).max(L.pageSizeMax, `pageSize can be at most ${L.pageSizeMax}.`).default(L.pageSizeDefault),
-  direction: z.enum(['asc', 'desc'], 'direction must be asc or desc.').default('asc'),
-  q: z.string().trim().max(200).optional(),
-};
+const list = { ...LIST_LIMITS.rooms, direction: 'asc' } as const;
 
 export const roomListQuery = z.strictObject({
-  ...page,
-  sort: z.enum(ROOM_SORTS, `sort must be one of ${ROOM_SORTS.join(', ')}.`).default('updatedAt'),
+  ...pageQueryFields({ ...list, sorts: ROOM_SORTS, sort: 'updatedAt' }),
   scope: z.enum(['all', 'mine', 'shared']).default('all'),
 });
 export const peopleQuery = z.strictObject({
-  ...page,
-  sort: z.enum(PEOPLE_SORTS, `sort must be one of ${PEOPLE_SORTS.join(', ')}.`).default('order'),
+  ...pageQueryFields({ ...list, sorts: PEOPLE_SORTS, sort: 'order' }),
   group: z.string().trim().max(L.groupMax).optional(),
 });
 export const tiesQuery = z.strictObject({
-  ...page,
-  sort: z.enum(TIE_SORTS, `sort must be one of ${TIE_SORTS.join(', ')}.`).default('source'),
+  ...pageQueryFields({ ...list, sorts: TIE_SORTS, sort: 'source' }),
   personId: z.coerce.number().int().positive().optional(),
 });
 

@@ -29,13 +29,6 @@ export interface AccountRow {
   lastAdmin: boolean;
 }
 
-export interface Page<T> {
-  items: T[];
-  total: number;
-  page: number;
-  size: number;
-}
-
 export const accountSortKeys = ['name', 'email', 'role', 'status', 'lastSignInAt', 'createdAt'] as const;
 export type AccountSortKey = (typeof accountSortKeys)[number];
 
