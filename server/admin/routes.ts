@@ -1,7 +1,6 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { accountRoles } from '../../db/schema/accounts';
-import { accountSortKeys, EMAIL_MAX, NAME_MAX, type AdminSettings, type AuditRow } from '../../shared/api/accounts';
+import { ACCOUNT_ROLES, accountSortKeys, EMAIL_MAX, NAME_MAX, type AdminSettings, type AuditRow } from '../../shared/api/accounts';
 import { adminOnly } from '../core/access';
 import { auditFor } from '../core/audit';
 import { parse } from '../core/validate';
@@ -19,9 +18,9 @@ const auditQuery = z.strictObject(pageFields);
 const inviteBody = z.strictObject({
   email: z.string().trim().toLowerCase().email('Enter an e-mail address.').max(EMAIL_MAX),
   name: z.string().trim().max(NAME_MAX).default(''),
-  role: z.enum(accountRoles).default('facilitator'),
+  role: z.enum(ACCOUNT_ROLES).default('facilitator'),
 });
-const roleBody = z.strictObject({ role: z.enum(accountRoles) });
+const roleBody = z.strictObject({ role: z.enum(ACCOUNT_ROLES) });
 
 /** The admin console API: every route is admin-only. */
 export const adminRouter = Router();

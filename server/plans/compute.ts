@@ -10,7 +10,6 @@ import {
   plan,
   prepareRoom,
   reachCurve,
-  type PlanMethodChoice,
   type PlanOptions,
   type PlanProgress,
   type PlanResult,
@@ -19,7 +18,7 @@ import {
 } from '../../shared/engine/index';
 import { planWithWorkers } from '../../shared/engine/parallel/index';
 import type { ErrorCode } from '../../shared/api/errors';
-import type { PlanSearchProgress, PlanSettingsSnapshot, ReachQuantileDto } from '../../shared/api/plans';
+import type { PlanMethodChoice, PlanSearchProgress, PlanSettingsSnapshot, ReachQuantileDto } from '../../shared/api/plans';
 import { engineCode } from './engine-code';
 
 export interface RoomSnapshot {

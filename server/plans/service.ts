@@ -3,12 +3,20 @@
  * compare, k-sweep. Heavy work always goes to the plan worker pool; small plans are awaited in
  * the request, large ones (and exhaustive / auto) are queued as jobs with progress.
  */
-import type { CreatePlanRequest, KSweepResult, PlanComparison, PlanDetail, PlanStarted, PlanSummary } from '../../shared/api/plans';
+import type {
+  CreatePlanRequest,
+  KSweepResult,
+  PlanComparison,
+  PlanDetail,
+  PlanMethodChoice,
+  PlanStarted,
+  PlanSummary,
+} from '../../shared/api/plans';
 import { PLAN_LIMITS } from '../../shared/api/plans';
-import type { PlanMethodChoice } from '../../shared/engine/index';
 import { notFound } from '../core/http-error';
 import { db } from '../db';
-import { roomAccess, idOf } from '../jobs/access';
+import { roomAccess } from '../jobs/access';
+import { idOf } from '../core/ids';
 import { jobDto } from '../jobs/dto';
 import { onJobEvent } from '../jobs/events';
 import { runInPlanPool } from '../jobs/pools';

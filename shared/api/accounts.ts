@@ -1,7 +1,10 @@
 /** Account and admin API shapes, shared by the client and the server (no Node or DOM imports). */
 
-export type AccountRole = 'admin' | 'facilitator';
-export type AccountStatus = 'invited' | 'active' | 'deactivated';
+/** Also the database's enums (db/schema/accounts.ts). */
+export const ACCOUNT_ROLES = ['admin', 'facilitator'] as const;
+export type AccountRole = (typeof ACCOUNT_ROLES)[number];
+export const ACCOUNT_STATUSES = ['invited', 'active', 'deactivated'] as const;
+export type AccountStatus = (typeof ACCOUNT_STATUSES)[number];
 /** Where an invited account's latest invitation stands. */
 export type InvitationState = 'pending' | 'expired' | 'revoked' | 'accepted' | 'none';
 

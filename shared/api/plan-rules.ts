@@ -7,7 +7,8 @@
  * budget is valid (so "k = 61" reads as a budget problem, never as a constraint problem).
  */
 import type { ErrorCode } from './errors';
-import { PLAN_LIMITS, REHEARSAL_LIMITS } from './plans';
+import { SEED_PATTERN } from './ids';
+import { PLAN_LIMITS } from './plans';
 
 export type PlanField = 'k' | 'mustBrief' | 'cannotBrief' | 'starters' | 'noShow' | 'timeLimitSeconds';
 
@@ -115,7 +116,6 @@ export function startersProblem(count: number, roomSize: number): RuleProblem | 
 // ---- rehearsals ----
 
 export type RehearsalField = 'runs' | 'seed';
-const SEED = new RegExp(REHEARSAL_LIMITS.seedPattern);
 
 /** Cascades: a whole number from 1 to the server's cap. */
 export function runsProblem(runs: unknown, cap: number): RuleProblem<RehearsalField> | null {
@@ -135,7 +135,7 @@ export function runsProblem(runs: unknown, cap: number): RuleProblem<RehearsalFi
 export function seedProblem(seed: unknown): RuleProblem<RehearsalField> | null {
   const s = typeof seed === 'string' ? seed : '';
   if (s === '') return { field: 'seed', code: 'invalid_seed', message: 'Enter a seed, or press the dice for a random one.' };
-  if (!SEED.test(s))
+  if (!SEED_PATTERN.test(s))
     return {
       field: 'seed',
       code: 'invalid_seed',

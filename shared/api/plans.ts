@@ -58,7 +58,8 @@ import type { JobDto } from './jobs';
 
 export const PLAN_METHOD_CHOICES = ['auto', 'greedy', 'widened', 'swap', 'exhaustive'] as const;
 
-export type PlanMethodChoiceDto = (typeof PLAN_METHOD_CHOICES)[number];
+/** The methods a plan request may name (the server hands them to the engine, so the type check keeps them among the engine's). */
+export type PlanMethodChoice = (typeof PLAN_METHOD_CHOICES)[number];
 
 /** What was actually run ('auto' resolves to one of the engine's methods). */
 export type PlanMethodUsed = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy' | 'screen' | 'hand-made';
@@ -86,7 +87,7 @@ export interface CreatePlanRequest {
   name?: string;
   /** Budget: number of starters. Required unless `starters` is given. */
   k?: number;
-  method?: PlanMethodChoiceDto;
+  method?: PlanMethodChoice;
   /** Widened greedy threshold (0..1). */
   nu?: number;
   /** Exhaustive / auto time limit in seconds. */
@@ -139,7 +140,9 @@ export interface UpdatePlanRequest {
   chosen?: boolean;
 }
 
-export type PlanStatus = 'computing' | 'ready' | 'failed' | 'cancelled' | 'interrupted';
+/** Also the database's enum (db/schema/plans.ts). */
+export const PLAN_STATUSES = ['computing', 'ready', 'failed', 'cancelled', 'interrupted'] as const;
+export type PlanStatus = (typeof PLAN_STATUSES)[number];
 
 export interface PlanStarterDto {
   personId: number;
@@ -163,7 +166,7 @@ export interface PlanSummary {
   kind: 'computed' | 'hand-made';
   status: PlanStatus;
   k: number;
-  methodRequested: PlanMethodChoiceDto | 'hand-made';
+  methodRequested: PlanMethodChoice | 'hand-made';
   methodUsed: PlanMethodUsed | null;
   nu: number | null;
   timeLimitSeconds: number | null;

@@ -65,8 +65,9 @@ export interface RoomSettings {
 export const DEFAULT_ROOM_SETTINGS: RoomSettings = { directed: false, minutesPerHop: 5, laziness: 0, mixing: 0 };
 
 export type RoomAccess = 'owner' | 'editor' | 'viewer';
-export type ShareRole = 'editor' | 'viewer';
-export const SHARE_ROLES: readonly ShareRole[] = ['editor', 'viewer'];
+/** Also the database's enum (db/schema/rooms.ts). */
+export const SHARE_ROLES = ['editor', 'viewer'] as const;
+export type ShareRole = (typeof SHARE_ROLES)[number];
 
 export interface RoomListItem {
   id: number;
