@@ -10,6 +10,7 @@ import {
   type RoomEditOp,
 } from '../../shared/api/rooms';
 import { LIST_LIMITS, pageQueryFields } from '../../shared/api/lists';
+import { coordinate, newPerson, newRoomTie, personFields, strength } from '../../shared/api/room-rules';
 
 const text = (what: string, max: number) =>
   z
@@ -21,12 +22,6 @@ const required = (what: string, max: number) => text(what, max).min(1, `Enter th
 
 export const roomName = required('room name', L.roomNameMax);
 const description = text('description', L.descriptionMax);
-
-export const strength = z
-  .number({ error: 'Enter the strength as a number.' })
-  .refine((v) => Number.isFinite(v), 'The strength must be a finite number.')
-  .refine((v) => v > 0, 'A tie needs a strength above 0 (delete the tie if there is none).')
-  .refine((v) => v <= L.maxStrength, `The strength can be at most ${L.maxStrength}; check the unit or rescale.`);
 
 const between = (what: string, min: number, max: number, closedMax = true) =>
   z
@@ -41,47 +36,7 @@ export const settingsPatch = z.strictObject({
   mixing: between('Background mixing', S.mixing.min, S.mixing.max).optional(),
 });
 
-const coordinate = z
-  .number({ error: 'Positions must be numbers.' })
-  .refine((v) => Number.isFinite(v) && Math.abs(v) <= 1e7, 'Positions must be finite numbers within +-10,000,000.');
-
-export const personKey = text('person id', L.personKeyMax)
-  .min(1, 'The person id cannot be empty.')
-  .regex(/^[^\r\n\t]*$/, 'The person id cannot contain line breaks or tabs.');
-
-const nullableText = (what: string, max: number) =>
-  z
-    .union([text(what, max), z.null()])
-    .transform((v) => (v === '' ? null : v))
-    .optional();
-
-const email = z
-  .union([
-    z.literal(''),
-    z.string().trim().toLowerCase().email('Enter a valid e-mail address or leave it empty.').max(L.emailMax),
-    z.null(),
-  ])
-  .transform((v) => (v === '' ? null : v))
-  .optional();
-
-const personFields = {
-  key: personKey.optional(),
-  name: required('name', L.personNameMax),
-  group: nullableText('group', L.groupMax),
-  email,
-  x: z.union([coordinate, z.null()]).optional(),
-  y: z.union([coordinate, z.null()]).optional(),
-  pinned: z.boolean().optional(),
-};
-
-export const newPerson = z.strictObject(personFields);
 export type NewPersonInput = z.infer<typeof newPerson>;
-
-export const newRoomTie = z.strictObject({
-  source: personKey,
-  target: personKey,
-  strength: strength.optional(),
-});
 
 export const createRoomBody = z.strictObject({
   name: roomName,
