@@ -66,7 +66,7 @@ const editOp = z.discriminatedUnion(
   'op',
   [
     z.strictObject({ op: z.literal('addPerson'), tempId, ...personFields }),
-    z.strictObject({ op: z.literal('updatePerson'), id, ...personFields, name: personFields.name.optional() }),
+    z.strictObject({ op: z.literal('updatePerson'), id, ...personFields, name: z.optional(personFields.name) }),
     z.strictObject({ op: z.literal('deletePerson'), id }),
     z.strictObject({ op: z.literal('addTie'), tempId: tempId.optional(), source: ref, target: ref, strength }),
     z.strictObject({ op: z.literal('updateTie'), id, strength }),
