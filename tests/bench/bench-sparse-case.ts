@@ -20,9 +20,11 @@ function main(): void {
   if (edgeFile) writeFileSync(edgeFile, edgesText(edges));
   const room = roomFromEdges(edges);
   const method: PlanMethodChoice = kind.startsWith('screen') ? ('screen' as PlanMethodChoice) : 'greedy';
-  const runs = Number(process.env.RH_BENCH_RUNS ?? (n <= 3000 ? 3 : 1));
+  const runs = Number(process.env.RH_BENCH_RUNS ?? (n <= 500 ? 15 : n <= 3000 ? 3 : 1));
   const walls: { wall: number; cpu: number }[] = [];
+  // Warm-up runs (the JIT's first compilations), more for the small rooms that take milliseconds.
   let result = plan(room, { k, method });
+  for (let w = n <= 500 ? 5 : 0; w > 0; w--) result = plan(room, { k, method });
   for (let r = 0; r < runs; r++) {
     const c = process.cpuUsage();
     const t = performance.now();
