@@ -180,15 +180,13 @@ workshopsRouter.post('/:id/participants/roster', signedIn(), async (req, res) =>
         rows.map((r) => ({ ...r, personId: null })),
       )
     : { added: 0, skipped: [] };
-  res
-    .status(rows.length ? 201 : 400)
-    .json(
-      rows.length
-        ? { ...result, issues }
-        : ({
-            error: { code: 'bad_roster', message: issues[0]?.message ?? 'The roster has no names.', details: { issues } },
-          } satisfies ErrorEnvelope),
-    );
+  res.status(rows.length ? 201 : 400).json(
+    rows.length
+      ? { ...result, issues }
+      : ({
+          error: { code: 'bad_roster', message: issues[0]?.message ?? 'The roster has no names.', details: { issues } },
+        } satisfies ErrorEnvelope),
+  );
 });
 
 workshopsRouter.post('/:id/participants/from-room', signedIn(), async (req, res) => {
