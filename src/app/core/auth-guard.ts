@@ -1,7 +1,8 @@
 import { inject } from '@angular/core';
 import { type CanActivateFn, Router } from '@angular/router';
 import { catchError, map, type Observable, of } from 'rxjs';
-import { Auth, type Account, type AccountRole } from './auth';
+import type { AccountRole } from '../../../shared/api/accounts';
+import { Auth, type Account } from './auth';
 
 /** Who is signed in, or null when that cannot be learnt (the guards then treat the visitor as signed out). */
 function whoIsSignedIn(): Observable<Account | null> {

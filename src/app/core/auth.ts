@@ -1,9 +1,8 @@
 import { HttpClient } from '@angular/common/http';
 import { computed, inject, Injectable, signal } from '@angular/core';
 import { defer, map, type Observable, of, tap } from 'rxjs';
+import type { AccountRole } from '../../../shared/api/accounts';
 import { requestFlags } from './request-flags';
-
-export type AccountRole = 'admin' | 'facilitator';
 
 export interface Account {
   id: number;

@@ -1,10 +1,9 @@
-import { HttpClient, type HttpEvent, HttpParams } from '@angular/common/http';
+import { HttpClient, type HttpEvent } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import type { Observable } from 'rxjs';
 import type {
   CreateRoomRequest,
   ImportReport,
-  Page,
   RoomDto,
   RoomEditBatch,
   RoomEditResult,
@@ -17,6 +16,8 @@ import type {
   UpdateRoomRequest,
 } from '../../../shared/api/rooms';
 import type { OrgChartReport } from '../../../shared/api/org-chart';
+import type { Page } from '../../../shared/api/lists';
+import { pageParams } from '../core/page-params';
 import { requestFlags } from '../core/request-flags';
 
 /** The rooms endpoints: the pages' calls and the editor's loading and saving (RoomEditor decides when). */
@@ -26,9 +27,7 @@ export class RoomsApi {
   private readonly selfHandled = requestFlags({ ownErrors: true });
 
   list(q: RoomListQuery): Observable<Page<RoomListItem>> {
-    let params = new HttpParams();
-    for (const [k, v] of Object.entries(q)) if (v !== undefined && v !== '') params = params.set(k, String(v));
-    return this.http.get<Page<RoomListItem>>('/api/rooms', { params });
+    return this.http.get<Page<RoomListItem>>('/api/rooms', { params: pageParams(q) });
   }
 
   /** The whole room for the editor, which shows a failure itself. */
