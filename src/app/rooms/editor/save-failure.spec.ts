@@ -1,3 +1,4 @@
+import type { ApiError } from '../../core/api-error';
 import { BUSY_RETRY_MS, saveFailure } from './save-failure';
 
 describe('saveFailure', () => {
@@ -26,7 +27,7 @@ describe('saveFailure', () => {
   });
 
   it('anything else is shown with the fields the server named; another 429 is not a busy resend', () => {
-    const e = {
+    const e: ApiError = {
       status: 400,
       code: 'bad_request',
       message: 'Check the edit.',
