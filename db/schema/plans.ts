@@ -39,7 +39,8 @@ export interface StoredPlanExtras {
   fewestForOneHop: number | null;
 }
 
-export const jobKinds = ['plan', 'rehearsal'] as const;
+/** 'proof': a search that goes on proving a shown plan's problem in the background (its plan stays as made). */
+export const jobKinds = ['plan', 'rehearsal', 'proof'] as const;
 export const jobStatuses = ['queued', 'running', 'done', 'failed', 'cancelled', 'interrupted'] as const;
 export const planStatuses = ['computing', 'ready', 'failed', 'cancelled', 'interrupted'] as const;
 

@@ -4,7 +4,8 @@ export type JobStatus = 'queued' | 'running' | 'done' | 'failed' | 'cancelled' |
 
 export const JOB_STATUSES: readonly JobStatus[] = ['queued', 'running', 'done', 'failed', 'cancelled', 'interrupted'];
 
-export type JobKind = 'plan' | 'rehearsal';
+/** 'proof': the search that goes on proving a plan's problem in the background after the plan is shown. */
+export type JobKind = 'plan' | 'rehearsal' | 'proof';
 
 export interface JobDto {
   id: number;
