@@ -74,6 +74,7 @@ export class BranchSearch {
   /** Resuming a piece: the saved path, and how many of its depths are still being re-entered. */
   private replayPath: readonly number[] = [];
   private replayLen = 0;
+  private searching = false;
 
   constructor(
     readonly ctx: PlanContext,
@@ -219,6 +220,7 @@ export class BranchSearch {
   /** Searches items[take()] until take() returns -1 or the search halts; a halt inside a piece leaves `partial`. */
   searchItems(items: Piece[], take: () => number): void {
     this.roots = items;
+    this.searching = true;
     for (;;) {
       const q = this.meter.halted ? -1 : take();
       if (q < 0) break;
@@ -291,6 +293,8 @@ export class BranchSearch {
 
   /** Smallest bound over everything not yet decided (raw): pending roots and pending children on the stack. */
   pendingBound(): number {
+    // Before the pieces are known nothing below the incumbent is proven but the floor.
+    if (!this.searching) return this.floor;
     let lb = this.best;
     // Alone, the items after the current one are pending too (with a link, the caller tracks them).
     if (!this.link) for (let q = this.rootAt + 1; q < this.roots.length; q++) lb = Math.min(lb, this.roots[q].bound);
