@@ -1,6 +1,6 @@
 /** The planner task of a stored plan row (its snapshot, budget and constraints), and the hard stop of its worker. */
 import { PLAN_LIMITS } from '../../shared/api/plans';
-import type { PlanMethodChoice } from '../../shared/engine/index';
+import type { PlanMethodChoice } from '../../shared/api/plans';
 import type { PlannerTask, RoomSnapshot } from './compute';
 import type { PlanRow } from './store';
 import { indicesOfPeople } from './validate';

@@ -10,7 +10,7 @@ import type { people as peopleTable } from '../../db/schema/rooms';
 import { transaction, type Tx } from '../db';
 import { assertClientThere } from '../core/heavy-writes';
 import { HttpError, notFound } from '../core/http-error';
-import type { FieldError } from '../core/validate';
+import type { FieldError } from '../../shared/api/errors';
 import { failFields, keyMaker, pairKey } from './content';
 import type { EditBatchInput, EditOpInput } from './schemas';
 import { staleVersion } from './service';

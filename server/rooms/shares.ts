@@ -1,5 +1,6 @@
 /** Sharing a room with another facilitator as editor or viewer: list, add (with an e-mail), change role, revoke. */
 import { and, asc, eq } from 'drizzle-orm';
+import type { ErrorCode } from '../../shared/api/errors';
 import type { ShareDto, ShareRole } from '../../shared/api/rooms';
 import { users } from '../../db/schema/accounts';
 import { roomShares } from '../../db/schema/rooms';
@@ -27,7 +28,7 @@ async function shareOf(roomId: number, userId: number): Promise<ShareDto> {
   return found;
 }
 
-const fieldError = (status: number, code: string, message: string) =>
+const fieldError = (status: number, code: ErrorCode, message: string) =>
   new HttpError(status, code, message, { fields: [{ field: 'email', message }] });
 
 export async function addShare(room: RoomRow, sharedBy: { id: number; name: string }, email: string, role: ShareRole): Promise<ShareDto> {

@@ -1,11 +1,12 @@
 /** Background jobs (plans computed in the background and rehearsals): status, progress and the event stream. See plans.ts for the routes. */
 
-export type JobStatus = 'queued' | 'running' | 'done' | 'failed' | 'cancelled' | 'interrupted';
-
-export const JOB_STATUSES: readonly JobStatus[] = ['queued', 'running', 'done', 'failed', 'cancelled', 'interrupted'];
+/** Also the database's enums (db/schema/plans.ts). */
+export const JOB_STATUSES = ['queued', 'running', 'done', 'failed', 'cancelled', 'interrupted'] as const;
+export type JobStatus = (typeof JOB_STATUSES)[number];
 
 /** 'proof': the search that goes on proving a plan's problem in the background after the plan is shown. */
-export type JobKind = 'plan' | 'rehearsal' | 'proof';
+export const JOB_KINDS = ['plan', 'rehearsal', 'proof'] as const;
+export type JobKind = (typeof JOB_KINDS)[number];
 
 export interface JobDto {
   id: number;

@@ -1,7 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
-import { users, type AccountRole } from '../../db/schema/accounts';
+import { users } from '../../db/schema/accounts';
+import type { AccountRole } from '../../shared/api/accounts';
 import { createApp } from '../../server/app';
 import { hashPassword } from '../../server/auth/passwords';
 import { db, pool } from '../../server/db';
