@@ -71,6 +71,8 @@ const schema = z.object({
   MAX_HEAVY_WRITES_PER_USER: z.coerce.number().int().min(1).default(2),
   MAX_CASCADES: z.coerce.number().int().positive().default(100000),
   MAX_JOBS_PER_USER: z.coerce.number().int().positive().default(2),
+  /** Seconds an automatic plan's search goes on proving in the background after the plan is shown (0: never). */
+  PROOF_SECONDS: z.coerce.number().min(0).max(600).default(50),
   WORKERS: z.coerce.number().int().min(1).max(16).default(2),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   /** The job queue's Redis (BullMQ); the default is the private one of scripts/redis.sh on REDIS_PORT. */

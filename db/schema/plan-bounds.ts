@@ -1,4 +1,5 @@
 import { double, index, int, json, mysqlTable, uniqueIndex, varchar } from 'drizzle-orm/mysql-core';
+import type { SearchResume } from '../../shared/engine/plan-resume';
 import { idColumn, refColumn, updatedAt } from './columns';
 import { rooms } from './rooms';
 
@@ -28,6 +29,12 @@ export const planBounds = mysqlTable(
     bestTotal: double('best_total'),
     /** Person ids of the plan with the best total (briefing order). */
     bestStarters: json('best_starters').$type<number[]>(),
+    /**
+     * Where the branch and bound of this key stopped (open pieces, the path inside each, best set
+     * and counts over every run; shared/engine/plan-resume.ts), so the next search continues
+     * from there; a finished search leaves nothing open. Engine indices of the room version.
+     */
+    searchState: json('search_state').$type<SearchResume>(),
     updatedAt: updatedAt(),
   },
   (t) => [uniqueIndex('plan_bounds_key_uq').on(t.roomId, t.roomVersion, t.k, t.constraintsKey), index('plan_bounds_room_idx').on(t.roomId)],

@@ -8,7 +8,8 @@ import type { JobEvent } from '../../shared/api/plans';
 import type { Tx, db } from '../db';
 import type { JobRow } from './store';
 
-export type Commit = (tx: Tx) => Promise<void>;
+/** Applies a job's results; may return work to do once they are committed (queueing a follow-up job). */
+export type Commit = (tx: Tx) => Promise<void | (() => Promise<void>)>;
 export type EndStatus = 'failed' | 'cancelled' | 'interrupted';
 
 export interface JobContext {

@@ -1,5 +1,6 @@
 /** Wires the job kinds to their handlers; starts and stops this process's part of the job system. */
 import { logger } from '../core/logging';
+import { proofJobHandler } from '../plans/proof';
 import { planJobHandler } from '../plans/service';
 import { rehearsalJobHandler } from '../rehearsals/job';
 import { closeEvents, startEvents } from './events';
@@ -12,6 +13,7 @@ import { startWorkers, stopWorkers } from './workers';
 
 registerHandler('plan', planJobHandler);
 registerHandler('rehearsal', rehearsalJobHandler);
+registerHandler('proof', proofJobHandler);
 
 export { jobRunner };
 

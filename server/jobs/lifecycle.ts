@@ -31,13 +31,15 @@ export async function endOpenJob(row: JobRow, status: EndStatus, message: string
 
 /** Applies the results and marks the job done, only if it is still running. */
 export async function finishJob(row: JobRow, commit: Commit): Promise<boolean> {
+  let then: (() => Promise<void>) | undefined;
   const finished = await db.transaction(async (tx) => {
     if ((await lockJobStatus(tx, row.id)) !== 'running') return false;
-    await commit(tx);
+    then = (await commit(tx)) ?? undefined;
     await endJob(row.id, 'done', null, tx);
     return true;
   });
   if (finished) await emitJob('done', (await findJob(row.id)) ?? row);
+  if (finished && then) await then().catch((err: unknown) => logger.warn({ err, jobId: row.id }, 'work after a finished job failed'));
   return finished;
 }
 

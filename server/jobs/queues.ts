@@ -71,7 +71,9 @@ export function queue(name: string): Queue {
 export async function enqueueJob(row: JobRow): Promise<void> {
   const data: JobData = { jobId: row.id, step: 'start' };
   try {
-    await within(3000, 'The job queue', queue(JOBS_QUEUE).add(row.kind, data, { ...entryOptions(), jobId: bullId(row) }));
+    // Background proofs wait behind every job a person asked for (BullMQ serves entries without a priority first).
+    const priority = row.kind === 'proof' ? { priority: 10 } : {};
+    await within(3000, 'The job queue', queue(JOBS_QUEUE).add(row.kind, data, { ...entryOptions(), ...priority, jobId: bullId(row) }));
   } catch (err) {
     logger.warn({ err: (err as Error).message, jobId: row.id }, 'queueing a job failed; it is queued again when Redis answers');
   }
@@ -97,7 +99,7 @@ export async function wakeUser(userId: number): Promise<void> {
  * says it was stopped, with the proven gap); anything else is cancelled.
  */
 export async function stopJobEarly(row: JobRow): Promise<void> {
-  if (row.kind !== 'plan' || row.status !== 'running') return cancelJob(row);
+  if ((row.kind !== 'plan' && row.kind !== 'proof') || row.status !== 'running') return cancelJob(row);
   publishStop(row.id);
 }
 

@@ -1,5 +1,5 @@
 /** Data access for job rows (the truth about every background job). */
-import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { users } from '../../db/schema/accounts';
 import { jobs, plans, rehearsals } from '../../db/schema/plans';
 import { db, type Tx } from '../db';
@@ -76,21 +76,26 @@ export type Admission = 'admitted' | 'resumed' | 'wait' | 'ended';
  * queued -> running when the user has a free slot (config.MAX_JOBS_PER_USER), first come first
  * served per user. The user's row is locked as a mutex, so two workers never admit past the limit.
  * 'resumed': the job was already running (its worker died and the queue handed it to another one).
+ * Background proofs ('proof') come last: they wait for every other job of the user, and other jobs
+ * do not count them (a running proof is asked to stop when the user starts a plan).
  */
 export async function admitJob(id: number, maxRunning: number): Promise<Admission> {
   return db.transaction(async (tx) => {
-    const [job] = await tx.select({ status: jobs.status, userId: jobs.userId }).from(jobs).where(eq(jobs.id, id));
+    const [job] = await tx.select({ status: jobs.status, userId: jobs.userId, kind: jobs.kind }).from(jobs).where(eq(jobs.id, id));
     if (!job) return 'ended';
     if (job.status === 'running') return 'resumed';
     if (job.status !== 'queued') return 'ended';
     await tx.select({ id: users.id }).from(users).where(eq(users.id, job.userId)).for('update');
+    const proof = job.kind === 'proof';
     const [row] = await tx
       .select({
         running: sql<number>`SUM(${jobs.status} = 'running')`,
-        before: sql<number>`SUM(${jobs.status} = 'queued' AND ${jobs.id} < ${id})`,
+        before: proof
+          ? sql<number>`SUM(${jobs.status} = 'queued' AND (${jobs.kind} <> 'proof' OR ${jobs.id} < ${id}))`
+          : sql<number>`SUM(${jobs.status} = 'queued' AND ${jobs.id} < ${id})`,
       })
       .from(jobs)
-      .where(and(eq(jobs.userId, job.userId), inArray(jobs.status, ['queued', 'running'])));
+      .where(and(eq(jobs.userId, job.userId), inArray(jobs.status, ['queued', 'running']), proof ? undefined : ne(jobs.kind, 'proof')));
     if (Number(row?.running ?? 0) + Number(row?.before ?? 0) >= maxRunning) return 'wait';
     const [res] = await tx
       .update(jobs)
@@ -131,13 +136,16 @@ export async function openJobs(limit = 1000): Promise<JobRow[]> {
     .limit(limit);
 }
 
-/** What a user has open now: jobs queued or running, and the cascades of those that are rehearsals. */
-export async function openLoadOf(userId: number, tx: Tx | typeof db = db): Promise<{ jobs: number; cascades: number }> {
+/**
+ * What a user has open now: jobs queued or running, and the cascades of those that are rehearsals.
+ * Background proofs count only with `withProofs` (they never block what the user asks for).
+ */
+export async function openLoadOf(userId: number, tx: Tx | typeof db = db, withProofs = false): Promise<{ jobs: number; cascades: number }> {
   const [row] = await tx
     .select({ jobs: sql<number>`COUNT(*)`, cascades: sql<number>`COALESCE(SUM(${rehearsals.runs}), 0)` })
     .from(jobs)
     .leftJoin(rehearsals, eq(rehearsals.id, jobs.rehearsalId))
-    .where(and(eq(jobs.userId, userId), inArray(jobs.status, ['queued', 'running'])));
+    .where(and(eq(jobs.userId, userId), inArray(jobs.status, ['queued', 'running']), withProofs ? undefined : ne(jobs.kind, 'proof')));
   return { jobs: Number(row?.jobs ?? 0), cascades: Number(row?.cascades ?? 0) };
 }
 

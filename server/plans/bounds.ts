@@ -68,6 +68,17 @@ export async function recordComputation(
   );
 }
 
+/** Keeps where the computation's search stopped (or that it finished) for the next search of the key. */
+export async function recordSearch(row: KeyedRow, c: Pick<PlanComputation, 'resume'>, tx: Tx | typeof db = db): Promise<void> {
+  if (c.resume) await store.saveSearchState(keyOfPlan(row), c.resume, tx);
+}
+
+/** The saved search of a plan's key, for a search that continues it (only the plain objective has one). */
+export async function savedSearchOf(row: KeyedRow): Promise<BoundRow['searchState']> {
+  if (row.noShow) return null;
+  return (await boundOf(row))?.searchState ?? null;
+}
+
 /** A proven lower bound without a plan (e.g. from a k-sweep), for the unconstrained key of k. */
 export async function recordLowerBound(key: BoundKey, lowerBound: number, source: BoundSource): Promise<void> {
   if (Number.isFinite(lowerBound) && lowerBound > 0)

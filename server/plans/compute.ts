@@ -15,6 +15,7 @@ import {
   type PlanResult,
   type PreparedRoom,
   type RoomGraph,
+  type SearchResume,
 } from '../../shared/engine/index';
 import { planWithWorkers } from '../../shared/engine/parallel/index';
 import type { ErrorCode } from '../../shared/api/errors';
@@ -49,6 +50,8 @@ export interface PlannerTask {
    * return the best plan found so far with its proven gap (stopped early).
    */
   stopFlag?: SharedArrayBuffer;
+  /** Exhaustive and auto: the saved search of this plan's problem, continued instead of started over. */
+  resume?: SearchResume;
 }
 
 export interface HandMadeTask {
@@ -83,6 +86,8 @@ export interface PlanComputation {
   curve: StoredCurve;
   extras: ComputedExtras;
   absence: ComputedAbsence | null;
+  /** Where the search stopped (or that it finished), for the next search of the same problem; null without a search. */
+  resume: SearchResume | null;
 }
 
 /** Reading aids from the planner (engine indices; the service maps them to people). */
@@ -219,6 +224,7 @@ export async function runPlanner(
       }
     },
     ...(flag ? { shouldStop: () => Atomics.load(flag, 0) === 1 } : {}),
+    ...(task.resume ? { resume: task.resume } : {}),
   };
   const threads = task.threads ?? 2;
   const r = threads > 1 ? await planWithWorkers(room, options, threads) : plan(room, options);
@@ -239,6 +245,7 @@ export async function runPlanner(
     h: Array.from(reach.h),
     curve: curveFor(room, r.starters, task.snapshot.settings.minutesPerHop),
     ...extrasOf(r),
+    resume: r.resume ?? null,
   };
 }
 
@@ -294,6 +301,7 @@ export function scoreHandMade(task: HandMadeTask): ComputeOutcome<PlanComputatio
       curve: curveFor(room, task.starters, task.snapshot.settings.minutesPerHop),
       extras: { ...extrasOf(free).extras, gainShare: null, nodes: null, searchLeft: null, stopped: false },
       absence: null,
+      resume: null,
     },
   };
 }

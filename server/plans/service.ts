@@ -3,15 +3,7 @@
  * compare, k-sweep. Heavy work always goes to the plan worker pool; small plans are awaited in
  * the request, large ones (and exhaustive / auto) are queued as jobs with progress.
  */
-import type {
-  CreatePlanRequest,
-  KSweepResult,
-  PlanComparison,
-  PlanDetail,
-  PlanMethodChoice,
-  PlanStarted,
-  PlanSummary,
-} from '../../shared/api/plans';
+import type { CreatePlanRequest, KSweepResult, PlanComparison, PlanDetail, PlanStarted, PlanSummary } from '../../shared/api/plans';
 import { PLAN_LIMITS } from '../../shared/api/plans';
 import { notFound } from '../core/http-error';
 import { db } from '../db';
@@ -25,13 +17,15 @@ import { JobFailure, jobRunner, type JobHandler } from '../jobs/runner';
 import { findJob, insertJob } from '../jobs/store';
 import { loadRoomGraph, type RoomNeed } from '../rooms/access';
 import type { SignedInUser } from '../types';
-import { prepared, type ComputeOutcome, type PlanComputation, type PlannerTask, type RoomSnapshot } from './compute';
+import { prepared, type ComputeOutcome, type PlanComputation, type RoomSnapshot } from './compute';
+import { hardLimitMs, plannerTask } from './planner-task';
 import { parseResults, parseSnapshot, planDetail, planSummary } from './dto';
 import { resultColumns } from './result-columns';
 import type { NewPlan, PlanRow } from './store';
 import * as store from './store';
 import { config } from '../config';
-import { boundForRow, boundOf, boundsFor, recordComputation, recordSweepBounds } from './bounds';
+import { boundForRow, boundOf, boundsFor, recordComputation, recordSearch, recordSweepBounds, savedSearchOf } from './bounds';
+import { addProofRow, proofFacts, queueProof, yieldProofs } from './proof';
 import { mergeSweeps } from './sweep';
 import { personAt } from './snapshot';
 import { checkHandMade, checkPlannerRequest, indicesOfPeople, planError } from './validate';
@@ -84,28 +78,6 @@ function jobEnd(jobId: number, ms: number): Promise<string | null> {
   });
 }
 
-function plannerTask(
-  snapshot: RoomSnapshot,
-  row: Pick<PlanRow, 'k' | 'methodRequested' | 'nu' | 'timeLimitSeconds' | 'mustBrief' | 'cannotBrief' | 'noShow'>,
-): PlannerTask {
-  return {
-    kind: 'planner',
-    snapshot,
-    k: row.k,
-    method: row.methodRequested as PlanMethodChoice,
-    ...(row.noShow ? { noShow: row.noShow } : {}),
-    ...(row.nu !== null ? { nu: row.nu } : {}),
-    ...(row.timeLimitSeconds !== null ? { timeLimitMs: row.timeLimitSeconds * 1000 } : {}),
-    mustInclude: indicesOfPeople(snapshot, row.mustBrief, 'People who must be briefed'),
-    exclude: indicesOfPeople(snapshot, row.cannotBrief, 'People who cannot be briefed'),
-  };
-}
-
-/** Hard stop for a worker: the engine's own budget plus a generous margin. */
-function hardLimitMs(timeLimitSeconds: number | null): number {
-  return ((timeLimitSeconds ?? PLAN_LIMITS.timeLimitSeconds.default) + 60) * 1000;
-}
-
 export async function createPlan(
   user: SignedInUser,
   roomId: number,
@@ -147,6 +119,7 @@ export async function createPlan(
   };
   if (runsInBackground(body, room.n)) {
     await checkJobQuota(user.id);
+    await yieldProofs(user.id);
     const { planId, jobId } = await db.transaction(async (tx) => {
       const planId = await store.insertPlan(base, tx);
       const jobId = await insertJob({ userId: user.id, roomId, kind: 'plan', planId }, tx);
@@ -159,7 +132,7 @@ export async function createPlan(
     await jobRunner.enqueue(job);
     if ((await ended) === 'done') {
       const row = await store.findPlan(planId);
-      if (row?.status === 'ready') return { status: 201, body: planDetail(row, snapshot.version, await boundOf(row)) };
+      if (row?.status === 'ready') return { status: 201, body: await detailOf(row, snapshot.version) };
     }
     const plan = (await store.findPlan(planId))!;
     const started = planSummary(plan, snapshot.version, await boundOf(plan));
@@ -186,7 +159,7 @@ export async function createPlan(
     return id;
   });
   const row = (await store.findPlan(planId))!;
-  return { status: 201, body: planDetail(row, snapshot.version, await boundOf(row)) };
+  return { status: 201, body: await detailOf(row, snapshot.version) };
 }
 
 function defaultName(method: string, k: number): string {
@@ -207,17 +180,26 @@ export const planJobHandler: JobHandler = {
     const row = await store.findPlan(job.planId!);
     if (!row) throw new JobFailure('The plan was deleted.');
     const snapshot = parseSnapshot(row);
-    const outcome = (await runInPlanPool(plannerTask(snapshot, row), {
-      signal: ctx.signal,
-      stopEarly: ctx.stopEarly,
-      hardLimitMs: hardLimitMs(row.timeLimitSeconds),
-      onProgress: (f, search) => ctx.progress(f, undefined, undefined, search ? { search } : undefined),
-    })) as ComputeOutcome<PlanComputation>;
+    // Exhaustive and automatic plans continue the saved search of their problem.
+    const searches = row.methodRequested === 'exhaustive' || row.methodRequested === 'auto';
+    const resume = searches ? await savedSearchOf(row) : null;
+    const outcome = (await runInPlanPool(
+      { ...plannerTask(snapshot, row), ...(resume ? { resume } : {}) },
+      {
+        signal: ctx.signal,
+        stopEarly: ctx.stopEarly,
+        hardLimitMs: hardLimitMs(row.timeLimitSeconds),
+        onProgress: (f, search) => ctx.progress(f, undefined, undefined, search ? { search } : undefined),
+      },
+    )) as ComputeOutcome<PlanComputation>;
     if ('error' in outcome) throw new JobFailure(outcome.error.message);
     const columns = resultColumns(snapshot, outcome.ok);
     return async (tx) => {
       await store.updatePlan(row.id, columns, tx);
       await recordComputation(row, outcome.ok, snapshot.personIds, tx);
+      await recordSearch(row, outcome.ok, tx);
+      const proof = await addProofRow(row, outcome.ok, job.userId, tx);
+      return () => queueProof(proof);
     };
   },
   async onEnd(job, status, message, tx) {
@@ -247,7 +229,13 @@ export async function rerunPlan(user: SignedInUser, plan: LoadedPlan): Promise<P
 }
 
 export async function getPlan(plan: LoadedPlan): Promise<PlanDetail> {
-  return planDetail(plan, (await store.roomVersion(plan.roomId)) ?? plan.roomVersion, await boundOf(plan));
+  return detailOf(plan, (await store.roomVersion(plan.roomId)) ?? plan.roomVersion);
+}
+
+/** A plan's detail with its key's shared bound and what the page shows about proving it. */
+async function detailOf(row: LoadedPlan, version: number): Promise<PlanDetail> {
+  const bound = await boundOf(row);
+  return { ...planDetail(row, version, bound), ...(await proofFacts(row, bound)) };
 }
 
 export async function listPlans(user: SignedInUser, roomId: number): Promise<PlanSummary[]> {

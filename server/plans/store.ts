@@ -5,6 +5,7 @@ import { planBounds } from '../../db/schema/plan-bounds';
 import { jobs, plans, rehearsals } from '../../db/schema/plans';
 import { rooms } from '../../db/schema/rooms';
 import { db, type Tx } from '../db';
+import type { SearchResume } from '../../shared/engine/index';
 import type { BoundKey } from './bound-key';
 import { firstOf } from '../../shared/checked';
 
@@ -130,4 +131,70 @@ export async function findBound(key: BoundKey, tx: Tx | typeof db = db): Promise
 /** Every bound row of a room (the plan list joins them in memory). */
 export async function boundsOfRoom(roomId: number): Promise<BoundRow[]> {
   return db.select().from(planBounds).where(eq(planBounds.roomId, roomId));
+}
+
+/**
+ * Keeps the saved search of a key (its row exists: the computation's bound was merged first). A
+ * state that has decided fewer k-sets than the stored one (a search started afresh beside a
+ * resumed one) does not replace it.
+ */
+export async function saveSearchState(key: BoundKey, state: SearchResume, tx: Tx | typeof db = db): Promise<void> {
+  const text = JSON.stringify(state);
+  await tx.execute(sql`
+    UPDATE plan_bounds
+    SET search_state = IF(search_state IS NULL OR JSON_VALUE(search_state, '$.closed') + 0 <= ${state.closed}, ${text}, search_state)
+    WHERE room_id = ${key.roomId} AND room_version = ${key.roomVersion} AND k = ${key.k} AND constraints_key = ${key.constraintsKey}`);
+}
+
+/** The bound row of a key, locked until the transaction ends (one background proof per key). */
+export async function lockBound(key: BoundKey, tx: Tx): Promise<BoundRow | undefined> {
+  const [row] = await tx
+    .select()
+    .from(planBounds)
+    .where(
+      and(
+        eq(planBounds.roomId, key.roomId),
+        eq(planBounds.roomVersion, key.roomVersion),
+        eq(planBounds.k, key.k),
+        eq(planBounds.constraintsKey, key.constraintsKey),
+      ),
+    )
+    .for('update');
+  return row;
+}
+
+/** Open background proofs of a room, with the key columns of their plans. */
+export async function openProofsOfRoom(roomId: number, tx: Tx | typeof db = db) {
+  return tx
+    .select({
+      job: jobs,
+      plan: {
+        roomId: plans.roomId,
+        roomVersion: plans.roomVersion,
+        k: plans.k,
+        mustBrief: plans.mustBrief,
+        cannotBrief: plans.cannotBrief,
+        noShow: plans.noShow,
+      },
+    })
+    .from(jobs)
+    .innerJoin(plans, eq(plans.id, jobs.planId))
+    .where(and(eq(jobs.roomId, roomId), eq(jobs.kind, 'proof'), inArray(jobs.status, ['queued', 'running'])));
+}
+
+/** Finished plans of a room with the key columns and totals (to find a faster plan of the same problem). */
+export async function readyPlansOfRoom(roomId: number) {
+  return db
+    .select({
+      id: plans.id,
+      roomId: plans.roomId,
+      roomVersion: plans.roomVersion,
+      k: plans.k,
+      mustBrief: plans.mustBrief,
+      cannotBrief: plans.cannotBrief,
+      noShow: plans.noShow,
+      total: plans.total,
+    })
+    .from(plans)
+    .where(and(eq(plans.roomId, roomId), eq(plans.status, 'ready')));
 }

@@ -4,7 +4,8 @@
 export const JOB_STATUSES = ['queued', 'running', 'done', 'failed', 'cancelled', 'interrupted'] as const;
 export type JobStatus = (typeof JOB_STATUSES)[number];
 
-export const JOB_KINDS = ['plan', 'rehearsal'] as const;
+/** 'proof': the search that goes on proving a plan's problem in the background after the plan is shown. */
+export const JOB_KINDS = ['plan', 'rehearsal', 'proof'] as const;
 export type JobKind = (typeof JOB_KINDS)[number];
 
 export interface JobDto {

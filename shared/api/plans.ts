@@ -54,7 +54,7 @@
  * `error.details.suggest` names another method when
  * one would work. Rooms the caller cannot see answer 404; viewers get 403 on changes.
  */
-import type { JobDto } from './jobs';
+import type { JobDto, JobStatus } from './jobs';
 
 export const PLAN_METHOD_CHOICES = ['auto', 'greedy', 'widened', 'swap', 'exhaustive'] as const;
 
@@ -249,10 +249,35 @@ export interface ReachCurveDto {
   quantiles: ReachQuantileDto[];
 }
 
+/** The search that goes on proving a plan's problem in the background (its events: GET /api/jobs/:jobId/events). */
+export interface ProvingDto {
+  jobId: number;
+  status: JobStatus;
+  /** 0..1. */
+  progress: number;
+}
+
+/** What the searches of a plan's problem (room version, k, constraints) have done over all their runs. */
+export interface SearchSoFarDto {
+  /** Search steps (branch-and-bound nodes) over every run. */
+  nodes: number;
+  runs: number;
+  /** Share of the possible starter groups not yet checked (0..1). */
+  left: number;
+  /** Every group was checked: the best total of this problem is proven. */
+  finished: boolean;
+}
+
 export interface PlanDetail extends PlanSummary {
   /** Everyone in the room's order (empty until the plan is ready). */
   perPerson: PlanPersonDto[];
   reach: ReachCurveDto | null;
+  /** A background search proving this plan's problem, while one is queued or running. */
+  proving?: ProvingDto | null;
+  /** A finished plan of the same problem with a lower total (the fastest such), e.g. found in the background. */
+  fasterPlanId?: number | null;
+  /** The saved search of this plan's problem, which "Keep proving" continues. */
+  searchSoFar?: SearchSoFarDto | null;
 }
 
 export interface PlanStarted {

@@ -134,3 +134,32 @@ export function childBounds(s: CandState, lv: Level, r: number, buf: Float64Arra
   lv.suffixMin[m] = Infinity;
   for (let p = m - 1; p >= 0; p--) lv.suffixMin[p] = Math.min(lv.suffixMin[p + 1], lv.childLb[p]);
 }
+
+/** Local candidates sorted by decreasing gain at S (ties: earlier person first); insertion sort, m <= n. */
+export function orderCandidates(s: CandState, lv: Level): void {
+  const m = s.m;
+  const { order, gain } = lv;
+  const ids = s.ids;
+  for (let q = 0; q < m; q++) {
+    const v = Math.max(0, s.gain(q));
+    let at = q;
+    while (at > 0 && (gain[at - 1] < v || (gain[at - 1] === v && ids[order[at - 1]] > ids[q]))) {
+      gain[at] = gain[at - 1];
+      order[at] = order[at - 1];
+      at--;
+    }
+    gain[at] = v;
+    order[at] = q;
+  }
+}
+
+/** Exact totals of S + x + y for every later y (r = 2): F - ρ_x(S) - ρ_y(S + x), x = order[p]. */
+export function pairLeaves(s: CandState, lv: Level, p: number, host: LeafHost): void {
+  const x = lv.order[p];
+  const base = s.F - lv.gain[p];
+  for (let q = p + 1; q < s.m; q++) {
+    const y = lv.order[q];
+    const t = base - s.pairGain(x, y);
+    if (host.improves(t)) host.leaf(t, () => [...s.starters, s.ids[x], s.ids[y]]);
+  }
+}

@@ -18,62 +18,34 @@
  * state is built for a pruned child; at r = 2 the same formula gives the exact totals of every
  * completion. Big subtrees also get the dual bound (bound 4: greedy completion Y, then
  * F(S ∪ Y) - top_r gains at S ∪ Y). Cost O(|C|^2) per expanded node plus O(|C| r) per child;
- * exponential in the worst case.
+ * exponential in the worst case. A search stopped part-way leaves a state (plan-resume.ts) that a
+ * later search of the same problem continues from.
  */
-import { AbsorbingState } from './dense-state';
 import { CandState } from './plan-branch-state';
 import type { PlanContext } from './plan-context';
-import { childBounds, tripleLeaves, type Level, type TripleScratch } from './plan-branch-steps';
+import { childBounds, orderCandidates, pairLeaves, tripleLeaves, type Level, type TripleScratch } from './plan-branch-steps';
+import { insideOf, resumeFrom, savedSearch, workList, type FrontierInput, type OpenPiece, type Piece } from './plan-resume';
+import type { RunTotals, SearchResume } from './plan-resume';
+import { DUAL_MIN, DUAL_R, SPLIT_LIMIT, splitRoots, stateOfSet } from './plan-branch-split';
 import { buildRoots, type Root } from './plan-roots';
 import { SearchMeter, binomialTable } from './plan-search-meter';
+import type { ExhaustiveOutcome, Incumbent, SearchLink } from './plan-search-types';
 
-export interface ExhaustiveOutcome {
-  readonly state: { starters: number[]; total: number };
-  readonly complete: boolean;
-  readonly stopped: boolean;
-  readonly nodes: number;
-  /** Proven lower bound on the optimum (scaled hops). */
-  readonly lowerBound: number;
-  /** Share of the k-sets not decided (0 when complete). */
-  readonly searchLeft: number;
-}
+export type { ExhaustiveOutcome, Incumbent, SearchLink } from './plan-search-types';
+export { resumeFrom } from './plan-resume';
 
-/** Rooms up to this size are split into two-starter pieces before the search (memory O(n^3)). */
-const SPLIT_LIMIT = 150;
-/**
- * Nodes with at least DUAL_R starters still to add and DUAL_MIN k-sets below them also get the
- * dual bound (O(m r^2)). Measured on 60-person six-group rooms at k = 9, 10: at r = 4 and 5 it
- * pruned almost nothing and cost 30-40 % of the search time; from r = 6 it pays for itself.
- */
-const DUAL_MIN = 5000;
-const DUAL_R = 6;
-
-export interface Incumbent {
-  readonly starters: readonly number[];
-  readonly rawTotal: number;
-  readonly scale: number;
-}
-
-/**
- * What a search running on several threads shares (parallel/parallel-branch.ts): the best raw
- * total of all threads, and this thread's pending bound, closed share and node count.
- */
-export interface SearchLink {
-  best(): number;
-  offer(raw: number): void;
-  publish(pendingRaw: number, closed: number, nodes: number): void;
-}
-
-export function exhaustiveSearch(ctx: PlanContext, incumbent: Incumbent): ExhaustiveOutcome {
+export function exhaustiveSearch(ctx: PlanContext, start: Incumbent): ExhaustiveOutcome {
+  const { saved, incumbent } = resumeFrom(ctx, start);
   const search = new BranchSearch(ctx, incumbent);
-  const items = search.prepare();
+  const work = search.start(saved);
   let next = 0;
-  search.searchItems(items, () => (next < items.length ? next++ : -1));
-  return search.outcome();
+  search.searchItems(work, () => (next < work.length ? next++ : -1));
+  const partial = search.partial ? [search.partial] : [];
+  return search.outcome(search.saved(saved, { work, untakenFrom: next, partial }));
 }
 
 export class BranchSearch {
-  private readonly k: number;
+  readonly k: number;
   private readonly scale: number;
   /** Pruning threshold: the best raw total known to this thread, its own or another thread's (link). */
   private best: number;
@@ -90,9 +62,22 @@ export class BranchSearch {
   private readonly scratch: CandState;
   private readonly picked: Uint8Array;
   private readonly trip: TripleScratch;
+  /** Threshold the pieces were cut with, and their number (a resumed search cuts the same pieces). */
+  private cutRaw = Infinity;
+  private pieces = 0;
+  /** The piece this thread stopped inside, if any. */
+  partial: OpenPiece | null = null;
+  /** Path of the node being left when the search halts (per depth), its length (-1: none) and the sets decided inside. */
+  private readonly trail: number[] = [];
+  private trailLen = -1;
+  private trailInside = 0;
+  /** Resuming a piece: the saved path, and how many of its depths are still being re-entered. */
+  private replayPath: readonly number[] = [];
+  private replayLen = 0;
+  private searching = false;
 
   constructor(
-    private readonly ctx: PlanContext,
+    readonly ctx: PlanContext,
     incumbent: Incumbent,
     private readonly link?: SearchLink,
   ) {
@@ -126,7 +111,7 @@ export class BranchSearch {
       });
   }
 
-  private sets(m: number, r: number): number {
+  sets(m: number, r: number): number {
     return r < 0 || m < r ? 0 : this.binom[m][r];
   }
 
@@ -158,6 +143,24 @@ export class BranchSearch {
     return this.meter.closedSets();
   }
 
+  close(sets: number): void {
+    this.meter.close(sets);
+  }
+
+  level(depth: number): Level {
+    return this.levels[depth];
+  }
+
+  /** Bound 4 of docs/bounds.md for the sets below `s` with r starters to add. */
+  dualOf(s: CandState, r: number): number {
+    return s.dualBound(r, this.scratch, this.picked);
+  }
+
+  /** Nodes of the earlier runs of a resumed search. */
+  priorNodes(): number {
+    return this.meter.priorNodeCount;
+  }
+
   space(): number {
     return this.meter.spaceSize();
   }
@@ -166,115 +169,106 @@ export class BranchSearch {
     return this.meter.halted;
   }
 
-  /** Roots, split into pieces on small rooms, sorted by bound (so the pending bound rises as they close). */
-  prepare(): Root[] {
+  /**
+   * Roots, split into pieces on small rooms, sorted by bound (so the pending bound rises as they
+   * close). Pieces are pruned against `cutRaw` (default: the incumbent), so the same threshold
+   * always gives the same list.
+   */
+  prepare(cutRaw = this.best): Root[] {
     const roots = buildRoots(this.ctx, this.k);
     let space = 0;
     for (const r of roots) space += this.sets(r.cand.length, this.k - r.set.length);
     this.meter.begin(space);
-    const items = this.ctx.n <= SPLIT_LIMIT ? this.split(roots) : roots;
+    const best = this.best;
+    this.cutRaw = cutRaw;
+    this.best = cutRaw;
+    const items = this.ctx.n <= SPLIT_LIMIT ? splitRoots(this, roots) : roots;
+    this.best = best;
+    this.pieces = items.length;
     return items
       .map((_, q) => q)
       .sort((a, b) => items[a].bound - items[b].bound || a - b)
       .map((q) => items[q]);
   }
 
-  /** Searches items[take()] until take() returns -1 or the search halts. */
-  searchItems(items: Root[], take: () => number): void {
+  /**
+   * The pieces to search: all of them, or those a saved search left open (cut with its threshold;
+   * the sets it decided stay counted, those inside its open pieces are decided again on the way).
+   */
+  start(saved: SearchResume | null): Piece[] {
+    const items = this.prepare(saved?.cutRaw ?? this.best);
+    if (saved && items.length !== saved.pieces) throw new Error('a saved search cut a different number of pieces');
+    if (saved) this.meter.restore(saved.closed - insideOf(saved), saved.nodes);
+    return workList(items, saved);
+  }
+
+  /** The state a later search continues from; `run` replaces this thread's counts (several threads). */
+  saved(prior: SearchResume | null, f: Omit<FrontierInput, 'pieces'>, run?: RunTotals): SearchResume {
+    const own = run ?? {
+      closed: this.meter.closedSets(),
+      nodes: this.meter.nodes,
+      best: this.bestSet,
+      bestRaw: this.ownBest,
+      lowerRaw: this.outcomeCore().lowerRaw,
+    };
+    return savedSearch({ ctx: this.ctx, cutRaw: this.cutRaw, pieces: this.pieces, space: this.meter.spaceSize(), prior }, own, {
+      ...f,
+      pieces: this.pieces,
+    });
+  }
+
+  /** Searches items[take()] until take() returns -1 or the search halts; a halt inside a piece leaves `partial`. */
+  searchItems(items: Piece[], take: () => number): void {
     this.roots = items;
+    this.searching = true;
     for (;;) {
       const q = this.meter.halted ? -1 : take();
       if (q < 0) break;
       this.rootAt = q;
-      this.root(items[q]);
+      const piece = items[q];
+      this.replayPath = piece.path ?? [];
+      this.replayLen = this.replayPath.length;
+      this.trailLen = -1;
+      this.trailInside = 0;
+      this.root(piece);
+      this.replayLen = 0;
+      if (this.meter.halted)
+        this.partial = { index: piece.index, path: this.trail.slice(0, Math.max(0, this.trailLen)), inside: this.trailInside };
       this.sync();
     }
     this.rootAt = this.link ? items.length : this.rootAt;
   }
 
-  outcome(): ExhaustiveOutcome {
+  private outcomeCore(): { complete: boolean; lowerRaw: number } {
     const complete = !this.meter.halted;
-    const lowerRaw = complete ? this.best : Math.min(this.best, this.pendingBound());
+    return { complete, lowerRaw: Math.max(this.floor, complete ? this.best : Math.min(this.best, this.pendingBound())) };
+  }
+
+  /** What a worker thread reports (parallel/branch-worker.ts). */
+  threadResult(): { starters: number[]; rawTotal: number; nodes: number; halted: boolean; pendingRaw: number; partial: OpenPiece | null } {
+    return {
+      starters: this.bestSet,
+      rawTotal: this.ownBest,
+      nodes: this.meter.nodes,
+      halted: this.meter.halted,
+      pendingRaw: this.pendingBound(),
+      partial: this.partial,
+    };
+  }
+
+  outcome(resume: SearchResume): ExhaustiveOutcome {
+    const { complete } = this.outcomeCore();
     this.meter.finish();
     return {
       state: { starters: this.bestSet, total: this.ownBest * this.scale },
       complete,
       stopped: this.meter.stopped,
       nodes: this.meter.nodes,
-      lowerBound: Math.max(this.floor, lowerRaw) * this.scale,
+      lowerBound: resume.lowerRaw * this.scale,
       searchLeft: complete ? 0 : this.meter.left(),
+      resume,
+      resumed: resume.runs > 1,
     };
-  }
-
-  /** The state of a root or item set (ergodic data for the first starter, then downdates). */
-  private stateOf(set: readonly number[]): AbsorbingState | null {
-    const e = this.ctx.ergodic();
-    try {
-      if (e && e.pi[set[0]] > 0) {
-        const s = AbsorbingState.fromErgodic(e, set[0]);
-        for (let q = 1; q < set.length; q++) s.add(set[q]);
-        return s;
-      }
-      return AbsorbingState.fromStarters(this.ctx.room, set);
-    } catch {
-      return null; // a singular system: some people cannot reach this set
-    }
-  }
-
-  /**
-   * Splits every root with at least three starters to add into its children (one more starter,
-   * the child bound of node()), so the search closes many small pieces in order of their bound
-   * and the pending lower bound rises steadily. O(|C|^2 r) per root.
-   */
-  private split(roots: Root[]): Root[] {
-    const out: Root[] = [];
-    const lv = this.levels[0];
-    for (const root of roots) {
-      const r = this.k - root.set.length;
-      const size = this.sets(root.cand.length, r);
-      if (r < 3 || size === 0) {
-        if (size > 0) out.push(root);
-        continue;
-      }
-      if (this.pruneAt(Math.max(this.floor, root.bound))) {
-        this.meter.close(size);
-        continue;
-      }
-      const full = this.stateOf(root.set);
-      if (!full) {
-        this.meter.close(size);
-        continue;
-      }
-      const s = lv.state.load(full, root.cand);
-      this.orderCandidates(s, lv);
-      if (!this.nodeBounds(s, lv, r)) {
-        this.meter.close(size);
-        continue;
-      }
-      for (let p = 0; p < s.m; p++) {
-        const part = this.sets(s.m - p - 1, r - 1);
-        if (part === 0) break;
-        if (this.pruneAt(Math.max(this.floor, lv.childLb[p]))) {
-          this.meter.close(part);
-          continue;
-        }
-        // Big pieces also carry their own dual bound (and are searched in the order of the stronger bound).
-        let bound = Math.max(lv.childLb[p], root.bound);
-        if (r - 1 >= DUAL_R && part >= DUAL_MIN) {
-          const piece = this.levels[1].state;
-          s.childInto(piece, lv.order[p], lv.gain[p], lv.order, p + 1, s.m);
-          bound = Math.max(bound, piece.dualBound(r - 1, this.scratch, this.picked));
-          if (this.pruneAt(Math.max(this.floor, bound))) {
-            this.meter.close(part);
-            continue;
-          }
-        }
-        const cand = new Int32Array(s.m - p - 1);
-        for (let q = p + 1; q < s.m; q++) cand[q - p - 1] = s.ids[lv.order[q]];
-        out.push({ set: [...root.set, s.ids[lv.order[p]]], cand, bound });
-      }
-    }
-    return out;
   }
 
   private root(root: Root): void {
@@ -284,7 +278,7 @@ export class BranchSearch {
       this.meter.close(size);
       return;
     }
-    const s = this.stateOf(root.set);
+    const s = stateOfSet(this.ctx, root.set);
     if (!s) {
       this.meter.close(size);
       return;
@@ -299,6 +293,8 @@ export class BranchSearch {
 
   /** Smallest bound over everything not yet decided (raw): pending roots and pending children on the stack. */
   pendingBound(): number {
+    // Before the pieces are known nothing below the incumbent is proven but the floor.
+    if (!this.searching) return this.floor;
     let lb = this.best;
     // Alone, the items after the current one are pending too (with a link, the caller tracks them).
     if (!this.link) for (let q = this.rootAt + 1; q < this.roots.length; q++) lb = Math.min(lb, this.roots[q].bound);
@@ -309,31 +305,14 @@ export class BranchSearch {
     return Math.max(this.floor, lb);
   }
 
-  /** Local candidates sorted by decreasing gain at S (ties: earlier person first); insertion sort, m <= n. */
-  private orderCandidates(s: CandState, lv: Level): void {
-    const m = s.m;
-    const { order, gain } = lv;
-    const ids = s.ids;
-    for (let q = 0; q < m; q++) {
-      const v = Math.max(0, s.gain(q));
-      let at = q;
-      while (at > 0 && (gain[at - 1] < v || (gain[at - 1] === v && ids[order[at - 1]] > ids[q]))) {
-        gain[at] = gain[at - 1];
-        order[at] = order[at - 1];
-        at--;
-      }
-      gain[at] = v;
-      order[at] = q;
-    }
-  }
-
   /** `inherited`: a proven bound on every set below this node (its own bound as a child). */
   private node(s: CandState, r: number, depth: number, inherited: number): void {
-    if (this.meter.tick()) return;
-    if ((this.meter.nodes & 255) === 0) this.sync();
+    // A node of a resumed path was visited (and counted) by an earlier run.
+    const resumed = depth < this.replayLen;
+    if (!resumed && this.halts()) return;
     const lv = this.levels[depth];
     const m = s.m;
-    this.orderCandidates(s, lv);
+    orderCandidates(s, lv);
     if (r === 1) {
       for (let q = 0; q < m; q++) this.leaf(s.F - lv.gain[q], () => [...s.starters, s.ids[lv.order[q]]]);
       this.meter.close(m);
@@ -347,7 +326,14 @@ export class BranchSearch {
     for (let p = 0; p < m; p++) lv.childLb[p] = Math.max(lv.childLb[p], inherited);
     for (let p = 0; p < m; p++) lv.suffixMin[p] = Math.max(lv.suffixMin[p], inherited);
     lv.size = m;
-    for (let p = 0; p < m; p++) {
+    let start = 0;
+    if (resumed) {
+      // The children before the saved position were decided by an earlier run.
+      start = this.replayPath[depth];
+      this.meter.close(this.sets(m, r) - this.sets(m - start, r));
+    }
+    for (let p = start; p < m; p++) {
+      if (!(resumed && p === start && depth + 1 < this.replayLen)) this.replayLen = Math.min(this.replayLen, depth + 1);
       lv.at = p;
       const rest = m - p - 1;
       const size = this.sets(rest, r - 1);
@@ -356,38 +342,51 @@ export class BranchSearch {
         this.meter.close(size);
         continue;
       }
-      if (r === 2) this.pairLeaves(s, lv, p);
+      if (r === 2) pairLeaves(s, lv, p, this);
       else if (r === 3) tripleLeaves(s, lv, p, this.trip, this);
       else {
         const next = this.levels[depth + 1];
         s.childInto(next.state, lv.order[p], lv.gain[p], lv.order, p + 1, m);
         this.node(next.state, r - 1, depth + 1, lv.childLb[p]);
         next.size = 0;
-        if (this.meter.halted) return;
+        if (this.meter.halted) {
+          this.mark(depth, p, m, r);
+          return;
+        }
         continue;
       }
       this.meter.close(size);
-      if (r === 3 && this.meter.tick()) return;
+      if (r === 3 && this.meter.tick()) {
+        this.mark(depth, p + 1, m, r);
+        return;
+      }
     }
     lv.size = 0;
   }
 
-  /** Exact totals of S + x + y for every later y (r = 2): F - ρ_x(S) - ρ_y(S + x). */
-  private pairLeaves(s: CandState, lv: Level, p: number): void {
-    const x = lv.order[p];
-    const base = s.F - lv.gain[p];
-    for (let q = p + 1; q < s.m; q++) {
-      const y = lv.order[q];
-      const t = base - s.pairGain(x, y);
-      if (t < this.best - 1e-12 * Math.abs(this.best)) this.leaf(t, () => [...s.starters, s.ids[x], s.ids[y]]);
+  /** Counts a node; true when the search halts here (the node is then not counted: a resumed search visits it). */
+  private halts(): boolean {
+    const was = this.meter.halted;
+    if (this.meter.tick()) {
+      if (!was) this.meter.nodes--;
+      return true;
     }
+    if ((this.meter.nodes & 255) === 0) this.sync();
+    return false;
+  }
+
+  /** On a halt: the node at `depth` has decided its children before `next` (the one after is open). */
+  private mark(depth: number, next: number, m: number, r: number): void {
+    if (this.trailLen < 0) this.trailLen = depth + 1;
+    this.trail[depth] = next;
+    this.trailInside += this.sets(m, r) - this.sets(m - next, r);
   }
 
   /**
    * Child bounds, raised by the node's dual bound (bound 4 of docs/bounds.md) on big subtrees;
    * false when the dual bound prunes the whole node.
    */
-  private nodeBounds(s: CandState, lv: Level, r: number): boolean {
+  nodeBounds(s: CandState, lv: Level, r: number): boolean {
     childBounds(s, lv, r, this.buf, this);
     if (r < DUAL_R || this.sets(s.m, r) < DUAL_MIN) return true;
     const dual = s.dualBound(r, this.scratch, this.picked);

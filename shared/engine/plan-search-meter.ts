@@ -12,18 +12,34 @@ export class SearchMeter {
   private space = 1;
   private closed = 0;
   private lastReport = 0;
+  private readonly maxNodes: number;
 
   constructor(
     private readonly ctx: PlanContext,
     private readonly lowerBound: () => number,
     private readonly bestTotal: () => number,
     private readonly stage = 'exhaustive',
-  ) {}
+  ) {
+    this.maxNodes = ctx.options.maxNodes ?? Infinity;
+  }
 
   begin(space: number): void {
     this.space = Math.max(1, space);
     this.closed = 0;
     this.report(true);
+  }
+
+  /** Nodes of earlier runs (reported with this run's). */
+  private priorNodes = 0;
+
+  /** A resumed search starts from the k-sets an earlier run decided (and reports its nodes with its own). */
+  restore(closed: number, priorNodes: number): void {
+    this.closed = closed;
+    this.priorNodes = priorNodes;
+  }
+
+  get priorNodeCount(): number {
+    return this.priorNodes;
   }
 
   /** Marks `sets` k-sets as decided (evaluated or pruned). */
@@ -45,10 +61,14 @@ export class SearchMeter {
     return Math.min(1, Math.max(0, 1 - this.closed / this.space));
   }
 
-  /** Counts a node; true when the search must stop (time limit, signal or shouldStop). */
+  /** Counts a node; true when the search must stop (time limit, node budget, signal or shouldStop). */
   tick(): boolean {
     if (this.halted) return true;
-    if ((++this.nodes & 63) !== 0) return false;
+    if (++this.nodes >= this.maxNodes) {
+      this.halted = true;
+      return true;
+    }
+    if ((this.nodes & 63) !== 0) return false;
     const now = performance.now();
     if (shouldStop(this.ctx)) {
       this.halted = true;
@@ -79,7 +99,7 @@ export class SearchMeter {
       bestTotal: best,
       lowerBound: lb,
       gap: best > 0 ? Math.max(0, (best - lb) / best) : 0,
-      nodes: this.nodes,
+      nodes: this.priorNodes + this.nodes,
     });
   }
 }

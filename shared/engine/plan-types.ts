@@ -1,6 +1,9 @@
 /** Shapes shared by every planner (see plan.ts for the entry point). */
 import type { ErgodicData } from './ergodic';
 import type { WalkOptions } from './graph';
+import type { SearchResume } from './plan-resume';
+
+export type { SearchResume } from './plan-resume';
 
 export type PlanMethod = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy' | 'screen';
 export type PlanMethodChoice = PlanMethod | 'auto';
@@ -67,6 +70,13 @@ export interface PlanOptions extends WalkOptions {
   readonly noShow?: number;
   /** Precomputed ergodic data of this room and walk (e.g. from the Node-only parallel kernel). */
   readonly ergodic?: ErgodicData;
+  /**
+   * Exhaustive and auto: a saved search of the same room, k and constraints (PlanResult.resume of
+   * an earlier run) to continue instead of starting over; one that does not fit is ignored (a note says so).
+   */
+  readonly resume?: SearchResume;
+  /** Exhaustive and auto: stop the search after this many nodes (per thread), like a time limit. */
+  readonly maxNodes?: number;
 }
 
 export interface PlanResult {
@@ -96,8 +106,10 @@ export interface PlanResult {
   readonly stopped?: boolean;
   /** Branch-and-bound nodes visited (searches only). */
   readonly nodes?: number;
-  /** Share of the k-sets not yet decided when the search ended, 0..1 (0 when certified). */
+  /** Share of the k-sets not yet decided when the search ended, 0..1 (0 when certified), over every run of a resumed search. */
   readonly searchLeft?: number;
+  /** Searches: the state a later search of the same problem continues from (options.resume), with the counts of every run. */
+  readonly resume?: SearchResume;
   /** The best single starter and its room total (index, hops): what one person alone achieves. */
   readonly bestSingle?: { readonly person: number; readonly total: number };
   /**

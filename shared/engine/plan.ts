@@ -185,6 +185,10 @@ export function planFinish(pending: PendingSearch, out: ExhaustiveOutcome): Plan
   const improved = out.state.total < start.total * (1 - 1e-12);
   const name: PlanMethod = method === 'exhaustive' || improved ? 'exhaustive' : method;
   const left = `${(100 * out.searchLeft).toPrecision(2)} % of the search space`;
+  if (out.resumed)
+    ctx.notes.push(
+      `The search continued where an earlier one of the same problem stopped (${out.resume.nodes - out.nodes} steps before, ${out.resume.runs - 1} earlier ${out.resume.runs === 2 ? 'run' : 'runs'}).`,
+    );
   if (out.stopped)
     ctx.warnings.push(
       `The search was stopped after ${out.nodes} steps with ${left} still open: the best plan found is returned with its proven gap.`,
@@ -195,13 +199,14 @@ export function planFinish(pending: PendingSearch, out: ExhaustiveOutcome): Plan
     );
   else ctx.notes.push(`Branch and bound checked every plan of this size (${out.nodes} search steps): proven best.`);
   const total = finalTotal(ctx, out.state.starters, out.state.total);
-  return finishPlan(ctx, name, out.state.starters, total, {
+  const result = finishPlan(ctx, name, out.state.starters, total, {
     certified: out.complete,
     lowerBound: out.lowerBound,
     stopped: out.stopped,
     nodes: out.nodes,
     searchLeft: out.searchLeft,
   });
+  return { ...result, resume: out.resume };
 }
 
 function auto(ctx: PlanContext): { result: PlanResult } | PendingSearch {

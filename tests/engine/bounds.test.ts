@@ -226,10 +226,10 @@ describe('branch and bound sharing its best total with other threads', () => {
       const link = { best: () => lower, offer: () => undefined, publish: () => undefined };
       const incumbent = { starters: [...step.start.starters], rawTotal: step.start.rawTotal, scale };
       const search = new BranchSearch(step.ctx, incumbent, link);
-      const items = search.prepare();
+      const items = search.start(null);
       let next = 0;
       search.searchItems(items, () => (next < items.length ? next++ : -1));
-      const out = search.outcome();
+      const out = search.outcome(search.saved(null, { work: items, untakenFrom: next, partial: [] }));
       const own = exactReach(g, out.state.starters).total;
       assert.ok(relClose(out.state.total, own, 1e-9), `seed ${seed}: reported ${out.state.total}, the set's total is ${own}`);
     }

@@ -6,7 +6,7 @@
 import type { ErgodicData } from '../ergodic';
 import { planContext } from '../plan-context';
 import { BranchSearch } from '../plan-exhaustive';
-import type { Root } from '../plan-roots';
+import type { OpenPiece, Piece } from '../plan-resume';
 import type { PreparedRoom } from '../room';
 import { SharedSearchState } from './branch-shared';
 
@@ -16,9 +16,10 @@ export interface BranchWorkerData {
   readonly mustInclude: number[];
   readonly exclude: number[];
   readonly ergodic: ErgodicData | null;
-  readonly items: Root[];
+  readonly items: Piece[];
   readonly incumbent: { starters: number[]; rawTotal: number; scale: number };
   readonly timeLimitMs: number;
+  readonly maxNodes?: number;
   readonly sab: SharedArrayBuffer;
   readonly slot: number;
   readonly threads: number;
@@ -30,6 +31,8 @@ export interface BranchWorkerResult {
   readonly nodes: number;
   readonly halted: boolean;
   readonly pendingRaw: number;
+  /** The piece this thread stopped inside (resumed later). */
+  readonly partial: OpenPiece | null;
 }
 
 /** `{ warm: true }` only loads this code (the pool starts its threads while the caller searches). */
@@ -41,17 +44,11 @@ export default function runBranchWorker(data: BranchWorkerData | { warm: true })
     mustInclude: data.mustInclude,
     exclude: data.exclude,
     timeLimitMs: data.timeLimitMs,
+    ...(data.maxNodes !== undefined ? { maxNodes: data.maxNodes } : {}),
     shouldStop: () => shared.stopRequested(),
     ...(data.ergodic ? { ergodic: data.ergodic } : {}),
   });
   const search = new BranchSearch(ctx, data.incumbent, shared.link(data.slot));
   search.searchItems(data.items, () => shared.take(data.items.length));
-  const out = search.outcome();
-  return {
-    starters: out.state.starters,
-    rawTotal: out.state.total / data.incumbent.scale,
-    nodes: out.nodes,
-    halted: !out.complete,
-    pendingRaw: search.pendingBound(),
-  };
+  return search.threadResult();
 }

@@ -7,7 +7,7 @@
  * thread for up to SOLO_MS while the workers start, so small searches never wait for them. Node only (piscina).
  */
 import { Piscina } from 'piscina';
-import { BranchSearch, type ExhaustiveOutcome } from '../plan-exhaustive';
+import { BranchSearch, resumeFrom, type ExhaustiveOutcome } from '../plan-exhaustive';
 import type { PlanContext } from '../plan-context';
 import type { AbsorbingState } from '../dense-state';
 import { shouldStop } from '../plan-search-meter';
@@ -43,8 +43,9 @@ export async function exhaustiveParallel(
   threads: number,
   soloMs = SOLO_MS,
 ): Promise<ExhaustiveOutcome> {
-  const main = new BranchSearch(ctx, start);
-  const items = main.prepare();
+  const { saved, incumbent: first } = resumeFrom(ctx, start);
+  const main = new BranchSearch(ctx, first);
+  const items = main.start(saved);
   const t0 = performance.now();
   const pool = branchPool(threads);
   // The worker threads start (and load their code) while this thread searches the first pieces
@@ -56,14 +57,15 @@ export async function exhaustiveParallel(
     main.searchItems(items, () => (next < items.length && performance.now() < sliceEnd ? next++ : -1));
     await new Promise((done) => setImmediate(done));
   }
-  if (next >= items.length || main.halted) return main.outcome();
+  if (next >= items.length || main.halted)
+    return main.outcome(main.saved(saved, { work: items, untakenFrom: next, partial: main.partial ? [main.partial] : [] }));
   await warm;
-  const solo = main.outcome();
+  const solo = main.threadResult();
   const preClosed = main.closedSets();
   const space = main.space();
-  const soloRaw = solo.state.total / start.scale;
+  const soloRaw = solo.rawTotal;
   const state = SharedSearchState.create(threads, soloRaw, next);
-  const incumbent = { starters: [...solo.state.starters], rawTotal: soloRaw, scale: start.scale };
+  const incumbent = { starters: [...solo.starters], rawTotal: soloRaw, scale: start.scale };
   const remaining = Math.max(1, ctx.deadline - performance.now());
   const base: Omit<BranchWorkerData, 'slot'> = {
     room: ctx.room,
@@ -74,6 +76,7 @@ export async function exhaustiveParallel(
     items,
     incumbent,
     timeLimitMs: remaining,
+    ...(ctx.options.maxNodes !== undefined ? { maxNodes: ctx.options.maxNodes } : {}),
     sab: state.sab,
     threads,
   };
@@ -106,7 +109,7 @@ export async function exhaustiveParallel(
       bestTotal: best,
       lowerBound: lb,
       gap: best > 0 ? (best - lb) / best : 0,
-      nodes,
+      nodes: main.priorNodes() + solo.nodes + nodes,
     });
   }, 100);
   let results: BranchWorkerResult[];
@@ -124,16 +127,21 @@ export async function exhaustiveParallel(
     lb = lowerRaw();
     for (const r of results) lb = Math.min(lb, r.pendingRaw);
   }
-  const { closed, nodes } = status();
+  const { closed } = status();
+  const nodes = solo.nodes + results.reduce((t, r) => t + r.nodes, 0);
+  const resume = main.saved(
+    saved,
+    { work: items, untakenFrom: Math.min(items.length, state.taken()), partial: results.flatMap((r) => (r.partial ? [r.partial] : [])) },
+    { closed, nodes, best: best.starters, bestRaw: best.rawTotal, lowerRaw: Math.max(ctx.n - ctx.k, Math.min(lb, best.rawTotal)) },
+  );
   return {
     state: { starters: best.starters, total: best.rawTotal * start.scale },
     complete: !halted,
     stopped: halted && stopped,
-    nodes: Math.max(
-      nodes,
-      results.reduce((t, r) => t + r.nodes, 0),
-    ),
-    lowerBound: Math.max(ctx.n - ctx.k, Math.min(lb, best.rawTotal)) * start.scale,
+    nodes,
+    lowerBound: resume.lowerRaw * start.scale,
     searchLeft: halted ? Math.min(1, Math.max(0, 1 - closed / space)) : 0,
+    resume,
+    resumed: resume.runs > 1,
   };
 }

@@ -278,4 +278,105 @@ describe('PlanPage', () => {
     expect(await (await loader.getHarness(MatButtonHarness.with({ text: /Mark as chosen/ }))).isDisabled()).toBeTrue();
     expect(await loader.getAllHarnesses(MatButtonHarness.with({ text: /Prove or improve/ }))).toEqual([]);
   });
+  describe('proving in the background', () => {
+    const proving = (over: Partial<PlanDetail> = {}) =>
+      plan(7, {
+        total: 8,
+        average: 2,
+        lowerBound: 6,
+        gap: 2,
+        gapShare: 0.25,
+        certified: false,
+        optimumKnown: false,
+        proving: { jobId: 60, status: 'running', progress: 0.1 },
+        searchSoFar: { nodes: 900, runs: 1, left: 0.6, finished: false },
+        ...over,
+      });
+    const proofBar = () => loader.getHarness(MatProgressBarHarness.with({ selector: '[aria-label="Proving in the background"]' }));
+
+    it('follows the proof live: a determinate bar and the gap shrinking, then proven best without a click', async () => {
+      await open('/rooms/5/plans?plan=7', ROOM, [proving()]);
+      expect(FakeEventSource.opened.map((s) => s.url)).toEqual(['/api/jobs/60/events']);
+      const bar = await proofBar();
+      expect(await bar.getMode()).toBe('determinate');
+      expect(await bar.getValue()).toBe(10);
+      expect(text()).toContain('Still proving in the background: this plan is at most 25% from the best possible.');
+      expect(await loader.getAllHarnesses(MatButtonHarness.with({ text: /Prove or improve|Keep proving/ }))).toEqual([]);
+      expect(shownArea().hasAttribute('inert')).withContext('the plan stays usable while it is proven').toBeFalse();
+
+      lastSource().send({
+        type: 'progress',
+        job: job(60, { kind: 'proof', progress: 0.5, planId: 7 }),
+        fraction: 0.5,
+        search: { stage: 'exhaustive', closed: 0.5, bestTotal: 8, lowerBound: 7, gapShare: 0.125, nodes: 5000 },
+      });
+      await settle();
+      expect(await bar.getValue()).toBe(50);
+      expect(text()).toContain('at most 12.5% from the best possible');
+
+      lastSource().send({ type: 'done', job: job(60, { kind: 'proof', status: 'done', progress: 1, planId: 7 }) });
+      await settle();
+      http.expectOne('/api/plans/7').flush(
+        proving({
+          proving: null,
+          lowerBound: 8,
+          gap: 0,
+          gapShare: 0,
+          certified: true,
+          searchSoFar: { nodes: 9000, runs: 2, left: 0, finished: true },
+        }),
+      );
+      await settle();
+      http.expectOne('/api/rooms/5/plans').flush([summary(plan(7))]);
+      await settle();
+      expect(await loader.getAllHarnesses(MatProgressBarHarness)).toEqual([]);
+      expect(text()).toContain('Proven best: the background search checked every possible group of this size.');
+      expect((router.routeNativeElement as HTMLElement).querySelector('.result-head h2')?.textContent).toBe('Plan 7');
+    });
+
+    it('offers the faster plan it found, and the shown plan stays as made', async () => {
+      await open('/rooms/5/plans?plan=7', ROOM, [proving()]);
+      lastSource().send({ type: 'done', job: job(60, { kind: 'proof', status: 'done', progress: 1, planId: 7 }) });
+      await settle();
+      http.expectOne('/api/plans/7').flush(proving({ proving: null, lowerBound: 7.5, gap: 0.5, gapShare: 0.0625, fasterPlanId: 9 }));
+      await settle();
+      http.expectOne('/api/rooms/5/plans').flush([summary(plan(7))]);
+      await settle();
+      expect(text()).toContain('A faster plan of this size was found in the background; this plan stays as you made it.');
+      expect(text()).toContain('Marek');
+      await (await loader.getHarness(MatButtonHarness.with({ text: /Open the faster plan/ }))).click();
+      await settle();
+      http.expectOne('/api/plans/9').flush(plan(9, { name: 'Plan 7 · faster, found in the background' }));
+      await settle();
+      expect((router.routeNativeElement as HTMLElement).querySelector('.result-head h2')?.textContent).toBe(
+        'Plan 7 · faster, found in the background',
+      );
+    });
+
+    it('Stop keeps what is proven; the stopped state says how much is left and offers Keep proving', async () => {
+      await open('/rooms/5/plans?plan=7', ROOM, [proving()]);
+      await (await loader.getHarness(MatButtonHarness.with({ text: /Stop, keep what is proven/ }))).click();
+      const stop = http.expectOne({ method: 'POST', url: '/api/jobs/60/cancel' });
+      expect(stop.request.body).toEqual({ keepBest: true });
+      stop.flush(job(60, { kind: 'proof', planId: 7 }));
+      lastSource().send({ type: 'done', job: job(60, { kind: 'proof', status: 'done', progress: 0.7, planId: 7 }) });
+      await settle();
+      http.expectOne('/api/plans/7').flush(
+        proving({
+          proving: null,
+          lowerBound: 7,
+          gap: 1,
+          gapShare: 0.125,
+          searchSoFar: { nodes: 4000, runs: 2, left: 0.3, finished: false },
+        }),
+      );
+      await settle();
+      http.expectOne('/api/rooms/5/plans').flush([summary(plan(7))]);
+      await settle();
+      expect(text()).toContain(
+        'The background search stopped with this plan at most 12.5% from the best possible (30% of the possible groups still to check)',
+      );
+      expect(await loader.getAllHarnesses(MatButtonHarness.with({ text: /Keep proving/ }))).toHaveSize(1);
+    });
+  });
 });

@@ -12,9 +12,11 @@ import {
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
+import { PercentPipe } from '@angular/common';
 import { firstValueFrom, type Subscription } from 'rxjs';
 import type { CreatePlanRequest, PlanDetail, PlanSearchProgress, PlanSummary } from '../../../shared/api/plans';
 import { PLAN_LIMITS } from '../../../shared/api/plans';
@@ -28,6 +30,14 @@ import { isStarted, PlansApi } from './plans-api';
 import { SavedPlans } from './saved-plans';
 import { SweepPanel } from './sweep-panel';
 
+/** A background proof of the shown plan's problem: its progress and the best lower bound proven so far. */
+interface ProofState {
+  jobId: number;
+  planId: number;
+  progress: number;
+  lowerBound: number | null;
+}
+
 interface JobState {
   progress: number;
   position: number | null;
@@ -40,7 +50,19 @@ interface JobState {
 /** The plan screen of a room: ask for a plan, read the result, keep and compare plans. */
 @Component({
   selector: 'app-plan-page',
-  imports: [RouterLink, MatButtonModule, MatIconModule, MatTooltipModule, PlanFormPanel, PlanProgress, PlanResult, SavedPlans, SweepPanel],
+  imports: [
+    RouterLink,
+    MatButtonModule,
+    MatIconModule,
+    MatProgressBarModule,
+    MatTooltipModule,
+    PercentPipe,
+    PlanFormPanel,
+    PlanProgress,
+    PlanResult,
+    SavedPlans,
+    SweepPanel,
+  ],
   templateUrl: './plan-page.html',
   styleUrl: './plan-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -63,11 +85,25 @@ export default class PlanPage {
   protected readonly pending = signal(false);
   protected readonly serverError = signal<ServerProblem | null>(null);
   protected readonly job = signal<JobState | null>(null);
+  protected readonly proof = signal<ProofState | null>(null);
+  /** The shown plan's background proof ended while the page was open (the result line says how). */
+  protected readonly proofEnded = signal(false);
+  /** The shown plan's gap to best as a share of its total, with what a running background proof proved so far. */
+  protected readonly liveGap = computed(() => {
+    const p = this.shown();
+    if (!p || p.total === null || p.total <= 0) return null;
+    const lb = Math.max(p.lowerBound ?? 0, this.proof()?.lowerBound ?? 0);
+    return p.certified ? 0 : Math.max(0, (p.total - Math.min(lb, p.total)) / p.total);
+  });
   private readonly form = viewChild(PlanFormPanel);
   private jobSub: Subscription | null = null;
+  private proofSub: Subscription | null = null;
 
   constructor() {
-    inject(DestroyRef).onDestroy(() => this.jobSub?.unsubscribe());
+    inject(DestroyRef).onDestroy(() => {
+      this.jobSub?.unsubscribe();
+      this.proofSub?.unsubscribe();
+    });
     effect(() => {
       const id = this.id();
       untracked(() => void this.loadRoom(id));
@@ -103,7 +139,7 @@ export default class PlanPage {
     if (this.shown()?.id === planId) return;
     try {
       const p = await firstValueFrom(this.api.plan(planId));
-      this.shown.set(p);
+      this.present(p);
       if (p.status === 'computing' && p.jobId) this.follow(p.jobId, p.id, p.k);
     } catch {
       this.shown.set(null);
@@ -118,7 +154,7 @@ export default class PlanPage {
       if (isStarted(r)) {
         this.follow(r.job.id, r.plan.id, r.plan.k);
       } else {
-        this.shown.set(r);
+        this.present(r);
         await this.open(r.id);
       }
       await this.refreshPlans();
@@ -166,6 +202,56 @@ export default class PlanPage {
     });
   }
 
+  /** Shows a plan and, while a background search goes on proving its problem, follows that search. */
+  private present(p: PlanDetail): void {
+    this.shown.set(p);
+    if (this.proof()?.planId === p.id) return;
+    this.proofSub?.unsubscribe();
+    this.proofSub = null;
+    this.proof.set(null);
+    this.proofEnded.set(false);
+    if (p.proving) this.followProof(p.proving.jobId, p.id, p.proving.progress);
+  }
+
+  /** Live: the bar and the gap shrinking as the background search proves more; at the end the plan is read again. */
+  private followProof(jobId: number, planId: number, progress: number): void {
+    this.proof.set({ jobId, planId, progress, lowerBound: null });
+    this.proofSub = jobEvents(`/api/jobs/${jobId}/events`).subscribe({
+      next: (e) => {
+        const before = this.proof();
+        if (!before || before.jobId !== jobId) return;
+        if (e.type === 'queued' || e.type === 'started' || e.type === 'progress') {
+          const lb = e.search?.lowerBound ?? null;
+          this.proof.set({
+            ...before,
+            progress: Math.max(before.progress, e.fraction ?? e.job.progress),
+            lowerBound: lb === null ? before.lowerBound : Math.max(lb, before.lowerBound ?? lb),
+          });
+          return;
+        }
+        void this.proofFinished(planId);
+      },
+      error: () => void this.proofFinished(planId),
+    });
+  }
+
+  private async proofFinished(planId: number): Promise<void> {
+    this.proof.set(null);
+    this.proofSub = null;
+    if (this.shown()?.id !== planId) return;
+    const fresh = await firstValueFrom(this.api.plan(planId));
+    if (this.shown()?.id !== planId) return;
+    this.shown.set(fresh);
+    this.proofEnded.set(true);
+    await this.refreshPlans();
+  }
+
+  /** Stops the background search; it keeps what it proved, and "Keep proving" continues it. */
+  protected async stopProof(): Promise<void> {
+    const pr = this.proof();
+    if (pr) await firstValueFrom(this.api.cancelJob(pr.jobId, true));
+  }
+
   private async openFresh(planId: number): Promise<void> {
     this.shown.set(null);
     await this.open(planId);
@@ -195,7 +281,7 @@ export default class PlanPage {
         const found = await firstValueFrom(this.api.plan(id));
         const mine = await firstValueFrom(this.api.plan(p.id));
         if (found.total !== null && mine.total !== null && found.total < mine.total * (1 - 1e-9)) await this.openFresh(id);
-        else this.shown.set(mine);
+        else this.present(mine);
       };
       if (isStarted(r)) this.follow(r.job.id, other.id, p.k, done);
       else await done(other.id);
