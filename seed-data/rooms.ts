@@ -159,7 +159,7 @@ async function ensureRoom(ownerId: number, name: string, description: string, se
     .from(rooms)
     .where(and(eq(rooms.ownerId, ownerId), eq(rooms.name, name)));
   if (existing) return existing.id;
-  return db.transaction((tx) => createWithContent(tx, ownerId, name, description, settings, content));
+  return db.transaction((tx) => createWithContent(ownerId, name, description, settings, content, tx));
 }
 
 /** Loads the demo rooms for the demo facilitator; a second run changes nothing. */

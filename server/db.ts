@@ -62,6 +62,8 @@ export const db = drizzle(pool, { schema, mode: 'default' });
 export type Db = typeof db;
 /** The transaction handle drizzle passes to `db.transaction(async (tx) => ...)`. */
 export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+/** What a store function runs on: the pool, or the transaction it was handed (always its last argument). */
+export type Conn = Tx | Db;
 
 /**
  * A transaction retried when MariaDB picks it as a deadlock victim (errno 1213) or a lock wait

@@ -1,7 +1,7 @@
 import { createHash, randomBytes } from 'node:crypto';
 import { and, desc, eq, gt, inArray, isNull } from 'drizzle-orm';
 import { accountTokens } from '../../db/schema/accounts';
-import { db, type Tx } from '../db';
+import { db, type Conn, type Tx } from '../db';
 
 export type TokenPurpose = 'invite' | 'reset';
 
@@ -15,24 +15,22 @@ export const hashToken = (token: string) => createHash('sha256').update(token, '
 /** Tokens are base64url of 32 bytes: 43 characters. Anything else is rejected before a lookup. */
 export const TOKEN_PATTERN = /^[A-Za-z0-9_-]{43}$/;
 
-type Conn = Tx | typeof db;
-
 /** Revokes the open tokens of that purpose, then issues a fresh one. Returns the clear token. */
 export async function issueToken(
-  tx: Conn,
   userId: number,
   purpose: TokenPurpose,
   lifetimeMs: number,
   createdBy: number | null,
+  tx: Conn = db,
 ): Promise<{ token: string; expiresAt: Date }> {
-  await revokeTokens(tx, userId, purpose);
+  await revokeTokens(userId, purpose, tx);
   const token = randomBytes(32).toString('base64url');
   const expiresAt = new Date(Date.now() + lifetimeMs);
   await tx.insert(accountTokens).values({ userId, purpose, tokenHash: hashToken(token), expiresAt, createdBy });
   return { token, expiresAt };
 }
 
-export async function revokeTokens(tx: Conn, userId: number, purpose: TokenPurpose): Promise<number> {
+export async function revokeTokens(userId: number, purpose: TokenPurpose, tx: Conn = db): Promise<number> {
   const [result] = await tx
     .update(accountTokens)
     .set({ revokedAt: new Date() })
@@ -49,8 +47,17 @@ export async function revokeTokens(tx: Conn, userId: number, purpose: TokenPurpo
 
 export type TokenRow = typeof accountTokens.$inferSelect;
 
-/** The token row if the link is still good (unused, unrevoked, unexpired); locked when in a transaction. */
-export async function findUsableToken(tx: Conn, token: string, purpose: TokenPurpose, lock = false): Promise<TokenRow | undefined> {
+/** The token row if the link is still good (unused, unrevoked, unexpired). */
+export async function findUsableToken(token: string, purpose: TokenPurpose, tx: Conn = db): Promise<TokenRow | undefined> {
+  return usableToken(token, purpose, false, tx);
+}
+
+/** The token row if the link is still good, locked for the rest of the transaction. */
+export async function lockUsableToken(token: string, purpose: TokenPurpose, tx: Tx): Promise<TokenRow | undefined> {
+  return usableToken(token, purpose, true, tx);
+}
+
+async function usableToken(token: string, purpose: TokenPurpose, lock: boolean, tx: Conn): Promise<TokenRow | undefined> {
   if (!TOKEN_PATTERN.test(token)) return undefined;
   const query = tx
     .select()
@@ -68,7 +75,7 @@ export async function findUsableToken(tx: Conn, token: string, purpose: TokenPur
   return row;
 }
 
-export async function markUsed(tx: Conn, tokenId: number): Promise<void> {
+export async function markUsed(tokenId: number, tx: Conn = db): Promise<void> {
   await tx.update(accountTokens).set({ usedAt: new Date() }).where(eq(accountTokens.id, tokenId));
 }
 

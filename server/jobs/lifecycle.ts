@@ -32,7 +32,7 @@ export async function endOpenJob(row: JobRow, status: EndStatus, message: string
 /** Applies the results and marks the job done, only if it is still running. */
 export async function finishJob(row: JobRow, commit: Commit): Promise<boolean> {
   const finished = await db.transaction(async (tx) => {
-    if ((await lockJobStatus(tx, row.id)) !== 'running') return false;
+    if ((await lockJobStatus(row.id, tx)) !== 'running') return false;
     await commit(tx);
     await endJob(row.id, 'done', null, tx);
     return true;

@@ -3,7 +3,7 @@ import { and, desc, eq, gt, inArray, isNull } from 'drizzle-orm';
 import { participantLinks, workshopParticipants, workshops } from '../../db/schema/workshops';
 import { hashToken, TOKEN_PATTERN } from '../auth/tokens';
 import { publicUrl } from '../config';
-import { db, type Tx } from '../db';
+import { db, type Conn } from '../db';
 import { openToken, sealToken } from './link-seal';
 
 /**
@@ -14,7 +14,6 @@ import { openToken, sealToken } from './link-seal';
  * same live link (from its sealed copy, see link-seal.ts); only an explicit reissue or revoke by
  * the facilitator ends it.
  */
-type Conn = Tx | typeof db;
 export type LinkChannel = 'email' | 'sheet' | 'join';
 const DAY_MS = 24 * 3600 * 1000;
 
@@ -31,7 +30,12 @@ export interface ShownLink {
 }
 
 /** Issues a fresh link for each participant (their earlier links stay as they are). */
-export async function issueLinks(tx: Conn, participantIds: number[], channel: LinkChannel, days: number): Promise<Map<number, ShownLink>> {
+export async function issueLinks(
+  participantIds: number[],
+  channel: LinkChannel,
+  days: number,
+  tx: Conn = db,
+): Promise<Map<number, ShownLink>> {
   const out = new Map<number, ShownLink>();
   if (!participantIds.length) return out;
   const expiresAt = new Date(Date.now() + days * DAY_MS);
@@ -48,7 +52,12 @@ export async function issueLinks(tx: Conn, participantIds: number[], channel: Li
  * Each participant's live link, reused when one can be shown again (the newest-expiring live
  * link with a sealed copy that opens), otherwise a new one. Never revokes anything.
  */
-export async function linksFor(tx: Conn, participantIds: number[], channel: LinkChannel, days: number): Promise<Map<number, ShownLink>> {
+export async function linksFor(
+  participantIds: number[],
+  channel: LinkChannel,
+  days: number,
+  tx: Conn = db,
+): Promise<Map<number, ShownLink>> {
   const out = new Map<number, ShownLink>();
   if (!participantIds.length) return out;
   const live = await tx
@@ -68,25 +77,25 @@ export async function linksFor(tx: Conn, participantIds: number[], channel: Link
     if (token) out.set(row.participantId, { participantId: row.participantId, token, expiresAt: row.expiresAt, fresh: false });
   }
   const missing = participantIds.filter((id) => !out.has(id));
-  for (const [id, link] of await issueLinks(tx, missing, channel, days)) out.set(id, link);
+  for (const [id, link] of await issueLinks(missing, channel, days, tx)) out.set(id, link);
   return out;
 }
 
 /** The explicit, confirmed action: end the chosen people's links and give each a new one. */
-export async function reissueLinks(tx: Conn, participantIds: number[], days: number): Promise<Map<number, ShownLink>> {
-  await revokeLinks(tx, participantIds);
-  return issueLinks(tx, participantIds, 'sheet', days);
+export async function reissueLinks(participantIds: number[], days: number, tx: Conn = db): Promise<Map<number, ShownLink>> {
+  await revokeLinks(participantIds, tx);
+  return issueLinks(participantIds, 'sheet', days, tx);
 }
 
 /** Ends one link by its token (an e-mail that never left: nobody holds that link). */
-export async function revokeToken(tx: Conn, token: string): Promise<void> {
+export async function revokeToken(token: string, tx: Conn = db): Promise<void> {
   await tx
     .update(participantLinks)
     .set({ revokedAt: new Date() })
     .where(eq(participantLinks.tokenHash, hashToken(token)));
 }
 
-export async function revokeLinks(tx: Conn, participantIds: number[]): Promise<number> {
+export async function revokeLinks(participantIds: number[], tx: Conn = db): Promise<number> {
   if (!participantIds.length) return 0;
   const [result] = await tx
     .update(participantLinks)
@@ -136,7 +145,7 @@ export async function findJoinWorkshop(code: string): Promise<number | undefined
 }
 
 /** A fresh join code (the earlier one stops working). */
-export async function issueJoinCode(tx: Conn, workshopId: number, days: number): Promise<{ code: string; expiresAt: Date }> {
+export async function issueJoinCode(workshopId: number, days: number, tx: Conn = db): Promise<{ code: string; expiresAt: Date }> {
   const code = newToken();
   const expiresAt = new Date(Date.now() + days * DAY_MS);
   await tx

@@ -8,7 +8,7 @@ import type { RoomGraph } from '../../shared/engine/index';
 import type { RoomAccess, RoomSettings } from '../../shared/api/rooms';
 import { users } from '../../db/schema/accounts';
 import { people, roomShares, rooms, ties } from '../../db/schema/rooms';
-import { db, type Tx } from '../db';
+import { db, type Conn } from '../db';
 import { forbidden, notFound, unauthorized } from '../core/http-error';
 import { idOf } from '../core/ids';
 import { workshopEditorOf } from './grants';
@@ -34,12 +34,7 @@ export function roomIdOf(raw: unknown): number {
   return idOf(raw, 'That room');
 }
 
-export async function loadRoomFor(
-  user: SignedInUser | undefined,
-  roomId: unknown,
-  need: RoomNeed,
-  tx: Tx | typeof db = db,
-): Promise<LoadedRoom> {
+export async function loadRoomFor(user: SignedInUser | undefined, roomId: unknown, need: RoomNeed, tx: Conn = db): Promise<LoadedRoom> {
   if (!user) throw unauthorized();
   const id = roomIdOf(roomId);
   const [row] = await tx
@@ -78,7 +73,7 @@ export interface LoadedRoomGraph {
 }
 
 /** The room as the engine sees it, for the summary, the planners and rehearsals. Throws notFound if gone. */
-export async function loadRoomGraph(roomId: number, tx: Tx | typeof db = db): Promise<LoadedRoomGraph> {
+export async function loadRoomGraph(roomId: number, tx: Conn = db): Promise<LoadedRoomGraph> {
   const [room] = await tx.select().from(rooms).where(eq(rooms.id, roomId));
   if (!room) throw notFound('That room');
   const folk = await tx

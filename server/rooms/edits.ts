@@ -41,22 +41,22 @@ export async function applyEdits(roomId: number, batch: EditBatchInput, clientGo
   }
   return transaction(async (tx) => {
     assertClientThere(clientGone);
-    const room = await store.lockRoom(tx, roomId);
+    const room = await store.lockRoom(roomId, tx);
     if (!room) throw notFound('That room');
     if (!layoutOnly && room.version !== batch.version) throw staleVersion(room, batch.version!);
-    const steps = await plan(tx, roomId, room.directed, batch.ops);
-    const created = await write(tx, roomId, steps);
-    if (layoutOnly) await store.touchRoom(tx, roomId);
-    else await store.bumpVersion(tx, roomId);
+    const steps = await plan(roomId, room.directed, batch.ops, tx);
+    const created = await write(roomId, steps, tx);
+    if (layoutOnly) await store.touchRoom(roomId, tx);
+    else await store.bumpVersion(roomId, tx);
     assertClientThere(clientGone); // a batch whose client left is rolled back, not committed
     return { version: layoutOnly ? room.version : room.version + 1, layoutOnly, ...created };
   });
 }
 
 /** Checks every op in order against a model of the room; returns the writes or throws 400 naming each bad op. */
-async function plan(tx: Tx, roomId: number, directed: boolean, ops: EditOpInput[]): Promise<Step[]> {
+async function plan(roomId: number, directed: boolean, ops: EditOpInput[], tx: Tx): Promise<Step[]> {
   const folk = new Map<number | string, PersonState>();
-  for (const p of await store.roomPeople(tx, roomId)) folk.set(p.id, { key: p.key, name: p.name });
+  for (const p of await store.roomPeople(roomId, tx)) folk.set(p.id, { key: p.key, name: p.name });
   const tieIds = new Map<number, { s: number | string; t: number | string }>();
   const pairs = new Set<string>();
   const refNo = new Map<number | string, number>(); // person ref -> small number for pair keys
@@ -64,7 +64,7 @@ async function plan(tx: Tx, roomId: number, directed: boolean, ops: EditOpInput[
     if (!refNo.has(r)) refNo.set(r, refNo.size);
     return refNo.get(r)!;
   };
-  for (const t of await store.roomTies(tx, roomId)) {
+  for (const t of await store.roomTies(roomId, tx)) {
     tieIds.set(t.id, { s: t.sourceId, t: t.targetId });
     pairs.add(pairKey(num(t.sourceId), num(t.targetId), directed));
   }
@@ -199,7 +199,7 @@ async function plan(tx: Tx, roomId: number, directed: boolean, ops: EditOpInput[
   return steps;
 }
 
-async function write(tx: Tx, roomId: number, steps: Step[]): Promise<Pick<RoomEditResult, 'people' | 'ties'>> {
+async function write(roomId: number, steps: Step[], tx: Tx): Promise<Pick<RoomEditResult, 'people' | 'ties'>> {
   const newPeople: Record<string, number> = {};
   const newTies: Record<string, number> = {};
   const idOf = (ref: number | string) => {
@@ -208,41 +208,41 @@ async function write(tx: Tx, roomId: number, steps: Step[]): Promise<Pick<RoomEd
     if (id === undefined) throw new HttpError(500, 'internal', `tempId ${ref} was not resolved`);
     return id;
   };
-  let order = await store.maxOrder(tx, roomId);
+  let order = await store.maxOrder(roomId, tx);
   for (const step of steps) {
     switch (step.kind) {
       case 'addPeople': {
-        const ids = await store.insertPeopleRows(tx, roomId, step.rows, order + 1);
+        const ids = await store.insertPeopleRows(roomId, step.rows, order + 1, tx);
         order += step.rows.length;
         step.tempIds.forEach((t, i) => (newPeople[t] = itemAt(ids, i, 'new person id')));
         break;
       }
       case 'updatePerson':
-        await store.updatePeopleRows(tx, roomId, idOf(step.ref), step.set);
+        await store.updatePeopleRows(roomId, idOf(step.ref), step.set, tx);
         break;
       case 'deletePeople':
-        await store.deletePeopleRows(tx, roomId, step.ids);
+        await store.deletePeopleRows(roomId, step.ids, tx);
         break;
       case 'addTies': {
         const ids = await store.insertTieRows(
-          tx,
           roomId,
           step.rows.map((r) => ({ sourceId: idOf(r.source), targetId: idOf(r.target), strength: r.strength })),
+          tx,
         );
         step.tempIds.forEach((t, i) => t !== undefined && (newTies[t] = itemAt(ids, i, 'new tie id')));
         break;
       }
       case 'updateTie':
-        await store.updateTieRow(tx, roomId, step.id, step.strength);
+        await store.updateTieRow(roomId, step.id, step.strength, tx);
         break;
       case 'deleteTies':
-        await store.deleteTieRows(tx, roomId, step.ids);
+        await store.deleteTieRows(roomId, step.ids, tx);
         break;
       case 'move':
         await store.movePeopleRows(
-          tx,
           roomId,
           step.moves.map((m) => ({ ...m, id: idOf(m.ref) })),
+          tx,
         );
         break;
     }

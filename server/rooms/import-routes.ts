@@ -71,7 +71,7 @@ importRouter.post('/import', signedIn(), heavyWrite, receiveUpload, async (req, 
       'Imported room');
   const settings: RoomSettings = { ...DEFAULT_ROOM_SETTINGS, ...parsed.extras.settings, directed: parsed.graph.directed };
   const roomId = await db.transaction(async (tx) => {
-    const id = await createWithContent(tx, req.user!.id, name, '', settings, contentOf(parsed));
+    const id = await createWithContent(req.user!.id, name, '', settings, contentOf(parsed), tx);
     await audit(
       req,
       { action: 'room.import', targetType: 'room', targetId: id, detail: { format: parsed.format, people: report.counts.people } },
@@ -85,7 +85,7 @@ importRouter.post('/import', signedIn(), heavyWrite, receiveUpload, async (req, 
 importRouter.post('/:id/import', signedIn(), editableRoom, heavyWrite, receiveUpload, async (req, res) => {
   const loaded = res.locals['room'] as LoadedRoom;
   const { dryRun, f, parsed } = await read(req, loaded.room.directed);
-  const report: ImportReport = { ...reportOf(parsed, dryRun), replaces: await store.countContent(db, loaded.room.id) };
+  const report: ImportReport = { ...reportOf(parsed, dryRun), replaces: await store.countContent(loaded.room.id) };
   refuseErrors(report);
   if (dryRun) return void res.json(report);
   if (f.version === undefined) {
@@ -100,13 +100,13 @@ importRouter.post('/:id/import', signedIn(), editableRoom, heavyWrite, receiveUp
 /** Replaces people and ties (and the direction, which the file decides) in one transaction. */
 async function replaceContent(req: Request, loaded: LoadedRoom, parsed: ParsedImport, version: number): Promise<number> {
   return db.transaction(async (tx) => {
-    const room = await store.lockRoom(tx, loaded.room.id);
+    const room = await store.lockRoom(loaded.room.id, tx);
     if (!room) throw notFound('That room');
     if (room.version !== version) throw staleVersion(room, version);
     const content = contentOf(parsed);
-    await store.clearContent(tx, room.id);
-    await store.insertContent(tx, room.id, content.people, content.ties);
-    await store.updateRoomFields(tx, room.id, { directed: parsed.graph.directed, orgChart: null });
+    await store.clearContent(room.id, tx);
+    await store.insertContent(room.id, content.people, content.ties, 0, tx);
+    await store.updateRoomFields(room.id, { directed: parsed.graph.directed, orgChart: null }, tx);
     await audit(
       req,
       { action: 'room.import', targetType: 'room', targetId: room.id, detail: { format: parsed.format, people: content.people.length } },

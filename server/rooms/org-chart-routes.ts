@@ -94,8 +94,8 @@ orgChartRouter.post('/import/org-chart', signedIn(), receiveUpload, async (req, 
       .slice(0, L.roomNameMax) ||
       'Org chart');
   const roomId = await db.transaction(async (tx) => {
-    const id = await createWithContent(tx, req.user!.id, name, '', { ...DEFAULT_ROOM_SETTINGS, directed: false }, r.content);
-    await store.setOrgChart(tx, id, r.saved);
+    const id = await createWithContent(req.user!.id, name, '', { ...DEFAULT_ROOM_SETTINGS, directed: false }, r.content, tx);
+    await store.setOrgChart(id, r.saved, tx);
     await audit(
       req,
       { action: 'room.import', targetType: 'room', targetId: id, detail: { format: 'org-chart', people: r.content.people.length } },
@@ -109,7 +109,7 @@ orgChartRouter.post('/import/org-chart', signedIn(), receiveUpload, async (req, 
 orgChartRouter.post('/:id/import/org-chart', signedIn(), editableRoom, receiveUpload, async (req, res) => {
   const loaded = res.locals['room'] as LoadedRoom;
   const { dryRun, f, read: r } = read(req);
-  const report: OrgChartReport = { ...r.report, replaces: await store.countContent(db, loaded.room.id) };
+  const report: OrgChartReport = { ...r.report, replaces: await store.countContent(loaded.room.id) };
   if (dryRun) return void res.json(report);
   if (f.version === undefined) {
     throw new HttpError(400, 'bad_request', 'Send the room version you started from (form field "version") to replace its content.', {
@@ -118,12 +118,12 @@ orgChartRouter.post('/:id/import/org-chart', signedIn(), editableRoom, receiveUp
   }
   refuseErrors(report);
   const version = await db.transaction(async (tx) => {
-    const room = await store.lockRoom(tx, loaded.room.id);
+    const room = await store.lockRoom(loaded.room.id, tx);
     if (!room) throw notFound('That room');
     if (room.version !== f.version) throw staleVersion(room, f.version!);
-    await store.clearContent(tx, room.id);
-    await store.insertContent(tx, room.id, r.content.people, r.content.ties);
-    await store.updateRoomFields(tx, room.id, { directed: false, orgChart: r.saved });
+    await store.clearContent(room.id, tx);
+    await store.insertContent(room.id, r.content.people, r.content.ties, 0, tx);
+    await store.updateRoomFields(room.id, { directed: false, orgChart: r.saved }, tx);
     await audit(
       req,
       { action: 'room.import', targetType: 'room', targetId: room.id, detail: { format: 'org-chart', people: r.content.people.length } },

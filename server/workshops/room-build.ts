@@ -1,6 +1,6 @@
 import { DEFAULT_ROOM_SETTINGS } from '../../shared/api/rooms';
 import type { BuildMode, BuildResult, MissingAnswer } from '../../shared/api/workshops';
-import { db, type Tx } from '../db';
+import { db, type Conn } from '../db';
 import { HttpError } from '../core/http-error';
 import { keyMaker } from '../rooms/content';
 import * as roomStore from '../rooms/store';
@@ -24,7 +24,7 @@ import { itemAt } from '../../shared/checked';
  * ties among the survey's people replaced by those the answers give (ties touching anyone
  * else in the room are kept). Uses the rooms store, so versions and order stay consistent.
  */
-export async function missingAnswers(workshopId: number, mode: BuildMode, tx: Tx | typeof db = db): Promise<MissingAnswer[]> {
+export async function missingAnswers(workshopId: number, mode: BuildMode, tx: Conn = db): Promise<MissingAnswer[]> {
   const [all, answered, edges] = await Promise.all([
     participantsById(workshopId, undefined, tx),
     answeredIds(workshopId, tx),
@@ -56,19 +56,22 @@ export async function buildRoom(w: WorkshopRow, owner: SignedInUser, mode: Build
   return db.transaction(async (tx) => {
     let roomId = w.roomId;
     if (roomId === null) {
-      roomId = await roomStore.insertRoom(tx, {
-        ownerId: w.ownerId,
-        name: `${w.title} (from the survey)`.slice(0, 120),
-        description: `Built from the survey answers of the workshop “${w.title}” on ${w.sessionDate}.`,
-        settings: { ...DEFAULT_ROOM_SETTINGS, directed },
-      });
+      roomId = await roomStore.insertRoom(
+        {
+          ownerId: w.ownerId,
+          name: `${w.title} (from the survey)`.slice(0, 120),
+          description: `Built from the survey answers of the workshop “${w.title}” on ${w.sessionDate}.`,
+          settings: { ...DEFAULT_ROOM_SETTINGS, directed },
+        },
+        tx,
+      );
       await updateWorkshop(w.id, { roomId }, tx);
     }
-    const room = await roomStore.lockRoom(tx, roomId);
+    const room = await roomStore.lockRoom(roomId, tx);
     if (!room) throw new HttpError(409, 'room_gone', 'The room of this workshop was deleted.');
     const participants = await participantsById(w.id, undefined, tx);
     if (participants.length < 2) throw new HttpError(409, 'too_few', 'Add at least two participants before building the room.');
-    const existing = await roomStore.roomPeople(tx, roomId);
+    const existing = await roomStore.roomPeople(roomId, tx);
     const existingIds = new Set(existing.map((p) => p.id));
     const personOf = new Map<number, number>();
     const toAdd = participants.filter((p) => {
@@ -81,12 +84,12 @@ export async function buildRoom(w: WorkshopRow, owner: SignedInUser, mode: Build
     });
     if (toAdd.length) {
       const nextKey = keyMaker(existing.map((p) => p.key));
-      const first = (await roomStore.maxOrder(tx, roomId)) + 1;
+      const first = (await roomStore.maxOrder(roomId, tx)) + 1;
       const ids = await roomStore.insertPeopleRows(
-        tx,
         roomId,
         toAdd.map((p) => ({ key: nextKey(), name: p.name, group: null, email: p.email, x: null, y: null, pinned: false })),
         first,
+        tx,
       );
       for (const [i, participant] of toAdd.entries()) {
         const personId = itemAt(ids, i, 'new person id');
@@ -101,12 +104,12 @@ export async function buildRoom(w: WorkshopRow, owner: SignedInUser, mode: Build
       .map((e) => ({ from: personOf.get(e.from)!, to: personOf.get(e.to)!, level: e.level }));
     const built = tiesFromAnswers(edges, mode);
     await roomStore.insertTieRows(
-      tx,
       roomId,
       built.map((t) => ({ sourceId: t.source, targetId: t.target, strength: t.strength })),
+      tx,
     );
-    if (room.directed !== directed) await roomStore.updateRoomFields(tx, roomId, { directed });
-    else await roomStore.bumpVersion(tx, roomId);
+    if (room.directed !== directed) await roomStore.updateRoomFields(roomId, { directed }, tx);
+    else await roomStore.bumpVersion(roomId, tx);
     return {
       roomId,
       people: existing.length + toAdd.length,
