@@ -5,10 +5,10 @@
 import { and, eq } from 'drizzle-orm';
 import { DEFAULT_ROOM_SETTINGS, type RoomSettings } from '../shared/api/rooms';
 import { rooms } from '../db/schema/rooms';
-import { db } from '../server/db';
+import { db } from '../db/connection';
 import { createWithContent } from '../server/rooms/service';
 import type { RoomContent } from '../server/rooms/content';
-import type { PersonRowInput, TieRowInput } from '../server/rooms/store';
+import type { PersonRowInput, TieRowInput } from '../server/rooms/content';
 import { itemAt } from '../shared/checked';
 
 export const DEMO_ROOMS = {
