@@ -13,8 +13,17 @@ import type { AuditWriter } from '../core/audit';
 import { conflict, HttpError, notFound } from '../core/http-error';
 import { logger } from '../core/logging';
 import { endSessionsOf } from '../core/session';
-import { findUserByEmail, findUserById, lockUserById, updateUser, type UserRow } from '../auth/store';
-import { issueToken, latestInvites, revokeTokens, type TokenRow } from '../auth/tokens';
+import {
+  findUserByEmail,
+  findUserById,
+  issueToken,
+  latestInvites,
+  lockUserById,
+  revokeTokens,
+  updateUser,
+  type TokenRow,
+  type UserRow,
+} from '../auth/service';
 import { appLink, invitationMail, resetMail } from '../mail/templates';
 import { sendMail, type OutgoingMail } from '../mail/transport';
 import { activeAdminIds, insertInvitedUser, listAccounts, lockActiveAdmins, type PageQuery } from './store';

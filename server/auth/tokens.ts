@@ -1,9 +1,8 @@
 import { createHash, randomBytes } from 'node:crypto';
-import { and, desc, eq, gt, inArray, isNull } from 'drizzle-orm';
-import { accountTokens } from '../../db/schema/accounts';
 import { db, type Conn, type Tx } from '../db';
+import { insertToken, lockUsableTokenRow, revokeTokens, usableTokenRow, type TokenPurpose, type TokenRow } from './tokens-store';
 
-export type TokenPurpose = 'invite' | 'reset';
+export { latestInvites, markUsed, revokeTokens, type TokenPurpose, type TokenRow } from './tokens-store';
 
 /**
  * Single-use e-mail link tokens. 32 random bytes (256 bits, well above the 128 bits the OWASP
@@ -26,68 +25,18 @@ export async function issueToken(
   await revokeTokens(userId, purpose, tx);
   const token = randomBytes(32).toString('base64url');
   const expiresAt = new Date(Date.now() + lifetimeMs);
-  await tx.insert(accountTokens).values({ userId, purpose, tokenHash: hashToken(token), expiresAt, createdBy });
+  await insertToken({ userId, purpose, tokenHash: hashToken(token), expiresAt, createdBy }, tx);
   return { token, expiresAt };
 }
 
-export async function revokeTokens(userId: number, purpose: TokenPurpose, tx: Conn = db): Promise<number> {
-  const [result] = await tx
-    .update(accountTokens)
-    .set({ revokedAt: new Date() })
-    .where(
-      and(
-        eq(accountTokens.userId, userId),
-        eq(accountTokens.purpose, purpose),
-        isNull(accountTokens.usedAt),
-        isNull(accountTokens.revokedAt),
-      ),
-    );
-  return (result as { affectedRows?: number }).affectedRows ?? 0;
-}
-
-export type TokenRow = typeof accountTokens.$inferSelect;
-
 /** The token row if the link is still good (unused, unrevoked, unexpired). */
 export async function findUsableToken(token: string, purpose: TokenPurpose, tx: Conn = db): Promise<TokenRow | undefined> {
-  return usableToken(token, purpose, false, tx);
+  if (!TOKEN_PATTERN.test(token)) return undefined;
+  return usableTokenRow(hashToken(token), purpose, tx);
 }
 
 /** The token row if the link is still good, locked for the rest of the transaction. */
 export async function lockUsableToken(token: string, purpose: TokenPurpose, tx: Tx): Promise<TokenRow | undefined> {
-  return usableToken(token, purpose, true, tx);
-}
-
-async function usableToken(token: string, purpose: TokenPurpose, lock: boolean, tx: Conn): Promise<TokenRow | undefined> {
   if (!TOKEN_PATTERN.test(token)) return undefined;
-  const query = tx
-    .select()
-    .from(accountTokens)
-    .where(
-      and(
-        eq(accountTokens.tokenHash, hashToken(token)),
-        eq(accountTokens.purpose, purpose),
-        isNull(accountTokens.usedAt),
-        isNull(accountTokens.revokedAt),
-        gt(accountTokens.expiresAt, new Date()),
-      ),
-    );
-  const [row] = lock ? await query.for('update') : await query;
-  return row;
-}
-
-export async function markUsed(tokenId: number, tx: Conn = db): Promise<void> {
-  await tx.update(accountTokens).set({ usedAt: new Date() }).where(eq(accountTokens.id, tokenId));
-}
-
-/** The newest invitation token of each given account (for the accounts table). */
-export async function latestInvites(userIds: number[]): Promise<Map<number, TokenRow>> {
-  const latest = new Map<number, TokenRow>();
-  if (!userIds.length) return latest;
-  const rows = await db
-    .select()
-    .from(accountTokens)
-    .where(and(inArray(accountTokens.userId, userIds), eq(accountTokens.purpose, 'invite')))
-    .orderBy(desc(accountTokens.id));
-  for (const row of rows) if (!latest.has(row.userId)) latest.set(row.userId, row);
-  return latest;
+  return lockUsableTokenRow(hashToken(token), purpose, tx);
 }

@@ -6,7 +6,7 @@ import { roomShares } from '../../db/schema/rooms';
 import { db } from '../db';
 import { HttpError, notFound } from '../core/http-error';
 import { publicUrl } from '../config';
-import { findUserByEmail } from '../auth/store';
+import { findUserByEmail } from '../auth/service';
 import { sendMail } from '../mail/transport';
 import { logger } from '../core/logging';
 import type { RoomRow } from './access';

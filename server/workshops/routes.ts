@@ -14,7 +14,7 @@ import { qrDataUrl } from './qr';
 import * as service from './service';
 import { deleteWorkshop, insertWorkshop, listWorkshops, participantCounts, updateWorkshop } from './store';
 import type { SignedInUser } from '../types';
-import { findUserById } from '../auth/store';
+import { findUserById } from '../auth/service';
 import { idOf } from '../core/ids';
 import { coFacilitatorIds, roomAccessNote } from './co-facilitators';
 

@@ -1,6 +1,6 @@
 import { STATUS_LABELS, STATUS_MOVES, type IssuedLink, type WorkshopDetail, type WorkshopStatus } from '../../shared/api/workshops';
 import { transaction } from '../db';
-import { findUserByEmail } from '../auth/store';
+import { findUserByEmail } from '../auth/service';
 import { badRequest, conflict, HttpError, notFound } from '../core/http-error';
 import { sendMail } from '../mail/transport';
 import { linksFor, participantUrl, reissueLinks, revokeLinks, revokeToken, type ShownLink } from '../participants/links';
