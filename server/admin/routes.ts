@@ -1,11 +1,10 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { accountRoles } from '../../db/schema/accounts';
 import { accountSortKeys, EMAIL_MAX, NAME_MAX, type AdminSettings } from '../../shared/api/accounts';
 import { adminOnly } from '../core/access';
 import { auditFor } from '../core/audit';
 import { parse } from '../core/validate';
-import { accountPage, changeRole, invite, resendInvitation, revokeInvitation, sendResetLink, setStatus } from './service';
+import { accountPage, accountRoles, changeRole, invite, resendInvitation, revokeInvitation, sendResetLink, setStatus } from './service';
 import { listAudit } from './store';
 import { outboxRouter } from './outbox-routes';
 import { idParams, pageFields } from './queries';

@@ -28,6 +28,9 @@ import { appLink, invitationMail, resetMail } from '../mail/templates';
 import { sendMail, type OutgoingMail } from '../mail/transport';
 import { activeAdminIds, insertInvitedUser, listAccounts, lockActiveAdmins, type PageQuery } from './store';
 
+/** The roles an account can have (the schema's list), for the routes' input checks. */
+export { accountRoles } from '../../db/schema/accounts';
+
 /** Account administration: invitations, status, roles. The last active admin always stays. */
 
 const INVITE_MS = INVITE_HOURS * 3600 * 1000;

@@ -8,16 +8,14 @@ import { z } from 'zod';
 import { DEFAULT_ROOM_SETTINGS, ROOM_LIMITS as L } from '../../shared/api/rooms';
 import type { OrgChartReport } from '../../shared/api/org-chart';
 import { signedIn } from '../core/access';
-import { audit } from '../core/audit';
-import { HttpError, notFound } from '../core/http-error';
+import { auditFor } from '../core/audit';
+import { HttpError } from '../core/http-error';
 import { parse } from '../core/validate';
-import { db } from '../db';
 import { loadRoomFor, type LoadedRoom } from './access';
 import { receiveUpload, uploadedFiles } from './import';
 import { DEFAULT_STRENGTHS, readOrgChart } from './org-chart';
 import { roomName } from './schemas';
-import { createWithContent, staleVersion } from './service';
-import * as store from './store';
+import { contentCounts, createImportedRoom, replaceImportedContent } from './service';
 
 export const orgChartRouter = Router();
 
@@ -93,23 +91,24 @@ orgChartRouter.post('/import/org-chart', signedIn(), receiveUpload, async (req, 
       .trim()
       .slice(0, L.roomNameMax) ||
       'Org chart');
-  const roomId = await db.transaction(async (tx) => {
-    const id = await createWithContent(req.user!.id, name, '', { ...DEFAULT_ROOM_SETTINGS, directed: false }, r.content, tx);
-    await store.setOrgChart(id, r.saved, tx);
-    await audit(
-      req,
-      { action: 'room.import', targetType: 'room', targetId: id, detail: { format: 'org-chart', people: r.content.people.length } },
-      tx,
-    );
-    return id;
-  });
+  const roomId = await createImportedRoom(
+    req.user!.id,
+    name,
+    { ...DEFAULT_ROOM_SETTINGS, directed: false },
+    {
+      content: r.content,
+      orgChart: r.saved,
+      audit: auditFor(req),
+      detail: { format: 'org-chart', people: r.content.people.length },
+    },
+  );
   res.status(201).json({ ...r.report, committed: true, roomId, version: 1 } satisfies OrgChartReport);
 });
 
 orgChartRouter.post('/:id/import/org-chart', signedIn(), editableRoom, receiveUpload, async (req, res) => {
   const loaded = res.locals['room'] as LoadedRoom;
   const { dryRun, f, read: r } = read(req);
-  const report: OrgChartReport = { ...r.report, replaces: await store.countContent(loaded.room.id) };
+  const report: OrgChartReport = { ...r.report, replaces: await contentCounts(loaded.room.id) };
   if (dryRun) return void res.json(report);
   if (f.version === undefined) {
     throw new HttpError(400, 'bad_request', 'Send the room version you started from (form field "version") to replace its content.', {
@@ -117,19 +116,11 @@ orgChartRouter.post('/:id/import/org-chart', signedIn(), editableRoom, receiveUp
     });
   }
   refuseErrors(report);
-  const version = await db.transaction(async (tx) => {
-    const room = await store.lockRoom(loaded.room.id, tx);
-    if (!room) throw notFound('That room');
-    if (room.version !== f.version) throw staleVersion(room, f.version!);
-    await store.clearContent(room.id, tx);
-    await store.insertContent(room.id, r.content.people, r.content.ties, 0, tx);
-    await store.updateRoomFields(room.id, { directed: false, orgChart: r.saved }, tx);
-    await audit(
-      req,
-      { action: 'room.import', targetType: 'room', targetId: room.id, detail: { format: 'org-chart', people: r.content.people.length } },
-      tx,
-    );
-    return room.version + 1;
+  const version = await replaceImportedContent(loaded, f.version, false, {
+    content: r.content,
+    orgChart: r.saved,
+    audit: auditFor(req),
+    detail: { format: 'org-chart', people: r.content.people.length },
   });
   res.json({ ...report, committed: true, roomId: loaded.room.id, version } satisfies OrgChartReport);
 });

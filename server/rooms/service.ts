@@ -1,6 +1,7 @@
 /** Rooms domain: create, read, change settings with a version check, duplicate, delete. */
 import { DEFAULT_ROOM_SETTINGS, STALE_MESSAGE, type RoomDto, type RoomSettings, type StaleVersionDetails } from '../../shared/api/rooms';
 import { db, type Conn, type Tx } from '../db';
+import type { AuditWriter } from '../core/audit';
 import { HttpError, notFound } from '../core/http-error';
 import { settingsOf, type LoadedRoom, type RoomRow } from './access';
 import { checkContent, pairKey, type RoomContent } from './content';
@@ -33,6 +34,44 @@ export async function createWithContent(
   const roomId = await store.insertRoom({ ownerId, name, description, settings }, tx);
   await store.insertContent(roomId, content.people, content.ties, 0, tx);
   return roomId;
+}
+
+/** What an import writes besides people and ties, and how it is audited (action room.import). */
+export interface ImportWrite {
+  content: RoomContent;
+  /** The org-chart headers to keep with the room (null: none); left as it is when undefined. */
+  orgChart?: string | null;
+  audit: AuditWriter;
+  detail: Record<string, unknown>;
+}
+
+/** A new room from an imported file, with its audit entry, in one transaction. */
+export async function createImportedRoom(ownerId: number, name: string, settings: RoomSettings, w: ImportWrite): Promise<number> {
+  return db.transaction(async (tx) => {
+    const id = await createWithContent(ownerId, name, '', settings, w.content, tx);
+    if (w.orgChart !== undefined) await store.setOrgChart(id, w.orgChart, tx);
+    await w.audit({ action: 'room.import', targetType: 'room', targetId: id, detail: w.detail }, tx);
+    return id;
+  });
+}
+
+/** Replaces a room's people and ties (and its direction) from an imported file; returns the new version. */
+export async function replaceImportedContent(loaded: LoadedRoom, version: number, directed: boolean, w: ImportWrite): Promise<number> {
+  return db.transaction(async (tx) => {
+    const room = await store.lockRoom(loaded.room.id, tx);
+    if (!room) throw notFound('That room');
+    if (room.version !== version) throw staleVersion(room, version);
+    await store.clearContent(room.id, tx);
+    await store.insertContent(room.id, w.content.people, w.content.ties, 0, tx);
+    await store.updateRoomFields(room.id, { directed, orgChart: w.orgChart ?? null }, tx);
+    await w.audit({ action: 'room.import', targetType: 'room', targetId: room.id, detail: w.detail }, tx);
+    return room.version + 1;
+  });
+}
+
+/** How many people and ties an import would replace. */
+export async function contentCounts(roomId: number): Promise<{ people: number; ties: number }> {
+  return store.countContent(roomId);
 }
 
 export async function roomDto(loaded: LoadedRoom, tx: Conn = db): Promise<RoomDto> {
