@@ -3,7 +3,7 @@ import type { BuildMode, BuildResult, MissingAnswer } from '../../shared/api/wor
 import { db, type Conn } from '../db';
 import { HttpError } from '../core/http-error';
 import { keyMaker } from '../rooms/content';
-import * as roomStore from '../rooms/store';
+import * as roomService from '../rooms/service';
 import type { SignedInUser } from '../types';
 import { loadRoomFor } from '../rooms/access';
 import {
@@ -56,7 +56,7 @@ export async function buildRoom(w: WorkshopRow, owner: SignedInUser, mode: Build
   return db.transaction(async (tx) => {
     let roomId = w.roomId;
     if (roomId === null) {
-      roomId = await roomStore.insertRoom(
+      roomId = await roomService.insertRoom(
         {
           ownerId: w.ownerId,
           name: `${w.title} (from the survey)`.slice(0, 120),
@@ -67,11 +67,11 @@ export async function buildRoom(w: WorkshopRow, owner: SignedInUser, mode: Build
       );
       await updateWorkshop(w.id, { roomId }, tx);
     }
-    const room = await roomStore.lockRoom(roomId, tx);
+    const room = await roomService.lockRoom(roomId, tx);
     if (!room) throw new HttpError(409, 'room_gone', 'The room of this workshop was deleted.');
     const participants = await participantsById(w.id, undefined, tx);
     if (participants.length < 2) throw new HttpError(409, 'too_few', 'Add at least two participants before building the room.');
-    const existing = await roomStore.roomPeople(roomId, tx);
+    const existing = await roomService.roomPeople(roomId, tx);
     const existingIds = new Set(existing.map((p) => p.id));
     const personOf = new Map<number, number>();
     const toAdd = participants.filter((p) => {
@@ -84,8 +84,8 @@ export async function buildRoom(w: WorkshopRow, owner: SignedInUser, mode: Build
     });
     if (toAdd.length) {
       const nextKey = keyMaker(existing.map((p) => p.key));
-      const first = (await roomStore.maxOrder(roomId, tx)) + 1;
-      const ids = await roomStore.insertPeopleRows(
+      const first = (await roomService.maxOrder(roomId, tx)) + 1;
+      const ids = await roomService.insertPeopleRows(
         roomId,
         toAdd.map((p) => ({ key: nextKey(), name: p.name, group: null, email: p.email, x: null, y: null, pinned: false })),
         first,
@@ -103,13 +103,13 @@ export async function buildRoom(w: WorkshopRow, owner: SignedInUser, mode: Build
       .filter((e) => personOf.has(e.from) && personOf.has(e.to))
       .map((e) => ({ from: personOf.get(e.from)!, to: personOf.get(e.to)!, level: e.level }));
     const built = tiesFromAnswers(edges, mode);
-    await roomStore.insertTieRows(
+    await roomService.insertTieRows(
       roomId,
       built.map((t) => ({ sourceId: t.source, targetId: t.target, strength: t.strength })),
       tx,
     );
-    if (room.directed !== directed) await roomStore.updateRoomFields(roomId, { directed }, tx);
-    else await roomStore.bumpVersion(roomId, tx);
+    if (room.directed !== directed) await roomService.updateRoomFields(roomId, { directed }, tx);
+    else await roomService.bumpVersion(roomId, tx);
     return {
       roomId,
       people: existing.length + toAdd.length,

@@ -5,7 +5,7 @@ import { badRequest, conflict, HttpError, notFound } from '../core/http-error';
 import { sendMail } from '../mail/transport';
 import { linksFor, participantUrl, reissueLinks, revokeLinks, revokeToken, type ShownLink } from '../participants/links';
 import { loadRoomFor } from '../rooms/access';
-import { roomPeople } from '../rooms/store';
+import { roomPeople } from '../rooms/service';
 import type { SignedInUser } from '../types';
 import type { DebriefSnapshot } from './debrief';
 import { surveyLinkMail } from './mail';
