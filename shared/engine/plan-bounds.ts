@@ -78,6 +78,27 @@ export function oneHopBound(ctx: PlanContext): number {
   return 2 * (n - k) - top;
 }
 
+/**
+ * Bound 3 from the sparse walk in O(m), equal to oneHopBound: the off-diagonal column sum of
+ * P at j is (n - 1) b / n from mixing plus (1 - b) w_ij / s_i over ties i -> j with i != j
+ * (a person without ties keeps the walk, which lands on the diagonal only).
+ */
+export function oneHopBoundSparse(ctx: PlanContext): number {
+  const { n, k, room } = ctx;
+  const { csr, mixing: b } = room;
+  const col = new Float64Array(n).fill(((n - 1) * b) / n);
+  for (let i = 0; i < n; i++) {
+    const s = csr.outStrength[i];
+    if (!(s > 0)) continue;
+    const f = (1 - b) / s;
+    for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) if (csr.col[e] !== i) col[csr.col[e]] += f * csr.weight[e];
+  }
+  col.sort();
+  let top = 0;
+  for (let q = 0; q < k; q++) top += col[n - 1 - q];
+  return 2 * (n - k) - top;
+}
+
 /** Adds bounds 2 and 3 (scaled) to the context's bounds; dense rooms up to PAIR_BOUND_LIMIT people. */
 export function addQuickBounds(ctx: PlanContext): void {
   if (ctx.n > PAIR_BOUND_LIMIT) return;

@@ -13,6 +13,7 @@
  */
 import { beats, tieTolerance } from './dense-state';
 import { GroundedFactor, factorFits, fillReducingOrder, MAX_FACTOR_WORK } from './grounded-factor';
+import { oneHopBoundSparse } from './plan-bounds';
 import { finishPlan, type PlanContext } from './plan-context';
 import type { PlanResult } from './plan-types';
 import { firstStarters } from './sparse-first-pick';
@@ -73,6 +74,7 @@ export function sparseGreedyPlan(ctx: PlanContext, maxFill = DEFAULT_MAX_FILL, m
   if (first.bestSingle) ctx.bestSingleOverride = { person: first.bestSingle.person, total: first.bestSingle.total * scale };
   const scoredAll = first.scoredAll || (room.mixing > 0 && ctx.mustInclude.length === 0);
   const r = k - ctx.mustInclude.length;
+  ctx.bounds.push(oneHopBoundSparse(ctx) * scale);
   const record = () => {
     if (starters.length > 0) ctx.bounds.push((totalOf(s.sigma) - topGains(s, ctx.allowed, r, totalOf)) * scale);
     if (starters.length === 1 && k === 1 && scoredAll) ctx.bounds.push(totalOf(s.sigma) * scale);

@@ -26,8 +26,26 @@ import { NO_SHOW_EXACT_LIMIT, noShowExhaustive, noShowGreedy, noShowReport, noSh
 import { exactReach, DEFAULT_DENSE_LIMIT } from './reach';
 import type { RoomInput } from './room';
 
-/** Undirected rooms of at least this many people run method greedy on the sparse factor. */
-export const SPARSE_GREEDY_FROM = 300;
+/**
+ * Undirected rooms of at least this many people run method greedy on the sparse factor, which
+ * beats the dense greedy there on sparse rooms (4-10x at 100-300 people, measured by
+ * `npm run bench`); the work estimate in plan() still sends dense rooms to the dense path.
+ */
+export const SPARSE_GREEDY_FROM = 100;
+/**
+ * Below this size, plans of at most SMALL_K_DENSE starters stay dense: the pair bound of
+ * plan-bounds.ts needs the dense ergodic data, and at k = 2 or 3 it often proves the greedy
+ * plan best, which the sparse path's bounds (one-hop, supermodular) cannot.
+ */
+const PAIR_BOUND_SIZE = 300;
+const SMALL_K_DENSE = 3;
+
+/** Whether method greedy takes the sparse factor (before the fill and work checks). */
+export function sparseGreedyWanted(n: number, k: number, directed: boolean, sparseFrom: number | undefined): boolean {
+  if (directed) return false;
+  if (sparseFrom !== undefined) return n >= sparseFrom;
+  return n >= SPARSE_GREEDY_FROM && (n >= PAIR_BOUND_SIZE || k > SMALL_K_DENSE);
+}
 
 export const PLAN_METHODS = ['greedy', 'widened', 'swap', 'exhaustive', 'auto', 'lazy-greedy', 'screen'] as const;
 
@@ -113,7 +131,7 @@ export function planStart(input: RoomInput, options: PlanOptions): { result: Pla
   if (big) return done(largeRoom(ctx, method, limit));
   switch (method) {
     case 'greedy':
-      if (ctx.n >= (options.sparseFrom ?? SPARSE_GREEDY_FROM) && sparseGreedyEligible(ctx)) {
+      if (sparseGreedyWanted(ctx.n, ctx.k, ctx.room.directed, options.sparseFrom) && sparseGreedyEligible(ctx)) {
         // By default the sparse path must also beat the dense greedy's work; an explicit sparseFrom forces it.
         const work = options.sparseFrom === undefined ? Math.min(MAX_FACTOR_WORK, ctx.n ** 3 / 8) : MAX_FACTOR_WORK;
         const sparse = sparseGreedyPlan(ctx, options.maxFill, work);

@@ -13,6 +13,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 
 interface CaseOut {
+  evaluated?: string | null;
   ms: number;
   cpuMs: number;
   maxRssMb: number;
@@ -42,7 +43,8 @@ export function ensurePython(): boolean {
 
 function runCase(kind: string, n: number, k: number, edgeFile?: string): CaseOut {
   const args = ['--import', 'tsx', join(here, 'bench-sparse-case.ts'), kind, String(n), String(k), ...(edgeFile ? [edgeFile] : [])];
-  const r = spawnSync(process.execPath, args, { encoding: 'utf8', maxBuffer: 1 << 26 });
+  // stderr passes through: a long case prints its progress there.
+  const r = spawnSync(process.execPath, args, { encoding: 'utf8', maxBuffer: 1 << 26, stdio: ['ignore', 'pipe', 'inherit'] });
   if (r.status !== 0) throw new Error(`case ${kind} ${n} failed: ${r.stderr}`);
   return JSON.parse(r.stdout.trim().split('\n').pop()!) as CaseOut;
 }
@@ -109,6 +111,7 @@ export function sparseBench(): void {
       body,
     );
     scaling();
+    screenBench();
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
@@ -140,6 +143,37 @@ function scaling(): void {
   table(
     `Exact greedy, k = 50: scaling (${process.env.RH_BENCH_LARGE === '1' ? 'with' : 'without'} the large sizes; RH_BENCH_LARGE=1 adds 3e4 and 1e5)`,
     ['room', 'n', 'ties', 'time', 'cpu', 'peak memory', 'path', 'fill (nonzeros)', 'growth exponent'],
+    body,
+  );
+}
+
+/**
+ * The bottleneck screen (method screen) against the exact greedy on the same rooms, k = 20: time
+ * and how far the screen's total is above the greedy's. RH_BENCH_LARGE=1 adds a 1,000,000-person
+ * small-world room (goal: a plan within 10 minutes; the screen's own time budget is 8 minutes).
+ */
+export function screenBench(): void {
+  const body: string[][] = [];
+  const cases: [string, number][] = [
+    ['small-world', 1000],
+    ['grid', 1024],
+    ['small-world', 3000],
+    ['grid', 3025],
+  ];
+  for (const [kind, n] of cases) {
+    log(`  screen ${kind} ${n} ...`);
+    const s = runCase(`screen-${kind}`, n, 20);
+    const g = runCase(kind, n, 20);
+    body.push([kind, String(n), fmt(s.ms), fmt(g.ms), `${(100 * (s.total / g.total - 1)).toFixed(1)} %`, s.evaluated ?? '']);
+  }
+  if (process.env.RH_BENCH_LARGE === '1') {
+    log('  screen small-world 1000000 (up to 10 minutes) ...');
+    const s = runCase('screen-small-world', 1_000_000, 20);
+    body.push(['small-world', '1000000', fmt(s.ms), '', `peak ${s.maxRssMb.toFixed(0)} MB`, s.evaluated ?? '']);
+  }
+  table(
+    `Bottleneck screen against exact greedy, k = 20 (${process.env.RH_BENCH_LARGE === '1' ? 'with' : 'without'} the 1,000,000-person room; RH_BENCH_LARGE=1 adds it)`,
+    ['room', 'n', 'screen', 'exact greedy', 'screen total above greedy', 'sets evaluated'],
     body,
   );
 }

@@ -9,7 +9,7 @@ import { describe, it } from 'node:test';
 import fc from 'fast-check';
 import { exactReach, plan, type PlanProgress, type RoomGraph } from '../../shared/engine/index';
 import { planContext } from '../../shared/engine/plan-context';
-import { firstStarterBounds, oneHopBound } from '../../shared/engine/plan-bounds';
+import { firstStarterBounds, oneHopBound, oneHopBoundSparse } from '../../shared/engine/plan-bounds';
 import { kSets, randomRoom, relClose } from './engine-fixtures';
 
 const roomArb = fc
@@ -45,6 +45,7 @@ describe('lower bounds never exceed the brute-force optimum (property-based, see
         const ctx = planContext(g, { k, ...walk });
         const scale = 1 / (1 - laziness);
         assert.ok(oneHopBound(ctx) * scale <= opt + tol, 'one-hop bound');
+        assert.ok(Math.abs(oneHopBoundSparse(ctx) - oneHopBound(ctx)) <= 1e-9 * Math.max(1, Math.abs(oneHopBound(ctx))), 'sparse one-hop');
         const fb = firstStarterBounds(ctx, k);
         if (fb) assert.ok(Math.min(...fb.bound) * scale <= opt + tol, 'pair bound');
         for (const method of ['greedy', 'widened', 'swap'] as const) {
@@ -52,6 +53,8 @@ describe('lower bounds never exceed the brute-force optimum (property-based, see
           assert.ok(r.lowerBound <= opt + tol, `${method} lowerBound ${r.lowerBound} > optimum ${opt}`);
           assert.ok(r.total >= opt - tol);
         }
+        const sparse = plan(g, { k, method: 'greedy', ...walk, sparseFrom: 2 });
+        assert.ok(sparse.lowerBound <= opt + tol, `sparse greedy lowerBound ${sparse.lowerBound} > optimum ${opt}`);
       }),
       { numRuns: 250, seed: 9090 },
     );

@@ -11,7 +11,7 @@ import {
   symmetricErgodicMatrix,
   type ErgodicData,
 } from '../ergodic';
-import { planFinish, planStart, SPARSE_GREEDY_FROM } from '../plan';
+import { planFinish, planStart, sparseGreedyWanted } from '../plan';
 import { exhaustiveSearch } from '../plan-exhaustive';
 import { exhaustiveParallel } from './parallel-branch';
 import type { PlanOptions, PlanResult } from '../plan-types';
@@ -48,8 +48,8 @@ export async function planWithWorkers(input: RoomInput, options: PlanOptions, th
   const room = prepareRoom(input, options);
   const started = performance.now();
   const dense = room.n <= (options.denseLimit ?? DEFAULT_DENSE_LIMIT);
-  // Method greedy on undirected rooms from SPARSE_GREEDY_FROM people runs on a sparse factor: no dense ergodic step.
-  const sparse = options.method === 'greedy' && !room.directed && room.n >= (options.sparseFrom ?? SPARSE_GREEDY_FROM);
+  // Method greedy on a sparse factor (sparseGreedyWanted) needs no dense ergodic step.
+  const sparse = options.method === 'greedy' && sparseGreedyWanted(room.n, options.k, room.directed, options.sparseFrom);
   const ergodic = dense && !sparse && room.n >= 300 && threads > 1 ? await ergodicDataParallel(room, {}, threads) : null;
   const step = planStart(room, ergodic ? { ...options, ergodic } : options);
   const result =
