@@ -8,7 +8,7 @@ import { createApp } from './app';
 import { logger } from './core/logging';
 import { installProcessGuards } from './core/process-guards';
 import { checkDatabase, pool } from './db';
-import { closeLimiterStore } from './auth/limiter-store';
+import { closeCounterRedis } from './jobs/redis';
 import { startMail, stopMail } from './mail/transport';
 import { startJobs, stopJobs } from './jobs/index';
 
@@ -51,7 +51,7 @@ async function stop(signal: string) {
   server.closeIdleConnections();
   setTimeout(() => process.exit(0), 10_000).unref();
   await stopJobs().catch((err: unknown) => logger.warn({ err }, 'stopping the jobs failed'));
-  await closeLimiterStore();
+  await closeCounterRedis();
   await stopMail();
   await pool.end();
   process.exit(0);
