@@ -12,16 +12,7 @@ import * as store from './store';
  * Room rows and content as the workshops feature writes them when it builds a room from survey
  * answers (workshops/room-build.ts), inside its own transaction.
  */
-export {
-  bumpVersion,
-  insertPeopleRows,
-  insertRoom,
-  insertTieRows,
-  lockRoom,
-  maxOrder,
-  roomPeople,
-  updateRoomFields,
-} from './store';
+export { bumpVersion, insertPeopleRows, insertRoom, insertTieRows, lockRoom, maxOrder, roomPeople, updateRoomFields } from './store';
 import { runInPlanPool, TimeLimitError } from '../jobs/pools';
 import type { RoomSummary } from '../../shared/api/rooms';
 import { loadRoomGraph } from './access';
