@@ -7,15 +7,15 @@ import { settingsOf, type LoadedRoom, type RoomRow } from './access';
 import { checkContent, pairKey, type RoomContent } from './content';
 import type { CreateRoomInput } from './schemas';
 import * as store from './store';
+import { runInPlanPool, TimeLimitError } from '../jobs/pools';
+import type { RoomSummary } from '../../shared/api/rooms';
+import { loadRoomGraph } from './access';
 
 /**
  * Room rows and content as the workshops feature writes them when it builds a room from survey
  * answers (workshops/room-build.ts), inside its own transaction.
  */
 export { bumpVersion, insertPeopleRows, insertRoom, insertTieRows, lockRoom, maxOrder, roomPeople, updateRoomFields } from './store';
-import { runInPlanPool, TimeLimitError } from '../jobs/pools';
-import type { RoomSummary } from '../../shared/api/rooms';
-import { loadRoomGraph } from './access';
 
 export function staleVersion(room: RoomRow, yourVersion: number, withCurrent = false): HttpError {
   const details: StaleVersionDetails = { currentVersion: room.version, yourVersion, message: STALE_MESSAGE };
