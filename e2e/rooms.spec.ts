@@ -71,7 +71,7 @@ test('build a room with the seating builder, then move and tie people on the map
   const strength = page.getByLabel('Strength (how often they talk)');
   await strength.fill('0');
   await strength.blur();
-  await expect(page.getByText('Strength must be above 0')).toBeVisible();
+  await expect(page.getByText('A tie needs a strength above 0 (delete the tie if there is none).')).toBeVisible();
   await strength.fill('4');
   await strength.press('Enter');
   await waitSaved(page);

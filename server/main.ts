@@ -47,10 +47,14 @@ async function stop(signal: string) {
   if (stopping) return;
   stopping = true;
   logger.info(`${signal}: finishing open requests, handing running jobs back to the queue, then stopping.`);
-  server.close();
-  server.closeIdleConnections();
   setTimeout(() => process.exit(0), 10_000).unref();
-  await stopJobs().catch((err: unknown) => logger.warn({ err }, 'stopping the jobs failed'));
+  // Requests already read (some waiting for a database connection) are answered before the
+  // pool closes; keep-alive connections close as soon as they are idle.
+  const drained = new Promise<void>((resolve) => server.close(() => resolve()));
+  server.closeIdleConnections();
+  const jobs = stopJobs().catch((err: unknown) => logger.warn({ err }, 'stopping the jobs failed'));
+  await Promise.race([drained, new Promise((resolve) => setTimeout(resolve, 8_000).unref())]);
+  await jobs;
   await closeCounterRedis();
   await stopMail();
   await pool.end();

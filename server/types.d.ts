@@ -1,4 +1,4 @@
-import type { AccountRole } from '../db/schema/accounts';
+import type { AccountRole } from '../shared/api/accounts';
 
 export interface SignedInUser {
   id: number;

@@ -1,9 +1,6 @@
 import { index, int, json, mysqlEnum, mysqlTable, text, timestamp, uniqueIndex, varchar } from 'drizzle-orm/mysql-core';
 import { createdAt, idColumn, refColumn, updatedAt } from './columns';
-
-export const accountRoles = ['admin', 'facilitator'] as const;
-export type AccountRole = (typeof accountRoles)[number];
-export const accountStatuses = ['invited', 'active', 'deactivated'] as const;
+import { ACCOUNT_ROLES, ACCOUNT_STATUSES } from '../../shared/api/accounts';
 
 export const users = mysqlTable(
   'users',
@@ -11,8 +8,8 @@ export const users = mysqlTable(
     id: idColumn(),
     email: varchar('email', { length: 254 }).notNull(),
     name: varchar('name', { length: 120 }).notNull(),
-    role: mysqlEnum('role', accountRoles).notNull().default('facilitator'),
-    status: mysqlEnum('status', accountStatuses).notNull().default('invited'),
+    role: mysqlEnum('role', ACCOUNT_ROLES).notNull().default('facilitator'),
+    status: mysqlEnum('status', ACCOUNT_STATUSES).notNull().default('invited'),
     passwordHash: varchar('password_hash', { length: 255 }),
     lastSignInAt: timestamp('last_sign_in_at', { fsp: 3 }),
     createdAt: createdAt(),

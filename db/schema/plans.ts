@@ -14,6 +14,8 @@ import {
 } from 'drizzle-orm/mysql-core';
 import { users } from './accounts';
 import { createdAt, idColumn, refColumn, updatedAt } from './columns';
+import { JOB_KINDS, JOB_STATUSES } from '../../shared/api/jobs';
+import { PLAN_STATUSES } from '../../shared/api/plans';
 import { rooms } from './rooms';
 
 export interface StoredStarter {
@@ -39,10 +41,6 @@ export interface StoredPlanExtras {
   fewestForOneHop: number | null;
 }
 
-export const jobKinds = ['plan', 'rehearsal'] as const;
-export const jobStatuses = ['queued', 'running', 'done', 'failed', 'cancelled', 'interrupted'] as const;
-export const planStatuses = ['computing', 'ready', 'failed', 'cancelled', 'interrupted'] as const;
-
 /**
  * Background work (plans computed in the background, rehearsals). The row is the truth: the
  * in-memory runner only drives it, and on start-up rows left queued or running are marked
@@ -58,8 +56,8 @@ export const jobs = mysqlTable(
     roomId: refColumn('room_id')
       .notNull()
       .references(() => rooms.id, { onDelete: 'cascade' }),
-    kind: mysqlEnum('kind', jobKinds).notNull(),
-    status: mysqlEnum('status', jobStatuses).notNull().default('queued'),
+    kind: mysqlEnum('kind', JOB_KINDS).notNull(),
+    status: mysqlEnum('status', JOB_STATUSES).notNull().default('queued'),
     progress: double('progress').notNull().default(0),
     message: text('message'),
     planId: refColumn('plan_id'),
@@ -90,7 +88,7 @@ export const plans = mysqlTable(
       .references(() => users.id, { onDelete: 'cascade' }),
     name: varchar('name', { length: 120 }).notNull(),
     kind: mysqlEnum('kind', ['computed', 'hand-made']).notNull(),
-    status: mysqlEnum('status', planStatuses).notNull(),
+    status: mysqlEnum('status', PLAN_STATUSES).notNull(),
     k: int('k', { unsigned: true }).notNull(),
     methodRequested: varchar('method_requested', { length: 20 }).notNull(),
     methodUsed: varchar('method_used', { length: 20 }),

@@ -1,6 +1,7 @@
 import { boolean, double, index, int, mysqlEnum, mysqlTable, text, uniqueIndex, varchar } from 'drizzle-orm/mysql-core';
 import { users } from './accounts';
 import { createdAt, idColumn, refColumn, updatedAt } from './columns';
+import { SHARE_ROLES } from '../../shared/api/rooms';
 
 /** One communication map. `version` counts content changes (people, ties, settings, name). */
 export const rooms = mysqlTable(
@@ -69,8 +70,6 @@ export const ties = mysqlTable(
   (t) => [uniqueIndex('ties_room_pair_uq').on(t.roomId, t.sourceId, t.targetId), index('ties_target_idx').on(t.targetId)],
 );
 
-export const shareRoles = ['editor', 'viewer'] as const;
-
 /** A room shared with another facilitator. */
 export const roomShares = mysqlTable(
   'room_shares',
@@ -82,7 +81,7 @@ export const roomShares = mysqlTable(
     userId: refColumn('user_id')
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
-    role: mysqlEnum('role', shareRoles).notNull(),
+    role: mysqlEnum('role', SHARE_ROLES).notNull(),
     createdAt: createdAt(),
   },
   (t) => [uniqueIndex('room_shares_room_user_uq').on(t.roomId, t.userId), index('room_shares_user_idx').on(t.userId)],

@@ -1,8 +1,7 @@
 import { boolean, index, int, json, mysqlEnum, mysqlTable, primaryKey, timestamp, uniqueIndex, varchar } from 'drizzle-orm/mysql-core';
 import { users } from './accounts';
 import { createdAt, idColumn, refColumn, updatedAt } from './columns';
-
-export const workshopStatuses = ['draft', 'collecting', 'running', 'debrief', 'closed'] as const;
+import { WORKSHOP_STATUSES } from '../../shared/api/workshops';
 
 /**
  * A live session. room_id and debrief_rehearsal_id are plain references (no foreign key):
@@ -19,7 +18,7 @@ export const workshops = mysqlTable(
     /** Calendar day of the session, YYYY-MM-DD. */
     sessionDate: varchar('session_date', { length: 10 }).notNull(),
     roomId: refColumn('room_id'),
-    status: mysqlEnum('status', workshopStatuses).notNull().default('draft'),
+    status: mysqlEnum('status', WORKSHOP_STATUSES).notNull().default('draft'),
     nominationLimit: int('nomination_limit').notNull().default(5),
     linkDays: int('link_days').notNull().default(30),
     showStarters: boolean('show_starters').notNull().default(false),

@@ -1,5 +1,6 @@
 import { Router, type NextFunction, type Request, type Response } from 'express';
 import type { OutboxMessage, OutboxRow } from '../../shared/api/accounts';
+import type { Page } from '../../shared/api/lists';
 import { adminOnly } from '../core/access';
 import { notFound } from '../core/http-error';
 import { parse } from '../core/validate';
@@ -25,7 +26,8 @@ export const outboxRouter = Router();
 outboxRouter.get('/', adminOnly(), fakeOn, async (req, res) => {
   const q = parse(pageQuery, req.query, 'query');
   const { rows, total } = await listOutbox(q);
-  res.json({ items: rows.map((r) => toRow({ ...r, envelopeTo: r.to })), total, page: q.page, size: q.size });
+  const page: Page<OutboxRow> = { items: rows.map((r) => toRow({ ...r, envelopeTo: r.to })), total, page: q.page, pageSize: q.pageSize };
+  res.json(page);
 });
 
 outboxRouter.get('/:id', adminOnly(), fakeOn, async (req, res) => {

@@ -1,28 +1,26 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { accountSortKeys, EMAIL_MAX, NAME_MAX, type AdminSettings } from '../../shared/api/accounts';
+import { ACCOUNT_ROLES, accountSortKeys, EMAIL_MAX, NAME_MAX, type AdminSettings, type AuditRow } from '../../shared/api/accounts';
 import { adminOnly } from '../core/access';
 import { auditFor } from '../core/audit';
 import { parse } from '../core/validate';
-import { accountPage, accountRoles, changeRole, invite, resendInvitation, revokeInvitation, sendResetLink, setStatus } from './service';
+import { accountPage, changeRole, invite, resendInvitation, revokeInvitation, sendResetLink, setStatus } from './service';
 import { listAudit } from './store';
 import { outboxRouter } from './outbox-routes';
 import { idParams, pageFields } from './queries';
+import { LIST_LIMITS, pageQueryFields, type Page } from '../../shared/api/lists';
 import { mailFakeOn } from '../mail/transport';
 
-const accountsQuery = z.strictObject({
-  ...pageFields,
-  sort: z.enum(accountSortKeys).default('createdAt'),
-  dir: z.enum(['asc', 'desc']).default('desc'),
-  filter: z.string().trim().max(200).default(''),
-});
-const auditQuery = z.strictObject({ ...pageFields, filter: z.string().trim().max(200).default('') });
+const accountsQuery = z.strictObject(
+  pageQueryFields({ ...LIST_LIMITS.admin, sorts: accountSortKeys, sort: 'createdAt', direction: 'desc' }),
+);
+const auditQuery = z.strictObject(pageFields);
 const inviteBody = z.strictObject({
   email: z.string().trim().toLowerCase().email('Enter an e-mail address.').max(EMAIL_MAX),
   name: z.string().trim().max(NAME_MAX).default(''),
-  role: z.enum(accountRoles).default('facilitator'),
+  role: z.enum(ACCOUNT_ROLES).default('facilitator'),
 });
-const roleBody = z.strictObject({ role: z.enum(accountRoles) });
+const roleBody = z.strictObject({ role: z.enum(ACCOUNT_ROLES) });
 
 /** The admin console API: every route is admin-only. */
 export const adminRouter = Router();
@@ -77,12 +75,13 @@ adminRouter.post('/accounts/:id/password-reset', adminOnly(), async (req, res) =
 adminRouter.get('/audit', adminOnly(), async (req, res) => {
   const q = parse(auditQuery, req.query, 'query');
   const { rows, total } = await listAudit(q);
-  res.json({
-    items: rows.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() })),
+  const page: Page<AuditRow> = {
+    items: rows.map((r) => ({ ...r, detail: r.detail as AuditRow['detail'], createdAt: r.createdAt.toISOString() })),
     total,
     page: q.page,
-    size: q.size,
-  });
+    pageSize: q.pageSize,
+  };
+  res.json(page);
 });
 
 adminRouter.use('/outbox', outboxRouter);

@@ -5,8 +5,8 @@ import {
   type AccountRow,
   type AccountSortKey,
   type InvitationState,
-  type Page,
 } from '../../shared/api/accounts';
+import type { ListParams, Page } from '../../shared/api/lists';
 import type { SignedInUser } from '../types';
 import { db, type Tx } from '../db';
 import type { AuditWriter } from '../core/audit';
@@ -26,10 +26,7 @@ import {
 } from '../auth/service';
 import { appLink, invitationMail, resetMail } from '../mail/templates';
 import { sendMail, type OutgoingMail } from '../mail/transport';
-import { activeAdminIds, insertInvitedUser, listAccounts, lockActiveAdmins, type PageQuery } from './store';
-
-/** The roles an account can have (the schema's list), for the routes' input checks. */
-export { accountRoles } from '../../db/schema/accounts';
+import { activeAdminIds, insertInvitedUser, listAccounts, lockActiveAdmins } from './store';
 
 /** Account administration: invitations, status, roles. The last active admin always stays. */
 
@@ -43,7 +40,7 @@ function invitationState(user: UserRow, token: TokenRow | undefined): Invitation
   return token.expiresAt.getTime() <= Date.now() ? 'expired' : 'pending';
 }
 
-export async function accountPage(q: PageQuery & { sort: AccountSortKey; dir: 'asc' | 'desc'; filter: string }): Promise<Page<AccountRow>> {
+export async function accountPage(q: ListParams<AccountSortKey>): Promise<Page<AccountRow>> {
   const { rows, total } = await listAccounts(q);
   const [invites, admins] = await Promise.all([latestInvites(rows.map((r) => r.id)), activeAdminIds()]);
   const items = rows.map((u): AccountRow => {
@@ -62,7 +59,7 @@ export async function accountPage(q: PageQuery & { sort: AccountSortKey; dir: 'a
       lastAdmin: admins.length === 1 && admins[0] === u.id,
     };
   });
-  return { items, total, page: q.page, size: q.size };
+  return { items, total, page: q.page, pageSize: q.pageSize };
 }
 
 async function deliver(mail: OutgoingMail, what: string): Promise<void> {

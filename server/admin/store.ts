@@ -5,15 +5,13 @@ import { mailMessages } from '../../db/schema/mail';
 import { rooms } from '../../db/schema/rooms';
 import { workshops } from '../../db/schema/workshops';
 import type { AccountRole, AccountSortKey } from '../../shared/api/accounts';
+import type { ListParams } from '../../shared/api/lists';
 import { db, type Tx } from '../db';
 import { firstOf } from '../../shared/checked';
 
 /** Data access for the admin console: accounts, audit log and the captured outbox. */
 
-export interface PageQuery {
-  page: number;
-  size: number;
-}
+export type PageQuery = Pick<ListParams, 'page' | 'pageSize' | 'q'>;
 
 const sortColumns = {
   name: users.name,
@@ -27,16 +25,16 @@ const sortColumns = {
 /** LIKE with the user's text taken literally (no wildcards of their own). */
 const contains = (text: string) => `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
 
-export async function listAccounts(q: PageQuery & { sort: AccountSortKey; dir: 'asc' | 'desc'; filter: string }) {
-  const where: SQL | undefined = q.filter ? or(like(users.name, contains(q.filter)), like(users.email, contains(q.filter))) : undefined;
-  const order = q.dir === 'asc' ? asc(sortColumns[q.sort]) : desc(sortColumns[q.sort]);
+export async function listAccounts(q: ListParams<AccountSortKey>) {
+  const where: SQL | undefined = q.q ? or(like(users.name, contains(q.q)), like(users.email, contains(q.q))) : undefined;
+  const order = q.direction === 'asc' ? asc(sortColumns[q.sort]) : desc(sortColumns[q.sort]);
   const rows = await db
     .select()
     .from(users)
     .where(where)
     .orderBy(order, asc(users.id))
-    .limit(q.size)
-    .offset(q.page * q.size);
+    .limit(q.pageSize)
+    .offset(q.page * q.pageSize);
   const { total } = firstOf(await db.select({ total: count() }).from(users).where(where), 'account count');
   return { rows, total };
 }
@@ -72,17 +70,17 @@ const owner = alias(users, 'owner');
  * account actions; for workshop and room actions the workshop's title or room's name and the
  * account it belongs to (a deleted one falls back to the title kept in the entry's detail).
  */
-export async function listAudit(q: PageQuery & { filter: string }) {
+export async function listAudit(q: PageQuery) {
   const joined = sql`${target.id} = CAST(${auditLog.targetId} AS UNSIGNED)`;
   const ownerId = sql`coalesce(${workshops.ownerId}, ${rooms.ownerId})`;
-  const where = q.filter
+  const where = q.q
     ? or(
-        like(auditLog.action, contains(q.filter)),
-        like(auditLog.actorEmail, contains(q.filter)),
-        like(target.email, contains(q.filter)),
-        like(owner.email, contains(q.filter)),
-        like(workshops.title, contains(q.filter)),
-        like(rooms.name, contains(q.filter)),
+        like(auditLog.action, contains(q.q)),
+        like(auditLog.actorEmail, contains(q.q)),
+        like(target.email, contains(q.q)),
+        like(owner.email, contains(q.q)),
+        like(workshops.title, contains(q.q)),
+        like(rooms.name, contains(q.q)),
       )
     : undefined;
   const base = () =>
@@ -107,8 +105,8 @@ export async function listAudit(q: PageQuery & { filter: string }) {
       .where(where);
   const rows = await base()
     .orderBy(desc(auditLog.id))
-    .limit(q.size)
-    .offset(q.page * q.size);
+    .limit(q.pageSize)
+    .offset(q.page * q.pageSize);
   const { total } = firstOf(await db.select({ total: count() }).from(base().as('matching')), 'audit entry count');
   return { rows, total };
 }
@@ -118,8 +116,8 @@ export async function listOutbox(q: PageQuery) {
     .select({ id: mailMessages.id, to: mailMessages.envelopeTo, subject: mailMessages.subject, createdAt: mailMessages.createdAt })
     .from(mailMessages)
     .orderBy(desc(mailMessages.id))
-    .limit(q.size)
-    .offset(q.page * q.size);
+    .limit(q.pageSize)
+    .offset(q.page * q.pageSize);
   const { total } = firstOf(await db.select({ total: count() }).from(mailMessages), 'outbox count');
   return { rows, total };
 }

@@ -1,3 +1,4 @@
+import type { ErrorEnvelope } from '../../shared/api/errors';
 import type { Request } from 'express';
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import { config } from '../config';
@@ -16,7 +17,7 @@ const WINDOW_MS = 15 * 60 * 1000;
 const tooMany = (prefix: string, message: string) => ({
   windowMs: WINDOW_MS,
   statusCode: 429,
-  message: { error: { code: 'rate_limited', message } },
+  message: { error: { code: 'rate_limited', message } } satisfies ErrorEnvelope,
   standardHeaders: 'draft-8' as const,
   legacyHeaders: false,
   store: createLimiterStore(prefix),

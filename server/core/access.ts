@@ -1,6 +1,6 @@
 import type { NextFunction, Request, RequestHandler, Response } from 'express';
 import { forbidden, unauthorized } from './http-error';
-import type { AccountRole } from '../../db/schema/accounts';
+import type { AccountRole } from '../../shared/api/accounts';
 
 /**
  * Every API route starts with exactly one access policy handler (deny by default):

@@ -37,6 +37,10 @@ const BUSY = new Set(['POOL_ACQUIRE_TIMEOUT', 'ER_LOCK_DEADLOCK', 'ER_LOCK_WAIT_
 /** The answer for a database error that is not a bug: 503 with what to do, or 409 for a duplicate. */
 export function databaseAnswer(err: unknown): HttpError | undefined {
   const code = dbErrorCode(err);
+  if (!code && poolClosed(err)) {
+    // The process is stopping and its pool is gone; another web process (or this one, restarted) serves the retry.
+    return new HttpError(503, 'busy', 'The server is restarting. Nothing you saved is lost; try again in a few seconds.');
+  }
   if (!code) return undefined;
   if (code === 'ER_DUP_ENTRY') return new HttpError(409, 'duplicate', 'That already exists.');
   if (UNAVAILABLE.has(code) || /^ER_.*(CONNECTION|SHUTDOWN)/.test(code)) {
@@ -50,4 +54,12 @@ export function databaseAnswer(err: unknown): HttpError | undefined {
     return new HttpError(503, 'busy', 'The server is busy with other work right now. Try again in a few seconds.');
   }
   return undefined;
+}
+
+/** The driver's refusal after pool.end(): it carries no code, only this message (also as a cause). */
+function poolClosed(err: unknown): boolean {
+  for (let e = err as DriverError | undefined, depth = 0; e && depth < 5; e = e.cause as DriverError | undefined, depth++) {
+    if ((e as { message?: unknown }).message === 'Pool is closed.') return true;
+  }
+  return false;
 }

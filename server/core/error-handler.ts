@@ -1,4 +1,5 @@
 import type { NextFunction, Request, Response } from 'express';
+import type { ErrorEnvelope } from '../../shared/api/errors';
 import { databaseAnswer } from './db-errors';
 import { HttpError } from './http-error';
 
@@ -34,14 +35,16 @@ export function errorHandler(err: unknown, req: Request, res: Response, _next: N
   if (known) {
     if (known.status >= 500) req.log?.warn({ err }, known.message);
     if (known.status === 503) res.set('Retry-After', '5');
-    res.status(known.status).json({ error: { code: known.code, message: known.message, details: known.details } });
+    const body: ErrorEnvelope = { error: { code: known.code, message: known.message, details: known.details } };
+    res.status(known.status).json(body);
     return;
   }
   req.log?.error({ err }, 'unhandled error');
-  res.status(500).json({
+  const body: ErrorEnvelope = {
     error: {
       code: 'internal',
       message: `Something went wrong on our side. Quote request id ${typeof req.id === 'object' ? JSON.stringify(req.id) : String(req.id)} if you report it.`,
     },
-  });
+  };
+  res.status(500).json(body);
 }

@@ -1,8 +1,10 @@
-/** An operational error: the client did something we can explain. Becomes a JSON answer. */
+import type { ErrorCode } from '../../shared/api/errors';
+
+/** An operational error: the client did something we can explain. Becomes a JSON answer (shared/api/errors.ts). */
 export class HttpError extends Error {
   constructor(
     readonly status: number,
-    readonly code: string,
+    readonly code: ErrorCode,
     message: string,
     readonly details?: unknown,
   ) {

@@ -1,12 +1,9 @@
 import { z } from 'zod';
+import { ID_PATTERN } from '../../shared/api/ids';
 import { notFound } from './http-error';
 
-/**
- * The one pattern for ids in URLs: decimal digits, no sign, no leading zero, no hex, no
- * exponent, no spaces, and small enough to be a safe integer. `0x1`, `1e3`, ` 1` and `01`
- * are not ids, so they are simply not found.
- */
-export const ID_PATTERN = /^[1-9]\d{0,15}$/;
+/** The one pattern for ids in URLs (shared/api/ids.ts), small enough to be a safe integer. */
+export { ID_PATTERN };
 
 /** The id if `raw` is one, else undefined. */
 export function asId(raw: unknown): number | undefined {

@@ -1,7 +1,7 @@
 import session from 'express-session';
 import MySQLStoreFactory from 'express-mysql-session';
 import type { RowDataPacket } from 'mysql2';
-import type { AccountRole } from '../../db/schema/accounts';
+import type { AccountRole } from '../../shared/api/accounts';
 import { pool } from '../db';
 
 /** The signed-in account as read together with its session row. */

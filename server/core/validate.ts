@@ -1,10 +1,6 @@
 import type { z } from 'zod';
+import type { FieldError } from '../../shared/api/errors';
 import { badRequest } from './http-error';
-
-export interface FieldError {
-  field: string;
-  message: string;
-}
 
 /** Parses with a zod schema; a failure becomes a 400 whose details name each field. */
 export function parse<S extends z.ZodType>(schema: S, value: unknown, where = 'request body'): z.infer<S> {

@@ -4,12 +4,7 @@ import { HttpError } from '../core/http-error';
 import { loadRoomFor, type RoomNeed } from '../rooms/access';
 import type { SignedInUser } from '../types';
 import { findJob, type JobRow } from './store';
-
-export function idOf(raw: unknown, what: string): number {
-  const s = String(raw);
-  if (!/^[1-9]\d{0,15}$/.test(s) || !Number.isSafeInteger(Number(s))) throw notFound(what);
-  return Number(s);
-}
+import { idOf } from '../core/ids';
 
 /** Runs the room check, turning the room's 404 into one about the item asked for. */
 export async function roomAccess(user: SignedInUser | undefined, roomId: number, need: RoomNeed, what: string) {

@@ -14,7 +14,7 @@ export async function checkJobQuota(userId: number, cascades = 0): Promise<void>
   if (open.jobs >= config.MAX_OPEN_JOBS_PER_USER) {
     throw new HttpError(
       429,
-      'QUOTA_JOBS',
+      'quota_jobs',
       `You already have ${n(open.jobs)} plans or rehearsals waiting or running (at most ${n(config.MAX_OPEN_JOBS_PER_USER)}): wait for one to finish or cancel one, then start this again.`,
       { open: open.jobs, max: config.MAX_OPEN_JOBS_PER_USER },
     );
@@ -22,7 +22,7 @@ export async function checkJobQuota(userId: number, cascades = 0): Promise<void>
   if (cascades > 0 && open.cascades + cascades > config.MAX_OPEN_CASCADES_PER_USER) {
     throw new HttpError(
       429,
-      'QUOTA_CASCADES',
+      'quota_cascades',
       `Your rehearsals waiting or running already hold ${n(open.cascades)} cascades; with ${n(cascades)} more you would pass your limit of ${n(config.MAX_OPEN_CASCADES_PER_USER)}: wait for one to finish, cancel one, or ask for fewer cascades.`,
       { open: open.cascades, asked: cascades, max: config.MAX_OPEN_CASCADES_PER_USER },
     );
@@ -34,7 +34,7 @@ export async function checkPlanQuota(userId: number): Promise<void> {
   if (stored >= config.MAX_PLANS_PER_USER) {
     throw new HttpError(
       409,
-      'QUOTA_PLANS',
+      'quota_plans',
       `You keep ${n(stored)} plans, the most one account may store (${n(config.MAX_PLANS_PER_USER)}): delete plans you no longer need, then try again.`,
       { stored, max: config.MAX_PLANS_PER_USER },
     );

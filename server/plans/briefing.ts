@@ -8,7 +8,7 @@ import { existsSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import PDFDocument from 'pdfkit';
 import { clockMinutes, clockTimes, DEFAULT_SEND_AT, formatClock, formatUtc } from '../../shared/api/briefing-clock';
-import { MODEL_CAUTIONS, type BriefingSheet } from '../../shared/api/plans';
+import type { BriefingSheet } from '../../shared/api/plans';
 import { writeCsvRows } from '../../shared/engine/index';
 import { parseResults, parseSnapshot } from './dto';
 import type { LoadedPlan } from './service';
@@ -16,6 +16,13 @@ import { roomName, roomVersion } from './store';
 import { planError } from './validate';
 import { personAt } from './snapshot';
 import { itemAt } from '../../shared/checked';
+
+/** The cautions printed on every sheet (screen, CSV and PDF): the server writes the sheet, so the words live here. */
+const MODEL_CAUTIONS: readonly string[] = [
+  'The model is a simplification of real conversation; treat these numbers as a planning aid.',
+  "A person's score says where they sit in the map, not what they are worth: never use it to judge or rank people's performance.",
+  'Who-talks-to-whom data about employees is personal data: keep this sheet to the people who need it.',
+];
 
 const fmt = (v: number, digits = 1) => (Math.round(v * 10 ** digits) / 10 ** digits).toFixed(digits);
 
@@ -28,7 +35,7 @@ function shareWords(share: number): string {
 export async function briefingSheet(plan: LoadedPlan): Promise<BriefingSheet> {
   const results = parseResults(plan);
   if (plan.status !== 'ready' || !results || plan.average === null) {
-    throw planError('NOT_READY', 'This plan is not computed yet: the briefing sheet needs a finished plan.');
+    throw planError('not_ready', 'This plan is not computed yet: the briefing sheet needs a finished plan.');
   }
   const snap = parseSnapshot(plan);
   const mph = plan.settings.minutesPerHop;

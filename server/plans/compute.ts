@@ -10,7 +10,6 @@ import {
   plan,
   prepareRoom,
   reachCurve,
-  type PlanMethodChoice,
   type PlanOptions,
   type PlanProgress,
   type PlanResult,
@@ -18,7 +17,9 @@ import {
   type RoomGraph,
 } from '../../shared/engine/index';
 import { planWithWorkers } from '../../shared/engine/parallel/index';
-import type { PlanSearchProgress, PlanSettingsSnapshot, ReachQuantileDto } from '../../shared/api/plans';
+import type { ErrorCode } from '../../shared/api/errors';
+import type { PlanMethodChoice, PlanSearchProgress, PlanSettingsSnapshot, ReachQuantileDto } from '../../shared/api/plans';
+import { engineCode } from './engine-code';
 
 export interface RoomSnapshot {
   graph: RoomGraph;
@@ -159,7 +160,7 @@ function extrasOf(r: PlanResult): { extras: ComputedExtras; absence: ComputedAbs
 }
 
 export interface ComputeFailure {
-  error: { code: string; message: string; detail?: Record<string, unknown> };
+  error: { code: ErrorCode; message: string; detail?: Record<string, unknown> };
 }
 
 export type ComputeOutcome<T> = { ok: T } | ComputeFailure;
@@ -262,7 +263,7 @@ export function scoreHandMade(task: HandMadeTask): ComputeOutcome<PlanComputatio
       .join(', ');
     return {
       error: {
-        code: 'UNREACHABLE_PEOPLE',
+        code: 'unreachable_people',
         message:
           `With these starters ${people.length} ${people.length === 1 ? 'person' : 'people'} can never hear (${named}${people.length > 5 ? ', ...' : ''}): ` +
           'add a starter in each part of the room that questions cannot leave.',
@@ -298,6 +299,6 @@ export function scoreHandMade(task: HandMadeTask): ComputeOutcome<PlanComputatio
 }
 
 export function asFailure(e: unknown): ComputeFailure {
-  if (isEngineError(e)) return { error: { code: e.code, message: e.message, detail: e.detail } };
+  if (isEngineError(e)) return { error: { code: engineCode(e.code), message: e.message, detail: e.detail } };
   throw e;
 }

@@ -1,5 +1,5 @@
 /** Plan rows -> API shapes (shared/api/plans.ts). */
-import type { PlanDetail, PlanMethodChoiceDto, PlanMethodUsed, PlanSummary, ReachCurveDto } from '../../shared/api/plans';
+import type { PlanDetail, PlanMethodChoice, PlanMethodUsed, PlanSummary, ReachCurveDto } from '../../shared/api/plans';
 import type { RoomSnapshot, StoredCurve } from './compute';
 import { sharedScores } from './bounds';
 import type { BoundRow, PlanListRow, PlanRow } from './store';
@@ -25,7 +25,7 @@ export function planSummary(row: PlanListRow, currentRoomVersion: number, bound?
     kind: row.kind,
     status: row.status,
     k: row.k,
-    methodRequested: row.methodRequested as PlanMethodChoiceDto | 'hand-made',
+    methodRequested: row.methodRequested as PlanMethodChoice | 'hand-made',
     methodUsed: (row.methodUsed as PlanMethodUsed | null) ?? null,
     nu: row.nu,
     timeLimitSeconds: row.timeLimitSeconds,

@@ -3,6 +3,7 @@ import { Router } from 'express';
 import { z } from 'zod';
 import { PLAN_LIMITS, PLAN_METHOD_CHOICES } from '../../shared/api/plans';
 import { NO_SHOW_LIMITS } from '../../shared/api/plan-rules';
+import { SEED_PATTERN } from '../../shared/api/ids';
 import { CLOCK_PATTERN, DEFAULT_SEND_AT } from '../../shared/api/briefing-clock';
 import { signedIn } from '../core/access';
 import { parse } from '../core/validate';
@@ -55,10 +56,7 @@ const updateSchema = z.strictObject({
 
 const sweepSchema = z.strictObject({
   maxK: z.number().int('maxK must be a whole number'),
-  seed: z
-    .string()
-    .regex(/^[A-Za-z0-9_-]{1,64}$/, 'Use 1-64 letters, digits, - or _.')
-    .optional(),
+  seed: z.string().regex(SEED_PATTERN, 'Use 1-64 letters, digits, - or _.').optional(),
 });
 
 const compareSchema = z.strictObject({ a: z.string(), b: z.string() });

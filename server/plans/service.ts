@@ -3,12 +3,20 @@
  * compare, k-sweep. Heavy work always goes to the plan worker pool; small plans are awaited in
  * the request, large ones (and exhaustive / auto) are queued as jobs with progress.
  */
-import type { CreatePlanRequest, KSweepResult, PlanComparison, PlanDetail, PlanStarted, PlanSummary } from '../../shared/api/plans';
+import type {
+  CreatePlanRequest,
+  KSweepResult,
+  PlanComparison,
+  PlanDetail,
+  PlanMethodChoice,
+  PlanStarted,
+  PlanSummary,
+} from '../../shared/api/plans';
 import { PLAN_LIMITS } from '../../shared/api/plans';
-import type { PlanMethodChoice } from '../../shared/engine/index';
 import { notFound } from '../core/http-error';
 import { db } from '../db';
-import { roomAccess, idOf } from '../jobs/access';
+import { roomAccess } from '../jobs/access';
+import { idOf } from '../core/ids';
 import { jobDto } from '../jobs/dto';
 import { onJobEvent } from '../jobs/events';
 import { runInPlanPool } from '../jobs/pools';
@@ -224,7 +232,7 @@ export const planJobHandler: JobHandler = {
 export async function rerunPlan(user: SignedInUser, plan: LoadedPlan): Promise<PlanStarted> {
   if (plan.kind !== 'computed' || plan.status === 'ready' || plan.status === 'computing') {
     throw planError(
-      'NOT_RERUNNABLE',
+      'not_rerunnable',
       plan.status === 'computing' ? 'This plan is still being computed.' : 'Only a computed plan that did not finish can be run again.',
     );
   }
@@ -255,7 +263,7 @@ export async function listPlans(user: SignedInUser, roomId: number): Promise<Pla
 export async function updatePlan(plan: LoadedPlan, patch: { name?: string; chosen?: boolean }): Promise<PlanSummary> {
   if (patch.name !== undefined) await store.updatePlan(plan.id, { name: patch.name.trim() });
   if (patch.chosen !== undefined) {
-    if (patch.chosen && plan.status !== 'ready') throw planError('NOT_READY', 'Only a finished plan can be marked as chosen.');
+    if (patch.chosen && plan.status !== 'ready') throw planError('not_ready', 'Only a finished plan can be marked as chosen.');
     await store.setChosen(plan.id, plan.roomId, patch.chosen);
   }
   const fresh = (await store.findPlan(plan.id))!;
@@ -268,7 +276,7 @@ export async function deletePlan(plan: LoadedPlan): Promise<void> {
 }
 
 export async function comparePlans(a: LoadedPlan, b: LoadedPlan): Promise<PlanComparison> {
-  if (a.roomId !== b.roomId) throw planError('INVALID_INPUT', 'Compare two plans of the same room.');
+  if (a.roomId !== b.roomId) throw planError('invalid_input', 'Compare two plans of the same room.');
   const version = (await store.roomVersion(a.roomId)) ?? a.roomVersion;
   const hops = (p: LoadedPlan) => {
     const r = parseResults(p);
@@ -315,10 +323,10 @@ export async function sweep(user: SignedInUser, roomId: number, maxK: number, se
   const snapshot = await snapshotOf(roomId);
   const n = snapshot.personIds.length;
   const cap = Math.min(n - 1, PLAN_LIMITS.sweepMaxK);
-  if (n < 2) throw planError('INVALID_K', 'A k-sweep needs a room of at least two people.');
+  if (n < 2) throw planError('invalid_k', 'A k-sweep needs a room of at least two people.');
   if (maxK < 1 || maxK > cap) {
     throw planError(
-      'INVALID_K',
+      'invalid_k',
       `The k-sweep goes up to k = ${cap} for this room (${n} people, at most ${PLAN_LIMITS.sweepMaxK}); got ${maxK}.`,
       { maxK, cap },
     );

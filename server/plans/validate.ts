@@ -4,20 +4,22 @@
  * exhaustive size limit. The engine's own validation (planContext, O(n + m) here) gives the codes.
  */
 import { isEngineError, unreachablePeople, type PreparedRoom } from '../../shared/engine/index';
+import type { ErrorCode } from '../../shared/api/errors';
 import { planContext } from '../../shared/engine/plan-context';
 import { PLAN_LIMITS, type CreatePlanRequest } from '../../shared/api/plans';
 import { planRequestProblems, startersProblem, type RuleProblem } from '../../shared/api/plan-rules';
 import { HttpError } from '../core/http-error';
+import { engineCode } from './engine-code';
 import type { RoomSnapshot } from './compute';
 import { personAt } from './snapshot';
 
-export function planError(code: string, message: string, details?: Record<string, unknown>): HttpError {
+export function planError(code: ErrorCode, message: string, details?: Record<string, unknown>): HttpError {
   return new HttpError(400, code, message, details);
 }
 
 /** Engine errors become 400 answers with the engine's code; anything else is rethrown. */
 export function fromEngine(e: unknown): never {
-  if (isEngineError(e)) throw planError(e.code, e.message, e.detail);
+  if (isEngineError(e)) throw planError(engineCode(e.code), e.message, e.detail);
   throw e;
 }
 
@@ -27,7 +29,7 @@ export function indicesOfPeople(snapshot: RoomSnapshot, ids: readonly number[], 
   const missing = ids.filter((id) => !index.has(id));
   if (missing.length > 0) {
     throw planError(
-      'UNKNOWN_PERSON',
+      'unknown_person',
       `${what}: ${missing.length === 1 ? `person ${missing[0]} is` : `people ${missing.join(', ')} are`} not in this room ` +
         '(deleted, or from another room). Reload the room and choose again.',
       { personIds: missing },
@@ -36,7 +38,7 @@ export function indicesOfPeople(snapshot: RoomSnapshot, ids: readonly number[], 
   const dupes = ids.filter((id, i) => ids.indexOf(id) !== i);
   const twice = dupes[0] === undefined ? undefined : index.get(dupes[0]);
   if (twice !== undefined)
-    throw planError('INVALID_STARTERS', `${what}: ${personAt(snapshot, twice).name} is listed twice.`, { personIds: dupes });
+    throw planError('invalid_starters', `${what}: ${personAt(snapshot, twice).name} is listed twice.`, { personIds: dupes });
   return ids.map((id) => index.get(id)!);
 }
 
@@ -63,7 +65,7 @@ export function checkPlannerRequest(
   if (first) throw ruleError(first, { k, people: n });
   if (body.method === 'exhaustive' && n > PLAN_LIMITS.exhaustiveMaxPeople) {
     throw planError(
-      'EXHAUSTIVE_INFEASIBLE',
+      'exhaustive_infeasible',
       `Exhaustive search is offered for rooms of at most ${PLAN_LIMITS.exhaustiveMaxPeople} people; this room has ${n}. ` +
         'Use auto (widened greedy then swap polish, with a proven gap) or swap polish instead.',
       { people: n, limit: PLAN_LIMITS.exhaustiveMaxPeople, suggest: 'auto' },
@@ -88,7 +90,7 @@ export function checkHandMade(room: PreparedRoom, snapshot: RoomSnapshot, starte
       .map((p) => p.name)
       .join(', ');
     throw planError(
-      'UNREACHABLE_PEOPLE',
+      'unreachable_people',
       `With these starters ${people.length} ${people.length === 1 ? 'person' : 'people'} can never hear (${named}${people.length > 5 ? ', ...' : ''}): ` +
         'add a starter in each part of the room that questions cannot leave.',
       { people },

@@ -12,7 +12,7 @@ import { personPositions } from './store';
 
 function samplesOf(row: LoadedRehearsal): StoredSample[] {
   if (row.job.status !== 'done' || !row.rehearsal.samples)
-    throw planError('NOT_READY', 'This rehearsal has not finished: its sample cascades are not available.');
+    throw planError('not_ready', 'This rehearsal has not finished: its sample cascades are not available.');
   return JSON.parse(row.rehearsal.samples) as StoredSample[];
 }
 

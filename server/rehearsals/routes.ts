@@ -1,7 +1,8 @@
 /** Rehearsals HTTP (contract in shared/api/plans.ts). */
 import { Router } from 'express';
 import { z } from 'zod';
-import { JOB_STATUSES, REHEARSAL_LIMITS, type JobStatus } from '../../shared/api/plans';
+import { JOB_STATUSES, REHEARSAL_LIMITS } from '../../shared/api/plans';
+import { ID_PATTERN } from '../../shared/api/ids';
 import { signedIn } from '../core/access';
 import { parse } from '../core/validate';
 import { roomAccess } from '../jobs/access';
@@ -32,12 +33,8 @@ const isoDate = z
   .transform((s) => new Date(s));
 
 const listSchema = z.strictObject({
-  planId: z
-    .string()
-    .regex(/^\d{1,15}$/, 'planId must be a plan id')
-    .transform(Number)
-    .optional(),
-  status: z.enum(JOB_STATUSES as [JobStatus, ...JobStatus[]]).optional(),
+  planId: z.string().regex(ID_PATTERN, 'planId must be a plan id').transform(Number).optional(),
+  status: z.enum(JOB_STATUSES).optional(),
   from: isoDate.optional(),
   to: isoDate.optional(),
 });

@@ -6,7 +6,6 @@
 import { randomBytes } from 'node:crypto';
 import {
   IDEMPOTENCY_WINDOW_MS,
-  REHEARSAL_LIMITS,
   type RehearsalDetail,
   type RehearsalStarted,
   type RehearsalSummary,
@@ -18,7 +17,8 @@ import { Z99 } from '../../shared/engine/index';
 import { config } from '../config';
 import { conflict, notFound } from '../core/http-error';
 import { db } from '../db';
-import { idOf, roomAccess } from '../jobs/access';
+import { roomAccess } from '../jobs/access';
+import { idOf } from '../core/ids';
 import { jobDto } from '../jobs/dto';
 import { queuePositions } from '../jobs/positions';
 import { checkJobQuota } from '../jobs/quotas';
@@ -34,7 +34,6 @@ import type { SignedInUser } from '../types';
 import type { StoredRehearsalResults } from './results';
 import * as store from './store';
 
-export const SEED_PATTERN = new RegExp(REHEARSAL_LIMITS.seedPattern);
 export type LoadedRehearsal = NonNullable<Awaited<ReturnType<typeof store.findRehearsal>>>;
 
 export async function loadRehearsalFor(user: SignedInUser | undefined, raw: unknown, need: RoomNeed): Promise<LoadedRehearsal> {
@@ -75,7 +74,7 @@ export async function startRehearsal(
   body: StartRehearsalRequest,
   rerunOf: { id: number } | null = null,
 ): Promise<RehearsalStarted> {
-  if (plan.status !== 'ready') throw planError('NOT_READY', 'This plan is not computed yet: rehearse it once it is ready.');
+  if (plan.status !== 'ready') throw planError('not_ready', 'This plan is not computed yet: rehearse it once it is ready.');
   checkRuns(body.runs);
   if (body.seed !== undefined) checkSeed(body.seed);
   const seed = body.seed ?? randomSeed();

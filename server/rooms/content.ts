@@ -5,7 +5,7 @@
  */
 import { ROOM_LIMITS, type RoomSettings } from '../../shared/api/rooms';
 import { badRequest } from '../core/http-error';
-import type { FieldError } from '../core/validate';
+import type { FieldError } from '../../shared/api/errors';
 import type { NewPersonInput } from './schemas';
 import type { PersonRowInput, TieRowInput } from './store';
 

@@ -6,7 +6,7 @@
 import { ROOM_LIMITS } from '../../shared/api/rooms';
 import type { people as peopleTable } from '../../db/schema/rooms';
 import type { Tx } from '../db';
-import type { FieldError } from '../core/validate';
+import type { FieldError } from '../../shared/api/errors';
 import { failFields, keyMaker, pairKey, type PersonRowInput } from './content';
 import type { EditOpInput } from './schemas';
 import * as store from './store';

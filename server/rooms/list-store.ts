@@ -1,7 +1,8 @@
 /** The rooms list (GET /api/rooms): one prepared statement per list shape. */
 import { and, asc, desc, eq, isNotNull, like, or, sql, type Placeholder } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
-import type { Page, RoomListItem } from '../../shared/api/rooms';
+import type { Page } from '../../shared/api/lists';
+import type { RoomListItem } from '../../shared/api/rooms';
 import { firstOf } from '../../shared/checked';
 import { users } from '../../db/schema/accounts';
 import { roomShares, rooms } from '../../db/schema/rooms';

@@ -7,6 +7,7 @@ import { Router, type NextFunction, type Request, type Response } from 'express'
 import { z } from 'zod';
 import { DEFAULT_ROOM_SETTINGS, ROOM_LIMITS as L } from '../../shared/api/rooms';
 import type { OrgChartReport } from '../../shared/api/org-chart';
+import { NOT_A_STRENGTH, strength } from '../../shared/api/room-rules';
 import { signedIn } from '../core/access';
 import { auditFor } from '../core/audit';
 import { HttpError } from '../core/http-error';
@@ -21,18 +22,15 @@ export const orgChartRouter = Router();
 
 const query = z.strictObject({ dryRun: z.enum(['true', 'false'], 'dryRun must be true or false.').default('true') });
 const header = z.string().trim().min(1, 'Choose a column.').max(200, 'At most 200 characters.');
-const strength = (what: string) =>
-  z.coerce
-    .number({ error: `${what} must be a number.` })
-    .positive(`${what} must be more than 0.`)
-    .max(L.maxStrength, `${what} must be at most ${L.maxStrength}.`);
+/** A multipart field is text: read it as a number, then the one tie rule (shared/api/room-rules.ts). */
+const formStrength = z.coerce.number({ error: NOT_A_STRENGTH }).pipe(strength);
 const form = z.strictObject({
   personColumn: header.optional(),
   managerColumn: header.optional(),
   nameColumn: header.optional(),
   departmentColumn: header.optional(),
-  reportsTo: strength('The manager-report strength').default(DEFAULT_STRENGTHS.reportsTo),
-  sameManager: strength('The same-manager strength').default(DEFAULT_STRENGTHS.sameManager),
+  reportsTo: formStrength.default(DEFAULT_STRENGTHS.reportsTo),
+  sameManager: formStrength.default(DEFAULT_STRENGTHS.sameManager),
   roomName: roomName.optional(),
   version: z.coerce.number({ error: 'version must be a number.' }).int().min(1).optional(),
 });

@@ -9,6 +9,8 @@ import {
   TIE_SORTS,
   type RoomEditOp,
 } from '../../shared/api/rooms';
+import { LIST_LIMITS, pageQueryFields } from '../../shared/api/lists';
+import { coordinate, newPerson, newRoomTie, personFields, strength } from '../../shared/api/room-rules';
 
 const text = (what: string, max: number) =>
   z
@@ -20,12 +22,6 @@ const required = (what: string, max: number) => text(what, max).min(1, `Enter th
 
 export const roomName = required('room name', L.roomNameMax);
 const description = text('description', L.descriptionMax);
-
-export const strength = z
-  .number({ error: 'Enter the strength as a number.' })
-  .refine((v) => Number.isFinite(v), 'The strength must be a finite number.')
-  .refine((v) => v > 0, 'A tie needs a strength above 0 (delete the tie if there is none).')
-  .refine((v) => v <= L.maxStrength, `The strength can be at most ${L.maxStrength}; check the unit or rescale.`);
 
 const between = (what: string, min: number, max: number, closedMax = true) =>
   z
@@ -40,47 +36,7 @@ export const settingsPatch = z.strictObject({
   mixing: between('Background mixing', S.mixing.min, S.mixing.max).optional(),
 });
 
-const coordinate = z
-  .number({ error: 'Positions must be numbers.' })
-  .refine((v) => Number.isFinite(v) && Math.abs(v) <= 1e7, 'Positions must be finite numbers within +-10,000,000.');
-
-export const personKey = text('person id', L.personKeyMax)
-  .min(1, 'The person id cannot be empty.')
-  .regex(/^[^\r\n\t]*$/, 'The person id cannot contain line breaks or tabs.');
-
-const nullableText = (what: string, max: number) =>
-  z
-    .union([text(what, max), z.null()])
-    .transform((v) => (v === '' ? null : v))
-    .optional();
-
-const email = z
-  .union([
-    z.literal(''),
-    z.string().trim().toLowerCase().email('Enter a valid e-mail address or leave it empty.').max(L.emailMax),
-    z.null(),
-  ])
-  .transform((v) => (v === '' ? null : v))
-  .optional();
-
-const personFields = {
-  key: personKey.optional(),
-  name: required('name', L.personNameMax),
-  group: nullableText('group', L.groupMax),
-  email,
-  x: z.union([coordinate, z.null()]).optional(),
-  y: z.union([coordinate, z.null()]).optional(),
-  pinned: z.boolean().optional(),
-};
-
-export const newPerson = z.strictObject(personFields);
 export type NewPersonInput = z.infer<typeof newPerson>;
-
-export const newRoomTie = z.strictObject({
-  source: personKey,
-  target: personKey,
-  strength: strength.optional(),
-});
 
 export const createRoomBody = z.strictObject({
   name: roomName,
@@ -110,7 +66,7 @@ const editOp = z.discriminatedUnion(
   'op',
   [
     z.strictObject({ op: z.literal('addPerson'), tempId, ...personFields }),
-    z.strictObject({ op: z.literal('updatePerson'), id, ...personFields, name: personFields.name.optional() }),
+    z.strictObject({ op: z.literal('updatePerson'), id, ...personFields, name: z.optional(personFields.name) }),
     z.strictObject({ op: z.literal('deletePerson'), id }),
     z.strictObject({ op: z.literal('addTie'), tempId: tempId.optional(), source: ref, target: ref, strength }),
     z.strictObject({ op: z.literal('updateTie'), id, strength }),
@@ -135,26 +91,18 @@ export type EditOpInput = z.infer<typeof editOp>;
 // Keeps the zod shapes and the shared contract in step: a mismatch fails the type check.
 export const opShapeCheck: (op: EditOpInput) => RoomEditOp = (op) => op;
 
-const page = {
-  page: z.coerce.number({ error: 'page must be a number.' }).int().min(0, 'page starts at 0.').default(0),
-  pageSize: z.coerce.number().int().min(1).max(L.pageSizeMax, `pageSize can be at most ${L.pageSizeMax}.`).default(L.pageSizeDefault),
-  direction: z.enum(['asc', 'desc'], 'direction must be asc or desc.').default('asc'),
-  q: z.string().trim().max(200).optional(),
-};
+const list = { ...LIST_LIMITS.rooms, direction: 'asc' } as const;
 
 export const roomListQuery = z.strictObject({
-  ...page,
-  sort: z.enum(ROOM_SORTS, `sort must be one of ${ROOM_SORTS.join(', ')}.`).default('updatedAt'),
+  ...pageQueryFields({ ...list, sorts: ROOM_SORTS, sort: 'updatedAt' }),
   scope: z.enum(['all', 'mine', 'shared']).default('all'),
 });
 export const peopleQuery = z.strictObject({
-  ...page,
-  sort: z.enum(PEOPLE_SORTS, `sort must be one of ${PEOPLE_SORTS.join(', ')}.`).default('order'),
+  ...pageQueryFields({ ...list, sorts: PEOPLE_SORTS, sort: 'order' }),
   group: z.string().trim().max(L.groupMax).optional(),
 });
 export const tiesQuery = z.strictObject({
-  ...page,
-  sort: z.enum(TIE_SORTS, `sort must be one of ${TIE_SORTS.join(', ')}.`).default('source'),
+  ...pageQueryFields({ ...list, sorts: TIE_SORTS, sort: 'source' }),
   personId: z.coerce.number().int().positive().optional(),
 });
 

@@ -1,4 +1,5 @@
 /** Sharing a room with another facilitator as editor or viewer: list, add (with an e-mail), change role, revoke. */
+import type { ErrorCode } from '../../shared/api/errors';
 import type { ShareDto, ShareRole } from '../../shared/api/rooms';
 import { HttpError, notFound } from '../core/http-error';
 import { publicUrl } from '../config';
@@ -19,7 +20,7 @@ async function shareOf(roomId: number, userId: number): Promise<ShareDto> {
   return found;
 }
 
-const fieldError = (status: number, code: string, message: string) =>
+const fieldError = (status: number, code: ErrorCode, message: string) =>
   new HttpError(status, code, message, { fields: [{ field: 'email', message }] });
 
 export async function addShare(room: RoomRow, sharedBy: { id: number; name: string }, email: string, role: ShareRole): Promise<ShareDto> {

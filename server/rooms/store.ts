@@ -1,7 +1,8 @@
 /** Rooms data access (Drizzle on MariaDB: select / join only, bulk inserts in chunks). */
 import { and, asc, desc, eq, gte, inArray, like, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
-import type { Page, PersonDto, RoomSettings, TieDto, TieListItem } from '../../shared/api/rooms';
+import type { ListParams, Page } from '../../shared/api/lists';
+import type { PersonDto, RoomSettings, TieDto, TieListItem } from '../../shared/api/rooms';
 import { firstOf, itemAt } from '../../shared/checked';
 import { people, rooms, ties } from '../../db/schema/rooms';
 import { db, type Conn, type Tx } from '../db';
@@ -199,13 +200,7 @@ export async function countContent(roomId: number, tx: Conn = db): Promise<{ peo
 
 // ---- lists ----
 
-export interface ListParams<S extends string> {
-  page: number;
-  pageSize: number;
-  sort: S;
-  direction: 'asc' | 'desc';
-  q?: string;
-}
+export type { ListParams } from '../../shared/api/lists';
 
 export const iso = (d: Date) => d.toISOString();
 

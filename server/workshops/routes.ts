@@ -1,3 +1,4 @@
+import type { ErrorEnvelope } from '../../shared/api/errors';
 import { Router } from 'express';
 import { z } from 'zod';
 import { BUILD_MODES, NAME_MAX, NOMINATION_LIMIT_MAX, ROSTER_MAX, TITLE_MAX, WORKSHOP_STATUSES } from '../../shared/api/workshops';
@@ -178,13 +179,13 @@ workshopsRouter.post('/:id/participants/roster', signedIn(), async (req, res) =>
         rows.map((r) => ({ ...r, personId: null })),
       )
     : { added: 0, skipped: [] };
-  res
-    .status(rows.length ? 201 : 400)
-    .json(
-      rows.length
-        ? { ...result, issues }
-        : { error: { code: 'bad_roster', message: issues[0]?.message ?? 'The roster has no names.', details: { issues } } },
-    );
+  res.status(rows.length ? 201 : 400).json(
+    rows.length
+      ? { ...result, issues }
+      : ({
+          error: { code: 'bad_roster', message: issues[0]?.message ?? 'The roster has no names.', details: { issues } },
+        } satisfies ErrorEnvelope),
+  );
 });
 
 workshopsRouter.post('/:id/participants/from-room', signedIn(), async (req, res) => {

@@ -1,7 +1,10 @@
 /** Account and admin API shapes, shared by the client and the server (no Node or DOM imports). */
 
-export type AccountRole = 'admin' | 'facilitator';
-export type AccountStatus = 'invited' | 'active' | 'deactivated';
+/** Also the database's enums (db/schema/accounts.ts). */
+export const ACCOUNT_ROLES = ['admin', 'facilitator'] as const;
+export type AccountRole = (typeof ACCOUNT_ROLES)[number];
+export const ACCOUNT_STATUSES = ['invited', 'active', 'deactivated'] as const;
+export type AccountStatus = (typeof ACCOUNT_STATUSES)[number];
 /** Where an invited account's latest invitation stands. */
 export type InvitationState = 'pending' | 'expired' | 'revoked' | 'accepted' | 'none';
 
@@ -27,13 +30,6 @@ export interface AccountRow {
   createdAt: string;
   /** The only active admin: the server refuses to take the role away, so the screen does not offer it. */
   lastAdmin: boolean;
-}
-
-export interface Page<T> {
-  items: T[];
-  total: number;
-  page: number;
-  size: number;
 }
 
 export const accountSortKeys = ['name', 'email', 'role', 'status', 'lastSignInAt', 'createdAt'] as const;

@@ -18,9 +18,3 @@ export interface BriefingSheet {
   expectations: { share: number; hop: number | null; minutes: number | null; line: string }[];
   cautions: string[];
 }
-
-export const MODEL_CAUTIONS: readonly string[] = [
-  'The model is a simplification of real conversation; treat these numbers as a planning aid.',
-  "A person's score says where they sit in the map, not what they are worth: never use it to judge or rank people's performance.",
-  'Who-talks-to-whom data about employees is personal data: keep this sheet to the people who need it.',
-];

@@ -1,10 +1,11 @@
 /** Background jobs (plans computed in the background and rehearsals): status, progress and the event stream. See plans.ts for the routes. */
 
-export type JobStatus = 'queued' | 'running' | 'done' | 'failed' | 'cancelled' | 'interrupted';
+/** Also the database's enums (db/schema/plans.ts). */
+export const JOB_STATUSES = ['queued', 'running', 'done', 'failed', 'cancelled', 'interrupted'] as const;
+export type JobStatus = (typeof JOB_STATUSES)[number];
 
-export const JOB_STATUSES: readonly JobStatus[] = ['queued', 'running', 'done', 'failed', 'cancelled', 'interrupted'];
-
-export type JobKind = 'plan' | 'rehearsal';
+export const JOB_KINDS = ['plan', 'rehearsal'] as const;
+export type JobKind = (typeof JOB_KINDS)[number];
 
 export interface JobDto {
   id: number;

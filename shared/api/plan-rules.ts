@@ -6,14 +6,16 @@
  * Order matters and is the same on both sides: the budget first; the constraints only once the
  * budget is valid (so "k = 61" reads as a budget problem, never as a constraint problem).
  */
-import { PLAN_LIMITS, REHEARSAL_LIMITS } from './plans';
+import type { ErrorCode } from './errors';
+import { SEED_PATTERN } from './ids';
+import { PLAN_LIMITS } from './plans';
 
 export type PlanField = 'k' | 'mustBrief' | 'cannotBrief' | 'starters' | 'noShow' | 'timeLimitSeconds';
 
 export interface RuleProblem<F extends string = PlanField> {
   field: F;
   /** The server's error code for this problem. */
-  code: string;
+  code: ErrorCode;
   message: string;
 }
 
@@ -28,7 +30,7 @@ export function budgetRange(roomSize: number): { min: number; max: number } {
 }
 
 export function budgetProblem(k: unknown, roomSize: number): RuleProblem | null {
-  const bad = (message: string): RuleProblem => ({ field: 'k', code: 'INVALID_K', message });
+  const bad = (message: string): RuleProblem => ({ field: 'k', code: 'invalid_k', message });
   if (roomSize < 2) return bad(`This room has ${people(roomSize)}: a plan needs at least 2 people.`);
   const { max } = budgetRange(roomSize);
   if (k === null || k === undefined || k === '' || typeof k !== 'number' || !Number.isFinite(k))
@@ -42,7 +44,7 @@ export function budgetProblem(k: unknown, roomSize: number): RuleProblem | null 
 export function noShowProblem(chance: unknown): RuleProblem | null {
   if (chance === null || chance === undefined || chance === '') return null;
   if (typeof chance !== 'number' || !Number.isFinite(chance) || chance < NO_SHOW_LIMITS.min || chance > NO_SHOW_LIMITS.max)
-    return { field: 'noShow', code: 'INVALID_OPTION', message: 'The no-show chance is 0 to 50 %.' };
+    return { field: 'noShow', code: 'invalid_option', message: 'The no-show chance is 0 to 50 %.' };
   return null;
 }
 
@@ -51,7 +53,7 @@ export function timeLimitProblem(seconds: unknown): RuleProblem | null {
   if (seconds === null || seconds === undefined || seconds === '') return null;
   const { min, max } = PLAN_LIMITS.timeLimitSeconds;
   if (typeof seconds !== 'number' || !Number.isFinite(seconds) || seconds < min || seconds > max)
-    return { field: 'timeLimitSeconds', code: 'INVALID_OPTION', message: `The time limit is ${min} to ${max} seconds.` };
+    return { field: 'timeLimitSeconds', code: 'invalid_option', message: `The time limit is ${min} to ${max} seconds.` };
   return null;
 }
 
@@ -74,7 +76,7 @@ export function planRequestProblems(input: PlanRuleInput, roomSize: number, name
   if (both.length > 0) {
     out.push({
       field: 'cannotBrief',
-      code: 'CONFLICTING_CONSTRAINTS',
+      code: 'conflicting_constraints',
       message: `${both.map(nameOf).join(', ')} cannot be in both lists: remove ${both.length === 1 ? 'them' : 'each'} from one.`,
     });
   }
@@ -83,7 +85,7 @@ export function planRequestProblems(input: PlanRuleInput, roomSize: number, name
   if (input.mustBrief.length > k) {
     out.push({
       field: 'mustBrief',
-      code: 'MUST_INCLUDE_TOO_MANY',
+      code: 'must_include_too_many',
       message: `${people(input.mustBrief.length)} must be briefed but the budget is ${k}: raise the budget to ${input.mustBrief.length} or remove someone.`,
     });
   }
@@ -91,7 +93,7 @@ export function planRequestProblems(input: PlanRuleInput, roomSize: number, name
   if (both.length === 0 && available < k) {
     out.push({
       field: 'cannotBrief',
-      code: 'NO_FEASIBLE_PLAN',
+      code: 'no_feasible_plan',
       message: `Only ${available} of ${roomSize} people may be briefed, fewer than the budget of ${k}: allow more people or lower the budget.`,
     });
   }
@@ -101,11 +103,11 @@ export function planRequestProblems(input: PlanRuleInput, roomSize: number, name
 /** A hand-made plan: 1 to n - 1 starters. */
 export function startersProblem(count: number, roomSize: number): RuleProblem | null {
   const { max } = budgetRange(roomSize);
-  if (count < 1) return { field: 'starters', code: 'INVALID_K', message: 'Pick at least one starter.' };
+  if (count < 1) return { field: 'starters', code: 'invalid_k', message: 'Pick at least one starter.' };
   if (count > max)
     return {
       field: 'starters',
-      code: 'INVALID_K',
+      code: 'invalid_k',
       message: `Pick at most ${max} starters in a room of ${roomSize}: leave someone to hear it by word of mouth.`,
     };
   return null;
@@ -114,18 +116,17 @@ export function startersProblem(count: number, roomSize: number): RuleProblem | 
 // ---- rehearsals ----
 
 export type RehearsalField = 'runs' | 'seed';
-const SEED = new RegExp(REHEARSAL_LIMITS.seedPattern);
 
 /** Cascades: a whole number from 1 to the server's cap. */
 export function runsProblem(runs: unknown, cap: number): RuleProblem<RehearsalField> | null {
-  const bad = (code: string, message: string): RuleProblem<RehearsalField> => ({ field: 'runs', code, message });
+  const bad = (code: ErrorCode, message: string): RuleProblem<RehearsalField> => ({ field: 'runs', code, message });
   if (runs === null || runs === undefined || runs === '' || typeof runs !== 'number' || !Number.isFinite(runs))
-    return bad('INVALID_OPTION', 'Enter how many cascades to simulate.');
-  if (!Number.isInteger(runs)) return bad('INVALID_OPTION', `Cascades are a whole number: 1 to ${cap.toLocaleString('en-US')}.`);
-  if (runs < 1) return bad('INVALID_OPTION', `Simulate at least 1 cascade (at most ${cap.toLocaleString('en-US')}).`);
+    return bad('invalid_option', 'Enter how many cascades to simulate.');
+  if (!Number.isInteger(runs)) return bad('invalid_option', `Cascades are a whole number: 1 to ${cap.toLocaleString('en-US')}.`);
+  if (runs < 1) return bad('invalid_option', `Simulate at least 1 cascade (at most ${cap.toLocaleString('en-US')}).`);
   if (runs > cap)
     return bad(
-      'TOO_MANY_CASCADES',
+      'too_many_cascades',
       `At most ${cap.toLocaleString('en-US')} cascades per rehearsal (you asked for ${runs.toLocaleString('en-US')}): lower the number.`,
     );
   return null;
@@ -133,11 +134,11 @@ export function runsProblem(runs: unknown, cap: number): RuleProblem<RehearsalFi
 
 export function seedProblem(seed: unknown): RuleProblem<RehearsalField> | null {
   const s = typeof seed === 'string' ? seed : '';
-  if (s === '') return { field: 'seed', code: 'INVALID_SEED', message: 'Enter a seed, or press the dice for a random one.' };
-  if (!SEED.test(s))
+  if (s === '') return { field: 'seed', code: 'invalid_seed', message: 'Enter a seed, or press the dice for a random one.' };
+  if (!SEED_PATTERN.test(s))
     return {
       field: 'seed',
-      code: 'INVALID_SEED',
+      code: 'invalid_seed',
       message: 'A seed is 1 to 64 letters, digits, "-" or "_" (for example 2026-allhands), no spaces.',
     };
   return null;

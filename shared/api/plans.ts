@@ -46,18 +46,20 @@
  * Plans keep a snapshot of the room they were computed on: `stale` says the room changed since;
  * the numbers, the briefing sheet and rehearsals always use the snapshot.
  *
- * Errors: 400 answers carry `error.code`; planner errors use the engine's EngineError codes
- * (INVALID_K, K_BELOW_CLOSED_GROUPS, MUST_INCLUDE_TOO_MANY, CONFLICTING_CONSTRAINTS,
- * NO_FEASIBLE_PLAN, EXHAUSTIVE_INFEASIBLE, UNKNOWN_PERSON, INVALID_OPTION, INVALID_STARTERS), plus
- * UNREACHABLE_PEOPLE (a hand-made plan leaves people who can never hear; `details.people`),
- * TOO_MANY_CASCADES, INVALID_SEED, NOT_READY (plan or rehearsal not finished), NOT_RERUNNABLE. `error.details.suggest` names another method when
+ * Errors (codes in ./errors.ts): planner errors use the engine's EngineError codes in snake_case
+ * (invalid_k, k_below_closed_groups, must_include_too_many, conflicting_constraints,
+ * no_feasible_plan, exhaustive_infeasible, unknown_person, invalid_option, invalid_starters), plus
+ * unreachable_people (a hand-made plan leaves people who can never hear; `details.people`),
+ * too_many_cascades, invalid_seed, not_ready (plan or rehearsal not finished), not_rerunnable.
+ * `error.details.suggest` names another method when
  * one would work. Rooms the caller cannot see answer 404; viewers get 403 on changes.
  */
 import type { JobDto } from './jobs';
 
 export const PLAN_METHOD_CHOICES = ['auto', 'greedy', 'widened', 'swap', 'exhaustive'] as const;
 
-export type PlanMethodChoiceDto = (typeof PLAN_METHOD_CHOICES)[number];
+/** The methods a plan request may name (the server hands them to the engine, so the type check keeps them among the engine's). */
+export type PlanMethodChoice = (typeof PLAN_METHOD_CHOICES)[number];
 
 /** What was actually run ('auto' resolves to one of the engine's methods). */
 export type PlanMethodUsed = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy' | 'screen' | 'hand-made';
@@ -85,7 +87,7 @@ export interface CreatePlanRequest {
   name?: string;
   /** Budget: number of starters. Required unless `starters` is given. */
   k?: number;
-  method?: PlanMethodChoiceDto;
+  method?: PlanMethodChoice;
   /** Widened greedy threshold (0..1). */
   nu?: number;
   /** Exhaustive / auto time limit in seconds. */
@@ -138,7 +140,9 @@ export interface UpdatePlanRequest {
   chosen?: boolean;
 }
 
-export type PlanStatus = 'computing' | 'ready' | 'failed' | 'cancelled' | 'interrupted';
+/** Also the database's enum (db/schema/plans.ts). */
+export const PLAN_STATUSES = ['computing', 'ready', 'failed', 'cancelled', 'interrupted'] as const;
+export type PlanStatus = (typeof PLAN_STATUSES)[number];
 
 export interface PlanStarterDto {
   personId: number;
@@ -162,7 +166,7 @@ export interface PlanSummary {
   kind: 'computed' | 'hand-made';
   status: PlanStatus;
   k: number;
-  methodRequested: PlanMethodChoiceDto | 'hand-made';
+  methodRequested: PlanMethodChoice | 'hand-made';
   methodUsed: PlanMethodUsed | null;
   nu: number | null;
   timeLimitSeconds: number | null;

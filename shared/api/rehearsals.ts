@@ -1,11 +1,12 @@
 /** Rehearsals: seeded simulated cascades of a plan, checked against the plan's analysis. See plans.ts for the routes. */
+import { SEED_PATTERN } from './ids';
 import type { JobDto, JobStatus } from './jobs';
 
 export const REHEARSAL_LIMITS = {
   /** Default cascades; the server's cap (config MAX_CASCADES) is reported in `ServerLimits`. */
   defaultRuns: 5000,
-  /** Seeds: 1-64 characters of letters, digits, '-' and '_'. */
-  seedPattern: '^[A-Za-z0-9_-]{1,64}$',
+  /** Seeds: 1-64 characters of letters, digits, '-' and '_' (SEED_PATTERN in ./ids.ts, as text for the command line). */
+  seedPattern: SEED_PATTERN.source,
   idempotencyKeyMax: 100,
   /** Whole cascades kept for the replay. */
   samples: 3,

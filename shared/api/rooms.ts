@@ -26,6 +26,8 @@
  * not change the analysis, so a colleague dragging people never causes a 409 for you.
  */
 
+import type { PageQuery } from './lists';
+
 export const ROOM_LIMITS = {
   maxPeople: 3000,
   maxTies: 60000,
@@ -41,8 +43,6 @@ export const ROOM_LIMITS = {
   maxOpsPerBatch: 2000,
   /** Upload size limit for one import file. */
   maxUploadBytes: 8 * 1024 * 1024,
-  pageSizeMax: 500,
-  pageSizeDefault: 50,
 } as const;
 
 export const SETTINGS_LIMITS = {
@@ -65,8 +65,9 @@ export interface RoomSettings {
 export const DEFAULT_ROOM_SETTINGS: RoomSettings = { directed: false, minutesPerHop: 5, laziness: 0, mixing: 0 };
 
 export type RoomAccess = 'owner' | 'editor' | 'viewer';
-export type ShareRole = 'editor' | 'viewer';
-export const SHARE_ROLES: readonly ShareRole[] = ['editor', 'viewer'];
+/** Also the database's enum (db/schema/rooms.ts). */
+export const SHARE_ROLES = ['editor', 'viewer'] as const;
+export type ShareRole = (typeof SHARE_ROLES)[number];
 
 export interface RoomListItem {
   id: number;
@@ -193,12 +194,6 @@ export interface RoomEditResult {
   ties: Record<string, number>;
 }
 
-/** Field-level errors in 400 answers: `error.details.fields`. Batch ops are named `ops.3.strength`. */
-export interface FieldError {
-  field: string;
-  message: string;
-}
-
 // ---- import ----
 
 export type ImportFormat = 'csv' | 'graphml' | 'json';
@@ -310,25 +305,17 @@ export interface RoomHint {
   message: string;
 }
 
-// ---- lists ----
+// ---- lists (the query and answer shapes are in ./lists.ts) ----
 
-export type SortDirection = 'asc' | 'desc';
+// Kept so code that still imports these from here compiles; new code imports ./lists.
+export type { Page, PageQuery, SortDirection } from './lists';
+
 export const ROOM_SORTS = ['name', 'updatedAt', 'people', 'ties'] as const;
 export const PEOPLE_SORTS = ['order', 'name', 'key', 'group', 'email'] as const;
 export const TIE_SORTS = ['source', 'target', 'strength'] as const;
 export type RoomSort = (typeof ROOM_SORTS)[number];
 export type PeopleSort = (typeof PEOPLE_SORTS)[number];
 export type TieSort = (typeof TIE_SORTS)[number];
-
-export interface PageQuery<S extends string> {
-  /** 0-based. */
-  page?: number;
-  pageSize?: number;
-  sort?: S;
-  direction?: SortDirection;
-  /** Case-insensitive text filter. */
-  q?: string;
-}
 
 export interface RoomListQuery extends PageQuery<RoomSort> {
   scope?: 'all' | 'mine' | 'shared';
@@ -339,11 +326,4 @@ export interface PeopleQuery extends PageQuery<PeopleSort> {
 export interface TiesQuery extends PageQuery<TieSort> {
   /** Only ties touching this person. */
   personId?: number;
-}
-
-export interface Page<T> {
-  items: T[];
-  total: number;
-  page: number;
-  pageSize: number;
 }

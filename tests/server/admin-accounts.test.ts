@@ -77,8 +77,11 @@ describe('admin console API', () => {
     for (const bad of ['abc', '0x1', '1e0', '01', '-1', '1.0', '%201'])
       assert.equal((await admin.post(`/api/admin/accounts/${bad}/deactivate`)).status, 404, bad);
     assert.equal((await admin.get('/api/admin/outbox/0x1')).status, 404, 'hex is not an id');
-    assert.equal((await admin.get('/api/admin/accounts?size=5000')).status, 400);
+    assert.equal((await admin.get('/api/admin/accounts?pageSize=5000')).status, 400);
     assert.equal((await admin.get('/api/admin/accounts?sort=password_hash')).status, 400);
+    const oldNames = await admin.get('/api/admin/accounts?size=5&dir=asc&filter=x');
+    assert.equal(oldNames.status, 400, 'every list takes page, pageSize, sort, direction and q');
+    assert.match(oldNames.body.error.message, /Unknown fields: size, dir, filter/);
     assert.equal((await admin.post('/api/admin/invitations', { email: 'not-an-address' })).status, 400);
   });
 
@@ -90,22 +93,23 @@ describe('admin console API', () => {
         .insert(users)
         .values({ email: `${tag}-${n}@test.ripplehall.local`, name: `${tag} ${n}`, role: 'facilitator', status: 'active' });
     }
-    const page0 = await admin.get(`/api/admin/accounts?filter=${tag}&sort=name&dir=asc&size=2&page=0`);
+    const page0 = await admin.get(`/api/admin/accounts?q=${tag}&sort=name&direction=asc&pageSize=2&page=0`);
     assert.equal(page0.status, 200);
     assert.equal(page0.body.total, 3);
+    assert.deepEqual([page0.body.page, page0.body.pageSize, page0.body.size], [0, 2, undefined], 'the one Page<T> shape');
     assert.deepEqual(
       page0.body.items.map((r: { name: string }) => r.name),
       [`${tag} a`, `${tag} b`],
     );
-    const page1 = await admin.get(`/api/admin/accounts?filter=${tag}&sort=name&dir=asc&size=2&page=1`);
+    const page1 = await admin.get(`/api/admin/accounts?q=${tag}&sort=name&direction=asc&pageSize=2&page=1`);
     assert.deepEqual(
       page1.body.items.map((r: { name: string }) => r.name),
       [`${tag} c`],
     );
-    const desc = await admin.get(`/api/admin/accounts?filter=${tag}&sort=email&dir=desc`);
+    const desc = await admin.get(`/api/admin/accounts?q=${tag}&sort=email&direction=desc`);
     assert.equal(desc.body.items[0].email, `${tag}-c@test.ripplehall.local`);
     assert.ok(!('passwordHash' in desc.body.items[0]), 'no hashes leave the server');
-    const wild = await admin.get('/api/admin/accounts?filter=%25');
+    const wild = await admin.get('/api/admin/accounts?q=%25');
     assert.equal(wild.body.total, 0, 'a % in the filter is taken literally');
   });
 
@@ -113,7 +117,7 @@ describe('admin console API', () => {
     const { client: admin, account: me } = await signedInClient(server, 'admin');
     const target = await createAccount('facilitator');
     await admin.post(`/api/admin/accounts/${target.id}/deactivate`);
-    const log = await admin.get(`/api/admin/audit?filter=${encodeURIComponent(target.email)}`);
+    const log = await admin.get(`/api/admin/audit?q=${encodeURIComponent(target.email)}`);
     assert.equal(log.status, 200);
     const entry = log.body.items.find((e: { action: string }) => e.action === 'account.deactivated');
     assert.ok(entry, JSON.stringify(log.body.items));
@@ -121,7 +125,7 @@ describe('admin console API', () => {
     assert.equal(entry.targetEmail, target.email);
     assert.match(entry.ip, /127\.0\.0\.1/);
     assert.ok(Math.abs(Date.parse(entry.createdAt) - Date.now()) < 60_000);
-    const paged = await admin.get('/api/admin/audit?size=1&page=0');
+    const paged = await admin.get('/api/admin/audit?pageSize=1&page=0');
     assert.equal(paged.body.items.length, 1);
     assert.ok(paged.body.total > 1);
   });
@@ -134,7 +138,7 @@ describe('admin console API', () => {
     const since = await lastMailId();
     await admin.post('/api/admin/invitations', { email });
     const mail = await waitForMail(email, since);
-    const list = await admin.get('/api/admin/outbox?size=5');
+    const list = await admin.get('/api/admin/outbox?pageSize=5');
     assert.equal(list.body.items[0].id, mail.id);
     assert.equal(list.body.items[0].to, email);
     const one = await admin.get(`/api/admin/outbox/${mail.id}`);

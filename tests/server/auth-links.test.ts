@@ -87,7 +87,7 @@ describe('invitation and password-reset links, through the SMTP fake', () => {
     assert.equal((await admin.delete(`/api/admin/accounts/${body.id}/invitation`)).status, 204);
     assert.equal((await guest.post('/api/auth/invitation/check', { token: second })).status, 410, 'revoked');
     assert.equal((await admin.delete(`/api/admin/accounts/${body.id}/invitation`)).status, 409, 'nothing left to revoke');
-    const list = await admin.get(`/api/admin/accounts?filter=${encodeURIComponent(email)}`);
+    const list = await admin.get(`/api/admin/accounts?q=${encodeURIComponent(email)}`);
     assert.equal(list.body.items[0].invitation, 'revoked');
 
     since = await lastMailId();

@@ -78,4 +78,29 @@ describe('the database stopped or lost', () => {
     assert.equal(answer.body.error.code, 'database_unavailable');
     assert.match(answer.body.error.message, /database is not reachable right now.*try again/);
   });
+
+  it('a request that reaches a pool already closed by a stopping server answers 503, not 500', async () => {
+    const closing = mysql.createPool({
+      host: config.DB_HOST,
+      port: config.DB_PORT,
+      user: config.DB_USER,
+      password: config.DB_PASSWORD,
+      database: config.DB_NAME,
+    });
+    const gone = drizzle(closing);
+    await closing.end();
+    const app = express();
+    app.get('/late', async () => {
+      await gone.execute(sql`SELECT 1`);
+    });
+    app.use(errorHandler);
+    const server = app.listen(0, '127.0.0.1');
+    await new Promise<void>((r) => server.once('listening', () => r()));
+    const client = new TestClient(`http://127.0.0.1:${(server.address() as { port: number }).port}`);
+    const answer = await client.get('/late');
+    server.close();
+    assert.equal(answer.status, 503, answer.text);
+    assert.equal(answer.body.error.code, 'busy');
+    assert.match(answer.body.error.message, /restarting.*try again/);
+  });
 });

@@ -2,10 +2,11 @@ import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
 import seedrandom from 'seedrandom';
 import { signedInClient, startTestServer, type TestServer } from '../support/test-server';
-import type { TestClient } from '../support/http-client';
+import type { Reply, TestClient } from '../support/http-client';
 import { createPathRoom, upload } from './rooms-helpers';
 import { newWorkshop } from './workshops-support';
 import { itemAt } from '../../shared/checked';
+import { isErrorCode } from '../../shared/api/errors';
 
 /**
  * 2,600 malformed requests and hostile uploads across the API (wrong types, huge strings, deep
@@ -179,18 +180,19 @@ describe('fuzz: malformed requests and hostile uploads', () => {
   it(`answers ${TOTAL} malformed requests without a single 5xx`, async () => {
     const anonymous = server.client();
     const failures: string[] = [];
+    const unknownCodes = new Set<string>();
     const statuses = new Map<number, number>();
     let sent = 0;
     const one = async () => {
       const id = () => pick(BAD_IDS);
       const who = pick([user, user, user, admin, anonymous]);
       let label: string;
-      let status: number;
+      let reply: Reply;
       if (rng() < 0.08) {
         const path = rng() < 0.5 ? '/api/rooms/import' + query() : `/api/rooms/${fixtures.roomId}/import${query()}`;
         const field = pick(['file', 'file', 'people', 'other']);
         label = `upload ${path} ${field}`;
-        status = (await upload(who, path, { [field]: pick(UPLOADS)() }, rng() < 0.3 ? { version: pick(['x', '-1', '1e308']) } : {})).status;
+        reply = await upload(who, path, { [field]: pick(UPLOADS)() }, rng() < 0.3 ? { version: pick(['x', '-1', '1e308']) } : {});
       } else {
         const [method, path] = pick(ROUTES);
         const url = path(fixtures, id) + query();
@@ -200,10 +202,14 @@ describe('fuzz: malformed requests and hostile uploads', () => {
           b.raw !== undefined
             ? { headers: { 'content-type': b.type ?? 'application/json' }, raw: b.raw }
             : { headers: {} as Record<string, string> };
-        status = (await who.request(method, url, b.json, init)).status;
+        reply = await who.request(method, url, b.json, init);
       }
+      const { status } = reply;
       statuses.set(status, (statuses.get(status) ?? 0) + 1);
       if (status >= 500) failures.push(`${status} ${label}`);
+      // Every refusal is the one envelope with a known code (shared/api/errors.ts).
+      const code: unknown = (reply.body as { error?: { code?: unknown } } | null)?.error?.code;
+      if (status >= 400 && !isErrorCode(code)) unknownCodes.add(`${status} ${String(code)} ${label}`);
     };
     const lanes = Array.from({ length: 6 }, async () => {
       while (sent < TOTAL) {
@@ -217,6 +223,7 @@ describe('fuzz: malformed requests and hostile uploads', () => {
       .map(([s, n]) => `${s}x${n}`)
       .join(' ');
     assert.deepEqual(failures, [], `5xx answers (${summary})`);
+    assert.deepEqual([...unknownCodes], [], 'error answers without a code from ERROR_CODES');
     assert.ok([...statuses.values()].reduce((a, b) => a + b, 0) >= TOTAL);
   });
 });

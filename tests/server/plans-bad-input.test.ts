@@ -47,9 +47,9 @@ describe('plans and rehearsals: bad input', () => {
   const plans = () => `/api/rooms/${karate.id}/plans`;
 
   it('k of 0, k at or above the room size, a fractional k, no k at all', async () => {
-    fails(await client.post(plans(), { k: 0, method: 'greedy' }), 400, 'INVALID_K', /at least 1/);
-    fails(await client.post(plans(), { k: 34, method: 'greedy' }), 400, 'INVALID_K', /At most 33 in a room of 34/);
-    fails(await client.post(plans(), { k: 500, method: 'swap' }), 400, 'INVALID_K', /Choose 1 to 33/);
+    fails(await client.post(plans(), { k: 0, method: 'greedy' }), 400, 'invalid_k', /at least 1/);
+    fails(await client.post(plans(), { k: 34, method: 'greedy' }), 400, 'invalid_k', /At most 33 in a room of 34/);
+    fails(await client.post(plans(), { k: 500, method: 'swap' }), 400, 'invalid_k', /Choose 1 to 33/);
     fails(await client.post(plans(), { k: 1.5 }), 400, 'bad_request', /k must be a whole number/);
     fails(await client.post(plans(), { method: 'greedy' }), 400, 'bad_request', /Give k/);
     fails(await client.post(plans(), { k: 2, method: 'magic' }), 400, 'bad_request', /method/);
@@ -61,7 +61,7 @@ describe('plans and rehearsals: bad input', () => {
     fails(
       await client.post(`/api/rooms/${room.id}/plans`, { k: 2, method: 'greedy' }),
       400,
-      'K_BELOW_CLOSED_GROUPS',
+      'k_below_closed_groups',
       /3 closed groups.*at least 3/,
     );
     const ok = await client.post(`/api/rooms/${room.id}/plans`, { k: 3, method: 'greedy' });
@@ -73,19 +73,19 @@ describe('plans and rehearsals: bad input', () => {
     fails(
       await client.post(plans(), { k: 2, method: 'greedy', mustBrief: ids.slice(0, 3) }),
       400,
-      'MUST_INCLUDE_TOO_MANY',
+      'must_include_too_many',
       /3 people must be briefed but the budget is 2/,
     );
     fails(
       await client.post(plans(), { k: 3, method: 'greedy', mustBrief: [ids[0]], cannotBrief: [ids[0]] }),
       400,
-      'CONFLICTING_CONSTRAINTS',
+      'conflicting_constraints',
       /cannot be in both lists/,
     );
     fails(
       await client.post(plans(), { k: 3, method: 'greedy', cannotBrief: ids.slice(0, 32) }),
       400,
-      'NO_FEASIBLE_PLAN',
+      'no_feasible_plan',
       /fewer than the budget of 3/,
     );
   });
@@ -94,10 +94,10 @@ describe('plans and rehearsals: bad input', () => {
     fails(
       await client.post(plans(), { k: 2, method: 'greedy', mustBrief: [987654] }),
       400,
-      'UNKNOWN_PERSON',
+      'unknown_person',
       /person 987654 is not in this room/,
     );
-    fails(await client.post(plans(), { starters: [karate.personIds[0], 987654] }), 400, 'UNKNOWN_PERSON', /987654/);
+    fails(await client.post(plans(), { starters: [karate.personIds[0], 987654] }), 400, 'unknown_person', /987654/);
     const room = await makeRoom(client, karateClub(), 'Karate to edit');
     const gone = room.personIds[7];
     const del = await client.post(`/api/rooms/${room.id}/edits`, { version: room.version, ops: [{ op: 'deletePerson', id: gone }] });
@@ -105,18 +105,18 @@ describe('plans and rehearsals: bad input', () => {
     fails(
       await client.post(`/api/rooms/${room.id}/plans`, { k: 2, method: 'greedy', cannotBrief: [gone] }),
       400,
-      'UNKNOWN_PERSON',
+      'unknown_person',
       /deleted, or from another room/,
     );
-    fails(await client.post(`/api/rooms/${room.id}/plans`, { starters: [gone] }), 400, 'UNKNOWN_PERSON', new RegExp(`person ${gone}`));
+    fails(await client.post(`/api/rooms/${room.id}/plans`, { starters: [gone] }), 400, 'unknown_person', new RegExp(`person ${gone}`));
     // A person of another room is just as unknown here.
-    fails(await client.post(plans(), { starters: [room.personIds[0]] }), 400, 'UNKNOWN_PERSON', /not in this room/);
+    fails(await client.post(plans(), { starters: [room.personIds[0]] }), 400, 'unknown_person', /not in this room/);
   });
 
   it('a room too big for the exhaustive method says so and offers another method', async () => {
     const room = await makeRoom(client, ringRoom(150, 150), 'Big ring');
     const r = await client.post(`/api/rooms/${room.id}/plans`, { k: 3, method: 'exhaustive' });
-    fails(r, 400, 'EXHAUSTIVE_INFEASIBLE', /at most 120 people; this room has 150\. Use auto/);
+    fails(r, 400, 'exhaustive_infeasible', /at most 120 people; this room has 150\. Use auto/);
     assert.equal(r.body.error.details.suggest, 'auto');
   });
 
@@ -124,13 +124,13 @@ describe('plans and rehearsals: bad input', () => {
     const room = await makeRoom(client, threeParts, 'Three parts, hand-made');
     const [a1, , , b1] = room.personIds;
     const r = await client.post(`/api/rooms/${room.id}/plans`, { starters: [a1, b1] });
-    fails(r, 400, 'UNREACHABLE_PEOPLE', /1 person can never hear \(Person c\)/);
+    fails(r, 400, 'unreachable_people', /1 person can never hear \(Person c\)/);
     assert.deepEqual(
       r.body.error.details.people.map((p: { personId: number }) => p.personId),
       [room.personIds[6]],
     );
-    fails(await client.post(`/api/rooms/${room.id}/plans`, { starters: [a1, a1] }), 400, 'INVALID_STARTERS', /listed twice/);
-    fails(await client.post(`/api/rooms/${room.id}/plans`, { starters: [] }), 400, 'INVALID_K', /at least one starter/);
+    fails(await client.post(`/api/rooms/${room.id}/plans`, { starters: [a1, a1] }), 400, 'invalid_starters', /listed twice/);
+    fails(await client.post(`/api/rooms/${room.id}/plans`, { starters: [] }), 400, 'invalid_k', /at least one starter/);
     fails(
       await client.post(`/api/rooms/${room.id}/plans`, { starters: [a1], method: 'greedy' }),
       400,
@@ -141,8 +141,8 @@ describe('plans and rehearsals: bad input', () => {
 
   it('k-sweep bounds', async () => {
     const sweep = `/api/rooms/${karate.id}/plans/sweep`;
-    fails(await client.post(sweep, { maxK: 0 }), 400, 'INVALID_K', /up to k = 20/);
-    fails(await client.post(sweep, { maxK: 21 }), 400, 'INVALID_K', /up to k = 20/);
+    fails(await client.post(sweep, { maxK: 0 }), 400, 'invalid_k', /up to k = 20/);
+    fails(await client.post(sweep, { maxK: 21 }), 400, 'invalid_k', /up to k = 20/);
     fails(await client.post(sweep, { maxK: 3, seed: 'no spaces' }), 400, 'bad_request', /seed/);
   });
 
@@ -151,14 +151,14 @@ describe('plans and rehearsals: bad input', () => {
     fails(
       await client.post(start, { runs: 100001 }),
       400,
-      'TOO_MANY_CASCADES',
+      'too_many_cascades',
       /At most 100,000 cascades per rehearsal \(you asked for 100,001\)/,
     );
-    fails(await client.post(start, { runs: 0 }), 400, 'INVALID_OPTION', /at least 1/);
-    fails(await client.post(start, { runs: 2.5 }), 400, 'INVALID_OPTION', /whole number/);
-    fails(await client.post(start, { runs: 100, seed: 'not a seed!' }), 400, 'INVALID_SEED', /1 to 64 letters/);
-    fails(await client.post(start, { runs: 100, seed: 'x'.repeat(65) }), 400, 'INVALID_SEED', /1 to 64/);
-    fails(await client.post(start, { runs: 100, seed: '' }), 400, 'INVALID_SEED', /random one/);
+    fails(await client.post(start, { runs: 0 }), 400, 'invalid_option', /at least 1/);
+    fails(await client.post(start, { runs: 2.5 }), 400, 'invalid_option', /whole number/);
+    fails(await client.post(start, { runs: 100, seed: 'not a seed!' }), 400, 'invalid_seed', /1 to 64 letters/);
+    fails(await client.post(start, { runs: 100, seed: 'x'.repeat(65) }), 400, 'invalid_seed', /1 to 64/);
+    fails(await client.post(start, { runs: 100, seed: '' }), 400, 'invalid_seed', /random one/);
     fails(await client.post(start, { runs: '100' }), 400, 'bad_request', /runs must be a number/);
   });
 
@@ -170,7 +170,7 @@ describe('plans and rehearsals: bad input', () => {
     fails(await client.get(`/api/plans/${planId}/briefing.csv`.replace(String(planId), '77777777')), 404, 'not_found', /plan/);
     const other = await makeRoom(client, karateClub(), 'Other karate');
     const p = await client.post(`/api/rooms/${other.id}/plans`, { k: 2, method: 'greedy' });
-    fails(await client.get(`/api/plans/compare?a=${planId}&b=${p.body.id}`), 400, 'INVALID_INPUT', /same room/);
+    fails(await client.get(`/api/plans/compare?a=${planId}&b=${p.body.id}`), 400, 'invalid_input', /same room/);
     fails(await client.get(`/api/rooms/${karate.id}/rehearsals?status=sleeping`), 400, 'bad_request', /status/);
     fails(await client.get(`/api/rooms/${karate.id}/rehearsals?from=yesterday`), 400, 'bad_request', /ISO date/);
   });

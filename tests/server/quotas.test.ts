@@ -41,7 +41,7 @@ describe('per-user quotas', () => {
     const before = await plans(client, room.id);
     const third = await longSearch(client, room.id);
     assert.equal(third.status, 429, third.text);
-    assert.equal(third.body.error.code, 'QUOTA_JOBS');
+    assert.equal(third.body.error.code, 'quota_jobs');
     assert.match(third.body.error.message, /at most 2\).*cancel one/);
     assert.equal(await plans(client, room.id), before, 'the refused plan was not stored');
 
@@ -65,7 +65,7 @@ describe('per-user quotas', () => {
     assert.equal(plan.status, 201, plan.text);
     const r = await client.post(`/api/plans/${plan.body.id}/rehearsals`, { runs: 60_000, seed: 'quota' });
     assert.equal(r.status, 429, r.text);
-    assert.equal(r.body.error.code, 'QUOTA_CASCADES');
+    assert.equal(r.body.error.code, 'quota_cascades');
     assert.match(r.body.error.message, /limit of 50,000/);
     assert.equal((await client.get<unknown[]>(`/api/rooms/${room.id}/rehearsals?planId=${plan.body.id}`)).body.length, 0);
     const fits = await client.post<{ job: { id: number } }>(`/api/plans/${plan.body.id}/rehearsals`, { runs: 2_000, seed: 'quota' });
@@ -80,7 +80,7 @@ describe('per-user quotas', () => {
     assert.equal(await stored(), 4);
     const refused = await client.post(`/api/rooms/${small.id}/plans`, { k: 2, method: 'greedy' });
     assert.equal(refused.status, 409, refused.text);
-    assert.equal(refused.body.error.code, 'QUOTA_PLANS');
+    assert.equal(refused.body.error.code, 'quota_plans');
     assert.match(refused.body.error.message, /delete plans you no longer need/);
     assert.equal(await stored(), 4);
     const list = (await client.get<{ id: number }[]>(`/api/rooms/${room.id}/plans`)).body;

@@ -153,7 +153,7 @@ describe('rehearsal jobs', () => {
     assert.equal(d.reach, null);
     const samples = await client.get(`/api/rehearsals/${id}/samples`);
     assert.equal(samples.status, 400);
-    assert.equal(samples.body.error.code, 'NOT_READY');
+    assert.equal(samples.body.error.code, 'not_ready');
   });
 
   it('a per-user limit: the third job waits in the queue with its position, and starts when one ends', async () => {

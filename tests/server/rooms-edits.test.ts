@@ -87,6 +87,15 @@ describe('rooms: batch edits and tables', () => {
     });
     assert.equal(strength.status, 400);
     assert.equal(strength.body.error.details.fields[0].field, 'ops.0.strength');
+    // The room editor shows these very words under its fields (shared/api/room-rules.ts).
+    assert.equal(strength.body.error.details.fields[0].message, 'A tie needs a strength above 0 (delete the tie if there is none).');
+    const mail = await suite.client.post(`/api/rooms/${room.id}/edits`, {
+      version: 1,
+      ops: [{ op: 'updatePerson', id: personOf(room, 0).id, email: 'ana@' }],
+    });
+    assert.deepEqual(mail.body.error.details.fields, [
+      { field: 'ops.0.email', message: 'This does not look like an e-mail address (name@example.org); leave it empty if there is none.' },
+    ]);
     const unknownOp = await suite.client.post(`/api/rooms/${room.id}/edits`, { version: 1, ops: [{ op: 'explode' }] });
     assert.equal(unknownOp.status, 400);
     assert.match(unknownOp.body.error.message, /addPerson, updatePerson/);

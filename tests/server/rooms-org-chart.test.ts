@@ -107,7 +107,10 @@ describe('rooms: import from an org chart', () => {
     assert.match(missing.body.errors[0].message, /no column "Boss"/);
     const weak = await dry(CHART, { ...COLUMNS, sameManager: '-1' });
     assert.equal(weak.status, 400, weak.text);
-    assert.match(weak.text, /same-manager strength must be more than 0/);
+    assert.match(weak.body.error.message, /sameManager: A tie needs a strength above 0/);
+    const word = await dry(CHART, { ...COLUMNS, reportsTo: 'often' });
+    assert.equal(word.status, 400, word.text);
+    assert.match(word.body.error.message, /reportsTo: Give a number/);
   });
 
   it('exports the same CSV back (headers, order, rows), and replaces a room content with a version', async () => {

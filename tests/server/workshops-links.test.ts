@@ -106,7 +106,7 @@ describe('stable participant links', () => {
     assert.equal(sheet.get('Ines Varga'), fresh, 'the next sheet shows the reissued link');
     // The audit log names the workshop and the account it belongs to.
     const { client: admin } = await signedInClient(server, 'admin');
-    const log = await admin.get('/api/admin/audit?filter=links_reissued&size=5');
+    const log = await admin.get('/api/admin/audit?q=links_reissued&pageSize=5');
     const entry = log.body.items.find((r: { targetId: string }) => r.targetId === String(id));
     assert.equal(entry.targetLabel, 'Spring onboarding day');
     assert.equal(entry.targetEmail, account.email);

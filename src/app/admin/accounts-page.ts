@@ -76,10 +76,10 @@ export default class AccountsPage implements AfterViewInit {
           this.api
             .accounts({
               page: paginator.pageIndex,
-              size: paginator.pageSize,
+              pageSize: paginator.pageSize,
               sort: (sort.active || 'createdAt') as AccountSortKey,
-              dir: sort.direction || 'desc',
-              filter: this.filter.value.trim(),
+              direction: sort.direction || 'desc',
+              q: this.filter.value.trim(),
             })
             .pipe(catchError(() => of(null))),
         ),

@@ -1,4 +1,4 @@
-import { HttpClient, HttpContext, HttpParams } from '@angular/common/http';
+import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { firstValueFrom, type Observable } from 'rxjs';
 import type {
@@ -9,17 +9,10 @@ import type {
   AuditRow,
   OutboxMessage,
   OutboxRow,
-  Page,
 } from '../../../shared/api/accounts';
+import type { Page, PageQuery } from '../../../shared/api/lists';
 import { HANDLES_ERRORS } from '../core/error-interceptor';
-
-export interface AccountQuery {
-  page: number;
-  size: number;
-  sort: AccountSortKey;
-  dir: 'asc' | 'desc';
-  filter: string;
-}
+import { pageParams } from '../core/page-params';
 
 /** The admin console's calls to /api/admin. */
 @Injectable({ providedIn: 'root' })
@@ -30,8 +23,8 @@ export class AdminApi {
     return firstValueFrom(this.http.get<AdminSettings>('/api/admin/settings'));
   }
 
-  accounts(q: AccountQuery): Observable<Page<AccountRow>> {
-    return this.http.get<Page<AccountRow>>('/api/admin/accounts', { params: new HttpParams({ fromObject: { ...q } }) });
+  accounts(q: PageQuery<AccountSortKey>): Observable<Page<AccountRow>> {
+    return this.http.get<Page<AccountRow>>('/api/admin/accounts', { params: pageParams(q) });
   }
 
   /** The dialog shows field errors itself. */
@@ -60,12 +53,12 @@ export class AdminApi {
     return firstValueFrom(this.http.post(`/api/admin/accounts/${id}/password-reset`, {}));
   }
 
-  audit(q: { page: number; size: number; filter: string }): Observable<Page<AuditRow>> {
-    return this.http.get<Page<AuditRow>>('/api/admin/audit', { params: new HttpParams({ fromObject: { ...q } }) });
+  audit(q: Omit<PageQuery, 'sort' | 'direction'>): Observable<Page<AuditRow>> {
+    return this.http.get<Page<AuditRow>>('/api/admin/audit', { params: pageParams(q) });
   }
 
-  outbox(q: { page: number; size: number }): Observable<Page<OutboxRow>> {
-    return this.http.get<Page<OutboxRow>>('/api/admin/outbox', { params: new HttpParams({ fromObject: { ...q } }) });
+  outbox(q: Omit<PageQuery, 'sort' | 'direction' | 'q'>): Observable<Page<OutboxRow>> {
+    return this.http.get<Page<OutboxRow>>('/api/admin/outbox', { params: pageParams(q) });
   }
 
   message(id: number): Promise<OutboxMessage> {

@@ -90,7 +90,7 @@ export default class AuditPage implements AfterViewInit {
         startWith(null),
         switchMap(() =>
           this.api
-            .audit({ page: paginator.pageIndex, size: paginator.pageSize, filter: this.filter.value.trim() })
+            .audit({ page: paginator.pageIndex, pageSize: paginator.pageSize, q: this.filter.value.trim() })
             .pipe(catchError(() => of(null))),
         ),
         takeUntilDestroyed(this.destroyRef),

@@ -60,7 +60,7 @@ export default class OutboxPage implements AfterViewInit {
     merge(paginator.page, this.reload)
       .pipe(
         startWith(null),
-        switchMap(() => this.api.outbox({ page: paginator.pageIndex, size: paginator.pageSize }).pipe(catchError(() => of(null)))),
+        switchMap(() => this.api.outbox({ page: paginator.pageIndex, pageSize: paginator.pageSize }).pipe(catchError(() => of(null)))),
         takeUntilDestroyed(this.destroyRef),
       )
       .subscribe((page) => {

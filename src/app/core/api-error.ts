@@ -1,14 +1,14 @@
 import { HttpErrorResponse } from '@angular/common/http';
+import type { ErrorCode, ErrorEnvelope, FieldError } from '../../../shared/api/errors';
 
-export interface FieldError {
-  field: string;
-  message: string;
-}
+/** Codes the client gives errors that never reached the server's envelope. */
+export const CLIENT_ERROR_CODES = ['offline', 'http', 'client'] as const;
+export type ClientErrorCode = (typeof CLIENT_ERROR_CODES)[number];
 
-/** The server's error shape: { error: { code, message, details } }. */
+/** The server's error envelope (shared/api/errors.ts) as the pages see it, with the HTTP status. */
 export interface ApiError {
   status: number;
-  code: string;
+  code: ErrorCode | ClientErrorCode;
   message: string;
   details?: { fields?: FieldError[] } & Record<string, unknown>;
   /** From a Retry-After header in seconds (429 and 503 answers), when the server sent one. */
@@ -19,10 +19,11 @@ export function toApiError(err: unknown): ApiError {
   // Already reshaped (errorInterceptor rethrows ApiError objects): keep status and details.
   if (isApiError(err)) return err;
   if (err instanceof HttpErrorResponse) {
-    const body = err.error?.error;
+    const body = (err.error as Partial<ErrorEnvelope> | null)?.error;
     const retry = Number(err.headers?.get('Retry-After') ?? NaN);
     const retryAfter = Number.isFinite(retry) && retry >= 0 ? { retryAfterSeconds: retry } : {};
-    if (body?.message) return { status: err.status, code: body.code, message: body.message, details: body.details, ...retryAfter };
+    if (body?.message)
+      return { status: err.status, code: body.code, message: body.message, details: body.details as ApiError['details'], ...retryAfter };
     if (err.status === 0) {
       return { status: 0, code: 'offline', message: 'The server cannot be reached. Check your connection and try again.' };
     }

@@ -1,6 +1,7 @@
 import { inject } from '@angular/core';
 import { type CanActivateFn, Router } from '@angular/router';
-import { Auth, type AccountRole } from './auth';
+import type { AccountRole } from '../../../shared/api/accounts';
+import { Auth } from './auth';
 
 /** Lets signed-in accounts through; others go to sign-in and come back afterwards. */
 export const signedInGuard: CanActivateFn = async (_route, state) => {

@@ -1,9 +1,8 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { computed, inject, Injectable, signal } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
+import type { AccountRole } from '../../../shared/api/accounts';
 import { HANDLES_ERRORS } from './handles-errors';
-
-export type AccountRole = 'admin' | 'facilitator';
 
 export interface Account {
   id: number;

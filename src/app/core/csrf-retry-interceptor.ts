@@ -1,5 +1,6 @@
 import { HttpErrorResponse, type HttpInterceptorFn } from '@angular/common/http';
 import { catchError, throwError } from 'rxjs';
+import type { ErrorEnvelope } from '../../../shared/api/errors';
 
 /**
  * The server binds its CSRF token to the session, so a token from a session that has just ended
@@ -17,5 +18,5 @@ export const csrfRetryInterceptor: HttpInterceptorFn = (req, next) =>
   );
 
 function csrfCode(body: unknown): boolean {
-  return typeof body === 'object' && body !== null && (body as { error?: { code?: unknown } }).error?.code === 'csrf';
+  return typeof body === 'object' && body !== null && (body as Partial<ErrorEnvelope>).error?.code === 'csrf';
 }

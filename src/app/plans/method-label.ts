@@ -1,5 +1,7 @@
-/** Plain names of the planning methods as shown on screens and sheets. */
-const LABELS: Record<string, string> = {
+import type { PlanMethodChoice, PlanMethodUsed } from '../../../shared/api/plans';
+
+/** Plain names of the planning methods as shown on screens and sheets: the one list of them. */
+export const METHOD_LABELS: Record<PlanMethodChoice | PlanMethodUsed, string> = {
   auto: 'Automatic',
   greedy: 'Greedy',
   widened: 'Widened greedy',
@@ -11,5 +13,5 @@ const LABELS: Record<string, string> = {
 };
 
 export function methodLabel(method: string | null | undefined): string {
-  return method ? (LABELS[method] ?? method) : '—';
+  return method ? ((METHOD_LABELS as Record<string, string>)[method] ?? method) : '—';
 }

@@ -9,28 +9,31 @@ import {
   startersProblem,
   type PlanField,
 } from '../../../shared/api/plan-rules';
-import { PLAN_LIMITS } from '../../../shared/api/plans';
-
-export type PlanMethodChoice = 'auto' | 'greedy' | 'widened' | 'swap' | 'exhaustive';
+import { PLAN_LIMITS, type PlanMethodChoice } from '../../../shared/api/plans';
+import { METHOD_LABELS } from './method-label';
 export type PlanMode = 'computed' | 'hand';
 
 /** The methods offered, each explained in one plain line. */
 export const METHOD_CHOICES: readonly { value: PlanMethodChoice; label: string; line: string }[] = [
   {
     value: 'auto',
-    label: 'Automatic',
+    label: METHOD_LABELS.auto,
     line: 'Ripplehall picks: a full search for small rooms, otherwise widened greedy with swap polish; the page says what was proven.',
   },
-  { value: 'greedy', label: 'Greedy', line: 'Adds one starter at a time, each time the person who shortens the wait most. Fast.' },
+  {
+    value: 'greedy',
+    label: METHOD_LABELS.greedy,
+    line: 'Adds one starter at a time, each time the person who shortens the wait most. Fast.',
+  },
   {
     value: 'widened',
-    label: 'Widened greedy',
+    label: METHOD_LABELS.widened,
     line: 'Tries many strong small groups as a beginning and grows each one; never worse than greedy.',
   },
-  { value: 'swap', label: 'Swap polish', line: 'Starts from greedy, then swaps a starter for someone else while that still helps.' },
+  { value: 'swap', label: METHOD_LABELS.swap, line: 'Starts from greedy, then swaps a starter for someone else while that still helps.' },
   {
     value: 'exhaustive',
-    label: 'Exhaustive',
+    label: METHOD_LABELS.exhaustive,
     line: 'Searches every possible group, skipping the ones that provably cannot win; within the time limit it proves the best, or says how close it got.',
   },
 ];

@@ -1,5 +1,6 @@
 import { SWEEP_SERIES, type KSweepPoint } from '../../../shared/api/plans';
 import type { ChartData, ChartDataset } from 'chart.js';
+import { METHOD_LABELS } from './method-label';
 import { SERIES_COLOURS } from './reach-chart-data';
 
 /** One method's results across budgets: room average (expected hops) for each k. */
@@ -19,10 +20,10 @@ export function sweepSeriesFromPoints(points: readonly KSweepPoint[]): SweepSeri
 
 /** Plain labels for the sweep's methods and baselines. */
 export const SWEEP_LABELS: Record<string, string> = {
-  greedy: 'Greedy',
-  widened: 'Widened greedy',
-  swap: 'Swap polish',
-  exhaustive: 'Exhaustive',
+  greedy: METHOD_LABELS.greedy,
+  widened: METHOD_LABELS.widened,
+  swap: METHOD_LABELS.swap,
+  exhaustive: METHOD_LABELS.exhaustive,
   'most-ties': 'Most ties (baseline)',
   mostTies: 'Most ties (baseline)',
   random: 'Random (baseline)',

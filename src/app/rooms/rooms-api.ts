@@ -1,10 +1,9 @@
-import { HttpClient, HttpContext, type HttpEvent, HttpParams } from '@angular/common/http';
+import { HttpClient, HttpContext, type HttpEvent } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import type { Observable } from 'rxjs';
 import type {
   CreateRoomRequest,
   ImportReport,
-  Page,
   RoomDto,
   RoomListItem,
   RoomListQuery,
@@ -14,6 +13,8 @@ import type {
   ShareRole,
 } from '../../../shared/api/rooms';
 import type { OrgChartReport } from '../../../shared/api/org-chart';
+import type { Page } from '../../../shared/api/lists';
+import { pageParams } from '../core/page-params';
 import { HANDLES_ERRORS } from '../core/error-interceptor';
 
 /** The rooms endpoints the pages call (the editor's own saving lives in RoomEditor). */
@@ -23,9 +24,7 @@ export class RoomsApi {
   private readonly selfHandled = new HttpContext().set(HANDLES_ERRORS, true);
 
   list(q: RoomListQuery): Observable<Page<RoomListItem>> {
-    let params = new HttpParams();
-    for (const [k, v] of Object.entries(q)) if (v !== undefined && v !== '') params = params.set(k, String(v));
-    return this.http.get<Page<RoomListItem>>('/api/rooms', { params });
+    return this.http.get<Page<RoomListItem>>('/api/rooms', { params: pageParams(q) });
   }
 
   create(body: CreateRoomRequest): Observable<RoomDto> {

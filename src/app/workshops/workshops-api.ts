@@ -2,7 +2,8 @@ import { HttpClient, HttpContext, HttpHeaders } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
 import type { RehearsalSummary } from '../../../shared/api/plans';
-import type { Page, RoomListItem } from '../../../shared/api/rooms';
+import type { Page } from '../../../shared/api/lists';
+import type { RoomListItem } from '../../../shared/api/rooms';
 import type {
   BuildMode,
   BuildResult,

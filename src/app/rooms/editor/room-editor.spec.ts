@@ -93,7 +93,10 @@ describe('RoomEditor saving', () => {
     const saving = editor.flush();
     http
       .expectOne('/api/rooms/5/edits')
-      .flush({ error: { code: 'boom', message: 'The database is not answering.' } }, { status: 503, statusText: 'Unavailable' });
+      .flush(
+        { error: { code: 'database_unavailable', message: 'The database is not answering.' } },
+        { status: 503, statusText: 'Unavailable' },
+      );
     await saving;
     expect(editor.saveState()).toBe('failed');
     expect(editor.saveError()).toContain('The database is not answering.');

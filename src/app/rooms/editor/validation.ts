@@ -1,43 +1,24 @@
 import type { AbstractControl, ValidationErrors, ValidatorFn } from '@angular/forms';
-import { ROOM_LIMITS, SETTINGS_LIMITS } from '../../../../shared/api/rooms';
+import { email, group, personKey, personName, ruleProblem, strength } from '../../../../shared/api/room-rules';
+import { SETTINGS_LIMITS } from '../../../../shared/api/rooms';
 
-/** One plain message per field, the same rules the server applies (shared/api/rooms.ts limits). */
+/** One plain message per field: the server's own rules and words (shared/api/room-rules.ts). */
 export function personNameProblem(name: string): string | null {
-  const v = name.trim();
-  if (!v) return 'A name is needed.';
-  if (v.length > ROOM_LIMITS.personNameMax) return `At most ${ROOM_LIMITS.personNameMax} characters.`;
-  return null;
+  return ruleProblem(personName, name);
 }
 
-export function groupProblem(group: string): string | null {
-  if (group.trim().length > ROOM_LIMITS.groupMax) return `At most ${ROOM_LIMITS.groupMax} characters.`;
-  return null;
+export function groupProblem(value: string): string | null {
+  return ruleProblem(group, value);
 }
 
-const EMAIL = /^[^\s@]+@[^\s@]+\.[^\s@]+$/;
-
-export function emailProblem(email: string): string | null {
-  const v = email.trim();
-  if (!v) return null;
-  if (v.length > ROOM_LIMITS.emailMax) return `At most ${ROOM_LIMITS.emailMax} characters.`;
-  if (!EMAIL.test(v)) return 'This does not look like an e-mail address (name@example.org).';
-  return null;
+export function emailProblem(value: string): string | null {
+  return ruleProblem(email, value);
 }
 
-/** Strength is "how often": a positive number, not absurdly large. */
+/** Strength is "how often": a positive number, not absurdly large. The form also takes a decimal comma. */
 export function strengthProblem(value: unknown): string | null {
-  const n =
-    typeof value === 'number'
-      ? value
-      : Number(
-          String(value ?? '')
-            .trim()
-            .replace(',', '.'),
-        );
-  if (value === '' || value === null || value === undefined || !Number.isFinite(n)) return 'Give a number, e.g. 1 or 2.5.';
-  if (n <= 0) return 'Strength must be above 0 (delete the tie instead).';
-  if (n > ROOM_LIMITS.maxStrength) return `At most ${ROOM_LIMITS.maxStrength.toLocaleString('en')}: is the unit right?`;
-  return null;
+  const typed = typeof value === 'string' ? value.trim().replace(',', '.') : value;
+  return ruleProblem(strength, typed === '' || typed === null ? undefined : typeof typed === 'string' ? Number(typed) : typed);
 }
 
 export function settingProblem(name: keyof typeof SETTINGS_LIMITS, value: unknown): string | null {
@@ -50,10 +31,9 @@ export function settingProblem(name: keyof typeof SETTINGS_LIMITS, value: unknow
 
 /** A person's key must be unique in the room. */
 export function keyProblem(key: string, taken: (key: string) => boolean): string | null {
-  const v = key.trim();
-  if (!v) return 'A key is needed (it names the person in files).';
-  if (v.length > ROOM_LIMITS.personKeyMax) return `At most ${ROOM_LIMITS.personKeyMax} characters.`;
-  if (taken(v)) return 'Another person already has this key.';
+  const problem = ruleProblem(personKey, key);
+  if (problem) return problem;
+  if (taken(key.trim())) return 'Another person already has this key.';
   return null;
 }
 
