@@ -32,6 +32,7 @@ function successors(room: PreparedRoom): { start: Int32Array; adj: Int32Array } 
 }
 
 /** Strongly connected components and closed classes of the walk (ties only; mixing joins everything). */
+// eslint-disable-next-line max-lines-per-function -- an iterative Tarjan search (explicit stack, no recursion for rooms of a million people) whose index, low-link and stack arrays are shared by every step.
 export function classStructure(room: PreparedRoom): ClassStructure {
   const n = room.n;
   if (room.mixing > 0) {

@@ -76,11 +76,12 @@ export class App implements OnInit {
   private checkSession(): void {
     // A participant's phone (/p/…) has no account and no toolbar: it does not ask.
     if (/^\/p(\/|$)/.test(globalThis.location?.pathname ?? '')) return;
-    this.auth.load().catch(() => undefined);
+    // A failed check leaves the toolbar signed out; the next guarded page asks again.
+    this.auth.load().subscribe({ error: () => undefined });
   }
 
-  protected async signOut(): Promise<void> {
-    await this.auth.signOut();
-    await this.router.navigate(['/sign-in']);
+  protected signOut(): void {
+    // A failed sign-out keeps the page (the error interceptor has said why).
+    this.auth.signOut().subscribe({ next: () => void this.router.navigate(['/sign-in']), error: () => undefined });
   }
 }

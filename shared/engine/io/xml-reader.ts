@@ -68,6 +68,7 @@ export function readXml(input: string, buildDepth = 4, maxDepth = XML_MAX_DEPTH)
   }
 }
 
+// eslint-disable-next-line max-lines-per-function -- one character-level scanner whose position and element stack are shared by every branch; split, each branch would need them passed in and out.
 function scan(text: string, buildDepth: number, maxDepth: number): XmlElement {
   const stack: Open[] = [];
   let root: XmlElement | undefined;

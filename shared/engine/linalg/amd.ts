@@ -15,6 +15,7 @@ export interface SymmetricPattern {
   readonly col: Int32Array;
 }
 
+// eslint-disable-next-line max-lines-per-function -- the minimum-degree elimination is one loop over shared arrays (degrees, element lists, marks); split into functions it would pass a dozen arrays around on every pivot.
 export function amdOrder(g: SymmetricPattern): Int32Array {
   const n = g.n;
   const dense = Math.max(16, Math.floor(10 * Math.sqrt(n)));

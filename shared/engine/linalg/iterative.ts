@@ -72,6 +72,7 @@ export function pcg(mul: MatVec, b: Float64Array, diag: Float64Array, opts: Iter
   return { x, iterations: it, relativeResidual: res, converged: res <= tol };
 }
 
+// eslint-disable-next-line max-lines-per-function -- the iteration reads as the textbook recurrence, step for step; split, its vectors would be passed around each step.
 export function bicgstab(mul: MatVec, b: Float64Array, diag: Float64Array, opts: IterativeOptions = {}): IterativeResult {
   const n = b.length;
   const tol = opts.tol ?? 1e-12;
@@ -156,6 +157,7 @@ export function bicgstab(mul: MatVec, b: Float64Array, diag: Float64Array, opts:
  * residual never grows, so it serves as the fallback when BiCGSTAB stagnates (for example on
  * chains of one-way ties). O(m n) memory, O(nnz + j n) per iteration.
  */
+// eslint-disable-next-line max-lines-per-function -- one restart cycle (Arnoldi, Givens rotations, back substitution) reads best as the textbook's single loop over shared work arrays.
 export function gmres(
   mul: MatVec,
   b: Float64Array,

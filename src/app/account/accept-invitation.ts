@@ -63,21 +63,26 @@ export default class AcceptInvitation implements OnInit {
   protected readonly link = new EmailedLink<LinkInfo>();
 
   ngOnInit(): void {
-    void this.open();
+    this.open();
   }
 
-  private async open(): Promise<void> {
-    const info = await this.link.open(this.token(), (t) => this.api.checkInvitation(t));
-    if (info) this.form.controls.name.setValue(info.name);
+  private open(): void {
+    this.link.open(
+      this.token(),
+      (t) => this.api.checkInvitation(t),
+      (info) => this.form.controls.name.setValue(info.name),
+    );
   }
 
-  protected async accept(): Promise<void> {
+  protected accept(): void {
     if (this.form.invalid) {
       this.form.markAllAsTouched();
       return;
     }
     const { name, secret } = this.form.getRawValue();
-    const done = await this.link.submit((t) => this.api.acceptInvitation(t, name.trim(), secret.password));
-    if (done) await this.router.navigate(['/sign-in'], { queryParams: { email: done.email, welcome: 1 } });
+    this.link.submit(
+      (t) => this.api.acceptInvitation(t, name.trim(), secret.password),
+      (done) => void this.router.navigate(['/sign-in'], { queryParams: { email: done.email, welcome: 1 } }),
+    );
   }
 }

@@ -5,7 +5,8 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { PASSWORD_MAX } from '../../../shared/api/accounts';
-import { toApiError } from '../core/api-error';
+import { finalize } from 'rxjs';
+import { type ApiError, toApiError } from '../core/api-error';
 import { Auth } from '../core/auth';
 import { AccountApi } from './account-api';
 import { newPasswordGroup } from './new-password';
@@ -82,29 +83,33 @@ export default class AccountPage {
   protected readonly error = signal<string | null>(null);
   protected readonly pending = signal(false);
 
-  protected async change(): Promise<void> {
+  protected change(): void {
     if (this.form.invalid) {
       this.form.markAllAsTouched();
       return;
     }
     this.pending.set(true);
     this.error.set(null);
-    try {
-      const { current, secret } = this.form.getRawValue();
-      await this.api.changePassword(current, secret.password);
-      this.form.reset();
-      this.snackBar.open('Your password is changed. Other devices were signed out.', 'OK', { duration: 6000 });
-    } catch (err) {
-      const e = toApiError(err);
-      const field = e.details?.fields?.find((f) => f.field === 'currentPassword');
-      if (field) {
-        this.form.controls.current.setErrors({ server: field.message });
-        this.form.controls.current.markAsTouched();
-      } else {
-        this.error.set(e.message);
-      }
-    } finally {
-      this.pending.set(false);
+    const { current, secret } = this.form.getRawValue();
+    this.api
+      .changePassword(current, secret.password)
+      .pipe(finalize(() => this.pending.set(false)))
+      .subscribe({
+        next: () => {
+          this.form.reset();
+          this.snackBar.open('Your password is changed. Other devices were signed out.', 'OK', { duration: 6000 });
+        },
+        error: (err: unknown) => this.showError(toApiError(err)),
+      });
+  }
+
+  private showError(e: ApiError): void {
+    const field = e.details?.fields?.find((f) => f.field === 'currentPassword');
+    if (field) {
+      this.form.controls.current.setErrors({ server: field.message });
+      this.form.controls.current.markAsTouched();
+    } else {
+      this.error.set(e.message);
     }
   }
 }

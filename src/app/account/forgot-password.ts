@@ -5,6 +5,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
 import { EMAIL_MAX } from '../../../shared/api/accounts';
+import { finalize } from 'rxjs';
 import { toApiError } from '../core/api-error';
 import { AccountApi } from './account-api';
 
@@ -52,19 +53,19 @@ export default class ForgotPassword {
   protected readonly error = signal<string | null>(null);
   protected readonly pending = signal(false);
 
-  protected async send(): Promise<void> {
+  protected send(): void {
     if (this.form.invalid) {
       this.form.markAllAsTouched();
       return;
     }
     this.pending.set(true);
     this.error.set(null);
-    try {
-      this.sent.set((await this.api.requestReset(this.form.getRawValue().email)).message);
-    } catch (err) {
-      this.error.set(toApiError(err).message);
-    } finally {
-      this.pending.set(false);
-    }
+    this.api
+      .requestReset(this.form.getRawValue().email)
+      .pipe(finalize(() => this.pending.set(false)))
+      .subscribe({
+        next: ({ message }) => this.sent.set(message),
+        error: (err: unknown) => this.error.set(toApiError(err).message),
+      });
   }
 }

@@ -1,4 +1,5 @@
 import { signal } from '@angular/core';
+import { finalize, type Observable } from 'rxjs';
 import { toApiError } from '../core/api-error';
 
 /**
@@ -25,34 +26,34 @@ export class EmailedLink<T> {
   readonly pending = signal(false);
   private token = '';
 
-  async open(token: string, check: (token: string) => Promise<T>): Promise<T | null> {
+  /** Reads the token and checks it; `checked` gets what the server says about a live link. */
+  open(token: string, check: (token: string) => Observable<T>, checked: (info: T) => void = () => undefined): void {
     this.token = token;
     forgetTokenInAddressBar();
-    try {
-      const info = await check(token);
-      this.info.set(info);
-      return info;
-    } catch (err) {
-      this.dead.set(toApiError(err).message);
-      return null;
-    } finally {
-      this.checking.set(false);
-    }
+    check(token)
+      .pipe(finalize(() => this.checking.set(false)))
+      .subscribe({
+        next: (info) => {
+          this.info.set(info);
+          checked(info);
+        },
+        error: (err: unknown) => this.dead.set(toApiError(err).message),
+      });
   }
 
-  /** Runs the one use of the link; undefined when it failed (the message is then shown). */
-  async submit<R>(use: (token: string) => Promise<R>): Promise<R | undefined> {
+  /** Runs the one use of the link; `done` runs when it worked (else the message is shown). */
+  submit<R>(use: (token: string) => Observable<R>, done: (result: R) => void): void {
     this.pending.set(true);
     this.error.set(null);
-    try {
-      return await use(this.token);
-    } catch (err) {
-      const e = toApiError(err);
-      if (e.code === 'link_invalid') this.dead.set(e.message);
-      else this.error.set(e.message);
-      return undefined;
-    } finally {
-      this.pending.set(false);
-    }
+    use(this.token)
+      .pipe(finalize(() => this.pending.set(false)))
+      .subscribe({
+        next: done,
+        error: (err: unknown) => {
+          const e = toApiError(err);
+          if (e.code === 'link_invalid') this.dead.set(e.message);
+          else this.error.set(e.message);
+        },
+      });
   }
 }

@@ -46,15 +46,17 @@ export default class ResetPassword implements OnInit {
   protected readonly link = new EmailedLink<LinkInfo>();
 
   ngOnInit(): void {
-    void this.link.open(this.token(), (t) => this.api.checkReset(t));
+    this.link.open(this.token(), (t) => this.api.checkReset(t));
   }
 
-  protected async save(): Promise<void> {
+  protected save(): void {
     if (this.form.invalid) {
       this.form.markAllAsTouched();
       return;
     }
-    const done = await this.link.submit((t) => this.api.completeReset(t, this.form.getRawValue().password));
-    if (done) await this.router.navigate(['/sign-in'], { queryParams: { email: done.email, reset: 1 } });
+    this.link.submit(
+      (t) => this.api.completeReset(t, this.form.getRawValue().password),
+      (done) => void this.router.navigate(['/sign-in'], { queryParams: { email: done.email, reset: 1 } }),
+    );
   }
 }

@@ -4,6 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { Router, RouterLink } from '@angular/router';
+import { concatMap, EMPTY, finalize, from } from 'rxjs';
 import { toApiError } from '../core/api-error';
 import { Auth } from '../core/auth';
 
@@ -47,28 +48,30 @@ export default class SignIn implements OnInit {
     if (email) this.form.controls.email.setValue(email);
   }
 
-  protected async signIn(): Promise<void> {
+  protected signIn(): void {
     if (this.form.invalid) {
       this.form.markAllAsTouched();
       return;
     }
     this.pending.set(true);
     this.error.set(null);
-    try {
-      const { email, password } = this.form.getRawValue();
-      const { user, warning } = await this.auth.signIn(email, password);
-      if (warning) {
-        // Moving on would land on the sign-in page again with no reason given: say why here.
-        this.error.set(warning);
-        return;
-      }
-      const next = this.next();
-      const home = user.role === 'admin' ? '/admin' : '/rooms';
-      await this.router.navigateByUrl(next && next.startsWith('/') && !next.startsWith('//') ? next : home);
-    } catch (err) {
-      this.error.set(toApiError(err).message);
-    } finally {
-      this.pending.set(false);
-    }
+    const { email, password } = this.form.getRawValue();
+    this.auth
+      .signIn(email, password)
+      .pipe(
+        concatMap(({ user, warning }) => {
+          if (warning) {
+            // Moving on would land on the sign-in page again with no reason given: say why here.
+            this.error.set(warning);
+            return EMPTY;
+          }
+          const next = this.next();
+          const home = user.role === 'admin' ? '/admin' : '/rooms';
+          // The form stays pending until the next page is there.
+          return from(this.router.navigateByUrl(next && next.startsWith('/') && !next.startsWith('//') ? next : home));
+        }),
+        finalize(() => this.pending.set(false)),
+      )
+      .subscribe({ error: (err: unknown) => this.error.set(toApiError(err).message) });
   }
 }

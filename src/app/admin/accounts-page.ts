@@ -11,7 +11,21 @@ import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
-import { catchError, debounceTime, distinctUntilChanged, merge, of, startWith, Subject, switchMap, tap } from 'rxjs';
+import {
+  catchError,
+  concatMap,
+  debounceTime,
+  distinctUntilChanged,
+  filter,
+  finalize,
+  merge,
+  type Observable,
+  of,
+  startWith,
+  Subject,
+  switchMap,
+  tap,
+} from 'rxjs';
 import type { AccountRole, AccountRow, AccountSortKey } from '../../../shared/api/accounts';
 import { Auth } from '../core/auth';
 import { AdminApi } from './admin-api';
@@ -119,24 +133,26 @@ export default class AccountsPage implements AfterViewInit {
       });
   }
 
-  private async confirmThen(data: ConfirmData, action: () => Promise<unknown>, done: string): Promise<void> {
-    const ok = await new Promise<boolean>((resolve) =>
-      this.dialog
-        .open(ConfirmDialog, { data })
-        .afterClosed()
-        .subscribe((v) => resolve(!!v)),
-    );
-    if (!ok) return;
-    try {
-      await action();
-      this.snackBar.open(done, 'OK', { duration: 5000 });
-    } finally {
-      this.reload.next();
-    }
+  /** Asks first; once confirmed, runs the action, says `done` and reloads the table (also after a failure). */
+  private confirmThen(data: ConfirmData, action: () => Observable<unknown>, done: string): void {
+    this.dialog
+      .open(ConfirmDialog, { data })
+      .afterClosed()
+      .pipe(
+        filter((v) => !!v),
+        concatMap(() =>
+          action().pipe(
+            tap(() => this.snackBar.open(done, 'OK', { duration: 5000 })),
+            finalize(() => this.reload.next()),
+          ),
+        ),
+      )
+      // A failure has been shown by the error interceptor.
+      .subscribe({ error: () => undefined });
   }
 
-  protected resend(row: AccountRow): Promise<void> {
-    return this.confirmThen(
+  protected resend(row: AccountRow): void {
+    this.confirmThen(
       {
         title: 'Send a new invitation?',
         message: `${row.email} gets a fresh link; the link sent before stops working.`,
@@ -147,8 +163,8 @@ export default class AccountsPage implements AfterViewInit {
     );
   }
 
-  protected revoke(row: AccountRow): Promise<void> {
-    return this.confirmThen(
+  protected revoke(row: AccountRow): void {
+    this.confirmThen(
       {
         title: 'Revoke the invitation?',
         message: `The link sent to ${row.email} stops working. You can send a new one later.`,
@@ -160,8 +176,8 @@ export default class AccountsPage implements AfterViewInit {
     );
   }
 
-  protected setActive(row: AccountRow, active: boolean): Promise<void> {
-    return this.confirmThen(
+  protected setActive(row: AccountRow, active: boolean): void {
+    this.confirmThen(
       active
         ? { title: `Reactivate ${row.name || row.email}?`, message: 'They can sign in again with their password.', confirm: 'Reactivate' }
         : {
@@ -176,9 +192,9 @@ export default class AccountsPage implements AfterViewInit {
     );
   }
 
-  protected changeRole(row: AccountRow, role: AccountRole): Promise<void> {
+  protected changeRole(row: AccountRow, role: AccountRole): void {
     const label = role === 'admin' ? 'an admin' : 'a facilitator';
-    return this.confirmThen(
+    this.confirmThen(
       {
         title: `Make ${row.name || row.email} ${label}?`,
         message:
@@ -192,8 +208,8 @@ export default class AccountsPage implements AfterViewInit {
     );
   }
 
-  protected sendReset(row: AccountRow): Promise<void> {
-    return this.confirmThen(
+  protected sendReset(row: AccountRow): void {
+    this.confirmThen(
       {
         title: 'Send a password-reset link?',
         message: `${row.email} gets a link to choose a new password (it works once, for one hour).`,

@@ -1,6 +1,6 @@
-import { HttpClient, HttpContext } from '@angular/common/http';
+import { HttpClient } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
-import { firstValueFrom, type Observable } from 'rxjs';
+import type { Observable } from 'rxjs';
 import type {
   AccountRole,
   AccountRow,
@@ -11,16 +11,16 @@ import type {
   OutboxRow,
 } from '../../../shared/api/accounts';
 import type { Page, PageQuery } from '../../../shared/api/lists';
-import { HANDLES_ERRORS } from '../core/error-interceptor';
 import { pageParams } from '../core/page-params';
+import { requestFlags } from '../core/request-flags';
 
 /** The admin console's calls to /api/admin. */
 @Injectable({ providedIn: 'root' })
 export class AdminApi {
   private readonly http = inject(HttpClient);
 
-  settings(): Promise<AdminSettings> {
-    return firstValueFrom(this.http.get<AdminSettings>('/api/admin/settings'));
+  settings(): Observable<AdminSettings> {
+    return this.http.get<AdminSettings>('/api/admin/settings');
   }
 
   accounts(q: PageQuery<AccountSortKey>): Observable<Page<AccountRow>> {
@@ -28,29 +28,29 @@ export class AdminApi {
   }
 
   /** The dialog shows field errors itself. */
-  invite(body: { email: string; name: string; role: AccountRole }): Promise<{ id: number }> {
-    const context = new HttpContext().set(HANDLES_ERRORS, true);
-    return firstValueFrom(this.http.post<{ id: number }>('/api/admin/invitations', body, { context }));
+  invite(body: { email: string; name: string; role: AccountRole }): Observable<{ id: number }> {
+    const context = requestFlags({ ownErrors: true });
+    return this.http.post<{ id: number }>('/api/admin/invitations', body, { context });
   }
 
-  resendInvitation(id: number): Promise<unknown> {
-    return firstValueFrom(this.http.post(`/api/admin/accounts/${id}/invitation`, {}));
+  resendInvitation(id: number): Observable<unknown> {
+    return this.http.post(`/api/admin/accounts/${id}/invitation`, {});
   }
 
-  revokeInvitation(id: number): Promise<unknown> {
-    return firstValueFrom(this.http.delete(`/api/admin/accounts/${id}/invitation`));
+  revokeInvitation(id: number): Observable<unknown> {
+    return this.http.delete(`/api/admin/accounts/${id}/invitation`);
   }
 
-  setActive(id: number, active: boolean): Promise<unknown> {
-    return firstValueFrom(this.http.post(`/api/admin/accounts/${id}/${active ? 'reactivate' : 'deactivate'}`, {}));
+  setActive(id: number, active: boolean): Observable<unknown> {
+    return this.http.post(`/api/admin/accounts/${id}/${active ? 'reactivate' : 'deactivate'}`, {});
   }
 
-  changeRole(id: number, role: AccountRole): Promise<unknown> {
-    return firstValueFrom(this.http.put(`/api/admin/accounts/${id}/role`, { role }));
+  changeRole(id: number, role: AccountRole): Observable<unknown> {
+    return this.http.put(`/api/admin/accounts/${id}/role`, { role });
   }
 
-  sendResetLink(id: number): Promise<unknown> {
-    return firstValueFrom(this.http.post(`/api/admin/accounts/${id}/password-reset`, {}));
+  sendResetLink(id: number): Observable<unknown> {
+    return this.http.post(`/api/admin/accounts/${id}/password-reset`, {});
   }
 
   audit(q: Omit<PageQuery, 'sort' | 'direction'>): Observable<Page<AuditRow>> {
@@ -61,7 +61,7 @@ export class AdminApi {
     return this.http.get<Page<OutboxRow>>('/api/admin/outbox', { params: pageParams(q) });
   }
 
-  message(id: number): Promise<OutboxMessage> {
-    return firstValueFrom(this.http.get<OutboxMessage>(`/api/admin/outbox/${id}`));
+  message(id: number): Observable<OutboxMessage> {
+    return this.http.get<OutboxMessage>(`/api/admin/outbox/${id}`);
   }
 }

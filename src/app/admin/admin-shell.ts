@@ -43,11 +43,16 @@ export default class AdminShell implements OnInit {
   protected readonly tabs = signal(this.base);
 
   ngOnInit(): void {
-    void this.loadTabs();
+    this.loadTabs();
   }
 
-  private async loadTabs(): Promise<void> {
-    const settings = await this.api.settings().catch(() => ({ mailFake: false }));
-    if (settings.mailFake) this.tabs.set([...this.base, { path: 'outbox', label: 'Outbox', icon: 'outgoing_mail' }]);
+  private loadTabs(): void {
+    // Without the settings the outbox tab stays hidden (its guard would refuse it anyway).
+    this.api.settings().subscribe({
+      next: (settings) => {
+        if (settings.mailFake) this.tabs.set([...this.base, { path: 'outbox', label: 'Outbox', icon: 'outgoing_mail' }]);
+      },
+      error: () => undefined,
+    });
   }
 }

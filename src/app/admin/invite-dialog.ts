@@ -6,7 +6,8 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { EMAIL_MAX, INVITE_HOURS, NAME_MAX, type AccountRole } from '../../../shared/api/accounts';
-import { toApiError } from '../core/api-error';
+import { finalize } from 'rxjs';
+import { type ApiError, toApiError } from '../core/api-error';
 import { AdminApi } from './admin-api';
 
 /** Invite someone by e-mail; the dialog closes with the address once the mail is out. */
@@ -81,7 +82,7 @@ export class InviteDialog {
   protected readonly pending = signal(false);
   protected readonly error = signal<string | null>(null);
 
-  protected async send(): Promise<void> {
+  protected send(): void {
     if (this.form.invalid) {
       this.form.markAllAsTouched();
       return;
@@ -89,20 +90,22 @@ export class InviteDialog {
     this.pending.set(true);
     this.error.set(null);
     const value = this.form.getRawValue();
-    try {
-      await this.api.invite(value);
-      this.ref.close(value.email);
-    } catch (err) {
-      const e = toApiError(err);
-      const emailError = e.details?.fields?.find((f) => f.field === 'email');
-      if (emailError) {
-        this.form.controls.email.setErrors({ server: e.status === 409 ? e.message : emailError.message });
-        this.form.controls.email.markAsTouched();
-      } else {
-        this.error.set(e.message);
-      }
-    } finally {
-      this.pending.set(false);
+    this.api
+      .invite(value)
+      .pipe(finalize(() => this.pending.set(false)))
+      .subscribe({
+        next: () => this.ref.close(value.email),
+        error: (err: unknown) => this.showError(toApiError(err)),
+      });
+  }
+
+  private showError(e: ApiError): void {
+    const emailError = e.details?.fields?.find((f) => f.field === 'email');
+    if (emailError) {
+      this.form.controls.email.setErrors({ server: e.status === 409 ? e.message : emailError.message });
+      this.form.controls.email.markAsTouched();
+    } else {
+      this.error.set(e.message);
     }
   }
 }

@@ -8,6 +8,7 @@ import { MatTableModule } from '@angular/material/table';
 import { DomSanitizer, type SafeResourceUrl } from '@angular/platform-browser';
 import { catchError, merge, of, startWith, Subject, switchMap } from 'rxjs';
 import type { OutboxMessage, OutboxRow } from '../../../shared/api/accounts';
+import { shownByInterceptor } from '../core/error-interceptor';
 import { AdminApi } from './admin-api';
 import { DateTimePipe } from '../core/date-format';
 
@@ -45,8 +46,11 @@ export default class OutboxPage implements AfterViewInit {
     this.reload.next();
   }
 
-  protected async open(row: OutboxRow): Promise<void> {
-    const message = await this.api.message(row.id);
+  protected open(row: OutboxRow): void {
+    this.api.message(row.id).subscribe({ next: (message) => this.show(message), error: shownByInterceptor });
+  }
+
+  private show(message: OutboxMessage): void {
     this.selected.set(message);
     this.view.set(message.hasHtml ? 'html' : 'text');
     // Same-origin URL built from a numeric id only; the response itself forbids scripts.

@@ -1,8 +1,8 @@
-import { HttpClient, HttpContext } from '@angular/common/http';
+import { HttpClient } from '@angular/common/http';
 import { computed, inject, Injectable, signal } from '@angular/core';
-import { firstValueFrom } from 'rxjs';
+import { defer, map, type Observable, of, tap } from 'rxjs';
 import type { AccountRole } from '../../../shared/api/accounts';
-import { HANDLES_ERRORS } from './handles-errors';
+import { requestFlags } from './request-flags';
 
 export interface Account {
   id: number;
@@ -22,28 +22,32 @@ export class Auth {
   readonly signedIn = computed(() => !!this.current());
   readonly isAdmin = computed(() => this.current()?.role === 'admin');
 
-  async load(): Promise<Account | null> {
-    if (this.current() !== undefined) return this.current() ?? null;
-    const res = await firstValueFrom(this.http.get<{ user: Account | null }>('/api/auth/me'));
-    this.current.set(res.user);
-    return res.user;
+  /** Who is signed in: asks the server only while nobody knows yet. */
+  load(): Observable<Account | null> {
+    return defer(() => {
+      const known = this.current();
+      if (known !== undefined) return of(known);
+      return this.http.get<{ user: Account | null }>('/api/auth/me').pipe(
+        map((res) => res.user),
+        tap((user) => this.current.set(user)),
+      );
+    });
   }
 
   /**
    * Signs in. `warning` is set when the server accepted the password but the browser will not
    * keep the session (a Secure cookie over plain http): the form shows it instead of moving on.
    */
-  async signIn(email: string, password: string): Promise<{ user: Account; warning?: string }> {
+  signIn(email: string, password: string): Observable<{ user: Account; warning?: string }> {
     // The sign-in form shows its own error beside the button; no snackbar that outlives the page.
-    const own = { context: new HttpContext().set(HANDLES_ERRORS, true) };
-    const res = await firstValueFrom(this.http.post<{ user: Account; warning?: string }>('/api/auth/sign-in', { email, password }, own));
-    this.current.set(res.user);
-    return res;
+    const own = { context: requestFlags({ ownErrors: true }) };
+    return this.http
+      .post<{ user: Account; warning?: string }>('/api/auth/sign-in', { email, password }, own)
+      .pipe(tap((res) => this.current.set(res.user)));
   }
 
-  async signOut(): Promise<void> {
-    await firstValueFrom(this.http.post('/api/auth/sign-out', {}));
-    this.current.set(null);
+  signOut(): Observable<void> {
+    return this.http.post('/api/auth/sign-out', {}).pipe(map(() => this.current.set(null)));
   }
 
   /** Called when the server answers 401: the session ended elsewhere. */

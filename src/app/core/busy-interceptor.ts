@@ -1,6 +1,7 @@
 import type { HttpInterceptorFn } from '@angular/common/http';
 import { inject, Injectable, signal } from '@angular/core';
 import { finalize } from 'rxjs';
+import { QUIET } from './request-flags';
 
 /** Counts requests in flight so the shell can show a slim progress bar for slow calls. */
 @Injectable({ providedIn: 'root' })
@@ -17,8 +18,8 @@ export class Busy {
 
 export const busyInterceptor: HttpInterceptorFn = (req, next) => {
   const busy = inject(Busy);
-  // Server-sent event streams and polling would keep the bar on forever.
-  if (req.headers.has('X-Background')) return next(req);
+  // Polling and background reads would keep the bar on forever.
+  if (req.context.get(QUIET)) return next(req);
   busy.start();
   return next(req).pipe(finalize(() => busy.stop()));
 };

@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialog, MatDialogModule } from '@angular/material/dialog';
-import { firstValueFrom } from 'rxjs';
+import { filter, type Observable } from 'rxjs';
 
 export interface ConfirmData {
   title: string;
@@ -37,8 +37,8 @@ export class ConfirmDialog {
   protected readonly data = inject<ConfirmData>(MAT_DIALOG_DATA);
 }
 
-/** Opens the question and resolves true only when the person confirmed. */
-export async function confirmed(dialog: MatDialog, data: ConfirmData): Promise<boolean> {
+/** Opens the question; emits once when the person confirmed, and completes without a value otherwise. */
+export function whenConfirmed(dialog: MatDialog, data: ConfirmData): Observable<true> {
   const ref = dialog.open<ConfirmDialog, ConfirmData, boolean>(ConfirmDialog, { data, width: '460px', autoFocus: 'dialog' });
-  return (await firstValueFrom(ref.afterClosed())) === true;
+  return ref.afterClosed().pipe(filter((v): v is true => v === true));
 }

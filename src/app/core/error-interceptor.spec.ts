@@ -4,7 +4,6 @@ import { ChangeDetectionStrategy, Component } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { provideRouter, Router } from '@angular/router';
-import { firstValueFrom } from 'rxjs';
 import type { ApiError } from './api-error';
 import { Auth } from './auth';
 import { errorInterceptor, HANDLES_ERRORS } from './error-interceptor';
@@ -34,14 +33,14 @@ describe('errorInterceptor', () => {
   afterEach(() => backend.verify());
 
   async function failWith(url: string, status: number, body: string | object, context?: HttpContext): Promise<ApiError> {
-    const pending = firstValueFrom(http.get(url, { context })).then(
-      () => {
-        throw new Error('the request should fail');
-      },
-      (e: ApiError) => e,
+    const failed = new Promise<ApiError>((resolve, reject) =>
+      http.get(url, { context }).subscribe({
+        next: () => reject(new Error('the request should fail')),
+        error: (e: ApiError) => resolve(e),
+      }),
     );
     backend.expectOne(url).flush(body, { status, statusText: 'Error' });
-    return pending;
+    return failed;
   }
 
   it("shows the server's own message in a snackbar and passes the error on", async () => {

@@ -6,9 +6,15 @@ import { catchError, throwError } from 'rxjs';
 import { toApiError } from './api-error';
 import { Auth } from './auth';
 import { ErrorSnack } from './error-snack';
-import { HANDLES_ERRORS } from './handles-errors';
+import { HANDLES_ERRORS } from './request-flags';
 
-export { HANDLES_ERRORS } from './handles-errors';
+export { HANDLES_ERRORS, QUIET, requestFlags } from './request-flags';
+
+/**
+ * The error callback for a request whose failure needs nothing more than the snackbar this
+ * interceptor has already shown (or the sign-in page it led to).
+ */
+export const shownByInterceptor = (): void => undefined;
 
 /** Turns server errors into one clear snackbar, and a lost session into the sign-in page. */
 export const errorInterceptor: HttpInterceptorFn = (req, next) => {

@@ -2,6 +2,7 @@ import { ChangeDetectionStrategy, Component, computed, inject, input, type OnIni
 import { MatButtonModule } from '@angular/material/button';
 import { Router } from '@angular/router';
 import type { JoinState } from '../../../shared/api/workshops';
+import { catchError, concatMap, EMPTY, finalize, from, type Observable, tap } from 'rxjs';
 import { toApiError } from '../core/api-error';
 import { ParticipantApi } from './participant-api';
 
@@ -74,29 +75,35 @@ export default class JoinPage implements OnInit {
   protected readonly busy = signal(false);
   protected readonly allTaken = computed(() => !!this.state()?.names.length && this.state()!.names.every((n) => n.taken));
 
-  async ngOnInit(): Promise<void> {
-    await this.load();
+  ngOnInit(): void {
+    this.load().subscribe();
   }
 
-  private async load(): Promise<void> {
-    try {
-      this.state.set(await this.api.join(this.code()));
-    } catch (err) {
-      this.failure.set(toApiError(err).message);
-    }
+  /** The names still to claim; a failure is shown instead of the list. */
+  private load(): Observable<JoinState> {
+    return this.api.join(this.code()).pipe(
+      tap((s) => this.state.set(s)),
+      catchError((err: unknown) => {
+        this.failure.set(toApiError(err).message);
+        return EMPTY;
+      }),
+    );
   }
 
-  protected async claim(id: number): Promise<void> {
+  /** Claims a name and opens that person's page; a refusal is shown and the list read again. */
+  protected claim(id: number): void {
     this.busy.set(true);
     this.problem.set(null);
-    try {
-      const { path } = await this.api.claim(this.code(), id);
-      await this.router.navigateByUrl(path, { replaceUrl: true });
-    } catch (err) {
-      this.problem.set(toApiError(err).message);
-      await this.load();
-    } finally {
-      this.busy.set(false);
-    }
+    this.api
+      .claim(this.code(), id)
+      .pipe(
+        concatMap(({ path }) => from(this.router.navigateByUrl(path, { replaceUrl: true }))),
+        catchError((err: unknown) => {
+          this.problem.set(toApiError(err).message);
+          return this.load();
+        }),
+        finalize(() => this.busy.set(false)),
+      )
+      .subscribe();
   }
 }

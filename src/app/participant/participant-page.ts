@@ -3,6 +3,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatIconModule } from '@angular/material/icon';
 import type { MyDebrief, SurveyState } from '../../../shared/api/workshops';
+import { concatMap, EMPTY, finalize, tap } from 'rxjs';
 import { toApiError } from '../core/api-error';
 import { DayPipe } from '../core/date-format';
 import { DebriefView } from './debrief-view';
@@ -27,28 +28,37 @@ export default class ParticipantPage implements OnInit {
   protected readonly agreeing = signal(false);
   protected readonly view = signal<'survey' | 'results'>('survey');
 
-  async ngOnInit(): Promise<void> {
-    try {
-      const s = await this.api.state(this.token());
-      this.state.set(s);
-      if (s.debriefReady) {
-        this.debrief.set(await this.api.debrief(this.token()));
-        this.view.set('results');
-      }
-    } catch (err) {
-      this.failure.set(toApiError(err).message);
-    }
+  ngOnInit(): void {
+    this.open();
   }
 
-  protected async agree(): Promise<void> {
+  /** Reads the survey's state, and the results too once they are released. */
+  private open(): void {
+    const token = this.token();
+    this.api
+      .state(token)
+      .pipe(
+        tap((s) => this.state.set(s)),
+        concatMap((s) => (s.debriefReady ? this.api.debrief(token) : EMPTY)),
+      )
+      .subscribe({
+        next: (d) => {
+          this.debrief.set(d);
+          this.view.set('results');
+        },
+        error: (err: unknown) => this.failure.set(toApiError(err).message),
+      });
+  }
+
+  protected agree(): void {
     this.agreeing.set(true);
-    try {
-      this.state.set(await this.api.consent(this.token()));
-    } catch (err) {
-      this.failure.set(toApiError(err).message);
-    } finally {
-      this.agreeing.set(false);
-    }
+    this.api
+      .consent(this.token())
+      .pipe(finalize(() => this.agreeing.set(false)))
+      .subscribe({
+        next: (s) => this.state.set(s),
+        error: (err: unknown) => this.failure.set(toApiError(err).message),
+      });
   }
 
   protected updated(s: SurveyState): void {

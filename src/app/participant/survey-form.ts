@@ -4,7 +4,8 @@ import { FormControl, FormGroup, ReactiveFormsModule, type AbstractControl, type
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { SURVEY_LEVELS, type Nomination, type SurveyLevel, type SurveyState } from '../../../shared/api/workshops';
-import { toApiError } from '../core/api-error';
+import { finalize } from 'rxjs';
+import { type ApiError, toApiError } from '../core/api-error';
 import { ParticipantApi } from './participant-api';
 
 type Pick = SurveyLevel | '';
@@ -105,7 +106,7 @@ export class SurveyForm {
       .map(([id, c]) => ({ participantId: Number(id), level: c.value as SurveyLevel }));
   }
 
-  protected async send(version = this.version): Promise<void> {
+  protected send(version = this.version): void {
     if (this.form().invalid) return;
     if (this.empty()) {
       this.message.set({ kind: 'error', text: EMPTY_MESSAGE });
@@ -113,30 +114,35 @@ export class SurveyForm {
     }
     this.sending.set(true);
     this.message.set(null);
-    try {
-      const state = await this.api.save(this.token(), version, this.current(), this.nobody());
-      this.theirs.set(null);
-      this.version = state.version;
-      this.message.set({ kind: 'ok', text: 'Thank you, your answers are saved. You can change them until the survey closes.' });
-      this.saved.emit(state);
-    } catch (err) {
-      const e = toApiError(err);
-      if (e.code === 'answers_changed') {
-        const d = e.details as unknown as { version: number; nominations: Nomination[] };
-        this.theirs.set({ version: d.version, nominations: d.nominations });
-        this.message.set({ kind: 'conflict', text: e.message });
-      } else {
-        this.message.set({ kind: 'error', text: e.message });
-      }
-    } finally {
-      this.sending.set(false);
+    this.api
+      .save(this.token(), version, this.current(), this.nobody())
+      .pipe(finalize(() => this.sending.set(false)))
+      .subscribe({
+        next: (state) => {
+          this.theirs.set(null);
+          this.version = state.version;
+          this.message.set({ kind: 'ok', text: 'Thank you, your answers are saved. You can change them until the survey closes.' });
+          this.saved.emit(state);
+        },
+        error: (err: unknown) => this.refused(toApiError(err)),
+      });
+  }
+
+  /** A stale save keeps the person's own picks and shows what was saved elsewhere. */
+  private refused(e: ApiError): void {
+    if (e.code === 'answers_changed') {
+      const d = e.details as unknown as { version: number; nominations: Nomination[] };
+      this.theirs.set({ version: d.version, nominations: d.nominations });
+      this.message.set({ kind: 'conflict', text: e.message });
+    } else {
+      this.message.set({ kind: 'error', text: e.message });
     }
   }
 
   /** Keep the picks on this page, replacing the answers saved elsewhere. */
   protected keepMine(): void {
     const theirs = this.theirs();
-    if (theirs) void this.send(theirs.version);
+    if (theirs) this.send(theirs.version);
   }
 
   /** Take the answers saved elsewhere into this page. */

@@ -3,7 +3,6 @@ import { ChangeDetectionStrategy, Component, computed, effect, inject, input, si
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
-import { firstValueFrom } from 'rxjs';
 import { clockMinutes, clockProblem, clockTimes, DEFAULT_SEND_AT, formatClock } from '../../../shared/api/briefing-clock';
 import type { BriefingSheet } from '../../../shared/api/plans';
 import { toApiError } from '../core/api-error';
@@ -40,16 +39,15 @@ export default class BriefingPage {
   constructor() {
     effect(() => {
       const id = Number(this.planId());
-      untracked(() => void this.load(id));
+      untracked(() => this.load(id));
     });
   }
 
-  private async load(id: number): Promise<void> {
-    try {
-      this.sheet.set(await firstValueFrom(this.api.briefing(id)));
-    } catch (e) {
-      this.error.set(toApiError(e).message);
-    }
+  private load(id: number): void {
+    this.api.briefing(id).subscribe({
+      next: (sheet) => this.sheet.set(sheet),
+      error: (e: unknown) => this.error.set(toApiError(e).message),
+    });
   }
 
   protected print(): void {

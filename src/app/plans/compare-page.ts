@@ -3,7 +3,7 @@ import { ChangeDetectionStrategy, Component, computed, effect, inject, input, si
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
-import { firstValueFrom } from 'rxjs';
+import { forkJoin } from 'rxjs';
 import type { PlanComparison, PlanDetail } from '../../../shared/api/plans';
 import type { RoomDto } from '../../../shared/api/rooms';
 import { toApiError } from '../core/api-error';
@@ -62,28 +62,23 @@ export default class ComparePage {
   constructor() {
     effect(() => {
       const [a, b] = [Number(this.a()), Number(this.b())];
-      untracked(() => void this.load(a, b));
+      untracked(() => this.load(a, b));
     });
   }
 
-  private async load(a: number, b: number): Promise<void> {
+  private load(a: number, b: number): void {
     if (!(a > 0 && b > 0)) {
       this.error.set('Pick two saved plans to compare.');
       return;
     }
-    try {
-      const [c, pa, pb, room] = await Promise.all([
-        firstValueFrom(this.api.compare(a, b)),
-        firstValueFrom(this.api.plan(a)),
-        firstValueFrom(this.api.plan(b)),
-        firstValueFrom(this.api.room(this.id())),
-      ]);
-      this.comparison.set(c);
-      this.details.set([pa, pb]);
-      this.room.set(room);
-    } catch (e) {
-      this.error.set(toApiError(e).message);
-    }
+    forkJoin([this.api.compare(a, b), this.api.plan(a), this.api.plan(b), this.api.room(this.id())]).subscribe({
+      next: ([c, pa, pb, room]) => {
+        this.comparison.set(c);
+        this.details.set([pa, pb]);
+        this.room.set(room);
+      },
+      error: (e: unknown) => this.error.set(toApiError(e).message),
+    });
   }
 
   /** A plan as good as a certified one is itself the best possible, whatever its own bound says. */

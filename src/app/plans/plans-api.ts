@@ -1,4 +1,4 @@
-import { HttpClient, HttpContext, HttpHeaders, HttpParams } from '@angular/common/http';
+import { HttpClient, HttpParams } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import type { Observable } from 'rxjs';
 import type {
@@ -17,12 +17,12 @@ import type {
   StartRehearsalRequest,
 } from '../../../shared/api/plans';
 import type { RoomDto } from '../../../shared/api/rooms';
-import { HANDLES_ERRORS } from '../core/error-interceptor';
+import { requestFlags } from '../core/request-flags';
 
 /** Requests whose errors the calling form shows itself. */
-const OWN_ERRORS = { context: new HttpContext().set(HANDLES_ERRORS, true) };
+const OWN_ERRORS = { context: requestFlags({ ownErrors: true }) };
 /** Polling-like calls that should not flash the shell's busy bar. */
-const QUIET = { headers: new HttpHeaders({ 'X-Background': '1' }) };
+const QUIET = { context: requestFlags({ quiet: true }) };
 
 /** The plans and rehearsals API (shared/api/plans.ts lists the routes). */
 @Injectable({ providedIn: 'root' })

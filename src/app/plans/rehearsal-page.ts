@@ -10,7 +10,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
-import { firstValueFrom, map, merge, type Subscription } from 'rxjs';
+import { concat, concatMap, defer, EMPTY, finalize, forkJoin, map, merge, type Observable, of, type Subscription, tap } from 'rxjs';
 import {
   REHEARSAL_LIMITS,
   type PlanSummary,
@@ -19,6 +19,7 @@ import {
   type RehearsalSummary,
 } from '../../../shared/api/plans';
 import { toApiError } from '../core/api-error';
+import { shownByInterceptor } from '../core/error-interceptor';
 import { jobEvents } from './job-events';
 import { PlansApi } from './plans-api';
 import { randomSeed, runsMessage, runsValidator, seedMessage, seedValidator } from './rehearsal-form-rules';
@@ -110,23 +111,30 @@ export default class RehearsalPage {
     merge(this.runs.valueChanges, this.seed.valueChanges, this.planId.valueChanges).subscribe(() => (this.idempotencyKey = null));
     effect(() => {
       const id = this.id();
-      untracked(() => void this.init(id));
+      untracked(() => this.init(id));
     });
     effect(() => {
       const show = Number(this.show());
-      untracked(() => void this.display(show > 0 ? show : null));
+      untracked(() => this.display(show > 0 ? show : null));
     });
     effect(() => {
       this.planFilter();
       this.statusFilter();
-      untracked(() => void this.refreshHistory());
+      untracked(() => this.refreshHistory());
     });
   }
 
-  private async init(roomId: number): Promise<void> {
-    const [plans, limits] = await Promise.all([firstValueFrom(this.api.plans(roomId)), firstValueFrom(this.api.limits())]);
+  private init(roomId: number): void {
+    forkJoin([this.api.plans(roomId), this.api.limits()]).subscribe({
+      next: ([plans, limits]) => this.ready(plans, limits.maxCascades),
+      error: shownByInterceptor,
+    });
+  }
+
+  /** The room's plans are in: picks the plan asked for, else the chosen one, else the first ready one. */
+  private ready(plans: PlanSummary[], maxCascades: number): void {
     this.plans.set(plans);
-    this.cap.set(limits.maxCascades);
+    this.cap.set(maxCascades);
     this.runs.updateValueAndValidity();
     const wanted = Number(this.plan());
     const pick =
@@ -136,16 +144,21 @@ export default class RehearsalPage {
     this.planId.setValue(pick?.id ?? null);
   }
 
-  protected async refreshHistory(): Promise<void> {
-    if (!(this.id() > 0)) return;
-    this.history.set(await firstValueFrom(this.api.rehearsals(this.id(), { planId: this.planFilter(), status: this.statusFilter() })));
+  protected refreshHistory(): void {
+    this.history$().subscribe({ error: shownByInterceptor });
+  }
+
+  /** The rehearsals of the room, as filtered (the filters are read when it runs). */
+  private history$(): Observable<unknown> {
+    if (!(this.id() > 0)) return of(null);
+    return this.api.rehearsals(this.id(), { planId: this.planFilter(), status: this.statusFilter() }).pipe(tap((h) => this.history.set(h)));
   }
 
   protected newSeed(): void {
     this.seed.setValue(randomSeed());
   }
 
-  protected async start(): Promise<void> {
+  protected start(): void {
     if (this.starting || this.active()) return;
     this.runs.markAsTouched();
     this.seed.markAsTouched();
@@ -158,27 +171,22 @@ export default class RehearsalPage {
     this.starting = true;
     this.startError.set(null);
     this.idempotencyKey ??= crypto.randomUUID();
-    try {
-      const r = await firstValueFrom(
-        this.api.startRehearsal(planId, { runs: this.runs.value!, seed: this.seed.value, idempotencyKey: this.idempotencyKey }),
-      );
-      this.began(r);
-    } catch (e) {
-      this.startError.set(toApiError(e).message);
-    } finally {
-      this.starting = false;
-    }
+    this.api
+      .startRehearsal(planId, { runs: this.runs.value!, seed: this.seed.value, idempotencyKey: this.idempotencyKey })
+      .pipe(finalize(() => (this.starting = false)))
+      .subscribe({
+        next: (r) => this.began(r),
+        error: (e: unknown) => this.startError.set(toApiError(e).message),
+      });
   }
 
-  protected async rerunOf(r: RehearsalSummary): Promise<void> {
+  protected rerunOf(r: RehearsalSummary): void {
     if (this.active()) return;
     this.startError.set(null);
-    try {
-      const started = await firstValueFrom(this.api.rerun(r.id, crypto.randomUUID()));
-      this.began(started);
-    } catch (e) {
-      this.startError.set(toApiError(e).message);
-    }
+    this.api.rerun(r.id, crypto.randomUUID()).subscribe({
+      next: (started) => this.began(started),
+      error: (e: unknown) => this.startError.set(toApiError(e).message),
+    });
   }
 
   private began(r: RehearsalStarted): void {
@@ -187,7 +195,7 @@ export default class RehearsalPage {
     this.match.set(null);
     void this.router.navigate([], { queryParams: { plan: r.rehearsal.planId, show: r.rehearsal.id } });
     this.follow(r.rehearsal);
-    void this.refreshHistory();
+    this.refreshHistory();
   }
 
   /** Feeds the progress bar from the rehearsal's server-sent events. */
@@ -206,7 +214,7 @@ export default class RehearsalPage {
           of: e.of ?? a.of,
           position: e.type === 'queued' ? (e.position ?? e.job.queuePosition) : null,
         });
-        if (e.type === 'done') void this.finished(r.id);
+        if (e.type === 'done') this.finished(r.id);
         else if (e.type === 'failed' || e.type === 'cancelled' || e.type === 'interrupted') {
           this.active.set(null);
           this.startError.set(
@@ -216,7 +224,7 @@ export default class RehearsalPage {
                 ? 'The server restarted during this rehearsal, so it was stopped. Re-run it from its seed.'
                 : `The rehearsal failed: ${e.message ?? e.job.message ?? 'no reason given'}.`,
           );
-          void this.refreshHistory();
+          this.refreshHistory();
         }
       },
       error: (err: Error) => {
@@ -226,36 +234,49 @@ export default class RehearsalPage {
     });
   }
 
-  private async finished(id: number): Promise<void> {
+  private finished(id: number): void {
     this.active.set(null);
     this.idempotencyKey = null;
-    await this.display(id, true);
-    await this.refreshHistory();
+    // The history is read once the display has settled, whatever it showed.
+    concat(
+      this.display$(id, true),
+      defer(() => this.history$()),
+    ).subscribe({ error: shownByInterceptor });
   }
 
-  protected async cancel(): Promise<void> {
+  protected cancel(): void {
     const a = this.active();
-    if (a) await firstValueFrom(this.api.cancelRehearsal(a.rehearsalId));
+    if (a) this.api.cancelRehearsal(a.rehearsalId).subscribe({ error: shownByInterceptor });
   }
 
-  protected async display(id: number | null, force = false): Promise<void> {
-    if (id === null) return;
-    if (!force && (this.detail()?.id === id || this.active()?.rehearsalId === id)) return;
-    const d = await firstValueFrom(this.api.rehearsal(id));
-    if (d.status === 'queued' || d.status === 'running') {
-      this.follow(d);
-      return;
-    }
-    this.detail.set(d.status === 'done' ? d : null);
-    this.match.set(null);
-    if (d.status !== 'done') this.startError.set(`Rehearsal #${d.number} is ${d.status}: it has no results. ${d.message ?? ''}`);
-    if (d.status === 'done' && d.rerunOf) {
-      const original = await firstValueFrom(this.api.rehearsal(d.rerunOf));
-      if (original.status === 'done') this.match.set(rerunMatch(original, d));
-    }
+  protected display(id: number | null, force = false): void {
+    this.display$(id, force).subscribe({ error: shownByInterceptor });
   }
 
-  protected async openRehearsal(id: number): Promise<void> {
-    await this.router.navigate([], { queryParams: { plan: this.planId.value, show: id } });
+  /** Shows a rehearsal: follows it while it runs, else its results (and how a re-run matches its original). */
+  private display$(id: number | null, force = false): Observable<unknown> {
+    if (id === null) return of(null);
+    if (!force && (this.detail()?.id === id || this.active()?.rehearsalId === id)) return of(null);
+    return this.api.rehearsal(id).pipe(
+      concatMap((d) => {
+        if (d.status === 'queued' || d.status === 'running') {
+          this.follow(d);
+          return EMPTY;
+        }
+        this.detail.set(d.status === 'done' ? d : null);
+        this.match.set(null);
+        if (d.status !== 'done') this.startError.set(`Rehearsal #${d.number} is ${d.status}: it has no results. ${d.message ?? ''}`);
+        if (d.status !== 'done' || !d.rerunOf) return EMPTY;
+        return this.api.rehearsal(d.rerunOf).pipe(
+          tap((original) => {
+            if (original.status === 'done') this.match.set(rerunMatch(original, d));
+          }),
+        );
+      }),
+    );
+  }
+
+  protected openRehearsal(id: number): void {
+    void this.router.navigate([], { queryParams: { plan: this.planId.value, show: id } });
   }
 }

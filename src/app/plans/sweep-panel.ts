@@ -5,7 +5,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { firstValueFrom } from 'rxjs';
+import { finalize } from 'rxjs';
 import { PLAN_LIMITS, type KSweepResult } from '../../../shared/api/plans';
 import { toApiError } from '../core/api-error';
 import { PlansApi } from './plans-api';
@@ -75,18 +75,18 @@ export class SweepPanel {
   protected readonly pending = signal(false);
   protected readonly error = signal<string | null>(null);
 
-  protected async run(): Promise<void> {
+  protected run(): void {
     this.maxK.markAsTouched();
     this.maxK.updateValueAndValidity();
     if (this.maxK.invalid) return;
     this.pending.set(true);
     this.error.set(null);
-    try {
-      this.result.set(await firstValueFrom(this.api.sweep(this.roomId(), this.maxK.value!)));
-    } catch (e) {
-      this.error.set(toApiError(e).message);
-    } finally {
-      this.pending.set(false);
-    }
+    this.api
+      .sweep(this.roomId(), this.maxK.value!)
+      .pipe(finalize(() => this.pending.set(false)))
+      .subscribe({
+        next: (r) => this.result.set(r),
+        error: (e: unknown) => this.error.set(toApiError(e).message),
+      });
   }
 }

@@ -1,6 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
-import { firstValueFrom } from 'rxjs';
+import { forkJoin, map, type Observable, of, switchMap } from 'rxjs';
 import type { ReplayIndex, ReplaySample } from '../../../shared/api/plans';
 
 /** Loads a rehearsal's replay data all at once, so the projector keeps working offline. */
@@ -8,11 +8,13 @@ import type { ReplayIndex, ReplaySample } from '../../../shared/api/plans';
 export class ReplayData {
   private readonly http = inject(HttpClient);
 
-  async load(rehearsalId: string): Promise<{ index: ReplayIndex; samples: ReplaySample[] }> {
-    const index = await firstValueFrom(this.http.get<ReplayIndex>(`/api/rehearsals/${rehearsalId}/samples`));
-    const samples = await Promise.all(
-      index.samples.map((s) => firstValueFrom(this.http.get<ReplaySample>(`/api/rehearsals/${rehearsalId}/samples/${s.n}`))),
+  load(rehearsalId: string): Observable<{ index: ReplayIndex; samples: ReplaySample[] }> {
+    return this.http.get<ReplayIndex>(`/api/rehearsals/${rehearsalId}/samples`).pipe(
+      switchMap((index) => {
+        const samples = index.samples.map((s) => this.http.get<ReplaySample>(`/api/rehearsals/${rehearsalId}/samples/${s.n}`));
+        // forkJoin of nothing completes without a value; an index without samples still answers.
+        return (samples.length ? forkJoin(samples) : of([])).pipe(map((all) => ({ index, samples: all })));
+      }),
     );
-    return { index, samples };
   }
 }

@@ -13,6 +13,7 @@ import {
 } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
+import { concatMap, from, map, tap } from 'rxjs';
 import type { ReplayIndex, ReplaySample } from '../../../shared/api/plans';
 import { toApiError } from '../core/api-error';
 import { drawFrame } from './replay-canvas';
@@ -97,28 +98,35 @@ export default class ReplayPage implements OnInit, OnDestroy {
     });
   }
 
-  async ngOnInit(): Promise<void> {
-    await this.loadAll();
+  ngOnInit(): void {
+    this.loadAll();
   }
 
   ngOnDestroy(): void {
     cancelAnimationFrame(this.frame);
   }
 
-  private async loadAll(): Promise<void> {
-    try {
-      const { index, samples } = await this.data.load(this.rehearsalId());
-      // Names are measured for placement: measure them in the real type, not a fallback.
-      await Promise.all(['400 20px "Source Sans 3"', '700 20px "Source Sans 3"'].map((f) => document.fonts?.load(f).catch(() => [])));
-      if (!samples.length) throw new Error('This rehearsal kept no cascades to replay.');
-      this.layout = replayLayout(index.people, index.ties);
-      this.names = index.people.map((p) => p.name);
-      this.index.set(index);
-      this.samples.set(samples);
-      (window as unknown as { __replayStats: unknown }).__replayStats = this.stats;
-    } catch (err) {
-      this.error.set(toApiError(err).message);
-    }
+  private loadAll(): void {
+    this.data
+      .load(this.rehearsalId())
+      .pipe(
+        // Names are measured for placement: measure them in the real type, not a fallback.
+        concatMap((data) =>
+          from(
+            Promise.all(['400 20px "Source Sans 3"', '700 20px "Source Sans 3"'].map((f) => document.fonts?.load(f).catch(() => []))),
+          ).pipe(map(() => data)),
+        ),
+        // In the pipe, not in subscribe: a room the layout refuses ends up in the error message too.
+        tap(({ index, samples }) => {
+          if (!samples.length) throw new Error('This rehearsal kept no cascades to replay.');
+          this.layout = replayLayout(index.people, index.ties);
+          this.names = index.people.map((p) => p.name);
+          this.index.set(index);
+          this.samples.set(samples);
+          (window as unknown as { __replayStats: unknown }).__replayStats = this.stats;
+        }),
+      )
+      .subscribe({ error: (err: unknown) => this.error.set(toApiError(err).message) });
   }
 
   protected pickSample(n: number): void {

@@ -1,30 +1,48 @@
-import { HttpClient, HttpContext, type HttpEvent } from '@angular/common/http';
+import { HttpClient, type HttpEvent } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import type { Observable } from 'rxjs';
 import type {
   CreateRoomRequest,
   ImportReport,
   RoomDto,
+  RoomEditBatch,
+  RoomEditResult,
   RoomListItem,
   RoomListQuery,
   RoomSummary,
   ShareDto,
   ShareRequest,
   ShareRole,
+  UpdateRoomRequest,
 } from '../../../shared/api/rooms';
 import type { OrgChartReport } from '../../../shared/api/org-chart';
 import type { Page } from '../../../shared/api/lists';
 import { pageParams } from '../core/page-params';
-import { HANDLES_ERRORS } from '../core/error-interceptor';
+import { requestFlags } from '../core/request-flags';
 
-/** The rooms endpoints the pages call (the editor's own saving lives in RoomEditor). */
+/** The rooms endpoints: the pages' calls and the editor's loading and saving (RoomEditor decides when). */
 @Injectable({ providedIn: 'root' })
 export class RoomsApi {
   private readonly http = inject(HttpClient);
-  private readonly selfHandled = new HttpContext().set(HANDLES_ERRORS, true);
+  private readonly selfHandled = requestFlags({ ownErrors: true });
 
   list(q: RoomListQuery): Observable<Page<RoomListItem>> {
     return this.http.get<Page<RoomListItem>>('/api/rooms', { params: pageParams(q) });
+  }
+
+  /** The whole room for the editor, which shows a failure itself. */
+  room(id: number): Observable<RoomDto> {
+    return this.http.get<RoomDto>(`/api/rooms/${id}`, { context: this.selfHandled });
+  }
+
+  /** Name, description or settings, against the version the editor holds. */
+  update(id: number, body: UpdateRoomRequest): Observable<RoomDto> {
+    return this.http.patch<RoomDto>(`/api/rooms/${id}`, body, { context: this.selfHandled });
+  }
+
+  /** One batch of the editor's ops (with a version, unless it only moves people). */
+  edit(id: number, body: RoomEditBatch): Observable<RoomEditResult> {
+    return this.http.post<RoomEditResult>(`/api/rooms/${id}/edits`, body, { context: this.selfHandled });
   }
 
   create(body: CreateRoomRequest): Observable<RoomDto> {
@@ -40,7 +58,7 @@ export class RoomsApi {
   }
 
   summary(id: number): Observable<RoomSummary> {
-    return this.http.get<RoomSummary>(`/api/rooms/${id}/summary`, { context: this.selfHandled, headers: { 'X-Background': '1' } });
+    return this.http.get<RoomSummary>(`/api/rooms/${id}/summary`, { context: requestFlags({ ownErrors: true, quiet: true }) });
   }
 
   /** Dry run or commit of an import; `roomId` null creates a new room. Reports upload progress. */

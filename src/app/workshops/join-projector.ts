@@ -2,6 +2,7 @@ import { ChangeDetectionStrategy, Component, inject, input, type OnDestroy, type
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 import type { SurveyProgress } from '../../../shared/api/workshops';
+import { forkJoin } from 'rxjs';
 import { toApiError } from '../core/api-error';
 import { WorkshopsApi } from './workshops-api';
 import { DateTimePipe } from '../core/date-format';
@@ -102,22 +103,25 @@ export default class JoinProjector implements OnInit, OnDestroy {
   protected readonly error = signal<string | null>(null);
   private timer: ReturnType<typeof setInterval> | undefined;
 
-  async ngOnInit(): Promise<void> {
-    const id = Number(this.id());
-    try {
-      const [code, progress] = await Promise.all([this.api.joinCode(id), this.api.progress(id)]);
-      this.code.set(code);
-      this.progress.set(progress);
-      // The count and the survey's state, every 3 s: once the survey closes the screen says so.
-      this.timer = setInterval(() => void this.refresh(id), 3000);
-    } catch (err) {
-      this.error.set(toApiError(err).message);
-    }
+  ngOnInit(): void {
+    this.open(Number(this.id()));
   }
 
-  private async refresh(id: number): Promise<void> {
-    const p = await this.api.progress(id).catch(() => null);
-    if (p) this.progress.set(p);
+  private open(id: number): void {
+    forkJoin([this.api.joinCode(id), this.api.progress(id)]).subscribe({
+      next: ([code, progress]) => {
+        this.code.set(code);
+        this.progress.set(progress);
+        // The count and the survey's state, every 3 s: once the survey closes the screen says so.
+        this.timer = setInterval(() => this.refresh(id), 3000);
+      },
+      error: (err: unknown) => this.error.set(toApiError(err).message),
+    });
+  }
+
+  /** A missed refresh keeps the last count. */
+  private refresh(id: number): void {
+    this.api.progress(id).subscribe({ next: (p) => this.progress.set(p), error: () => undefined });
   }
 
   ngOnDestroy(): void {

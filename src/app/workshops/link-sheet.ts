@@ -2,6 +2,7 @@ import { ChangeDetectionStrategy, Component, inject, input, type OnInit, signal 
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
+import { forkJoin } from 'rxjs';
 import { toApiError } from '../core/api-error';
 import { LinkSheetStore } from './link-sheet-store';
 import { WorkshopsApi } from './workshops-api';
@@ -94,15 +95,16 @@ export default class LinkSheet implements OnInit {
   protected readonly failure = signal<string | null>(null);
 
   /** Reissued links arrive in memory; otherwise the sheet shows everyone's own link, fetched again. */
-  async ngOnInit(): Promise<void> {
-    const id = Number(this.id());
+  ngOnInit(): void {
+    this.load(Number(this.id()));
+  }
+
+  private load(id: number): void {
     if (this.sheet.links()?.workshopId === id) return;
-    try {
-      const [w, links] = await Promise.all([this.api.detail(id), this.api.sheet(id)]);
-      this.sheet.links.set({ workshopId: id, title: w.title, links, reissued: false });
-    } catch (err) {
-      this.failure.set(toApiError(err).message);
-    }
+    forkJoin([this.api.detail(id), this.api.sheet(id)]).subscribe({
+      next: ([w, links]) => this.sheet.links.set({ workshopId: id, title: w.title, links, reissued: false }),
+      error: (err: unknown) => this.failure.set(toApiError(err).message),
+    });
   }
 
   protected print(): void {

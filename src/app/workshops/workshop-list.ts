@@ -8,7 +8,9 @@ import { MatSelectModule } from '@angular/material/select';
 import { Router, RouterLink } from '@angular/router';
 import type { RoomListItem } from '../../../shared/api/rooms';
 import { NOMINATION_LIMIT_MAX, STATUS_LABELS, type WorkshopSummary } from '../../../shared/api/workshops';
+import { catchError, concatMap, from, of, tap } from 'rxjs';
 import { toApiError } from '../core/api-error';
+import { shownByInterceptor } from '../core/error-interceptor';
 import { WorkshopsApi } from './workshops-api';
 import { DayPipe } from '../core/date-format';
 
@@ -38,19 +40,27 @@ export default class WorkshopList implements OnInit {
     }),
   });
 
-  async ngOnInit(): Promise<void> {
-    this.workshops.set(await this.api.list());
-    this.rooms.set((await this.api.rooms().catch(() => ({ items: [] as RoomListItem[] }))).items.filter((r) => r.access !== 'viewer'));
+  ngOnInit(): void {
+    this.loadLists();
   }
 
-  protected async create(): Promise<void> {
+  /** The workshops, then the rooms a new workshop can use (none when they cannot be read). */
+  private loadLists(): void {
+    this.api
+      .list()
+      .pipe(
+        tap((list) => this.workshops.set(list)),
+        concatMap(() => this.api.rooms().pipe(catchError(() => of({ items: [] as RoomListItem[] })))),
+      )
+      .subscribe({ next: (page) => this.rooms.set(page.items.filter((r) => r.access !== 'viewer')), error: shownByInterceptor });
+  }
+
+  protected create(): void {
     if (this.form.invalid) return;
     this.error.set(null);
-    try {
-      const w = await this.api.create(this.form.getRawValue());
-      await this.router.navigate(['/workshops', w.id]);
-    } catch (err) {
-      this.error.set(toApiError(err).message);
-    }
+    this.api
+      .create(this.form.getRawValue())
+      .pipe(concatMap((w) => from(this.router.navigate(['/workshops', w.id]))))
+      .subscribe({ error: (err: unknown) => this.error.set(toApiError(err).message) });
   }
 }

@@ -1,350 +1,108 @@
-import { ChangeDetectionStrategy, Component, computed, inject, input, type OnDestroy, type OnInit, signal } from '@angular/core';
-import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { ChangeDetectionStrategy, Component, computed, inject, input, type OnInit } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import { MatCheckboxModule } from '@angular/material/checkbox';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
-import { MatRadioModule } from '@angular/material/radio';
-import { MatSelectModule } from '@angular/material/select';
 import { MatDialog } from '@angular/material/dialog';
+import { MatIconModule } from '@angular/material/icon';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
-import { REHEARSAL_LIMITS, type RehearsalSummary } from '../../../shared/api/plans';
-import {
-  BUILD_MODES,
-  NOMINATION_LIMIT_MAX,
-  STATUS_LABELS,
-  WORKSHOP_STATUSES,
-  type BuildMode,
-  type BuildResult,
-  type MissingAnswer,
-  type SurveyProgress,
-  type WorkshopDetail,
-  type WorkshopStatus,
-} from '../../../shared/api/workshops';
-import { toApiError } from '../core/api-error';
-import { confirmed } from '../core/confirm-dialog';
-import { LinkSheetStore } from './link-sheet-store';
-import { WorkshopsApi } from './workshops-api';
-import { DateTimePipe, DayPipe } from '../core/date-format';
+import { concatMap, from, tap } from 'rxjs';
+import { STATUS_LABELS, WORKSHOP_STATUSES, type WorkshopStatus } from '../../../shared/api/workshops';
+import { type ConfirmData, whenConfirmed } from '../core/confirm-dialog';
+import { DayPipe } from '../core/date-format';
+import { WorkshopBuild } from './workshop-build';
+import { WorkshopDebrief } from './workshop-debrief';
+import { WorkshopParticipants } from './workshop-participants';
+import { WorkshopStore } from './workshop-store';
+import { WorkshopSurvey } from './workshop-survey';
+import { WorkshopTeam } from './workshop-team';
 
-/** One workshop: status, facilitators, participants and links, live survey count, room build, debrief. */
+/**
+ * One workshop: its status and the moves between them, and one panel each for the survey count
+ * and links, the team, the participants, the room build and the debrief (WorkshopStore holds
+ * what they share).
+ */
 @Component({
   selector: 'app-workshop-page',
   imports: [
-    DateTimePipe,
     DayPipe,
-    ReactiveFormsModule,
     RouterLink,
     MatButtonModule,
-    MatCheckboxModule,
-    MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
-    MatRadioModule,
-    MatSelectModule,
+    WorkshopBuild,
+    WorkshopDebrief,
+    WorkshopParticipants,
+    WorkshopSurvey,
+    WorkshopTeam,
   ],
   templateUrl: './workshop-page.html',
   styleUrl: './workshops.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
+  providers: [WorkshopStore],
 })
-export default class WorkshopPage implements OnInit, OnDestroy {
+export default class WorkshopPage implements OnInit {
   readonly id = input.required<string>();
-  private readonly api = inject(WorkshopsApi);
+  protected readonly store = inject(WorkshopStore);
   private readonly snack = inject(MatSnackBar);
   private readonly router = inject(Router);
-  private readonly sheet = inject(LinkSheetStore);
   private readonly dialog = inject(MatDialog);
 
   protected readonly labels = STATUS_LABELS;
   protected readonly steps = WORKSHOP_STATUSES;
-  protected readonly modes = BUILD_MODES;
-  protected readonly sampleChoices = Array.from({ length: REHEARSAL_LIMITS.samples }, (_, i) => i);
-  protected readonly w = signal<WorkshopDetail | null>(null);
-  protected readonly progress = signal<SurveyProgress | null>(null);
-  protected readonly mode = signal<BuildMode>('either');
-  protected readonly missing = signal<MissingAnswer[]>([]);
-  protected readonly built = signal<BuildResult | null>(null);
-  protected readonly rehearsals = signal<RehearsalSummary[]>([]);
-  protected readonly rosterIssues = signal<{ line: number; message: string }[]>([]);
-  protected readonly personForm = new FormGroup({
-    name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(120)] }),
-    email: new FormControl('', { nonNullable: true, validators: [Validators.email] }),
-  });
-  protected readonly facilitatorForm = new FormGroup({
-    email: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.email] }),
-  });
-  protected readonly releaseForm = new FormGroup({
-    rehearsalId: new FormControl<number | null>(null, Validators.required),
-    sampleRun: new FormControl(0, { nonNullable: true }),
-    showStarters: new FormControl(false, { nonNullable: true }),
-  });
-  protected readonly settingsForm = new FormGroup({
-    nominationLimit: new FormControl(5, {
-      nonNullable: true,
-      validators: [Validators.required, Validators.min(1), Validators.max(NOMINATION_LIMIT_MAX)],
-    }),
-    linkDays: new FormControl(30, { nonNullable: true, validators: [Validators.required, Validators.min(1), Validators.max(365)] }),
-  });
-  protected readonly limitMax = NOMINATION_LIMIT_MAX;
-  protected readonly doneRehearsals = computed(() => this.rehearsals().filter((r) => r.status === 'done'));
-  /** Participants ticked for a reissue of their links. */
-  protected readonly chosen = signal<ReadonlySet<number>>(new Set());
-  protected readonly stepIndex = computed(() => WORKSHOP_STATUSES.indexOf(this.w()?.status ?? 'draft'));
-  private timer: ReturnType<typeof setInterval> | undefined;
-  private workshopId = 0;
+  protected readonly stepIndex = computed(() => WORKSHOP_STATUSES.indexOf(this.store.workshop()?.status ?? 'draft'));
 
-  async ngOnInit(): Promise<void> {
-    this.workshopId = Number(this.id());
-    await this.reload();
-    // Live survey count: a light poll every 3 s (the shell's busy bar ignores it).
-    this.timer = setInterval(() => void this.poll(), 3000);
+  ngOnInit(): void {
+    this.store.open(Number(this.id()));
   }
 
-  ngOnDestroy(): void {
-    clearInterval(this.timer);
+  protected move(to: WorkshopStatus): void {
+    const { store } = this;
+    const ask = this.moveQuestion(to);
+    const moved = store.api.move(store.id, to).pipe(
+      tap((w) => store.workshop.set(w)),
+      concatMap(() => store.poll()),
+    );
+    store.run(ask ? whenConfirmed(this.dialog, ask).pipe(concatMap(() => moved)) : moved);
   }
 
-  /** Everything at once: the detail, the live count, the missing answers and the rehearsals. */
-  private async reload(): Promise<void> {
-    const [w] = await Promise.all([this.api.detail(this.workshopId), this.poll(), this.loadMissing()]);
-    this.show(w);
-    await this.loadRehearsals();
-  }
-
-  private show(w: WorkshopDetail): void {
-    this.w.set(w);
-    const ids = new Set(w.participants.map((p) => p.id));
-    this.chosen.update((c) => new Set([...c].filter((id) => ids.has(id))));
-    this.releaseForm.controls.showStarters.setValue(w.showStarters);
-    if (this.settingsForm.pristine) this.settingsForm.reset({ nominationLimit: w.nominationLimit, linkDays: w.linkDays });
-  }
-
-  /** After a change to the participants: the fresh detail first, then the rest without waiting. */
-  private async refreshParticipants(): Promise<void> {
-    this.show(await this.api.detail(this.workshopId));
-    void this.poll();
-    void this.loadMissing().catch(() => undefined);
-  }
-
-  private async poll(): Promise<void> {
-    const p = await this.api.progress(this.workshopId).catch(() => null);
-    if (p) this.progress.set(p);
-  }
-
-  private async loadMissing(): Promise<void> {
-    this.missing.set(await this.api.missing(this.workshopId, this.mode()));
-  }
-
-  private async loadRehearsals(): Promise<void> {
-    const roomId = this.w()?.roomId;
-    if (roomId) this.rehearsals.set(await this.api.rehearsals(roomId).catch(() => []));
-  }
-
-  protected async move(to: WorkshopStatus): Promise<void> {
-    const from = this.w()?.status;
-    if (to === 'closed') {
-      const ok = await confirmed(this.dialog, {
+  /** What to ask before a move that cannot simply be taken back; null when there is nothing to ask. */
+  private moveQuestion(to: WorkshopStatus): ConfirmData | null {
+    if (to === 'closed')
+      return {
         title: 'Close the workshop?',
         message: 'A closed workshop cannot be reopened or changed. Participants keep seeing what was released to them.',
         confirm: 'Close the workshop',
         danger: true,
-      });
-      if (!ok) return;
-    }
-    if (to === 'running' && from === 'collecting') {
-      const p = this.progress();
+      };
+    if (to === 'running' && this.store.workshop()?.status === 'collecting') {
+      const p = this.store.progress();
       const waiting = p ? p.participants - p.answered : 0;
-      const ok = await confirmed(this.dialog, {
+      return {
         title: 'Close the survey and run?',
         message:
-          (waiting > 0 ? `${waiting} of ${p!.participants} have not answered yet. ` : 'Everyone has answered. ') +
+          (p && waiting > 0 ? `${waiting} of ${p.participants} have not answered yet. ` : 'Everyone has answered. ') +
           'Once closed, nobody can send or change answers and the QR code stops taking names. You can reopen the survey later.',
         confirm: 'Close the survey',
-      });
-      if (!ok) return;
+      };
     }
-    this.show(await this.api.move(this.workshopId, to));
-    await this.poll();
+    return null;
   }
 
-  protected async addFacilitator(): Promise<void> {
-    if (this.facilitatorForm.invalid) return;
-    this.show(await this.api.addFacilitator(this.workshopId, this.facilitatorForm.getRawValue().email));
-    this.facilitatorForm.reset();
-  }
-
-  protected async removeFacilitator(userId: number): Promise<void> {
-    await this.api.removeFacilitator(this.workshopId, userId);
-    await this.reload();
-  }
-
-  protected async addPerson(): Promise<void> {
-    if (this.personForm.invalid) return;
-    const { name, email } = this.personForm.getRawValue();
-    const r = await this.api.addPeople(this.workshopId, [{ name, email: email || null }]);
-    if (r.skipped.length) this.snack.open(`${r.skipped.join(', ')} is already on the list.`, 'OK', { duration: 5000 });
-    this.personForm.reset();
-    this.show(r.workshop);
-    void this.poll();
-    void this.loadMissing().catch(() => undefined);
-  }
-
-  protected async uploadRoster(input: HTMLInputElement): Promise<void> {
-    const file = input.files?.[0];
-    if (!file) return;
-    const csv = await file.text();
-    input.value = '';
-    try {
-      const r = await this.api.roster(this.workshopId, csv);
-      this.rosterIssues.set(r.issues);
-      this.snack.open(`${r.added} added${r.skipped.length ? `, ${r.skipped.length} already listed` : ''}.`, 'OK', { duration: 5000 });
-    } catch (err) {
-      const e = toApiError(err);
-      this.rosterIssues.set((e.details?.['issues'] as { line: number; message: string }[]) ?? []);
-    }
-    await this.refreshParticipants();
-  }
-
-  protected async fromRoom(): Promise<void> {
-    const r = await this.api.fromRoom(this.workshopId);
-    this.snack.open(`${r.added} people taken from the room.`, 'OK', { duration: 4000 });
-    await this.refreshParticipants();
-  }
-
-  protected async removeParticipant(pid: number, name: string): Promise<void> {
-    const ok = await confirmed(this.dialog, {
-      title: `Remove ${name}?`,
-      message: `${name} leaves the workshop: their link stops working and their answers are deleted.`,
-      confirm: 'Remove and delete answers',
-      danger: true,
-    });
-    if (!ok) return;
-    await this.api.removeParticipant(this.workshopId, pid);
-    await this.refreshParticipants();
-  }
-
-  protected async resetClaim(pid: number): Promise<void> {
-    await this.api.resetClaim(this.workshopId, pid);
-    this.snack.open('The name can be picked again; the earlier link no longer works.', 'OK', { duration: 5000 });
-    await this.refreshParticipants();
-  }
-
-  protected async revoke(pid: number, name: string): Promise<void> {
-    const ok = await confirmed(this.dialog, {
-      title: `End ${name}'s link?`,
-      message: `The link ${name} holds (e-mailed, printed or picked on the join page) stops working at once. Their answers are kept. They get no new link until you print or e-mail one.`,
-      confirm: 'End the link',
-      danger: true,
-    });
-    if (!ok) return;
-    await this.api.revoke(this.workshopId, [pid]);
-    await this.refreshParticipants();
-  }
-
-  protected toggleChosen(pid: number, on: boolean): void {
-    this.chosen.update((c) => {
-      const next = new Set(c);
-      if (on) next.add(pid);
-      else next.delete(pid);
-      return next;
-    });
-  }
-
-  protected chooseAll(on: boolean): void {
-    this.chosen.set(new Set(on ? (this.w()?.participants ?? []).map((p) => p.id) : []));
-  }
-
-  /** The separate, confirmed action that replaces links: only the chosen people's links end. */
-  protected async reissue(ids: number[]): Promise<void> {
-    const w = this.w();
-    if (!w || !ids.length) return;
-    const names = w.participants.filter((p) => ids.includes(p.id)).map((p) => p.name);
-    const who = names.length === 1 ? names[0] : `${names.length} people`;
-    const ok = await confirmed(this.dialog, {
-      title: names.length === 1 ? `Reissue ${names[0]}'s link?` : `Reissue links for ${names.length} people?`,
-      message:
-        `The link ${names.length === 1 ? 'this person holds' : 'each of them holds'} stops working at once, including links already e-mailed or printed. ` +
-        `Answers are kept and open with the new link. Everyone else keeps their link. Then print or e-mail the new ${names.length === 1 ? 'link' : 'links'} to ${who}.`,
-      confirm: names.length === 1 ? 'Reissue the link' : `Reissue ${names.length} links`,
-      danger: true,
-    });
-    if (!ok) return;
-    const links = await this.api.reissue(this.workshopId, ids);
-    this.chosen.set(new Set());
-    this.sheet.links.set({ workshopId: this.workshopId, title: w.title, links, reissued: true });
-    const ref = this.snack.open(`New ${links.length === 1 ? 'link' : 'links'} for ${who}; the old ones no longer work.`, 'Print them', {
-      duration: 10000,
-    });
-    ref.onAction().subscribe(() => void this.router.navigate(['/workshops', this.workshopId, 'sheet']));
-    await this.refreshParticipants();
-  }
-
-  protected async emailLinks(): Promise<void> {
-    const r = await this.api.email(this.workshopId);
-    const parts = [`Sent to ${r.sent.length}.`];
-    if (r.withoutEmail.length) parts.push(`${r.withoutEmail.length} without an address: print their links or use the QR code.`);
-    if (r.failed.length) parts.push(`Could not send to ${r.failed.join(', ')}; their links are unchanged.`);
-    this.snack.open(parts.join(' '), 'OK', { duration: 8000 });
-    await this.refreshParticipants();
-  }
-
-  protected async printSheet(): Promise<void> {
-    this.sheet.links.set(null);
-    await this.router.navigate(['/workshops', this.workshopId, 'sheet']);
-  }
-
-  protected async setMode(mode: BuildMode): Promise<void> {
-    this.mode.set(mode);
-    await this.loadMissing();
-  }
-
-  protected async build(): Promise<void> {
-    const r = await this.api.build(this.workshopId, this.mode());
-    this.built.set(r);
-    this.missing.set(r.missing);
-    this.show(await this.api.detail(this.workshopId));
-    await this.loadRehearsals();
-  }
-
-  protected async release(): Promise<void> {
-    const v = this.releaseForm.getRawValue();
-    if (v.rehearsalId === null) return;
-    this.show(
-      await this.api.release(this.workshopId, { rehearsalId: v.rehearsalId, sampleRun: v.sampleRun, showStarters: v.showStarters }),
-    );
-    this.snack.open('Results released: participants now see their debrief on their own link.', 'OK', { duration: 6000 });
-  }
-
-  protected async toggleStarters(show: boolean): Promise<void> {
-    this.show(await this.api.patch(this.workshopId, { showStarters: show }));
-  }
-
-  protected async saveSettings(): Promise<void> {
-    if (this.settingsForm.invalid) return;
-    const w = await this.api.patch(this.workshopId, this.settingsForm.getRawValue());
-    this.settingsForm.markAsPristine();
-    this.show(w);
-    this.snack.open('Settings saved.', 'OK', { duration: 3000 });
-  }
-
-  protected async deleteWorkshop(): Promise<void> {
-    const w = this.w();
+  protected deleteWorkshop(): void {
+    const w = this.store.workshop();
     if (!w) return;
-    const ok = await confirmed(this.dialog, {
+    const ask: ConfirmData = {
       title: `Delete “${w.title}”?`,
       message: 'Its participants, their links and every survey answer are deleted. The room stays.',
       confirm: 'Delete the workshop',
       danger: true,
-    });
-    if (!ok) return;
-    await this.api.remove(this.workshopId);
-    this.snack.open('The workshop and all its survey data are deleted.', 'OK', { duration: 5000 });
-    await this.router.navigate(['/workshops']);
-  }
-
-  protected async refreshRehearsals(): Promise<void> {
-    await this.loadRehearsals();
+    };
+    this.store.run(
+      whenConfirmed(this.dialog, ask).pipe(
+        concatMap(() => this.store.api.remove(this.store.id)),
+        concatMap(() => {
+          this.snack.open('The workshop and all its survey data are deleted.', 'OK', { duration: 5000 });
+          return from(this.router.navigate(['/workshops']));
+        }),
+      ),
+    );
   }
 }

@@ -1,6 +1,5 @@
-import { HttpClient, HttpContext, HttpHeaders } from '@angular/common/http';
+import { HttpClient } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
-import { firstValueFrom } from 'rxjs';
 import type { RehearsalSummary } from '../../../shared/api/plans';
 import type { Page } from '../../../shared/api/lists';
 import type { RoomListItem } from '../../../shared/api/rooms';
@@ -15,18 +14,18 @@ import type {
   WorkshopStatus,
   WorkshopSummary,
 } from '../../../shared/api/workshops';
-import { HANDLES_ERRORS } from '../core/error-interceptor';
+import { requestFlags } from '../core/request-flags';
 
 /** The facilitator's workshop calls. */
 @Injectable({ providedIn: 'root' })
 export class WorkshopsApi {
   private readonly http = inject(HttpClient);
   private readonly base = '/api/workshops';
-  private get<T>(url: string, background = false) {
-    return firstValueFrom(this.http.get<T>(url, background ? { headers: new HttpHeaders({ 'X-Background': '1' }) } : {}));
+  private get<T>(url: string, quiet = false) {
+    return this.http.get<T>(url, { context: requestFlags({ quiet }) });
   }
-  private post<T>(url: string, body: unknown = {}, own = false) {
-    return firstValueFrom(this.http.post<T>(url, body, own ? { context: new HttpContext().set(HANDLES_ERRORS, true) } : {}));
+  private post<T>(url: string, body: unknown = {}, ownErrors = false) {
+    return this.http.post<T>(url, body, { context: requestFlags({ ownErrors }) });
   }
 
   list = () => this.get<WorkshopSummary[]>(this.base);
@@ -34,11 +33,11 @@ export class WorkshopsApi {
   create = (w: NewWorkshop) => this.post<WorkshopDetail>(this.base, w, true);
   detail = (id: number) => this.get<WorkshopDetail>(`${this.base}/${id}`);
   patch = (id: number, body: Partial<Pick<WorkshopDetail, 'title' | 'sessionDate' | 'nominationLimit' | 'linkDays' | 'showStarters'>>) =>
-    firstValueFrom(this.http.patch<WorkshopDetail>(`${this.base}/${id}`, body));
-  remove = (id: number) => firstValueFrom(this.http.delete<void>(`${this.base}/${id}`));
+    this.http.patch<WorkshopDetail>(`${this.base}/${id}`, body);
+  remove = (id: number) => this.http.delete<void>(`${this.base}/${id}`);
   move = (id: number, to: WorkshopStatus) => this.post<WorkshopDetail>(`${this.base}/${id}/status`, { to });
   addFacilitator = (id: number, email: string) => this.post<WorkshopDetail>(`${this.base}/${id}/facilitators`, { email });
-  removeFacilitator = (id: number, userId: number) => firstValueFrom(this.http.delete<void>(`${this.base}/${id}/facilitators/${userId}`));
+  removeFacilitator = (id: number, userId: number) => this.http.delete<void>(`${this.base}/${id}/facilitators/${userId}`);
   addPeople = (id: number, people: { name: string; email: string | null }[]) =>
     this.post<{ added: number; skipped: string[]; workshop: WorkshopDetail }>(`${this.base}/${id}/participants`, { people });
   roster = (id: number, csv: string) =>
@@ -46,7 +45,7 @@ export class WorkshopsApi {
       csv,
     });
   fromRoom = (id: number) => this.post<{ added: number; skipped: string[] }>(`${this.base}/${id}/participants/from-room`);
-  removeParticipant = (id: number, pid: number) => firstValueFrom(this.http.delete<void>(`${this.base}/${id}/participants/${pid}`));
+  removeParticipant = (id: number, pid: number) => this.http.delete<void>(`${this.base}/${id}/participants/${pid}`);
   resetClaim = (id: number, pid: number) => this.post<void>(`${this.base}/${id}/participants/${pid}/reset-claim`);
   email = (id: number, participantIds?: number[]) =>
     this.post<{ sent: string[]; withoutEmail: string[]; failed: string[] }>(`${this.base}/${id}/links/email`, { participantIds });

@@ -4,7 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { firstValueFrom } from 'rxjs';
+import { finalize } from 'rxjs';
 import { DEFAULT_ROOM_SETTINGS, ROOM_LIMITS, type RoomDto } from '../../../../shared/api/rooms';
 import { toApiError } from '../../core/api-error';
 import { SettingsFields, settingsForm } from '../panels/settings-fields';
@@ -54,33 +54,32 @@ export class CreateRoomDialog {
   protected readonly busy = signal(false);
   protected readonly error = signal<string | null>(null);
 
-  protected async create(): Promise<void> {
+  protected create(): void {
     if (this.name.invalid || this.settings.invalid || !this.name.value.trim()) {
       this.name.markAsTouched();
       this.settings.markAllAsTouched();
       return;
     }
     this.busy.set(true);
-    try {
-      const s = this.settings.getRawValue();
-      const room = await firstValueFrom(
-        this.api.create({
-          name: this.name.value.trim(),
-          settings: {
-            directed: s.directed,
-            minutesPerHop: Number(s.minutesPerHop),
-            laziness: Number(s.laziness),
-            mixing: Number(s.mixing),
-          },
-        }),
-      );
-      this.ref.close(room);
-    } catch (err) {
-      const e = toApiError(err);
-      const fields = e.details?.fields?.map((f) => `${f.field}: ${f.message}`).join('; ');
-      this.error.set(fields ? `${e.message} (${fields})` : e.message);
-    } finally {
-      this.busy.set(false);
-    }
+    const s = this.settings.getRawValue();
+    this.api
+      .create({
+        name: this.name.value.trim(),
+        settings: {
+          directed: s.directed,
+          minutesPerHop: Number(s.minutesPerHop),
+          laziness: Number(s.laziness),
+          mixing: Number(s.mixing),
+        },
+      })
+      .pipe(finalize(() => this.busy.set(false)))
+      .subscribe({
+        next: (room) => this.ref.close(room),
+        error: (err: unknown) => {
+          const e = toApiError(err);
+          const fields = e.details?.fields?.map((f) => `${f.field}: ${f.message}`).join('; ');
+          this.error.set(fields ? `${e.message} (${fields})` : e.message);
+        },
+      });
   }
 }

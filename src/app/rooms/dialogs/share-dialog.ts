@@ -7,7 +7,8 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
-import { firstValueFrom } from 'rxjs';
+import { concatMap, finalize, type Observable, tap } from 'rxjs';
+import { shownByInterceptor } from '../../core/error-interceptor';
 import type { ShareDto, ShareRole } from '../../../../shared/api/rooms';
 import { toApiError } from '../../core/api-error';
 import { RoomsApi } from '../rooms-api';
@@ -124,43 +125,56 @@ export class ShareDialog {
   });
 
   constructor() {
-    void this.load();
+    this.load().subscribe({ error: shownByInterceptor });
   }
 
-  private async load(): Promise<void> {
-    this.shares.set(await firstValueFrom(this.api.shares(this.data.roomId)));
+  private load(): Observable<unknown> {
+    return this.api.shares(this.data.roomId).pipe(tap((shares) => this.shares.set(shares)));
   }
 
-  protected async share(): Promise<void> {
+  protected share(): void {
     if (this.form.invalid) {
       this.form.markAllAsTouched();
       return;
     }
     this.busy.set(true);
-    try {
-      const v = this.form.getRawValue();
-      const s = await firstValueFrom(this.api.share(this.data.roomId, { email: v.email.trim(), role: v.role }));
-      this.snack.open(`Shared with ${s.name} as ${s.role}.`, 'OK', { duration: 4000 });
-      this.form.reset({ email: '', role: v.role });
-      await this.load();
-    } catch (err) {
-      const e = toApiError(err);
-      this.form.controls.email.setErrors({ server: e.details?.fields?.[0]?.message ?? e.message });
-      this.form.controls.email.markAsTouched();
-    } finally {
-      this.busy.set(false);
-    }
+    const v = this.form.getRawValue();
+    this.api
+      .share(this.data.roomId, { email: v.email.trim(), role: v.role })
+      .pipe(
+        tap((s) => {
+          this.snack.open(`Shared with ${s.name} as ${s.role}.`, 'OK', { duration: 4000 });
+          this.form.reset({ email: '', role: v.role });
+        }),
+        concatMap(() => this.load()),
+        finalize(() => this.busy.set(false)),
+      )
+      .subscribe({
+        error: (err: unknown) => {
+          const e = toApiError(err);
+          this.form.controls.email.setErrors({ server: e.details?.fields?.[0]?.message ?? e.message });
+          this.form.controls.email.markAsTouched();
+        },
+      });
   }
 
-  protected async changeRole(s: ShareDto, role: ShareRole): Promise<void> {
-    await firstValueFrom(this.api.changeShare(this.data.roomId, s.userId, role));
-    this.snack.open(`${s.name} is now ${role === 'editor' ? 'an editor' : 'a viewer'}.`, 'OK', { duration: 3000 });
-    await this.load();
+  protected changeRole(s: ShareDto, role: ShareRole): void {
+    this.api
+      .changeShare(this.data.roomId, s.userId, role)
+      .pipe(
+        tap(() => this.snack.open(`${s.name} is now ${role === 'editor' ? 'an editor' : 'a viewer'}.`, 'OK', { duration: 3000 })),
+        concatMap(() => this.load()),
+      )
+      .subscribe({ error: shownByInterceptor });
   }
 
-  protected async revoke(s: ShareDto): Promise<void> {
-    await firstValueFrom(this.api.revokeShare(this.data.roomId, s.userId));
-    this.snack.open(`${s.name} no longer sees this room.`, 'OK', { duration: 3000 });
-    await this.load();
+  protected revoke(s: ShareDto): void {
+    this.api
+      .revokeShare(this.data.roomId, s.userId)
+      .pipe(
+        tap(() => this.snack.open(`${s.name} no longer sees this room.`, 'OK', { duration: 3000 })),
+        concatMap(() => this.load()),
+      )
+      .subscribe({ error: shownByInterceptor });
   }
 }

@@ -75,4 +75,17 @@ describe('autosave outbox', () => {
     box.discard();
     expect(box.next()).toBeNull();
   });
+
+  it('starts again from a room read from the server: nothing queued, its ids known', () => {
+    const box = new Outbox();
+    box.personIds.set('n5', 50);
+    box.push([{ op: 'deletePerson', lid: 'n5' }]);
+    box.restart([{ id: 4 }, { id: 9 }], [{ id: 2 }]);
+    expect(box.pending).toBe(0);
+    expect([...box.personIds]).toEqual([
+      ['p4', 4],
+      ['p9', 9],
+    ]);
+    expect([...box.tieIds]).toEqual([['t2', 2]]);
+  });
 });

@@ -26,6 +26,15 @@ export class Outbox {
     this.queue = [];
   }
 
+  /** Starts again from a room read from the server (the local ids of RoomModel.replaceWith). */
+  restart(people: readonly { id: number }[], ties: readonly { id: number }[]): void {
+    this.discard();
+    this.personIds.clear();
+    this.tieIds.clear();
+    for (const p of people) this.personIds.set(`p${p.id}`, p.id);
+    for (const t of ties) this.tieIds.set(`t${t.id}`, t.id);
+  }
+
   /** The next batch to send (without its version) and how many queued ops it covers. */
   next(): { ops: RoomEditOp[]; count: number; layoutOnly: boolean } | null {
     if (!this.queue.length) return null;

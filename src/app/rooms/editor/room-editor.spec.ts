@@ -2,6 +2,7 @@ import { provideHttpClient, withInterceptors } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
+import type { Observable } from 'rxjs';
 import { errorInterceptor } from '../../core/error-interceptor';
 import type { RoomDto } from '../../../../shared/api/rooms';
 import { RoomEditor } from './room-editor';
@@ -22,20 +23,26 @@ const ROOM: RoomDto = {
   updatedAt: '2026-01-01T00:00:00Z',
 };
 
+/** Follows a save round; the testing backend answers at once, so it has ended when the answer was flushed. */
+function ended(round: Observable<void>): () => boolean {
+  let done = false;
+  round.subscribe({ complete: () => (done = true) });
+  return () => done;
+}
+
 /** Autosave through the batch endpoint (behind the app's error interceptor), and the "changed elsewhere" choice after a 409. */
 describe('RoomEditor saving', () => {
   let editor: RoomEditor;
   let http: HttpTestingController;
 
-  beforeEach(async () => {
+  beforeEach(() => {
     TestBed.configureTestingModule({
       providers: [provideHttpClient(withInterceptors([errorInterceptor])), provideHttpClientTesting(), provideRouter([]), RoomEditor],
     });
     editor = TestBed.inject(RoomEditor);
     http = TestBed.inject(HttpTestingController);
-    const loading = editor.load(5);
+    editor.load(5);
     http.expectOne('/api/rooms/5').flush(ROOM);
-    await loading;
   });
 
   afterEach(() => http.verify());
@@ -44,28 +51,28 @@ describe('RoomEditor saving', () => {
     const lid = editor.addPerson({ name: 'Cy', group: 'South' });
     editor.addTie(lid, 'p11', 3);
     expect(editor.saveState()).toBe('unsaved');
-    const saving = editor.flush();
+    const saving = ended(editor.flush());
     const req = http.expectOne('/api/rooms/5/edits');
     expect(req.request.body.version).toBe(3);
     expect(req.request.body.ops.map((o: { op: string }) => o.op)).toEqual(['addPerson', 'addTie']);
     expect(req.request.body.ops[1].source).toBe(lid);
     expect(req.request.body.ops[1].target).toBe(11);
     req.flush({ version: 4, layoutOnly: false, people: { [lid]: 13 }, ties: { [req.request.body.ops[1].tempId]: 22 } });
-    await saving;
+    expect(saving()).withContext('the save round has ended').toBeTrue();
     expect(editor.saveState()).toBe('saved');
     expect(editor.room()!.version).toBe(4);
     // Undo of the new tie now deletes it by its server id.
     editor.undo();
-    const undoing = editor.flush();
+    const undoing = ended(editor.flush());
     const undoReq = http.expectOne('/api/rooms/5/edits');
     expect(undoReq.request.body.ops).toEqual([{ op: 'deleteTie', id: 22 }]);
     undoReq.flush({ version: 5, layoutOnly: false, people: {}, ties: {} });
-    await undoing;
+    expect(undoing()).withContext('the save round has ended').toBeTrue();
   });
 
   it('a stale version keeps the change; "keep mine" sends it again on top of the newer version', async () => {
     editor.updatePerson('p11', { name: 'Ana Lima' });
-    const saving = editor.flush();
+    const saving = ended(editor.flush());
     http.expectOne('/api/rooms/5/edits').flush(
       {
         error: {
@@ -76,7 +83,7 @@ describe('RoomEditor saving', () => {
       },
       { status: 409, statusText: 'Conflict' },
     );
-    await saving;
+    expect(saving()).withContext('the save round has ended').toBeTrue();
     expect(editor.saveState()).toBe('conflict');
     expect(editor.conflict()?.currentVersion).toBe(7);
     expect(editor.model.person('p11').name).toBe('Ana Lima');
@@ -90,14 +97,14 @@ describe('RoomEditor saving', () => {
 
   it('a failed save shows the message, keeps the change and retries', async () => {
     editor.setTieStrength('t21', 6);
-    const saving = editor.flush();
+    const saving = ended(editor.flush());
     http
       .expectOne('/api/rooms/5/edits')
       .flush(
         { error: { code: 'database_unavailable', message: 'The database is not answering.' } },
         { status: 503, statusText: 'Unavailable' },
       );
-    await saving;
+    expect(saving()).withContext('the save round has ended').toBeTrue();
     expect(editor.saveState()).toBe('failed');
     expect(editor.saveError()).toContain('The database is not answering.');
     editor.retry();
@@ -112,14 +119,14 @@ describe('RoomEditor saving', () => {
     jasmine.clock().install();
     try {
       editor.setTieStrength('t21', 6);
-      const saving = editor.flush();
+      const saving = ended(editor.flush());
       http
         .expectOne('/api/rooms/5/edits')
         .flush(
           { error: { code: 'busy_writing', message: 'You already have 1 large change being saved.' } },
           { status: 429, statusText: 'Too Many Requests' },
         );
-      await saving;
+      expect(saving()).withContext('the save round has ended').toBeTrue();
       expect(editor.saveState()).toBe('unsaved');
       expect(editor.saveError()).toContain('You already have 1 large change being saved.');
       http.expectNone('/api/rooms/5/edits');
@@ -138,14 +145,14 @@ describe('RoomEditor saving', () => {
     jasmine.clock().install();
     try {
       editor.setTieStrength('t21', 7);
-      const saving = editor.flush();
+      const saving = ended(editor.flush());
       http
         .expectOne('/api/rooms/5/edits')
         .flush(
           { error: { code: 'busy_writing', message: 'You already have 2 large changes being saved.' } },
           { status: 429, statusText: 'Too Many Requests', headers: { 'Retry-After': '6' } },
         );
-      await saving;
+      expect(saving()).withContext('the save round has ended').toBeTrue();
       expect(editor.saveError()).toContain('send it again in 6 seconds');
       jasmine.clock().tick(5000);
       http.expectNone('/api/rooms/5/edits');
@@ -162,15 +169,14 @@ describe('RoomEditor saving', () => {
 
   it('moves alone are layout-only (no version); a viewer cannot change anything', async () => {
     editor.movePeople([{ lid: 'p12', x: 80, y: 9, pinned: true }]);
-    const saving = editor.flush();
+    const saving = ended(editor.flush());
     const req = http.expectOne('/api/rooms/5/edits');
     expect(req.request.body).toEqual({ ops: [{ op: 'movePeople', moves: [{ id: 12, x: 80, y: 9, pinned: true }] }] });
     req.flush({ version: 3, layoutOnly: true, people: {}, ties: {} });
-    await saving;
+    expect(saving()).withContext('the save round has ended').toBeTrue();
 
-    const viewing = editor.load(5);
+    editor.load(5);
     http.expectOne('/api/rooms/5').flush({ ...ROOM, access: 'viewer' });
-    await viewing;
     editor.deletePeople(['p11']);
     expect(editor.model.people.size).toBe(2);
     expect(editor.history().canUndo).toBeFalse();

@@ -1,23 +1,13 @@
-import { HttpClient, HttpContext } from '@angular/common/http';
 import { computed, inject, Injectable, type OnDestroy, signal } from '@angular/core';
-import { firstValueFrom } from 'rxjs';
-import type {
-  PersonDto,
-  RoomDto,
-  RoomEditResult,
-  RoomSettings,
-  StaleVersionDetails,
-  UpdateRoomRequest,
-} from '../../../../shared/api/rooms';
+import { concatMap, defer, type Observable, of, Subject, tap } from 'rxjs';
+import type { RoomDto, RoomSettings, StaleVersionDetails, UpdateRoomRequest } from '../../../../shared/api/rooms';
 import { type ApiError, toApiError } from '../../core/api-error';
-import { HANDLES_ERRORS } from '../../core/error-interceptor';
+import { RoomsApi } from '../rooms-api';
 import { CommandStack } from './command-stack';
 import { Outbox } from './outbox';
 import { type EditorOp, type EditorPerson, type EditorTie, type Move, type PersonFields, RoomModel } from './room-model';
+import { saveFailure } from './save-failure';
 import { Selection } from './selection';
-
-/** How long to wait before resending when the server is still saving another large change (it answers Retry-After: 2). */
-const BUSY_RETRY_MS = 2500;
 
 export type SaveState = 'saved' | 'unsaved' | 'saving' | 'failed' | 'conflict';
 export type RoomMeta = Omit<RoomDto, 'people' | 'ties'>;
@@ -39,8 +29,7 @@ const ROOM_SAVE_DELAY_MS = 700;
  */
 @Injectable()
 export class RoomEditor implements OnDestroy {
-  private readonly http = inject(HttpClient);
-  private readonly ctx = new HttpContext().set(HANDLES_ERRORS, true);
+  private readonly api = inject(RoomsApi);
 
   readonly model = new RoomModel();
   readonly stack = new CommandStack();
@@ -89,40 +78,26 @@ export class RoomEditor implements OnDestroy {
   ngOnDestroy(): void {
     if (this.timer) clearTimeout(this.timer);
     // Leaving the page: send what is left right away.
-    if (this.outbox.pending || this.pendingPatch) void this.flush();
+    if (this.outbox.pending || this.pendingPatch) this.flush();
   }
 
   get hasUnsaved(): boolean {
     return this.outbox.pending > 0 || !!this.pendingPatch || this.inFlight;
   }
 
-  async load(id: number): Promise<void> {
+  /** Loads the room (again), dropping what is not saved; a failure is kept in `loadError`. */
+  load(id: number): void {
     this.loadError.set(null);
-    try {
-      const dto = await firstValueFrom(this.http.get<RoomDto>(`/api/rooms/${id}`, { context: this.ctx }));
-      this.reset(dto);
-    } catch (err) {
-      this.loadError.set(toApiError(err));
-    }
+    this.api.room(id).subscribe({
+      next: (dto) => this.reset(dto),
+      error: (err: unknown) => this.loadError.set(toApiError(err)),
+    });
   }
 
   private reset(dto: RoomDto): void {
     const { people, ties, ...meta } = dto;
-    this.model.people.clear();
-    this.model.ties.clear();
-    this.outbox.discard();
-    this.outbox.personIds.clear();
-    this.outbox.tieIds.clear();
-    for (const p of people) {
-      const lid = `p${p.id}`;
-      this.model.people.set(lid, { lid, ...fieldsOf(p) });
-      this.outbox.personIds.set(lid, p.id);
-    }
-    for (const t of ties) {
-      const lid = `t${t.id}`;
-      this.model.ties.set(lid, { lid, source: `p${t.sourceId}`, target: `p${t.targetId}`, strength: t.strength });
-      this.outbox.tieIds.set(lid, t.id);
-    }
+    this.model.replaceWith(people, ties);
+    this.outbox.restart(people, ties);
     this.stack.clear();
     this.selection.clear();
     this.pendingPatch = null;
@@ -215,11 +190,7 @@ export class RoomEditor implements OnDestroy {
     const only = lids.length === 1 ? lids[0] : undefined;
     const label = only !== undefined ? `Delete ${this.model.people.get(only)?.name ?? 'person'}` : `Delete ${lids.length} people`;
     this.execute(label, ops);
-    this.selection.keepOnly(
-      (l) => this.model.people.has(l),
-      (l) => this.model.ties.has(l),
-    );
-    this.selectionChanged();
+    this.dropGoneFromSelection();
   }
 
   /** Adds a tie, or returns the one already there between the two people. */
@@ -243,11 +214,7 @@ export class RoomEditor implements OnDestroy {
       lids.length === 1 ? 'Delete tie' : `Delete ${lids.length} ties`,
       lids.map((lid) => ({ op: 'deleteTie', lid })),
     );
-    this.selection.keepOnly(
-      (l) => this.model.people.has(l),
-      (l) => this.model.ties.has(l),
-    );
-    this.selectionChanged();
+    this.dropGoneFromSelection();
   }
 
   movePeople(moves: Move[], label = moves.length === 1 ? 'Move person' : `Move ${moves.length} people`): void {
@@ -280,6 +247,15 @@ export class RoomEditor implements OnDestroy {
     this.scheduleSave(ROOM_SAVE_DELAY_MS);
   }
 
+  /** After a delete: the selection keeps only what is still in the room. */
+  private dropGoneFromSelection(): void {
+    this.selection.keepOnly(
+      (l) => this.model.people.has(l),
+      (l) => this.model.ties.has(l),
+    );
+    this.selectionChanged();
+  }
+
   selectionChanged(): void {
     this.selectionRevision.update((v) => v + 1);
   }
@@ -306,70 +282,90 @@ export class RoomEditor implements OnDestroy {
     this.dueAt = due;
     this.timer = setTimeout(() => {
       this.timer = null;
-      void this.flush();
+      this.flush();
     }, delay);
   }
 
-  /** Sends everything queued, one request at a time. Safe to call at any moment. */
-  async flush(): Promise<void> {
-    if (this.inFlight || this.saveState() === 'conflict') return;
+  /**
+   * Sends everything queued, one request at a time. Safe to call at any moment: it starts at once
+   * (nothing to subscribe), and the answer completes when this round of sending has ended, saved
+   * or not; while a round is in flight it completes at once and that round sends the rest.
+   */
+  flush(): Observable<void> {
     const room = this.room();
-    if (!room) return;
+    if (this.inFlight || this.saveState() === 'conflict' || !room) return of(undefined);
     this.inFlight = true;
     // This save sends what a pending timer would have sent: the timer is not needed any more.
     if (this.timer) clearTimeout(this.timer);
     this.timer = null;
     this.saveState.set('saving');
     this.saveError.set(null);
-    try {
-      while (this.pendingPatch || this.outbox.pending) {
-        if (this.pendingPatch) {
-          const body: UpdateRoomRequest = { version: this.room()!.version, ...this.pendingPatch };
-          if (!body.settings || !Object.keys(body.settings).length) delete body.settings;
-          const dto = await firstValueFrom(this.http.patch<RoomDto>(`/api/rooms/${room.id}`, body, { context: this.ctx }));
-          this.pendingPatch = null;
-          this.setVersion(dto.version, true);
-          continue;
-        }
-        const batch = this.outbox.next();
-        if (!batch) {
-          this.outbox.discard();
-          break;
-        }
-        const body = batch.layoutOnly ? { ops: batch.ops } : { version: this.room()!.version, ops: batch.ops };
-        const result = batch.ops.length
-          ? await firstValueFrom(this.http.post<RoomEditResult>(`/api/rooms/${room.id}/edits`, body, { context: this.ctx }))
-          : { version: this.room()!.version, layoutOnly: true, people: {}, ties: {} };
-        this.outbox.acknowledge(batch.count, result);
-        if (!result.layoutOnly) this.setVersion(result.version, true);
-      }
-      this.saveState.set('saved');
-    } catch (err) {
-      const e = toApiError(err);
-      if (e.status === 409) {
-        this.conflict.set(
-          (e.details as unknown as StaleVersionDetails) ?? { currentVersion: room.version, yourVersion: room.version, message: e.message },
+    const ended = new Subject<void>();
+    this.sendQueued(room.id).subscribe({
+      complete: () => {
+        this.saveState.set('saved');
+        this.inFlight = false;
+        // Changes made while the last request was in flight.
+        if (this.outbox.pending || this.pendingPatch) this.scheduleSave(0);
+        ended.complete();
+      },
+      error: (err: unknown) => {
+        this.saveFailed(toApiError(err), room);
+        this.inFlight = false;
+        ended.complete();
+      },
+    });
+    return ended.asObservable();
+  }
+
+  /** The pending room patch first, then the outbox batch by batch, until nothing is left. */
+  private sendQueued(roomId: number): Observable<unknown> {
+    return defer(() => {
+      const version = this.room()?.version ?? 0;
+      if (this.pendingPatch) {
+        const body: UpdateRoomRequest = { version, ...this.pendingPatch };
+        if (!body.settings || !Object.keys(body.settings).length) delete body.settings;
+        return this.api.update(roomId, body).pipe(
+          tap((dto) => {
+            this.pendingPatch = null;
+            this.setVersion(dto.version, true);
+          }),
+          concatMap(() => this.sendQueued(roomId)),
         );
-        this.saveState.set('conflict');
-      } else if (e.status === 429 && e.code === 'busy_writing') {
-        // The server is still saving this person's other large change: keep everything queued,
-        // say so, and send it again by itself shortly.
-        // The server's Retry-After decides when, within sensible bounds.
-        const wait = e.retryAfterSeconds !== undefined ? Math.min(30_000, Math.max(1000, e.retryAfterSeconds * 1000)) : BUSY_RETRY_MS;
-        this.saveError.set(`${e.message} Ripplehall will send it again in ${Math.round(wait / 1000)} seconds.`);
-        this.saveState.set('unsaved');
-        this.scheduleSave(wait);
-        return;
-      } else {
-        const fields = e.details?.fields?.map((f) => `${f.field}: ${f.message}`).join('; ');
-        this.saveError.set(fields ? `${e.message} (${fields})` : e.message);
-        this.saveState.set('failed');
       }
-    } finally {
-      this.inFlight = false;
+      if (!this.outbox.pending) return of(null);
+      const batch = this.outbox.next();
+      if (!batch) {
+        this.outbox.discard();
+        return of(null);
+      }
+      const body = batch.layoutOnly ? { ops: batch.ops } : { version, ops: batch.ops };
+      const sent = batch.ops.length ? this.api.edit(roomId, body) : of({ version, layoutOnly: true, people: {}, ties: {} });
+      return sent.pipe(
+        tap((result) => {
+          this.outbox.acknowledge(batch.count, result);
+          if (!result.layoutOnly) this.setVersion(result.version, true);
+        }),
+        concatMap(() => this.sendQueued(roomId)),
+      );
+    });
+  }
+
+  /** A stale version asks the user; a busy server gets the change again later; anything else is shown. */
+  private saveFailed(e: ApiError, room: RoomMeta): void {
+    const failure = saveFailure(e, room.version);
+    if (failure.kind === 'conflict') {
+      this.conflict.set(failure.conflict);
+      this.saveState.set('conflict');
+    } else if (failure.kind === 'busy') {
+      // Everything stays queued and is sent again by itself shortly.
+      this.saveError.set(failure.message);
+      this.saveState.set('unsaved');
+      this.scheduleSave(failure.waitMs);
+    } else {
+      this.saveError.set(failure.message);
+      this.saveState.set('failed');
     }
-    // Changes made while the last request was in flight.
-    if (this.saveState() === 'saved' && (this.outbox.pending || this.pendingPatch)) this.scheduleSave(0);
   }
 
   private setVersion(version: number, content: boolean): void {
@@ -379,7 +375,7 @@ export class RoomEditor implements OnDestroy {
   }
 
   retry(): void {
-    void this.flush();
+    this.flush();
   }
 
   /** "Keep yours": apply the unsaved changes on top of the newer version. */
@@ -389,23 +385,14 @@ export class RoomEditor implements OnDestroy {
     this.setVersion(c.currentVersion, false);
     this.conflict.set(null);
     this.saveState.set('unsaved');
-    void this.flush();
+    this.flush();
   }
 
-  /** "Reload": drop the unsaved changes and show the room as it is now. */
-  async reloadFromServer(): Promise<void> {
+  /** "Reload" (and after an import replaced the room): drop the unsaved changes and show the room as it is now. */
+  reloadFromServer(): void {
     const r = this.room();
     if (!r) return;
     this.conflict.set(null);
-    await this.load(r.id);
+    this.load(r.id);
   }
-
-  /** After an import replaced the room: send what is queued first, then load it again. */
-  async reloadAfterReplace(): Promise<void> {
-    await this.reloadFromServer();
-  }
-}
-
-function fieldsOf(p: PersonDto): PersonFields {
-  return { key: p.key, name: p.name, group: p.group, email: p.email, x: p.x, y: p.y, pinned: p.pinned };
 }

@@ -96,4 +96,28 @@ describe('room model with undo and redo', () => {
     expect(small.undo()?.label).toBe('2');
     expect(small.undo()).toBeNull();
   });
+
+  it('takes a room from the server under local ids p<id> and t<id>, dropping what it held before', () => {
+    const fresh = new RoomModel();
+    fresh.people.set('n1', { lid: 'n1', key: 'X', name: 'Old', group: null, email: null, x: null, y: null, pinned: false });
+    fresh.replaceWith(
+      [
+        { id: 4, key: 'A', name: 'Ana', group: 'North', email: 'ana@example.test', x: 3, y: 4, pinned: true },
+        { id: 9, key: 'B', name: 'Bo', group: null, email: null, x: null, y: null, pinned: false },
+      ],
+      [{ id: 2, sourceId: 9, targetId: 4, strength: 3 }],
+    );
+    expect([...fresh.people.keys()]).toEqual(['p4', 'p9']);
+    expect(fresh.person('p4')).toEqual({
+      lid: 'p4',
+      key: 'A',
+      name: 'Ana',
+      group: 'North',
+      email: 'ana@example.test',
+      x: 3,
+      y: 4,
+      pinned: true,
+    });
+    expect([...fresh.ties.values()]).toEqual([{ lid: 't2', source: 'p9', target: 'p4', strength: 3 }]);
+  });
 });

@@ -1,3 +1,5 @@
+import type { PersonDto, TieDto } from '../../../../shared/api/rooms';
+
 /**
  * The room as the editor holds it: people and ties under local ids that never change while
  * the page is open (the server id of a person can change when a delete is undone). Every
@@ -44,6 +46,18 @@ export type EditorOp =
 export class RoomModel {
   readonly people = new Map<string, EditorPerson>();
   readonly ties = new Map<string, EditorTie>();
+
+  /** Takes the room as the server sent it: person `id` becomes local id `p<id>`, tie `id` becomes `t<id>`. */
+  replaceWith(people: readonly PersonDto[], ties: readonly TieDto[]): void {
+    this.people.clear();
+    this.ties.clear();
+    for (const p of people) {
+      const fields: PersonFields = { key: p.key, name: p.name, group: p.group, email: p.email, x: p.x, y: p.y, pinned: p.pinned };
+      this.people.set(`p${p.id}`, { lid: `p${p.id}`, ...fields });
+    }
+    for (const t of ties)
+      this.ties.set(`t${t.id}`, { lid: `t${t.id}`, source: `p${t.sourceId}`, target: `p${t.targetId}`, strength: t.strength });
+  }
 
   /** Applies one op and returns the op that undoes it. Throws on an op that does not fit the model. */
   apply(op: EditorOp): EditorOp {

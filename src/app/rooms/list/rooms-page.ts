@@ -13,7 +13,8 @@ import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
-import { catchError, debounceTime, distinctUntilChanged, firstValueFrom, merge, of, startWith, Subject, switchMap } from 'rxjs';
+import { catchError, concatMap, debounceTime, distinctUntilChanged, filter, merge, of, startWith, Subject, switchMap } from 'rxjs';
+import { shownByInterceptor } from '../../core/error-interceptor';
 import type { SortDirection } from '../../../../shared/api/lists';
 import type { RoomListItem, RoomListQuery, RoomSort } from '../../../../shared/api/rooms';
 import { ConfirmDialog, type ConfirmData } from '../dialogs/confirm-dialog';
@@ -127,13 +128,17 @@ export default class RoomsPage implements AfterViewInit {
     this.dialog.open(ImportDialog, { data, width: '860px', maxWidth: '96vw' });
   }
 
-  protected async duplicate(r: RoomListItem): Promise<void> {
-    const copy = await firstValueFrom(this.api.duplicate(r.id, `${r.name} (copy)`.slice(0, 120)));
-    this.snack
-      .open(`Made "${copy.name}".`, 'Open', { duration: 5000 })
-      .onAction()
-      .subscribe(() => void this.router.navigate(['/rooms', copy.id]));
-    this.refresh$.next();
+  protected duplicate(r: RoomListItem): void {
+    this.api.duplicate(r.id, `${r.name} (copy)`.slice(0, 120)).subscribe({
+      next: (copy) => {
+        this.snack
+          .open(`Made "${copy.name}".`, 'Open', { duration: 5000 })
+          .onAction()
+          .subscribe(() => void this.router.navigate(['/rooms', copy.id]));
+        this.refresh$.next();
+      },
+      error: shownByInterceptor,
+    });
   }
 
   protected remove(r: RoomListItem): void {
@@ -145,11 +150,16 @@ export default class RoomsPage implements AfterViewInit {
     this.dialog
       .open(ConfirmDialog, { data, width: '480px' })
       .afterClosed()
-      .subscribe(async (yes) => {
-        if (!yes) return;
-        await firstValueFrom(this.api.delete(r.id));
-        this.snack.open(`${r.name} and everything in it was deleted.`, 'OK', { duration: 4000 });
-        this.refresh$.next();
+      .pipe(
+        filter((yes) => !!yes),
+        concatMap(() => this.api.delete(r.id)),
+      )
+      .subscribe({
+        next: () => {
+          this.snack.open(`${r.name} and everything in it was deleted.`, 'OK', { duration: 4000 });
+          this.refresh$.next();
+        },
+        error: shownByInterceptor,
       });
   }
 }

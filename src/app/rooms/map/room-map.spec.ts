@@ -94,9 +94,8 @@ describe('RoomMap (with its tools and side panel)', () => {
     document.body.append(host);
     editor = fixture.componentInstance.editor;
     const http = TestBed.inject(HttpTestingController);
-    const loading = editor.load(room.id);
+    editor.load(room.id);
     http.expectOne(`/api/rooms/${room.id}`).flush(room);
-    await loading;
     await fixture.whenStable();
     loader = TestbedHarnessEnvironment.loader(fixture);
     root = TestbedHarnessEnvironment.documentRootLoader(fixture);

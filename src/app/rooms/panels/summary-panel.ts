@@ -2,7 +2,7 @@ import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, effect, inject, signal, untracked } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { firstValueFrom } from 'rxjs';
+import { finalize } from 'rxjs';
 import type { RoomSummary } from '../../../../shared/api/rooms';
 import { toApiError } from '../../core/api-error';
 import { RoomEditor } from '../editor/room-editor';
@@ -46,23 +46,24 @@ export class SummaryPanel {
 
   protected reload(): void {
     const id = this.editor.room()?.id;
-    if (id !== undefined) void this.refresh(id, this.editor.savedVersion(), true);
+    if (id !== undefined) this.refresh(id, this.editor.savedVersion(), true);
   }
 
-  private async refresh(id: number, version: number, force = false): Promise<void> {
+  private refresh(id: number, version: number, force = false): void {
     if (!force && version === this.requested) return;
     this.requested = version;
     this.loading.set(true);
-    try {
-      const s = await firstValueFrom(this.api.summary(id));
-      if (version === this.requested) {
-        this.summary.set(s);
-        this.error.set(null);
-      }
-    } catch (err) {
-      this.error.set(toApiError(err).message);
-    } finally {
-      this.loading.set(false);
-    }
+    this.api
+      .summary(id)
+      .pipe(finalize(() => this.loading.set(false)))
+      .subscribe({
+        next: (s) => {
+          // An answer for a version the room has moved past is not shown.
+          if (version !== this.requested) return;
+          this.summary.set(s);
+          this.error.set(null);
+        },
+        error: (err: unknown) => this.error.set(toApiError(err).message),
+      });
   }
 }

@@ -52,9 +52,8 @@ describe('MapInspector edits go to the person they were typed for', () => {
     document.body.append(host);
     editor = fixture.componentInstance.editor;
     const http = TestBed.inject(HttpTestingController);
-    const loading = editor.load(9);
+    editor.load(9);
     http.expectOne('/api/rooms/9').flush(ROOM);
-    await loading;
     await fixture.whenStable();
     // Select Asha the way a user does: a click on her shape.
     clickPerson('p1');

@@ -10,12 +10,12 @@ import { RouterLink } from '@angular/router';
 import type { ExportFormat } from '../../../../shared/api/rooms';
 import { ImportDialog, type ImportDialogData } from '../dialogs/import-dialog';
 import { ShareDialog } from '../dialogs/share-dialog';
-import { RoomEditor } from '../editor/room-editor';
+import { RoomEditor, type RoomMeta } from '../editor/room-editor';
 import { SettingsPanel } from '../panels/settings-panel';
 import { SummaryPanel } from '../panels/summary-panel';
 import { PeopleTable } from '../tables/people-table';
 import { TiesTable } from '../tables/ties-table';
-import { downloadMapPng } from './map-png';
+import { downloadMapPng } from '../map/map-export';
 import { MapInspector } from './map-inspector';
 import { MapPanel } from './map-panel';
 import { SaveStatus } from './save-status';
@@ -64,7 +64,7 @@ export default class RoomPage {
   constructor() {
     effect(() => {
       const id = Number(this.roomId());
-      untracked(() => void this.editor.load(id));
+      untracked(() => this.editor.load(id));
     });
   }
 
@@ -82,11 +82,14 @@ export default class RoomPage {
     await downloadMapPng(doc, `${this.room()?.name ?? 'room'} map.png`);
   }
 
-  protected async openImport(): Promise<void> {
+  protected openImport(): void {
     const room = this.room();
     if (!room) return;
     // Save what is waiting first, so the import starts from the latest version.
-    await this.editor.flush();
+    this.editor.flush().subscribe({ complete: () => this.showImport(room) });
+  }
+
+  private showImport(room: RoomMeta): void {
     const data: ImportDialogData = {
       roomId: room.id,
       roomName: room.name,
@@ -97,7 +100,7 @@ export default class RoomPage {
       .open(ImportDialog, { data, width: '860px', maxWidth: '96vw' })
       .afterClosed()
       .subscribe((committed) => {
-        if (committed) void this.editor.reloadAfterReplace();
+        if (committed) this.editor.reloadFromServer();
       });
   }
 
@@ -136,7 +139,7 @@ export default class RoomPage {
 
   protected warnUnsaved(e: BeforeUnloadEvent): void {
     if (this.editor.hasUnsaved) {
-      void this.editor.flush();
+      this.editor.flush();
       e.preventDefault();
     }
   }

@@ -7,7 +7,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { Router, RouterLink } from '@angular/router';
-import { firstValueFrom } from 'rxjs';
+import { concatMap, defer, finalize, from } from 'rxjs';
 import { ROOM_LIMITS } from '../../../../shared/api/rooms';
 import {
   buildSeating,
@@ -109,7 +109,7 @@ export default class SeatingPage {
     this.roster.set(null);
   }
 
-  protected async save(): Promise<void> {
+  protected save(): void {
     const r = this.result();
     if (this.form.invalid || !r || !this.form.controls.name.value.trim()) {
       this.form.markAllAsTouched();
@@ -117,30 +117,33 @@ export default class SeatingPage {
     }
     this.saving.set(true);
     this.error.set(null);
-    try {
-      const room = await firstValueFrom(
-        this.api.create({
-          name: this.form.controls.name.value.trim(),
-          description: describe(this.options(), r.groups),
-          people: r.people.map((p) => ({ key: p.key, name: p.name, group: p.group, email: p.email, x: p.x, y: p.y })),
-          ties: r.ties.map((t) => ({
-            source: itemAt(r.people, t.source, 'seated person').key,
-            target: itemAt(r.people, t.target, 'seated person').key,
-            strength: t.strength,
-          })),
-        }),
-      );
-      await this.router.navigate(['/rooms', room.id]);
-    } catch (err) {
-      const e = toApiError(err);
-      const fields = e.details?.fields
-        ?.slice(0, 5)
-        .map((f) => `${f.field}: ${f.message}`)
-        .join('; ');
-      this.error.set(fields ? `${e.message} (${fields})` : e.message);
-    } finally {
-      this.saving.set(false);
-    }
+    // Deferred: a seat the plan cannot name ends in the error message like a refusal.
+    defer(() =>
+      this.api.create({
+        name: this.form.controls.name.value.trim(),
+        description: describe(this.options(), r.groups),
+        people: r.people.map((p) => ({ key: p.key, name: p.name, group: p.group, email: p.email, x: p.x, y: p.y })),
+        ties: r.ties.map((t) => ({
+          source: itemAt(r.people, t.source, 'seated person').key,
+          target: itemAt(r.people, t.target, 'seated person').key,
+          strength: t.strength,
+        })),
+      }),
+    )
+      .pipe(
+        concatMap((room) => from(this.router.navigate(['/rooms', room.id]))),
+        finalize(() => this.saving.set(false)),
+      )
+      .subscribe({
+        error: (err: unknown) => {
+          const e = toApiError(err);
+          const fields = e.details?.fields
+            ?.slice(0, 5)
+            .map((f) => `${f.field}: ${f.message}`)
+            .join('; ');
+          this.error.set(fields ? `${e.message} (${fields})` : e.message);
+        },
+      });
   }
 }
 
