@@ -1,6 +1,36 @@
 // @ts-check
 import tseslint from 'typescript-eslint';
 import angular from 'angular-eslint';
+import { importsWithin } from './scripts/lint/imports-within.js';
+import { noImportCycle } from './scripts/lint/no-import-cycle.js';
+
+const localRules = { rules: { 'no-import-cycle': noImportCycle, 'imports-within': importsWithin } };
+
+/*
+ * The server's layers (DEVELOPERS.md, "The layout"). Flat config replaces a rule's options per
+ * file rather than merging them, so each kind of file gets the whole list of what it may not import.
+ */
+function serverLayers() {
+  const otherFeatureStore = {
+    group: ['../*/store', '../*/*-store', './*/store', './*/*-store'],
+    message: "A feature's store is private to it: call the other feature's service.",
+  };
+  const sql = "SQL lives in the feature's store.ts; routes and services call it.";
+  const noDrizzle = { name: 'drizzle-orm', message: sql };
+  const drizzleDeep = { group: ['drizzle-orm/*'], message: sql };
+  const database = {
+    group: ['../db', '../../db/**', '**/db/connection', '**/db/schema/**'],
+    message: 'Routes reach the database through the service and its store.',
+  };
+  const express = { name: 'express', message: 'Stores hold SQL only; HTTP belongs in routes.' };
+  const rule = (paths, patterns) => ({ 'no-restricted-imports': ['error', { paths, patterns }] });
+  return [
+    { files: ['server/**/*.ts'], rules: rule([], [otherFeatureStore]) },
+    { files: ['server/**/store.ts', 'server/**/*-store.ts'], rules: rule([express], [otherFeatureStore]) },
+    { files: ['server/**/service.ts'], rules: rule([noDrizzle], [drizzleDeep, otherFeatureStore]) },
+    { files: ['server/**/routes.ts', 'server/**/*-routes.ts'], rules: rule([noDrizzle], [drizzleDeep, database, otherFeatureStore]) },
+  ];
+}
 
 export default tseslint.config(
   {
@@ -53,7 +83,7 @@ export default tseslint.config(
         {
           patterns: [
             {
-              group: ['**/server/**', '**/db/**'],
+              group: ['**/server/**', '**/server', '**/db/**', '**/config/**'],
               message: 'The client talks to the server over HTTP only; shared types live in shared/api.',
             },
           ],
@@ -63,14 +93,31 @@ export default tseslint.config(
   },
   {
     files: ['shared/engine/**/*.ts'],
+    plugins: { local: localRules },
+    rules: {
+      'local/imports-within': [
+        'error',
+        { root: 'shared/engine', message: 'The engine imports nothing of the project outside shared/engine.' },
+      ],
+    },
+  },
+  {
+    files: ['seed-data/**/*.ts'],
     rules: {
       'no-restricted-imports': [
         'error',
         {
           patterns: [
             {
-              group: ['**/server/**', '**/db/**', '**/src/**', '**/api/**', '**/seating/**'],
-              message: 'The engine imports nothing of the project outside shared/engine.',
+              group: [
+                '**/server/db',
+                '**/server/config',
+                '**/server/core/**',
+                '**/server/**/store',
+                '**/server/**/*-store',
+                '**/server/**/*routes',
+              ],
+              message: 'The demo loader uses db/connection.ts and config/settings.ts, and rooms through their service.',
             },
           ],
         },
@@ -78,22 +125,24 @@ export default tseslint.config(
     },
   },
   {
-    files: ['server/**/store.ts', 'server/**/*-store.ts'],
-    rules: {
-      'no-restricted-imports': ['error', { paths: [{ name: 'express', message: 'Stores hold SQL only; HTTP belongs in routes.' }] }],
-    },
-  },
-  {
-    files: ['server/**/routes.ts', 'server/**/*-routes.ts', 'server/**/service.ts'],
+    files: ['db/**/*.ts'],
     rules: {
       'no-restricted-imports': [
         'error',
         {
-          paths: [{ name: 'drizzle-orm', message: "SQL lives in the feature's store.ts; routes and services call it." }],
-          patterns: [{ group: ['drizzle-orm/*'], message: "SQL lives in the feature's store.ts; routes and services call it." }],
+          patterns: [
+            { group: ['**/server/**', '**/server'], message: 'db/ holds the schema and the pool; it imports nothing of the server.' },
+          ],
         },
       ],
     },
+  },
+  ...serverLayers(),
+  // No cycles of runtime imports on the Node side (scripts/lint/no-import-cycle.js).
+  {
+    files: ['server/**/*.ts', 'shared/**/*.ts', 'db/**/*.ts', 'config/**/*.ts', 'seed-data/**/*.ts'],
+    plugins: { local: localRules },
+    rules: { 'local/no-import-cycle': 'error' },
   },
   // Files a person can hold in their head (DEVELOPERS.md, "Conventions"). Warnings for now: the files
   // and functions over the limits are listed by `npx eslint .`; a longer one states its reason in an

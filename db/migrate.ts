@@ -1,8 +1,8 @@
 // Applies the committed SQL migrations with drizzle's programmatic migrator (it reports real
 // errors; drizzle-kit's own migrate command can exit 1 silently on MariaDB).
 import { migrate } from 'drizzle-orm/mysql2/migrator';
-import { db, pool } from '../server/db';
-import { config } from '../server/config';
+import { db, pool } from './connection';
+import { config } from '../config/settings';
 
 try {
   await migrate(db, { migrationsFolder: new URL('./migrations', import.meta.url).pathname });

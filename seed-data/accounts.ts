@@ -1,8 +1,8 @@
 import { eq } from 'drizzle-orm';
 import { users } from '../db/schema/accounts';
 import { hashPassword } from '../server/auth/passwords';
-import { config } from '../server/config';
-import { db } from '../server/db';
+import { config } from '../config/settings';
+import { db } from '../db/connection';
 import { firstOf } from '../shared/checked';
 
 /** The demo facilitator the README names; invented person. */

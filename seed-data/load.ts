@@ -1,6 +1,6 @@
 // Loads the demo data idempotently: accounts first, then each demo scenario.
-import { pool } from '../server/db';
-import { config } from '../server/config';
+import { pool } from '../db/connection';
+import { config } from '../config/settings';
 import { seedAccounts } from './accounts';
 import { seedRooms } from './rooms';
 

@@ -5,10 +5,10 @@
 import { and, eq } from 'drizzle-orm';
 import { DEFAULT_ROOM_SETTINGS, type RoomSettings } from '../shared/api/rooms';
 import { rooms } from '../db/schema/rooms';
-import { db } from '../server/db';
+import { db } from '../db/connection';
 import { createWithContent } from '../server/rooms/service';
 import type { RoomContent } from '../server/rooms/content';
-import type { PersonRowInput, TieRowInput } from '../server/rooms/store';
+import type { PersonRowInput, TieRowInput } from '../server/rooms/content';
 import { itemAt } from '../shared/checked';
 
 export const DEMO_ROOMS = {
@@ -159,7 +159,7 @@ async function ensureRoom(ownerId: number, name: string, description: string, se
     .from(rooms)
     .where(and(eq(rooms.ownerId, ownerId), eq(rooms.name, name)));
   if (existing) return existing.id;
-  return db.transaction((tx) => createWithContent(tx, ownerId, name, description, settings, content));
+  return db.transaction((tx) => createWithContent(ownerId, name, description, settings, content, tx));
 }
 
 /** Loads the demo rooms for the demo facilitator; a second run changes nothing. */

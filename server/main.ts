@@ -8,7 +8,7 @@ import { createApp } from './app';
 import { logger } from './core/logging';
 import { installProcessGuards } from './core/process-guards';
 import { checkDatabase, pool } from './db';
-import { closeLimiterStore } from './auth/limiter-store';
+import { closeCounterRedis } from './jobs/redis';
 import { startMail, stopMail } from './mail/transport';
 import { startJobs, stopJobs } from './jobs/index';
 
@@ -55,7 +55,7 @@ async function stop(signal: string) {
   const jobs = stopJobs().catch((err: unknown) => logger.warn({ err }, 'stopping the jobs failed'));
   await Promise.race([drained, new Promise((resolve) => setTimeout(resolve, 8_000).unref())]);
   await jobs;
-  await closeLimiterStore();
+  await closeCounterRedis();
   await stopMail();
   await pool.end();
   process.exit(0);

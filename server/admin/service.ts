@@ -13,8 +13,17 @@ import type { AuditWriter } from '../core/audit';
 import { conflict, HttpError, notFound } from '../core/http-error';
 import { logger } from '../core/logging';
 import { endSessionsOf } from '../core/session';
-import { findUserByEmail, findUserById, updateUser, type UserRow } from '../auth/store';
-import { issueToken, latestInvites, revokeTokens, type TokenRow } from '../auth/tokens';
+import {
+  findUserByEmail,
+  findUserById,
+  issueToken,
+  latestInvites,
+  lockUserById,
+  revokeTokens,
+  updateUser,
+  type TokenRow,
+  type UserRow,
+} from '../auth/service';
 import { appLink, invitationMail, resetMail } from '../mail/templates';
 import { sendMail, type OutgoingMail } from '../mail/transport';
 import { activeAdminIds, insertInvitedUser, listAccounts, lockActiveAdmins } from './store';
@@ -66,8 +75,14 @@ async function deliver(mail: OutgoingMail, what: string): Promise<void> {
   }
 }
 
-async function mustFind(id: number, tx: Tx | typeof db = db, lock = false): Promise<UserRow> {
-  const user = await findUserById(id, tx, lock);
+async function mustFind(id: number): Promise<UserRow> {
+  const user = await findUserById(id);
+  if (!user) throw notFound('That account');
+  return user;
+}
+
+async function mustLock(id: number, tx: Tx): Promise<UserRow> {
+  const user = await lockUserById(id, tx);
   if (!user) throw notFound('That account');
   return user;
 }
@@ -89,8 +104,8 @@ export async function invite(
     );
   }
   const { id, token } = await db.transaction(async (tx) => {
-    const id = await insertInvitedUser(tx, email, name, role);
-    const { token } = await issueToken(tx, id, 'invite', INVITE_MS, actor.id);
+    const id = await insertInvitedUser(email, name, role, tx);
+    const { token } = await issueToken(id, 'invite', INVITE_MS, actor.id, tx);
     await audit({ action: 'account.invited', targetType: 'user', targetId: id, detail: { email, role } }, tx);
     return { id, token };
   });
@@ -100,9 +115,9 @@ export async function invite(
 
 export async function resendInvitation(actor: SignedInUser, id: number, audit: AuditWriter): Promise<void> {
   const { user, token } = await db.transaction(async (tx) => {
-    const user = await mustFind(id, tx, true);
+    const user = await mustLock(id, tx);
     if (user.status !== 'invited') throw conflict(`${user.email} has accepted the invitation already; there is nothing to resend.`);
-    const { token } = await issueToken(tx, id, 'invite', INVITE_MS, actor.id);
+    const { token } = await issueToken(id, 'invite', INVITE_MS, actor.id, tx);
     await audit({ action: 'account.invitation_resent', targetType: 'user', targetId: id }, tx);
     return { user, token };
   });
@@ -111,9 +126,9 @@ export async function resendInvitation(actor: SignedInUser, id: number, audit: A
 
 export async function revokeInvitation(id: number, audit: AuditWriter): Promise<void> {
   await db.transaction(async (tx) => {
-    const user = await mustFind(id, tx, true);
+    const user = await mustLock(id, tx);
     if (user.status !== 'invited') throw conflict(`${user.email} has accepted the invitation already; deactivate the account instead.`);
-    const revoked = await revokeTokens(tx, id, 'invite');
+    const revoked = await revokeTokens(id, 'invite', tx);
     if (!revoked) throw conflict(`${user.email} has no open invitation link to revoke.`);
     await audit({ action: 'account.invitation_revoked', targetType: 'user', targetId: id }, tx);
   });
@@ -124,13 +139,13 @@ const LAST_ADMIN = 'This is the last active admin account. Make another account 
 export async function setStatus(actor: SignedInUser, id: number, status: 'active' | 'deactivated', audit: AuditWriter): Promise<void> {
   await db.transaction(async (tx) => {
     const admins = await lockActiveAdmins(tx);
-    const user = await mustFind(id, tx, true);
+    const user = await mustLock(id, tx);
     if (user.status === 'invited') throw conflict(`${user.email} has not accepted the invitation yet; revoke the invitation instead.`);
     if (user.status === status) return;
     if (status === 'deactivated' && admins.includes(id) && admins.length <= 1) throw conflict(LAST_ADMIN);
     if (status === 'deactivated' && id === actor.id) throw conflict('You cannot deactivate your own account. Ask another admin to do it.');
-    await updateUser(tx, id, { status });
-    if (status === 'deactivated') await revokeTokens(tx, id, 'reset');
+    await updateUser(id, { status }, tx);
+    if (status === 'deactivated') await revokeTokens(id, 'reset', tx);
     await audit({ action: status === 'active' ? 'account.reactivated' : 'account.deactivated', targetType: 'user', targetId: id }, tx);
   });
   // Ends that account's sessions at once; its next request is answered 401.
@@ -140,10 +155,10 @@ export async function setStatus(actor: SignedInUser, id: number, status: 'active
 export async function changeRole(id: number, role: AccountRole, audit: AuditWriter): Promise<void> {
   await db.transaction(async (tx) => {
     const admins = await lockActiveAdmins(tx);
-    const user = await mustFind(id, tx, true);
+    const user = await mustLock(id, tx);
     if (user.role === role) return;
     if (role !== 'admin' && admins.includes(id) && admins.length <= 1) throw conflict(LAST_ADMIN);
-    await updateUser(tx, id, { role });
+    await updateUser(id, { role }, tx);
     await audit({ action: 'account.role_changed', targetType: 'user', targetId: id, detail: { from: user.role, to: role } }, tx);
   });
 }
@@ -152,7 +167,7 @@ export async function changeRole(id: number, role: AccountRole, audit: AuditWrit
 export async function sendResetLink(id: number, audit: AuditWriter): Promise<void> {
   const user = await mustFind(id);
   if (user.status !== 'active') throw conflict(`${user.email} is not active; a reset link would not work.`);
-  const { token } = await issueToken(db, id, 'reset', RESET_MINUTES * 60 * 1000, null);
+  const { token } = await issueToken(id, 'reset', RESET_MINUTES * 60 * 1000, null);
   await audit({ action: 'account.reset_sent_by_admin', targetType: 'user', targetId: id });
   await deliver(resetMail(user.email, appLink('/account/reset-password', { token }), RESET_MINUTES), 'reset link');
 }

@@ -57,7 +57,7 @@ export async function activeAdminIds(): Promise<number[]> {
   return rows.map((r) => r.id);
 }
 
-export async function insertInvitedUser(tx: Tx, email: string, name: string, role: AccountRole): Promise<number> {
+export async function insertInvitedUser(email: string, name: string, role: AccountRole, tx: Tx): Promise<number> {
   const { id } = firstOf(await tx.insert(users).values({ email, name, role, status: 'invited' }).$returningId(), 'new account id');
   return id;
 }

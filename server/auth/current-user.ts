@@ -1,5 +1,5 @@
 import type { NextFunction, Request, Response } from 'express';
-import { sessionAccount } from '../core/session-store';
+import { sessionAccount } from '../core/session';
 import { findUserById } from './store';
 
 /**

@@ -8,25 +8,8 @@
  * on its own (keys carry the pid, or RATE_LIMIT_SCOPE for test processes that share counters).
  */
 import type { ClientRateLimitInfo, IncrementResponse, Options, Store } from 'express-rate-limit';
-import { Redis } from 'ioredis';
 import { RedisStore } from 'rate-limit-redis';
-import { config, redisUrl } from '../config';
-import { QUEUE_PREFIX, watchConnection } from '../jobs/redis';
-
-let conn: Redis | undefined;
-
-function redis(): Redis {
-  if (!conn) {
-    conn = new Redis(redisUrl(), {
-      connectionName: 'ripplehall-rate-limits',
-      // Queued while connecting, failed after one reconnect attempt while Redis is away.
-      maxRetriesPerRequest: 1,
-      retryStrategy: (times) => Math.min(2000, 50 * times),
-    });
-    watchConnection(conn, 'rate limits');
-  }
-  return conn;
-}
+import { closeCounterRedis, counterKeyPrefix, counterRedis } from '../jobs/redis';
 
 /** A RedisStore that fails open and loads its scripts again after a failure. */
 class LimiterStore extends RedisStore {
@@ -70,19 +53,10 @@ class LimiterStore extends RedisStore {
   }
 }
 
-/** The Redis key prefix of a counter (scoped per test process under NODE_ENV=test). */
-export function counterKeyPrefix(prefix: string): string {
-  const scope = config.NODE_ENV === 'test' ? `${config.RATE_LIMIT_SCOPE ?? process.pid}:` : '';
-  return `${QUEUE_PREFIX}:rl:${scope}${prefix}:`;
-}
-
-/** The connection the counters use, for counters of another shape (server/core/heavy-writes.ts). */
-export const counterRedis = redis;
-
 export function createLimiterStore(prefix: string): Store {
   return new LimiterStore({
     prefix: counterKeyPrefix(prefix),
-    sendCommand: (command: string, ...args: string[]) => redis().call(command, ...args) as Promise<never>,
+    sendCommand: (command: string, ...args: string[]) => counterRedis().call(command, ...args) as Promise<never>,
   });
 }
 
@@ -93,8 +67,7 @@ export function initialisedStore(prefix: string, windowMs: number): Store {
   return store;
 }
 
+/** Closes the counters' connection (shared with the heavy-write slots). */
 export async function closeLimiterStore(): Promise<void> {
-  const c = conn;
-  conn = undefined;
-  await c?.quit().catch(() => c.disconnect());
+  await closeCounterRedis();
 }

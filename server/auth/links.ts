@@ -7,8 +7,8 @@ import { endSessionsOf } from '../core/session';
 import { resetMail, appLink } from '../mail/templates';
 import { sendMail } from '../mail/transport';
 import { hashPassword } from './passwords';
-import { findUserByEmail, findUserById, updateUser } from './store';
-import { findUsableToken, issueToken, markUsed, revokeTokens, type TokenPurpose } from './tokens';
+import { findUserByEmail, findUserById, lockUserById, updateUser } from './store';
+import { findUsableToken, issueToken, lockUsableToken, markUsed, revokeTokens, type TokenPurpose } from './tokens';
 
 /** Accepting an invitation and resetting a password through the single-use e-mail links. */
 
@@ -23,7 +23,7 @@ const deadLink = (purpose: TokenPurpose) =>
 
 /** What a link's page shows before the form is sent; fails the same way for every dead link. */
 export async function linkInfo(token: string, purpose: TokenPurpose): Promise<LinkInfo> {
-  const row = await findUsableToken(db, token, purpose);
+  const row = await findUsableToken(token, purpose);
   const user = row && (await findUserById(row.userId));
   const wanted = purpose === 'invite' ? 'invited' : 'active';
   if (!row || !user || user.status !== wanted) throw deadLink(purpose);
@@ -33,11 +33,11 @@ export async function linkInfo(token: string, purpose: TokenPurpose): Promise<Li
 export async function acceptInvitation(token: string, name: string, password: string, audit: AuditWriter): Promise<{ email: string }> {
   const passwordHash = await hashPassword(password); // slow: outside the transaction
   return db.transaction(async (tx) => {
-    const row = await findUsableToken(tx, token, 'invite', true);
-    const user = row && (await findUserById(row.userId, tx, true));
+    const row = await lockUsableToken(token, 'invite', tx);
+    const user = row && (await lockUserById(row.userId, tx));
     if (!row || !user || user.status !== 'invited') throw deadLink('invite');
-    await updateUser(tx, user.id, { name, passwordHash, status: 'active' });
-    await markUsed(tx, row.id);
+    await updateUser(user.id, { name, passwordHash, status: 'active' }, tx);
+    await markUsed(row.id, tx);
     await audit({ action: 'account.invitation_accepted', targetType: 'user', targetId: user.id, actor: user }, tx);
     return { email: user.email };
   });
@@ -54,7 +54,7 @@ export async function requestReset(email: string, audit: AuditWriter): Promise<v
     await audit({ action: 'account.reset_requested_unknown', detail: { status: user?.status ?? 'no_account' } });
     return;
   }
-  const { token } = await issueToken(db, user.id, 'reset', RESET_MINUTES * 60 * 1000, null);
+  const { token } = await issueToken(user.id, 'reset', RESET_MINUTES * 60 * 1000, null);
   await audit({ action: 'account.reset_requested', targetType: 'user', targetId: user.id });
   const mail = resetMail(user.email, appLink('/account/reset-password', { token }), RESET_MINUTES);
   sendMail(mail).catch((err) => logger.error({ err, userId: user.id }, 'could not send a password reset e-mail'));
@@ -63,12 +63,12 @@ export async function requestReset(email: string, audit: AuditWriter): Promise<v
 export async function completeReset(token: string, password: string, audit: AuditWriter): Promise<{ email: string }> {
   const passwordHash = await hashPassword(password);
   const result = await db.transaction(async (tx) => {
-    const row = await findUsableToken(tx, token, 'reset', true);
-    const user = row && (await findUserById(row.userId, tx, true));
+    const row = await lockUsableToken(token, 'reset', tx);
+    const user = row && (await lockUserById(row.userId, tx));
     if (!row || !user || user.status !== 'active') throw deadLink('reset');
-    await updateUser(tx, user.id, { passwordHash });
-    await markUsed(tx, row.id);
-    await revokeTokens(tx, user.id, 'reset');
+    await updateUser(user.id, { passwordHash }, tx);
+    await markUsed(row.id, tx);
+    await revokeTokens(user.id, 'reset', tx);
     await audit({ action: 'account.password_reset', targetType: 'user', targetId: user.id, actor: user }, tx);
     return { id: user.id, email: user.email };
   });

@@ -2,7 +2,6 @@ import type { ErrorEnvelope } from '../../shared/api/errors';
 import type { Request } from 'express';
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import { config } from '../config';
-import { db } from '../db';
 import { linkGuard } from './link-guard';
 import { createLimiterStore } from './limiter-store';
 import { findUsableToken, type TokenPurpose } from './tokens';
@@ -47,5 +46,5 @@ export const resetPerAccount = rateLimit({
 export const linkLimit = (purpose: TokenPurpose) =>
   linkGuard(async (req) => {
     const token: unknown = (req.body as { token?: unknown } | undefined)?.token;
-    return typeof token === 'string' && !!(await findUsableToken(db, token, purpose));
+    return typeof token === 'string' && !!(await findUsableToken(token, purpose));
   }, 410);

@@ -12,7 +12,6 @@ import { hashPassword, PASSWORD_MAX, PASSWORD_MIN, verifyPassword } from './pass
 import { linkLimit, resetPerAccount, resetPerIp } from './rate-limits';
 import { beforeSignIn, signInFailed, signInSucceeded } from './sign-in-guard';
 import { findUserByEmail, findUserById, updateUser } from './store';
-import { db } from '../db';
 import { config } from '../config';
 import { logger } from '../core/logging';
 
@@ -78,7 +77,7 @@ authRouter.post('/sign-in', publicAccess, async (req, res) => {
   );
   req.session.userId = row.id;
   req.session.signedInAt = Date.now();
-  await updateUser(db, row.id, { lastSignInAt: new Date() });
+  await updateUser(row.id, { lastSignInAt: new Date() });
   req.user = { id: row.id, email: row.email, name: row.name, role: row.role };
   rotateCsrf(req, res); // bound to the new session id
   await audit(req, { action: 'account.sign_in', targetType: 'user', targetId: row.id });
@@ -105,7 +104,7 @@ authRouter.post('/password', signedIn(), async (req, res) => {
       fields: [{ field: 'currentPassword', message: 'This is not your current password.' }],
     });
   }
-  await updateUser(db, row.id, { passwordHash: await hashPassword(body.newPassword) });
+  await updateUser(row.id, { passwordHash: await hashPassword(body.newPassword) });
   // Other devices signed in with the old password are signed out; this one stays.
   const ended = await endSessionsOf(row.id, req.sessionID);
   await audit(req, { action: 'account.password_changed', targetType: 'user', targetId: row.id, detail: { otherSessionsEnded: ended } });

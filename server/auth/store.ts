@@ -1,21 +1,29 @@
 import { eq } from 'drizzle-orm';
 import { users } from '../../db/schema/accounts';
-import { db, type Tx } from '../db';
+import { db, type Conn, type Tx } from '../db';
 
-type Conn = Tx | typeof db;
 export type UserRow = typeof users.$inferSelect;
 
-export async function findUserByEmail(email: string, conn: Conn = db): Promise<UserRow | undefined> {
-  const [row] = await conn.select().from(users).where(eq(users.email, email.trim().toLowerCase()));
+export async function findUserByEmail(email: string, tx: Conn = db): Promise<UserRow | undefined> {
+  const [row] = await tx.select().from(users).where(eq(users.email, email.trim().toLowerCase()));
   return row;
 }
 
-export async function findUserById(id: number, conn: Conn = db, lock = false): Promise<UserRow | undefined> {
-  const query = conn.select().from(users).where(eq(users.id, id));
-  const [row] = lock ? await query.for('update') : await query;
+export async function findUserById(id: number, tx: Conn = db): Promise<UserRow | undefined> {
+  const [row] = await tx.select().from(users).where(eq(users.id, id));
   return row;
 }
 
-export async function updateUser(conn: Conn, id: number, values: Partial<Omit<UserRow, 'id' | 'createdAt' | 'updatedAt'>>): Promise<void> {
-  await conn.update(users).set(values).where(eq(users.id, id));
+/** The account row, locked for the rest of the transaction. */
+export async function lockUserById(id: number, tx: Tx): Promise<UserRow | undefined> {
+  const [row] = await tx.select().from(users).where(eq(users.id, id)).for('update');
+  return row;
+}
+
+export async function updateUser(
+  id: number,
+  values: Partial<Omit<UserRow, 'id' | 'createdAt' | 'updatedAt'>>,
+  tx: Conn = db,
+): Promise<void> {
+  await tx.update(users).set(values).where(eq(users.id, id));
 }

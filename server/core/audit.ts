@@ -1,6 +1,6 @@
 import type { Request } from 'express';
-import { auditLog } from '../../db/schema/accounts';
-import { db, type Tx } from '../db';
+import { db, type Conn } from '../db';
+import { insertAuditRow } from './audit-store';
 
 export interface AuditEntry {
   action: string;
@@ -12,21 +12,24 @@ export interface AuditEntry {
 }
 
 /** Records who did what, when and from where. Never pass secrets in detail. */
-export async function audit(req: Request, entry: AuditEntry, tx: Tx | typeof db = db): Promise<void> {
+export async function audit(req: Request, entry: AuditEntry, tx: Conn = db): Promise<void> {
   const actor = entry.actor ?? req.user;
-  await tx.insert(auditLog).values({
-    actorId: actor?.id ?? null,
-    actorEmail: actor?.email ?? null,
-    action: entry.action,
-    targetType: entry.targetType ?? null,
-    targetId: entry.targetId === undefined ? null : String(entry.targetId),
-    detail: entry.detail ?? null,
-    ip: req.ip ?? null,
-  });
+  await insertAuditRow(
+    {
+      actorId: actor?.id ?? null,
+      actorEmail: actor?.email ?? null,
+      action: entry.action,
+      targetType: entry.targetType ?? null,
+      targetId: entry.targetId === undefined ? null : String(entry.targetId),
+      detail: entry.detail ?? null,
+      ip: req.ip ?? null,
+    },
+    tx,
+  );
 }
 
 /** An audit writer bound to one request, for domain services that must not see HTTP. */
-export type AuditWriter = (entry: AuditEntry, tx?: Tx | typeof db) => Promise<void>;
+export type AuditWriter = (entry: AuditEntry, tx?: Conn) => Promise<void>;
 export const auditFor =
   (req: Request): AuditWriter =>
   (entry, tx) =>

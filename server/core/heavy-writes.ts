@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import type { NextFunction, Request, Response } from 'express';
-import { counterKeyPrefix, counterRedis } from '../auth/limiter-store';
+import { counterKeyPrefix, counterRedis } from '../jobs/redis';
 import { config } from '../config';
 import { HttpError } from './http-error';
 

@@ -4,6 +4,8 @@ import { config } from '../config';
 import { pool } from '../db';
 import { SessionStore } from './session-store';
 
+export { sessionAccount, type SessionAccount } from './session-store';
+
 export const SESSION_COOKIE = 'rh.sid';
 
 export function sessionMiddleware(secure: boolean) {

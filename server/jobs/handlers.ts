@@ -5,7 +5,7 @@
  * results presented as complete.
  */
 import type { JobEvent } from '../../shared/api/plans';
-import type { Tx, db } from '../db';
+import type { Conn, Tx } from '../db';
 import type { JobRow } from './store';
 
 /** Applies a job's results; may return work to do once they are committed (queueing a follow-up job). */
@@ -22,7 +22,7 @@ export interface JobContext {
 
 interface EndHook {
   /** Called (inside the ending transaction) when the job ends without success. */
-  onEnd?(job: JobRow, status: EndStatus, message: string, tx: Tx | typeof db): Promise<void>;
+  onEnd?(job: JobRow, status: EndStatus, message: string, tx: Conn): Promise<void>;
 }
 
 /** A job computed in one piece by one worker (plans). Throw JobFailure to fail it for good. */

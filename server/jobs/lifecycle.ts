@@ -33,7 +33,7 @@ export async function endOpenJob(row: JobRow, status: EndStatus, message: string
 export async function finishJob(row: JobRow, commit: Commit): Promise<boolean> {
   let then: (() => Promise<void>) | undefined;
   const finished = await db.transaction(async (tx) => {
-    if ((await lockJobStatus(tx, row.id)) !== 'running') return false;
+    if ((await lockJobStatus(row.id, tx)) !== 'running') return false;
     then = (await commit(tx)) ?? undefined;
     await endJob(row.id, 'done', null, tx);
     return true;

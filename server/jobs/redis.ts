@@ -41,6 +41,39 @@ export function newRedis(purpose: string): Redis {
   return conn;
 }
 
+let counters: Redis | undefined;
+
+/**
+ * The one connection of the counters in Redis: the rate limits and back-offs
+ * (auth/limiter-store.ts) and the heavy-write slots (core/heavy-writes.ts). Unlike the queue's
+ * connections, a command fails after one reconnect attempt while Redis is away, so the counters
+ * can fail open instead of holding up the request.
+ */
+export function counterRedis(): Redis {
+  if (!counters) {
+    counters = new Redis(redisUrl(), {
+      connectionName: 'ripplehall-rate-limits',
+      // Queued while connecting, failed after one reconnect attempt while Redis is away.
+      maxRetriesPerRequest: 1,
+      retryStrategy: (times) => Math.min(2000, 50 * times),
+    });
+    watchConnection(counters, 'rate limits');
+  }
+  return counters;
+}
+
+/** The Redis key prefix of a counter (scoped per test process under NODE_ENV=test). */
+export function counterKeyPrefix(prefix: string): string {
+  const scope = config.NODE_ENV === 'test' ? `${config.RATE_LIMIT_SCOPE ?? process.pid}:` : '';
+  return `${QUEUE_PREFIX}:rl:${scope}${prefix}:`;
+}
+
+export async function closeCounterRedis(): Promise<void> {
+  const c = counters;
+  counters = undefined;
+  await c?.quit().catch(() => c.disconnect());
+}
+
 /** Rejects after ms: for calls that must not wait for Redis forever (an HTTP answer, say). */
 export function within<T>(ms: number, what: string, work: Promise<T>): Promise<T> {
   let timer: NodeJS.Timeout | undefined;

@@ -2,23 +2,23 @@
 import { and, asc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { users } from '../../db/schema/accounts';
 import { jobs, plans, rehearsals } from '../../db/schema/plans';
-import { db, type Tx } from '../db';
+import { db, type Conn, type Tx } from '../db';
 import { firstOf } from '../../shared/checked';
 
 export type JobRow = typeof jobs.$inferSelect;
 export type NewJob = typeof jobs.$inferInsert;
 
-export async function insertJob(values: NewJob, tx: Tx | typeof db = db): Promise<number> {
+export async function insertJob(values: NewJob, tx: Conn = db): Promise<number> {
   const { id } = firstOf(await tx.insert(jobs).values(values).$returningId(), 'new job id');
   return id;
 }
 
-export async function findJob(id: number, tx: Tx | typeof db = db): Promise<JobRow | undefined> {
+export async function findJob(id: number, tx: Conn = db): Promise<JobRow | undefined> {
   const [row] = await tx.select().from(jobs).where(eq(jobs.id, id));
   return row;
 }
 
-export async function findJobByKey(userId: number, key: string, tx: Tx | typeof db = db): Promise<JobRow | undefined> {
+export async function findJobByKey(userId: number, key: string, tx: Conn = db): Promise<JobRow | undefined> {
   const [row] = await tx
     .select()
     .from(jobs)
@@ -26,11 +26,11 @@ export async function findJobByKey(userId: number, key: string, tx: Tx | typeof 
   return row;
 }
 
-export async function clearJobKey(id: number, tx: Tx | typeof db = db): Promise<void> {
+export async function clearJobKey(id: number, tx: Conn = db): Promise<void> {
   await tx.update(jobs).set({ idempotencyKey: null }).where(eq(jobs.id, id));
 }
 
-export async function updateJob(id: number, patch: Partial<NewJob>, tx: Tx | typeof db = db): Promise<void> {
+export async function updateJob(id: number, patch: Partial<NewJob>, tx: Conn = db): Promise<void> {
   await tx.update(jobs).set(patch).where(eq(jobs.id, id));
 }
 
@@ -39,7 +39,7 @@ export async function endJob(
   id: number,
   status: 'done' | 'failed' | 'cancelled' | 'interrupted',
   message: string | null,
-  tx: Tx | typeof db = db,
+  tx: Conn = db,
 ): Promise<boolean> {
   const [res] = await tx
     .update(jobs)
@@ -49,7 +49,7 @@ export async function endJob(
 }
 
 /** Locks the row inside a transaction and reports its status (the final write checks it). */
-export async function lockJobStatus(tx: Tx, id: number): Promise<JobRow['status'] | undefined> {
+export async function lockJobStatus(id: number, tx: Tx): Promise<JobRow['status'] | undefined> {
   const [row] = await tx.select({ status: jobs.status }).from(jobs).where(eq(jobs.id, id)).for('update');
   return row?.status;
 }
@@ -140,7 +140,7 @@ export async function openJobs(limit = 1000): Promise<JobRow[]> {
  * What a user has open now: jobs queued or running, and the cascades of those that are rehearsals.
  * Background proofs count only with `withProofs` (they never block what the user asks for).
  */
-export async function openLoadOf(userId: number, tx: Tx | typeof db = db, withProofs = false): Promise<{ jobs: number; cascades: number }> {
+export async function openLoadOf(userId: number, withProofs = false, tx: Conn = db): Promise<{ jobs: number; cascades: number }> {
   const [row] = await tx
     .select({ jobs: sql<number>`COUNT(*)`, cascades: sql<number>`COALESCE(SUM(${rehearsals.runs}), 0)` })
     .from(jobs)

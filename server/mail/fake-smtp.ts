@@ -1,9 +1,8 @@
 import type { AddressInfo } from 'node:net';
 import { SMTPServer } from 'smtp-server';
 import { simpleParser } from 'mailparser';
-import { mailMessages } from '../../db/schema/mail';
-import { db } from '../db';
 import { logger } from '../core/logging';
+import { insertMailMessage } from './store';
 
 /**
  * The local mail fake for development and test: a real SMTP server on loopback that
@@ -30,7 +29,7 @@ export async function startFakeSmtp(port = 0): Promise<{ server: SMTPServer; por
         try {
           const raw = Buffer.concat(chunks);
           const parsed = await simpleParser(raw);
-          await db.insert(mailMessages).values({
+          await insertMailMessage({
             envelopeFrom: session.envelope.mailFrom ? session.envelope.mailFrom.address : null,
             envelopeTo: session.envelope.rcptTo.map((r) => r.address).join(', '),
             subject: parsed.subject ?? null,

@@ -35,14 +35,14 @@ export async function claimJoinName(workshopId: number, participantId: number): 
   if (!JOINABLE.has(w.status)) throw new HttpError(409, 'join_closed', notJoinable(w.status));
   return db.transaction(async (tx) => {
     // The survey may close while this claim waits; the row lock makes the check and the claim one step.
-    const status = await lockedStatus(tx, workshopId);
+    const status = await lockedStatus(workshopId, tx);
     if (!status || !JOINABLE.has(status)) throw new HttpError(409, 'join_closed', notJoinable(status ?? 'closed'));
     const names = await namesOf(workshopId, tx);
     const linked = await withActiveLinks(workshopId, tx);
     const mine = names.find((n) => n.id === participantId);
     if (!mine)
       throw new HttpError(400, 'unknown_name', "That name is not on this workshop's list. Reload the page to see the current names.");
-    if (linked.has(participantId) || !(await claimName(tx, workshopId, participantId))) {
+    if (linked.has(participantId) || !(await claimName(workshopId, participantId, tx))) {
       const allTaken = names.every((n) => n.claimedAt !== null || linked.has(n.id) || n.id === participantId);
       throw new HttpError(
         409,
@@ -52,7 +52,7 @@ export async function claimJoinName(workshopId: number, participantId: number): 
           : `“${mine.name}” is already taken: picked here, or sent a personal link. If that is you, use the link you received or ask your facilitator to reset the name; otherwise pick your own.`,
       );
     }
-    const { token } = (await issueLinks(tx, [participantId], 'join', w.linkDays)).get(participantId)!;
+    const { token } = (await issueLinks([participantId], 'join', w.linkDays, tx)).get(participantId)!;
     return { path: `/p/${token}`, name: mine.name };
   });
 }

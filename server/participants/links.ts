@@ -1,10 +1,21 @@
 import { randomBytes } from 'node:crypto';
-import { and, desc, eq, gt, inArray, isNull } from 'drizzle-orm';
-import { participantLinks, workshopParticipants, workshops } from '../../db/schema/workshops';
 import { hashToken, TOKEN_PATTERN } from '../auth/tokens';
 import { publicUrl } from '../config';
-import { db, type Tx } from '../db';
+import { db, type Conn } from '../db';
 import { openToken, sealToken } from './link-seal';
+import {
+  insertLinks,
+  linkHolderByHash,
+  liveLinksOf,
+  revokeLinkByHash,
+  revokeLinksOf,
+  setJoinCode,
+  touchLink,
+  workshopByJoinHash,
+  type LinkHolder,
+} from './links-store';
+
+export type { LinkHolder } from './links-store';
 
 /**
  * Personal participant links. A token is 32 random bytes from the operating system's CSPRNG
@@ -14,7 +25,6 @@ import { openToken, sealToken } from './link-seal';
  * same live link (from its sealed copy, see link-seal.ts); only an explicit reissue or revoke by
  * the facilitator ends it.
  */
-type Conn = Tx | typeof db;
 export type LinkChannel = 'email' | 'sheet' | 'join';
 const DAY_MS = 24 * 3600 * 1000;
 
@@ -31,7 +41,12 @@ export interface ShownLink {
 }
 
 /** Issues a fresh link for each participant (their earlier links stay as they are). */
-export async function issueLinks(tx: Conn, participantIds: number[], channel: LinkChannel, days: number): Promise<Map<number, ShownLink>> {
+export async function issueLinks(
+  participantIds: number[],
+  channel: LinkChannel,
+  days: number,
+  tx: Conn = db,
+): Promise<Map<number, ShownLink>> {
   const out = new Map<number, ShownLink>();
   if (!participantIds.length) return out;
   const expiresAt = new Date(Date.now() + days * DAY_MS);
@@ -40,7 +55,7 @@ export async function issueLinks(tx: Conn, participantIds: number[], channel: Li
     out.set(participantId, { participantId, token, expiresAt, fresh: true });
     return { participantId, tokenHash: hashToken(token), tokenSealed: sealToken(token), channel, expiresAt };
   });
-  await tx.insert(participantLinks).values(rows);
+  await insertLinks(rows, tx);
   return out;
 }
 
@@ -48,100 +63,60 @@ export async function issueLinks(tx: Conn, participantIds: number[], channel: Li
  * Each participant's live link, reused when one can be shown again (the newest-expiring live
  * link with a sealed copy that opens), otherwise a new one. Never revokes anything.
  */
-export async function linksFor(tx: Conn, participantIds: number[], channel: LinkChannel, days: number): Promise<Map<number, ShownLink>> {
+export async function linksFor(
+  participantIds: number[],
+  channel: LinkChannel,
+  days: number,
+  tx: Conn = db,
+): Promise<Map<number, ShownLink>> {
   const out = new Map<number, ShownLink>();
   if (!participantIds.length) return out;
-  const live = await tx
-    .select({ participantId: participantLinks.participantId, sealed: participantLinks.tokenSealed, expiresAt: participantLinks.expiresAt })
-    .from(participantLinks)
-    .where(
-      and(
-        inArray(participantLinks.participantId, participantIds),
-        isNull(participantLinks.revokedAt),
-        gt(participantLinks.expiresAt, new Date()),
-      ),
-    )
-    .orderBy(desc(participantLinks.expiresAt));
+  const live = await liveLinksOf(participantIds, tx);
   for (const row of live) {
     if (out.has(row.participantId)) continue;
     const token = openToken(row.sealed);
     if (token) out.set(row.participantId, { participantId: row.participantId, token, expiresAt: row.expiresAt, fresh: false });
   }
   const missing = participantIds.filter((id) => !out.has(id));
-  for (const [id, link] of await issueLinks(tx, missing, channel, days)) out.set(id, link);
+  for (const [id, link] of await issueLinks(missing, channel, days, tx)) out.set(id, link);
   return out;
 }
 
 /** The explicit, confirmed action: end the chosen people's links and give each a new one. */
-export async function reissueLinks(tx: Conn, participantIds: number[], days: number): Promise<Map<number, ShownLink>> {
-  await revokeLinks(tx, participantIds);
-  return issueLinks(tx, participantIds, 'sheet', days);
+export async function reissueLinks(participantIds: number[], days: number, tx: Conn = db): Promise<Map<number, ShownLink>> {
+  await revokeLinks(participantIds, tx);
+  return issueLinks(participantIds, 'sheet', days, tx);
 }
 
 /** Ends one link by its token (an e-mail that never left: nobody holds that link). */
-export async function revokeToken(tx: Conn, token: string): Promise<void> {
-  await tx
-    .update(participantLinks)
-    .set({ revokedAt: new Date() })
-    .where(eq(participantLinks.tokenHash, hashToken(token)));
+export async function revokeToken(token: string, tx: Conn = db): Promise<void> {
+  await revokeLinkByHash(hashToken(token), tx);
 }
 
-export async function revokeLinks(tx: Conn, participantIds: number[]): Promise<number> {
+export async function revokeLinks(participantIds: number[], tx: Conn = db): Promise<number> {
   if (!participantIds.length) return 0;
-  const [result] = await tx
-    .update(participantLinks)
-    .set({ revokedAt: new Date() })
-    .where(and(inArray(participantLinks.participantId, participantIds), isNull(participantLinks.revokedAt)));
-  return (result as { affectedRows?: number }).affectedRows ?? 0;
-}
-
-export interface LinkHolder {
-  linkId: number;
-  participantId: number;
-  participantName: string;
-  personId: string | null;
-  workshopId: number;
+  return revokeLinksOf(participantIds, tx);
 }
 
 /** The participant behind a usable (well-formed, known, unrevoked, unexpired) token, else undefined. */
 export async function findLinkHolder(token: string): Promise<LinkHolder | undefined> {
   if (!TOKEN_PATTERN.test(token)) return undefined;
-  const [row] = await db
-    .select({
-      linkId: participantLinks.id,
-      participantId: workshopParticipants.id,
-      participantName: workshopParticipants.name,
-      personId: workshopParticipants.personId,
-      workshopId: workshops.id,
-    })
-    .from(participantLinks)
-    .innerJoin(workshopParticipants, eq(workshopParticipants.id, participantLinks.participantId))
-    .innerJoin(workshops, eq(workshops.id, workshopParticipants.workshopId))
-    .where(
-      and(eq(participantLinks.tokenHash, hashToken(token)), isNull(participantLinks.revokedAt), gt(participantLinks.expiresAt, new Date())),
-    );
+  const row = await linkHolderByHash(hashToken(token));
   if (!row) return undefined;
-  await db.update(participantLinks).set({ lastUsedAt: new Date() }).where(eq(participantLinks.id, row.linkId));
+  await touchLink(row.linkId);
   return row;
 }
 
 /** The workshop behind a usable join code (the projector QR code), else undefined. */
 export async function findJoinWorkshop(code: string): Promise<number | undefined> {
   if (!TOKEN_PATTERN.test(code)) return undefined;
-  const [row] = await db
-    .select({ id: workshops.id })
-    .from(workshops)
-    .where(and(eq(workshops.joinCodeHash, hashToken(code)), gt(workshops.joinCodeExpiresAt, new Date())));
-  return row?.id;
+  return workshopByJoinHash(hashToken(code));
 }
 
 /** A fresh join code (the earlier one stops working). */
-export async function issueJoinCode(tx: Conn, workshopId: number, days: number): Promise<{ code: string; expiresAt: Date }> {
+export async function issueJoinCode(workshopId: number, days: number, tx: Conn = db): Promise<{ code: string; expiresAt: Date }> {
   const code = newToken();
   const expiresAt = new Date(Date.now() + days * DAY_MS);
-  await tx
-    .update(workshops)
-    .set({ joinCodeHash: hashToken(code), joinCodeExpiresAt: expiresAt })
-    .where(eq(workshops.id, workshopId));
+  await setJoinCode(workshopId, hashToken(code), expiresAt, tx);
   return { code, expiresAt };
 }

@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { NOMINATION_LIMIT_MAX, SURVEY_LEVEL_VALUES } from '../../shared/api/workshops';
 import { participantAccess } from '../core/access';
 import { parse } from '../core/validate';
-import { myDebrief } from '../workshops/debrief';
+import { myDebrief } from './debrief';
 import { holderOf, requireJoinCode, requireLink } from './guard';
 import { claimJoinName, joinState } from './join';
 import { giveConsent, saveSurvey, surveyState } from './survey';

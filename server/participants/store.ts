@@ -9,10 +9,9 @@ import {
   workshops,
 } from '../../db/schema/workshops';
 import type { Nomination } from '../../shared/api/workshops';
-import { db, type Tx } from '../db';
+import { db, type Conn, type Tx } from '../db';
 
 /** Data access for what a participant link may read and write: its own answers, the list of names. */
-type Conn = Tx | typeof db;
 export type WorkshopRow = typeof workshops.$inferSelect;
 
 export async function workshopById(id: number, tx: Conn = db): Promise<WorkshopRow | undefined> {
@@ -21,7 +20,7 @@ export async function workshopById(id: number, tx: Conn = db): Promise<WorkshopR
 }
 
 /** The workshop's status, with its row locked until the transaction ends. */
-export async function lockedStatus(tx: Tx, id: number): Promise<WorkshopRow['status'] | undefined> {
+export async function lockedStatus(id: number, tx: Tx): Promise<WorkshopRow['status'] | undefined> {
   const [row] = await tx.select({ status: workshops.status }).from(workshops).where(eq(workshops.id, id)).for('update');
   return row?.status;
 }
@@ -51,7 +50,16 @@ export interface StoredAnswers {
   nominations: Nomination[];
 }
 
-export async function answersOf(participantId: number, tx: Conn = db, lock = false): Promise<StoredAnswers> {
+export async function answersOf(participantId: number, tx: Conn = db): Promise<StoredAnswers> {
+  return readAnswers(participantId, false, tx);
+}
+
+/** The stored answers with the response row locked for the rest of the transaction. */
+export async function lockAnswersOf(participantId: number, tx: Tx): Promise<StoredAnswers> {
+  return readAnswers(participantId, true, tx);
+}
+
+async function readAnswers(participantId: number, lock: boolean, tx: Conn): Promise<StoredAnswers> {
   const query = tx.select().from(surveyResponses).where(eq(surveyResponses.participantId, participantId));
   const [row] = lock ? await query.for('update') : await query;
   const noms = await tx
@@ -74,7 +82,7 @@ export async function recordConsent(participantId: number): Promise<void> {
     .onDuplicateKeyUpdate({ set: { consentedAt: new Date() } });
 }
 
-export async function saveAnswers(tx: Tx, participantId: number, version: number, nominations: Nomination[]): Promise<void> {
+export async function saveAnswers(participantId: number, version: number, nominations: Nomination[], tx: Tx): Promise<void> {
   await tx.delete(surveyNominations).where(eq(surveyNominations.participantId, participantId));
   if (nominations.length) {
     await tx.insert(surveyNominations).values(nominations.map((n) => ({ participantId, nomineeId: n.participantId, level: n.level })));
@@ -83,7 +91,7 @@ export async function saveAnswers(tx: Tx, participantId: number, version: number
 }
 
 /** Atomically claims an unclaimed name; false when someone was faster. */
-export async function claimName(tx: Conn, workshopId: number, participantId: number): Promise<boolean> {
+export async function claimName(workshopId: number, participantId: number, tx: Conn = db): Promise<boolean> {
   const [result] = await tx
     .update(workshopParticipants)
     .set({ claimedAt: new Date() })

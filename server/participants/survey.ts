@@ -2,7 +2,17 @@ import type { Nomination, SurveyState } from '../../shared/api/workshops';
 import { db } from '../db';
 import { conflict, HttpError } from '../core/http-error';
 import type { LinkHolder } from './links';
-import { answersOf, facilitatorNames, namesOf, participantsIn, recordConsent, saveAnswers, workshopById, type WorkshopRow } from './store';
+import {
+  answersOf,
+  facilitatorNames,
+  lockAnswersOf,
+  namesOf,
+  participantsIn,
+  recordConsent,
+  saveAnswers,
+  workshopById,
+  type WorkshopRow,
+} from './store';
 
 /**
  * The survey as one participant sees it. Two browsers answering for the same person are
@@ -97,7 +107,7 @@ export async function saveSurvey(holder: LinkHolder, version: number, nomination
   if (w.status !== 'collecting') throw new HttpError(409, 'survey_closed', closedMessage(w));
   await checkNominations(holder, w, nominations, nobody);
   await db.transaction(async (tx) => {
-    const current = await answersOf(holder.participantId, tx, true);
+    const current = await lockAnswersOf(holder.participantId, tx);
     if (!current.consentedAt) throw conflict('Please read the privacy notice and agree to it before answering.');
     if (current.version !== version) {
       throw new HttpError(
@@ -110,7 +120,7 @@ export async function saveSurvey(holder: LinkHolder, version: number, nomination
     // The survey may have closed while this request waited for the lock.
     const fresh = await workshopById(w.id, tx);
     if (fresh?.status !== 'collecting') throw new HttpError(409, 'survey_closed', closedMessage(fresh ?? w));
-    await saveAnswers(tx, holder.participantId, version + 1, nominations);
+    await saveAnswers(holder.participantId, version + 1, nominations, tx);
   });
   return surveyState(holder);
 }

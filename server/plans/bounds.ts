@@ -11,8 +11,7 @@
  */
 import { coverBound } from '../../shared/engine/index';
 import type { BoundSource, KSweepResult } from '../../shared/api/plans';
-import type { Tx } from '../db';
-import { db } from '../db';
+import { db, type Conn } from '../db';
 import { boundKey, keyText, type BoundKey } from './bound-key';
 import type { PlanComputation } from './compute';
 import type { BoundRow, PlanListRow } from './store';
@@ -52,7 +51,7 @@ export async function recordComputation(
   row: KeyedRow & { people: number; settings: { laziness: number } },
   c: PlanComputation,
   personIds: readonly number[],
-  tx: Tx | typeof db = db,
+  tx: Conn = db,
 ): Promise<void> {
   if (!Number.isFinite(c.total)) return;
   const scale = 1 / (1 - row.settings.laziness);
@@ -69,7 +68,7 @@ export async function recordComputation(
 }
 
 /** Keeps where the computation's search stopped (or that it finished) for the next search of the key. */
-export async function recordSearch(row: KeyedRow, c: Pick<PlanComputation, 'resume'>, tx: Tx | typeof db = db): Promise<void> {
+export async function recordSearch(row: KeyedRow, c: Pick<PlanComputation, 'resume'>, tx: Conn = db): Promise<void> {
   if (c.resume) await store.saveSearchState(keyOfPlan(row), c.resume, tx);
 }
 

@@ -44,7 +44,7 @@ export async function addProofRow(row: PlanRow, c: PlanComputation, userId: numb
   const key = keyOfPlan(row);
   const bound = await store.lockBound(key, tx);
   if (!bound || bound.lowerBound >= c.total * (1 - SAME_TOTAL)) return null;
-  if ((await openLoadOf(userId, tx, true)).jobs >= config.MAX_OPEN_JOBS_PER_USER) return null;
+  if ((await openLoadOf(userId, true, tx)).jobs >= config.MAX_OPEN_JOBS_PER_USER) return null;
   if ((await store.openProofsOfRoom(row.roomId, tx)).some((p) => sameKey(p.plan, row))) return null;
   return insertJob({ userId, roomId: row.roomId, kind: 'proof', planId: row.id }, tx);
 }

@@ -14,7 +14,7 @@ import { onJobEvent } from '../jobs/events';
 import { runInPlanPool } from '../jobs/pools';
 import { checkJobQuota, checkPlanQuota } from '../jobs/quotas';
 import { JobFailure, jobRunner, type JobHandler } from '../jobs/runner';
-import { findJob, insertJob } from '../jobs/store';
+import { findJob, insertJob } from '../jobs/service';
 import { loadRoomGraph, type RoomNeed } from '../rooms/access';
 import type { SignedInUser } from '../types';
 import { prepared, type ComputeOutcome, type PlanComputation, type RoomSnapshot } from './compute';
@@ -23,6 +23,9 @@ import { parseResults, parseSnapshot, planDetail, planSummary } from './dto';
 import { resultColumns } from './result-columns';
 import type { NewPlan, PlanRow } from './store';
 import * as store from './store';
+
+/** Plan rows as other features (rehearsals, workshops) read them. */
+export { findPlan, roomVersion } from './store';
 import { config } from '../config';
 import { boundForRow, boundOf, boundsFor, recordComputation, recordSearch, recordSweepBounds, savedSearchOf } from './bounds';
 import { addProofRow, proofFacts, queueProof, yieldProofs } from './proof';

@@ -4,7 +4,7 @@ import { users } from '../../db/schema/accounts';
 import { planBounds } from '../../db/schema/plan-bounds';
 import { jobs, plans, rehearsals } from '../../db/schema/plans';
 import { rooms } from '../../db/schema/rooms';
-import { db, type Tx } from '../db';
+import { db, type Conn, type Tx } from '../db';
 import type { SearchResume } from '../../shared/engine/index';
 import type { BoundKey } from './bound-key';
 import { firstOf } from '../../shared/checked';
@@ -16,16 +16,16 @@ export type PlanListRow = Omit<PlanRow, 'snapshot' | 'results'> & { createdByNam
 
 const { snapshot: _snapshot, results: _results, ...listColumns } = getTableColumns(plans);
 
-export async function insertPlan(values: NewPlan, tx: Tx | typeof db = db): Promise<number> {
+export async function insertPlan(values: NewPlan, tx: Conn = db): Promise<number> {
   const { id } = firstOf(await tx.insert(plans).values(values).$returningId(), 'new plan id');
   return id;
 }
 
-export async function updatePlan(id: number, patch: Partial<NewPlan>, tx: Tx | typeof db = db): Promise<void> {
+export async function updatePlan(id: number, patch: Partial<NewPlan>, tx: Conn = db): Promise<void> {
   await tx.update(plans).set(patch).where(eq(plans.id, id));
 }
 
-export async function findPlan(id: number, tx: Tx | typeof db = db): Promise<(PlanRow & { createdByName: string }) | undefined> {
+export async function findPlan(id: number, tx: Conn = db): Promise<(PlanRow & { createdByName: string }) | undefined> {
   const [row] = await tx
     .select({ plan: plans, createdByName: users.name })
     .from(plans)
@@ -44,7 +44,7 @@ export async function listPlans(roomId: number): Promise<PlanListRow[]> {
   return rows;
 }
 
-export async function roomVersion(roomId: number, tx: Tx | typeof db = db): Promise<number | undefined> {
+export async function roomVersion(roomId: number, tx: Conn = db): Promise<number | undefined> {
   const [row] = await tx.select({ version: rooms.version, name: rooms.name }).from(rooms).where(eq(rooms.id, roomId));
   return row?.version;
 }
@@ -98,7 +98,7 @@ export interface BoundFacts {
  * plans): the lower bound only rises, the best total only falls. MariaDB evaluates the
  * assignments left to right, so the source and the starters are compared before their values move.
  */
-export async function mergeBound(key: BoundKey, facts: BoundFacts, tx: Tx | typeof db = db): Promise<void> {
+export async function mergeBound(key: BoundKey, facts: BoundFacts, tx: Conn = db): Promise<void> {
   const starters = facts.bestStarters ? JSON.stringify(facts.bestStarters) : null;
   await tx.execute(sql`
     INSERT INTO plan_bounds (room_id, room_version, k, constraints_key, lower_bound, lower_source, best_total, best_starters)
@@ -113,7 +113,7 @@ export async function mergeBound(key: BoundKey, facts: BoundFacts, tx: Tx | type
                       VALUES(best_total), best_total)`);
 }
 
-export async function findBound(key: BoundKey, tx: Tx | typeof db = db): Promise<BoundRow | undefined> {
+export async function findBound(key: BoundKey, tx: Conn = db): Promise<BoundRow | undefined> {
   const [row] = await tx
     .select()
     .from(planBounds)
@@ -138,7 +138,7 @@ export async function boundsOfRoom(roomId: number): Promise<BoundRow[]> {
  * state that has decided fewer k-sets than the stored one (a search started afresh beside a
  * resumed one) does not replace it.
  */
-export async function saveSearchState(key: BoundKey, state: SearchResume, tx: Tx | typeof db = db): Promise<void> {
+export async function saveSearchState(key: BoundKey, state: SearchResume, tx: Conn = db): Promise<void> {
   const text = JSON.stringify(state);
   await tx.execute(sql`
     UPDATE plan_bounds
@@ -164,7 +164,7 @@ export async function lockBound(key: BoundKey, tx: Tx): Promise<BoundRow | undef
 }
 
 /** Open background proofs of a room, with the key columns of their plans. */
-export async function openProofsOfRoom(roomId: number, tx: Tx | typeof db = db) {
+export async function openProofsOfRoom(roomId: number, tx: Conn = db) {
   return tx
     .select({
       job: jobs,

@@ -4,7 +4,7 @@ import { itemAt } from '../../shared/checked';
 import { notFound } from '../core/http-error';
 import { parseSnapshot } from '../plans/dto';
 import { personAt } from '../plans/snapshot';
-import { findPlan } from '../plans/store';
+import { findPlan } from '../plans/service';
 import { planError } from '../plans/validate';
 import type { StoredSample } from './results';
 import type { LoadedRehearsal } from './service';

@@ -3,7 +3,7 @@ import { and, desc, eq, getTableColumns, gte, lt, sql, type SQL } from 'drizzle-
 import { users } from '../../db/schema/accounts';
 import { jobs, plans, rehearsals } from '../../db/schema/plans';
 import { people } from '../../db/schema/rooms';
-import { db, type Tx } from '../db';
+import { db, type Conn } from '../db';
 import type { JobStatus } from '../../shared/api/plans';
 import { firstOf } from '../../shared/checked';
 
@@ -23,12 +23,12 @@ export interface RehearsalListRow {
 /** The rehearsal's rank within its room: counted, so every room starts at 1 (no extra column). */
 const roomNumber = sql<number>`(select count(*) from rehearsals r2 where r2.room_id = ${rehearsals.roomId} and r2.id <= ${rehearsals.id})`;
 
-export async function insertRehearsal(values: NewRehearsal, tx: Tx | typeof db = db): Promise<number> {
+export async function insertRehearsal(values: NewRehearsal, tx: Conn = db): Promise<number> {
   const { id } = firstOf(await tx.insert(rehearsals).values(values).$returningId(), 'new rehearsal id');
   return id;
 }
 
-export async function updateRehearsal(id: number, patch: Partial<NewRehearsal>, tx: Tx | typeof db = db): Promise<void> {
+export async function updateRehearsal(id: number, patch: Partial<NewRehearsal>, tx: Conn = db): Promise<void> {
   await tx.update(rehearsals).set(patch).where(eq(rehearsals.id, id));
 }
 
@@ -43,7 +43,7 @@ export async function findRehearsal(id: number): Promise<(RehearsalListRow & { r
   return row;
 }
 
-export async function findRehearsalByJob(jobId: number, tx: Tx | typeof db = db): Promise<RehearsalRow | undefined> {
+export async function findRehearsalByJob(jobId: number, tx: Conn = db): Promise<RehearsalRow | undefined> {
   const [row] = await tx.select().from(rehearsals).where(eq(rehearsals.jobId, jobId));
   return row;
 }

@@ -3,19 +3,16 @@
  * rooms) loads its room through `loadRoomFor`: a room the caller may not see answers 404,
  * never 403, so room ids cannot be probed; a viewer asking to change something gets 403.
  */
-import { and, asc, eq } from 'drizzle-orm';
 import type { RoomGraph } from '../../shared/engine/index';
 import type { RoomAccess, RoomSettings } from '../../shared/api/rooms';
-import { users } from '../../db/schema/accounts';
-import { people, roomShares, rooms, ties } from '../../db/schema/rooms';
-import { db, type Tx } from '../db';
+import { db, type Conn } from '../db';
 import { forbidden, notFound, unauthorized } from '../core/http-error';
 import { idOf } from '../core/ids';
-import { workshopEditorOf } from './grants';
+import { graphPeople, graphTies, roomAccessRow, roomRow, type RoomRow } from './access-store';
 import type { SignedInUser } from '../types';
 
 export type RoomNeed = 'view' | 'edit' | 'own';
-export type RoomRow = typeof rooms.$inferSelect;
+export type { RoomRow } from './access-store';
 
 export interface LoadedRoom {
   room: RoomRow;
@@ -34,20 +31,10 @@ export function roomIdOf(raw: unknown): number {
   return idOf(raw, 'That room');
 }
 
-export async function loadRoomFor(
-  user: SignedInUser | undefined,
-  roomId: unknown,
-  need: RoomNeed,
-  tx: Tx | typeof db = db,
-): Promise<LoadedRoom> {
+export async function loadRoomFor(user: SignedInUser | undefined, roomId: unknown, need: RoomNeed, tx: Conn = db): Promise<LoadedRoom> {
   if (!user) throw unauthorized();
   const id = roomIdOf(roomId);
-  const [row] = await tx
-    .select({ room: rooms, ownerName: users.name, shareRole: roomShares.role, helper: workshopEditorOf(user.id) })
-    .from(rooms)
-    .innerJoin(users, eq(users.id, rooms.ownerId))
-    .leftJoin(roomShares, and(eq(roomShares.roomId, rooms.id), eq(roomShares.userId, user.id)))
-    .where(eq(rooms.id, id));
+  const row = await roomAccessRow(user.id, id, tx);
   if (!row) throw notFound('That room');
   const access: RoomAccess | undefined =
     row.room.ownerId === user.id ? 'owner' : Number(row.helper) ? 'editor' : (row.shareRole ?? undefined);
@@ -78,19 +65,11 @@ export interface LoadedRoomGraph {
 }
 
 /** The room as the engine sees it, for the summary, the planners and rehearsals. Throws notFound if gone. */
-export async function loadRoomGraph(roomId: number, tx: Tx | typeof db = db): Promise<LoadedRoomGraph> {
-  const [room] = await tx.select().from(rooms).where(eq(rooms.id, roomId));
+export async function loadRoomGraph(roomId: number, tx: Conn = db): Promise<LoadedRoomGraph> {
+  const room = await roomRow(roomId, tx);
   if (!room) throw notFound('That room');
-  const folk = await tx
-    .select({ id: people.id, key: people.personKey, name: people.name, group: people.groupName })
-    .from(people)
-    .where(eq(people.roomId, roomId))
-    .orderBy(asc(people.orderIndex), asc(people.id));
-  const links = await tx
-    .select({ s: ties.sourceId, t: ties.targetId, w: ties.strength })
-    .from(ties)
-    .where(eq(ties.roomId, roomId))
-    .orderBy(asc(ties.id));
+  const folk = await graphPeople(roomId, tx);
+  const links = await graphTies(roomId, tx);
   const indexOf = new Map<number, number>();
   folk.forEach((p, i) => indexOf.set(p.id, i));
   const graph: RoomGraph = {

@@ -9,6 +9,8 @@ import type { FieldError } from '../../shared/api/errors';
 import type { NewPersonInput } from './schemas';
 import type { PersonRowInput, TieRowInput } from './store';
 
+export type { PersonRowInput, TieRowInput };
+
 export interface RoomContent {
   people: PersonRowInput[];
   ties: TieRowInput[];

@@ -8,17 +8,15 @@ import { z } from 'zod';
 import { DEFAULT_ROOM_SETTINGS, type ImportReport, type RoomSettings } from '../../shared/api/rooms';
 import { refusalLine, type Issue } from '../../shared/engine/index';
 import { signedIn } from '../core/access';
-import { audit } from '../core/audit';
-import { HttpError, notFound } from '../core/http-error';
+import { auditFor } from '../core/audit';
+import { HttpError } from '../core/http-error';
 import { parse } from '../core/validate';
 import { heavyWrite } from '../core/heavy-writes';
-import { db } from '../db';
 import { loadRoomFor, type LoadedRoom } from './access';
 import { parseUpload } from './parse-upload';
 import { contentOf, formatFor, receiveUpload, reportOf, uploadedFiles, type ParsedImport } from './import';
 import { roomName } from './schemas';
-import { createWithContent, staleVersion } from './service';
-import * as store from './store';
+import { contentCounts, createImportedRoom, replaceImportedContent } from './service';
 
 export const importRouter = Router();
 
@@ -70,14 +68,10 @@ importRouter.post('/import', signedIn(), heavyWrite, receiveUpload, async (req, 
       .slice(0, 120) ||
       'Imported room');
   const settings: RoomSettings = { ...DEFAULT_ROOM_SETTINGS, ...parsed.extras.settings, directed: parsed.graph.directed };
-  const roomId = await db.transaction(async (tx) => {
-    const id = await createWithContent(tx, req.user!.id, name, '', settings, contentOf(parsed));
-    await audit(
-      req,
-      { action: 'room.import', targetType: 'room', targetId: id, detail: { format: parsed.format, people: report.counts.people } },
-      tx,
-    );
-    return id;
+  const roomId = await createImportedRoom(req.user!.id, name, settings, {
+    content: contentOf(parsed),
+    audit: auditFor(req),
+    detail: { format: parsed.format, people: report.counts.people },
   });
   res.status(201).json({ ...report, committed: true, roomId, version: 1 } satisfies ImportReport);
 });
@@ -85,7 +79,7 @@ importRouter.post('/import', signedIn(), heavyWrite, receiveUpload, async (req, 
 importRouter.post('/:id/import', signedIn(), editableRoom, heavyWrite, receiveUpload, async (req, res) => {
   const loaded = res.locals['room'] as LoadedRoom;
   const { dryRun, f, parsed } = await read(req, loaded.room.directed);
-  const report: ImportReport = { ...reportOf(parsed, dryRun), replaces: await store.countContent(db, loaded.room.id) };
+  const report: ImportReport = { ...reportOf(parsed, dryRun), replaces: await contentCounts(loaded.room.id) };
   refuseErrors(report);
   if (dryRun) return void res.json(report);
   if (f.version === undefined) {
@@ -99,19 +93,11 @@ importRouter.post('/:id/import', signedIn(), editableRoom, heavyWrite, receiveUp
 
 /** Replaces people and ties (and the direction, which the file decides) in one transaction. */
 async function replaceContent(req: Request, loaded: LoadedRoom, parsed: ParsedImport, version: number): Promise<number> {
-  return db.transaction(async (tx) => {
-    const room = await store.lockRoom(tx, loaded.room.id);
-    if (!room) throw notFound('That room');
-    if (room.version !== version) throw staleVersion(room, version);
-    const content = contentOf(parsed);
-    await store.clearContent(tx, room.id);
-    await store.insertContent(tx, room.id, content.people, content.ties);
-    await store.updateRoomFields(tx, room.id, { directed: parsed.graph.directed, orgChart: null });
-    await audit(
-      req,
-      { action: 'room.import', targetType: 'room', targetId: room.id, detail: { format: parsed.format, people: content.people.length } },
-      tx,
-    );
-    return room.version + 1;
+  const content = contentOf(parsed);
+  return replaceImportedContent(loaded, version, parsed.graph.directed, {
+    content,
+    orgChart: null,
+    audit: auditFor(req),
+    detail: { format: parsed.format, people: content.people.length },
   });
 }

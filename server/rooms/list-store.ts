@@ -7,7 +7,7 @@ import { firstOf } from '../../shared/checked';
 import { users } from '../../db/schema/accounts';
 import { roomShares, rooms } from '../../db/schema/rooms';
 import { db } from '../db';
-import { workshopEditorOf } from './grants';
+import { workshopEditorOf } from './grants-store';
 import { contains, iso, type ListParams } from './store';
 
 type RoomScope = 'all' | 'mine' | 'shared';

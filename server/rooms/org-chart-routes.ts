@@ -9,16 +9,14 @@ import { DEFAULT_ROOM_SETTINGS, ROOM_LIMITS as L } from '../../shared/api/rooms'
 import type { OrgChartReport } from '../../shared/api/org-chart';
 import { NOT_A_STRENGTH, strength } from '../../shared/api/room-rules';
 import { signedIn } from '../core/access';
-import { audit } from '../core/audit';
-import { HttpError, notFound } from '../core/http-error';
+import { auditFor } from '../core/audit';
+import { HttpError } from '../core/http-error';
 import { parse } from '../core/validate';
-import { db } from '../db';
 import { loadRoomFor, type LoadedRoom } from './access';
 import { receiveUpload, uploadedFiles } from './import';
 import { DEFAULT_STRENGTHS, readOrgChart } from './org-chart';
 import { roomName } from './schemas';
-import { createWithContent, staleVersion } from './service';
-import * as store from './store';
+import { contentCounts, createImportedRoom, replaceImportedContent } from './service';
 
 export const orgChartRouter = Router();
 
@@ -91,23 +89,24 @@ orgChartRouter.post('/import/org-chart', signedIn(), receiveUpload, async (req, 
       .trim()
       .slice(0, L.roomNameMax) ||
       'Org chart');
-  const roomId = await db.transaction(async (tx) => {
-    const id = await createWithContent(tx, req.user!.id, name, '', { ...DEFAULT_ROOM_SETTINGS, directed: false }, r.content);
-    await store.setOrgChart(tx, id, r.saved);
-    await audit(
-      req,
-      { action: 'room.import', targetType: 'room', targetId: id, detail: { format: 'org-chart', people: r.content.people.length } },
-      tx,
-    );
-    return id;
-  });
+  const roomId = await createImportedRoom(
+    req.user!.id,
+    name,
+    { ...DEFAULT_ROOM_SETTINGS, directed: false },
+    {
+      content: r.content,
+      orgChart: r.saved,
+      audit: auditFor(req),
+      detail: { format: 'org-chart', people: r.content.people.length },
+    },
+  );
   res.status(201).json({ ...r.report, committed: true, roomId, version: 1 } satisfies OrgChartReport);
 });
 
 orgChartRouter.post('/:id/import/org-chart', signedIn(), editableRoom, receiveUpload, async (req, res) => {
   const loaded = res.locals['room'] as LoadedRoom;
   const { dryRun, f, read: r } = read(req);
-  const report: OrgChartReport = { ...r.report, replaces: await store.countContent(db, loaded.room.id) };
+  const report: OrgChartReport = { ...r.report, replaces: await contentCounts(loaded.room.id) };
   if (dryRun) return void res.json(report);
   if (f.version === undefined) {
     throw new HttpError(400, 'bad_request', 'Send the room version you started from (form field "version") to replace its content.', {
@@ -115,19 +114,11 @@ orgChartRouter.post('/:id/import/org-chart', signedIn(), editableRoom, receiveUp
     });
   }
   refuseErrors(report);
-  const version = await db.transaction(async (tx) => {
-    const room = await store.lockRoom(tx, loaded.room.id);
-    if (!room) throw notFound('That room');
-    if (room.version !== f.version) throw staleVersion(room, f.version!);
-    await store.clearContent(tx, room.id);
-    await store.insertContent(tx, room.id, r.content.people, r.content.ties);
-    await store.updateRoomFields(tx, room.id, { directed: false, orgChart: r.saved });
-    await audit(
-      req,
-      { action: 'room.import', targetType: 'room', targetId: room.id, detail: { format: 'org-chart', people: r.content.people.length } },
-      tx,
-    );
-    return room.version + 1;
+  const version = await replaceImportedContent(loaded, f.version, false, {
+    content: r.content,
+    orgChart: r.saved,
+    audit: auditFor(req),
+    detail: { format: 'org-chart', people: r.content.people.length },
   });
   res.json({ ...report, committed: true, roomId: loaded.room.id, version } satisfies OrgChartReport);
 });

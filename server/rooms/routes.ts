@@ -2,7 +2,6 @@
 import { Router, type Request } from 'express';
 import { z } from 'zod';
 import { EXPORT_FORMATS } from '../../shared/api/rooms';
-import { db } from '../db';
 import { signedIn } from '../core/access';
 import { audit } from '../core/audit';
 import { parse } from '../core/validate';
@@ -91,7 +90,7 @@ roomsRouter.get('/:id/export', signedIn(), async (req, res) => {
   const { room } = await loadRoomFor(req.user, req.params.id, 'view');
   const { format } = parse(exportQuery, req.query, 'query');
   if (format === 'org-chart-csv') {
-    const body = '\uFEFF' + writeRoomOrgChart(await store.orgChartPeople(db, room.id), await store.roomOrgChart(db, room.id));
+    const body = '\uFEFF' + writeRoomOrgChart(await store.orgChartPeople(room.id), await store.roomOrgChart(room.id));
     res
       .set('Cache-Control', 'no-store')
       .attachment(`${fileStem(room.name)}-org-chart.csv`)
@@ -99,7 +98,7 @@ roomsRouter.get('/:id/export', signedIn(), async (req, res) => {
       .send(body);
     return;
   }
-  const file = exportRoom(format, room.name, await loadRoomGraph(room.id), await store.roomPeople(db, room.id));
+  const file = exportRoom(format, room.name, await loadRoomGraph(room.id), await store.roomPeople(room.id));
   res.set('Cache-Control', 'no-store').attachment(file.filename).type(file.contentType).send(file.body);
 });
 

@@ -1,6 +1,7 @@
 /** Rooms domain: create, read, change settings with a version check, duplicate, delete. */
 import { DEFAULT_ROOM_SETTINGS, STALE_MESSAGE, type RoomDto, type RoomSettings, type StaleVersionDetails } from '../../shared/api/rooms';
-import { db, type Tx } from '../db';
+import { db, type Conn, type Tx } from '../db';
+import type { AuditWriter } from '../core/audit';
 import { HttpError, notFound } from '../core/http-error';
 import { settingsOf, type LoadedRoom, type RoomRow } from './access';
 import { checkContent, pairKey, type RoomContent } from './content';
@@ -9,6 +10,12 @@ import * as store from './store';
 import { runInPlanPool, TimeLimitError } from '../jobs/pools';
 import type { RoomSummary } from '../../shared/api/rooms';
 import { loadRoomGraph } from './access';
+
+/**
+ * Room rows and content as the workshops feature writes them when it builds a room from survey
+ * answers (workshops/room-build.ts), inside its own transaction.
+ */
+export { bumpVersion, insertPeopleRows, insertRoom, insertTieRows, lockRoom, maxOrder, roomPeople, updateRoomFields } from './store';
 
 export function staleVersion(room: RoomRow, yourVersion: number, withCurrent = false): HttpError {
   const details: StaleVersionDetails = { currentVersion: room.version, yourVersion, message: STALE_MESSAGE };
@@ -19,25 +26,63 @@ export function staleVersion(room: RoomRow, yourVersion: number, withCurrent = f
 export async function createRoom(ownerId: number, input: CreateRoomInput): Promise<number> {
   const settings: RoomSettings = { ...DEFAULT_ROOM_SETTINGS, ...input.settings };
   const content = checkContent(input.people ?? [], input.ties ?? [], settings);
-  return db.transaction(async (tx) => createWithContent(tx, ownerId, input.name, input.description ?? '', settings, content));
+  return db.transaction(async (tx) => createWithContent(ownerId, input.name, input.description ?? '', settings, content, tx));
 }
 
 export async function createWithContent(
-  tx: Tx,
   ownerId: number,
   name: string,
   description: string,
   settings: RoomSettings,
   content: RoomContent,
+  tx: Tx,
 ): Promise<number> {
-  const roomId = await store.insertRoom(tx, { ownerId, name, description, settings });
-  await store.insertContent(tx, roomId, content.people, content.ties);
+  const roomId = await store.insertRoom({ ownerId, name, description, settings }, tx);
+  await store.insertContent(roomId, content.people, content.ties, 0, tx);
   return roomId;
 }
 
-export async function roomDto(loaded: LoadedRoom, tx: Tx | typeof db = db): Promise<RoomDto> {
+/** What an import writes besides people and ties, and how it is audited (action room.import). */
+export interface ImportWrite {
+  content: RoomContent;
+  /** The org-chart headers to keep with the room (null: none); left as it is when undefined. */
+  orgChart?: string | null;
+  audit: AuditWriter;
+  detail: Record<string, unknown>;
+}
+
+/** A new room from an imported file, with its audit entry, in one transaction. */
+export async function createImportedRoom(ownerId: number, name: string, settings: RoomSettings, w: ImportWrite): Promise<number> {
+  return db.transaction(async (tx) => {
+    const id = await createWithContent(ownerId, name, '', settings, w.content, tx);
+    if (w.orgChart !== undefined) await store.setOrgChart(id, w.orgChart, tx);
+    await w.audit({ action: 'room.import', targetType: 'room', targetId: id, detail: w.detail }, tx);
+    return id;
+  });
+}
+
+/** Replaces a room's people and ties (and its direction) from an imported file; returns the new version. */
+export async function replaceImportedContent(loaded: LoadedRoom, version: number, directed: boolean, w: ImportWrite): Promise<number> {
+  return db.transaction(async (tx) => {
+    const room = await store.lockRoom(loaded.room.id, tx);
+    if (!room) throw notFound('That room');
+    if (room.version !== version) throw staleVersion(room, version);
+    await store.clearContent(room.id, tx);
+    await store.insertContent(room.id, w.content.people, w.content.ties, 0, tx);
+    await store.updateRoomFields(room.id, { directed, orgChart: w.orgChart ?? null }, tx);
+    await w.audit({ action: 'room.import', targetType: 'room', targetId: room.id, detail: w.detail }, tx);
+    return room.version + 1;
+  });
+}
+
+/** How many people and ties an import would replace. */
+export async function contentCounts(roomId: number): Promise<{ people: number; ties: number }> {
+  return store.countContent(roomId);
+}
+
+export async function roomDto(loaded: LoadedRoom, tx: Conn = db): Promise<RoomDto> {
   const { room } = loaded;
-  const [folk, links] = await Promise.all([store.roomPeople(tx, room.id), store.roomTies(tx, room.id)]);
+  const [folk, links] = await Promise.all([store.roomPeople(room.id, tx), store.roomTies(room.id, tx)]);
   return {
     id: room.id,
     name: room.name,
@@ -62,21 +107,25 @@ export interface RoomPatch {
 /** Changes name, description or settings; a stale version answers 409 with what is stored now. */
 export async function updateRoom(roomId: number, patch: RoomPatch): Promise<void> {
   await db.transaction(async (tx) => {
-    const room = await store.lockRoom(tx, roomId);
+    const room = await store.lockRoom(roomId, tx);
     if (!room) throw notFound('That room');
     if (room.version !== patch.version) throw staleVersion(room, patch.version, true);
-    if (patch.settings?.directed === false && room.directed) await checkUndirectedPairs(tx, roomId);
-    await store.updateRoomFields(tx, roomId, {
-      ...(patch.name !== undefined ? { name: patch.name } : {}),
-      ...(patch.description !== undefined ? { description: patch.description } : {}),
-      ...patch.settings,
-    });
+    if (patch.settings?.directed === false && room.directed) await checkUndirectedPairs(roomId, tx);
+    await store.updateRoomFields(
+      roomId,
+      {
+        ...(patch.name !== undefined ? { name: patch.name } : {}),
+        ...(patch.description !== undefined ? { description: patch.description } : {}),
+        ...patch.settings,
+      },
+      tx,
+    );
   });
 }
 
 /** Turning a directed room undirected would make a -> b and b -> a one doubled tie: refuse, and say which. */
-async function checkUndirectedPairs(tx: Tx, roomId: number): Promise<void> {
-  const links = await store.roomTies(tx, roomId);
+async function checkUndirectedPairs(roomId: number, tx: Tx): Promise<void> {
+  const links = await store.roomTies(roomId, tx);
   const seen = new Set<string>();
   const pairs: { a: number; b: number }[] = [];
   for (const t of links) {
@@ -85,7 +134,7 @@ async function checkUndirectedPairs(tx: Tx, roomId: number): Promise<void> {
     seen.add(k);
   }
   if (pairs.length === 0) return;
-  const folk = new Map((await store.roomPeople(tx, roomId)).map((p) => [p.id, p.name]));
+  const folk = new Map((await store.roomPeople(roomId, tx)).map((p) => [p.id, p.name]));
   const named = pairs.slice(0, 5).map(({ a, b }) => `${folk.get(a)} - ${folk.get(b)}`);
   throw new HttpError(
     409,
@@ -100,15 +149,15 @@ async function checkUndirectedPairs(tx: Tx, roomId: number): Promise<void> {
 export async function duplicateRoom(loaded: LoadedRoom, ownerId: number, name?: string): Promise<number> {
   return db.transaction(async (tx) => {
     const { room } = loaded;
-    const folk = await store.roomPeople(tx, room.id);
-    const links = await store.roomTies(tx, room.id);
+    const folk = await store.roomPeople(room.id, tx);
+    const links = await store.roomTies(room.id, tx);
     const at = new Map(folk.map((p, i) => [p.id, i]));
     const content: RoomContent = {
       people: folk.map(({ key, name: n, group, email, x, y, pinned }) => ({ key, name: n, group, email, x, y, pinned })),
       ties: links.map((t) => ({ source: at.get(t.sourceId)!, target: at.get(t.targetId)!, strength: t.strength })),
     };
     const copyName = name ?? `${room.name} (copy)`.slice(0, 120);
-    return createWithContent(tx, ownerId, copyName, room.description, settingsOf(room), content);
+    return createWithContent(ownerId, copyName, room.description, settingsOf(room), content, tx);
   });
 }
 

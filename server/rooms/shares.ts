@@ -1,24 +1,16 @@
 /** Sharing a room with another facilitator as editor or viewer: list, add (with an e-mail), change role, revoke. */
-import { and, asc, eq } from 'drizzle-orm';
 import type { ErrorCode } from '../../shared/api/errors';
 import type { ShareDto, ShareRole } from '../../shared/api/rooms';
-import { users } from '../../db/schema/accounts';
-import { roomShares } from '../../db/schema/rooms';
-import { db } from '../db';
 import { HttpError, notFound } from '../core/http-error';
 import { publicUrl } from '../config';
-import { findUserByEmail } from '../auth/store';
+import { findUserByEmail } from '../auth/service';
 import { sendMail } from '../mail/transport';
 import { logger } from '../core/logging';
 import type { RoomRow } from './access';
+import { deleteShare, insertShare, shareRoleOf, shareRows, updateShareRole } from './shares-store';
 
 export async function listShares(roomId: number): Promise<ShareDto[]> {
-  const rows = await db
-    .select({ userId: users.id, email: users.email, name: users.name, role: roomShares.role, createdAt: roomShares.createdAt })
-    .from(roomShares)
-    .innerJoin(users, eq(users.id, roomShares.userId))
-    .where(eq(roomShares.roomId, roomId))
-    .orderBy(asc(users.name), asc(users.id));
+  const rows = await shareRows(roomId);
   return rows.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() }));
 }
 
@@ -41,18 +33,15 @@ export async function addShare(room: RoomRow, sharedBy: { id: number; name: stri
     );
   }
   if (user.id === room.ownerId) throw fieldError(400, 'own_room', 'That is the owner of this room; the owner can already do everything.');
-  const [existing] = await db
-    .select({ role: roomShares.role })
-    .from(roomShares)
-    .where(and(eq(roomShares.roomId, room.id), eq(roomShares.userId, user.id)));
+  const existing = await shareRoleOf(room.id, user.id);
   if (existing) {
     throw fieldError(
       409,
       'already_shared',
-      `The room is already shared with ${email} as ${existing.role}; change the role in the list instead.`,
+      `The room is already shared with ${email} as ${existing}; change the role in the list instead.`,
     );
   }
-  await db.insert(roomShares).values({ roomId: room.id, userId: user.id, role });
+  await insertShare(room.id, user.id, role);
   const notified = await notify(room, sharedBy.name, user.email, user.name, role);
   return { ...(await shareOf(room.id, user.id)), notified };
 }
@@ -80,14 +69,10 @@ async function notify(room: RoomRow, byName: string, to: string, toName: string,
 
 export async function changeShare(roomId: number, userId: number, role: ShareRole): Promise<ShareDto> {
   await shareOf(roomId, userId);
-  await db
-    .update(roomShares)
-    .set({ role })
-    .where(and(eq(roomShares.roomId, roomId), eq(roomShares.userId, userId)));
+  await updateShareRole(roomId, userId, role);
   return shareOf(roomId, userId);
 }
 
 export async function revokeShare(roomId: number, userId: number): Promise<void> {
-  const result = await db.delete(roomShares).where(and(eq(roomShares.roomId, roomId), eq(roomShares.userId, userId)));
-  if (result[0].affectedRows === 0) throw notFound('That share');
+  if (!(await deleteShare(roomId, userId))) throw notFound('That share');
 }

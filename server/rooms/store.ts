@@ -5,10 +5,9 @@ import type { ListParams, Page } from '../../shared/api/lists';
 import type { PersonDto, RoomSettings, TieDto, TieListItem } from '../../shared/api/rooms';
 import { firstOf, itemAt } from '../../shared/checked';
 import { people, rooms, ties } from '../../db/schema/rooms';
-import { db, type Tx } from '../db';
+import { db, type Conn, type Tx } from '../db';
 import type { RoomRow } from './access';
 
-type Q = Tx | typeof db;
 const CHUNK = 1000;
 
 /** A LIKE pattern matching the text anywhere, with the wildcards in it escaped. */
@@ -33,8 +32,8 @@ export interface TieRowInput {
 }
 
 export async function insertRoom(
-  tx: Q,
   values: { ownerId: number; name: string; description: string; settings: RoomSettings },
+  tx: Conn = db,
 ): Promise<number> {
   const inserted = await tx
     .insert(rooms)
@@ -45,11 +44,11 @@ export async function insertRoom(
 
 /** Inserts people and ties (by index into `folk`); returns the new person ids in order. */
 export async function insertContent(
-  tx: Q,
   roomId: number,
   folk: PersonRowInput[],
   links: TieRowInput[],
-  firstOrder = 0,
+  firstOrder: number,
+  tx: Conn = db,
 ): Promise<number[]> {
   const ids: number[] = [];
   let firstId: number | undefined;
@@ -69,7 +68,7 @@ export async function insertContent(
     const got = await tx.insert(people).values(rows).$returningId();
     firstId ??= got[0]?.id;
   }
-  if (firstId !== undefined) ids.push(...(await newIdsByKey(tx, roomId, firstId, folk)));
+  if (firstId !== undefined) ids.push(...(await newIdsByKey(roomId, firstId, folk, tx)));
   for (let at = 0; at < links.length; at += CHUNK) {
     const rows = links.slice(at, at + CHUNK).map((t) => ({
       roomId,
@@ -79,18 +78,18 @@ export async function insertContent(
     }));
     await tx.insert(ties).values(rows);
   }
-  await refreshCounts(tx, roomId);
+  await refreshCounts(roomId, tx);
   return ids;
 }
 
-export async function clearContent(tx: Q, roomId: number): Promise<void> {
+export async function clearContent(roomId: number, tx: Conn = db): Promise<void> {
   await tx.delete(ties).where(eq(ties.roomId, roomId));
   await tx.delete(people).where(eq(people.roomId, roomId));
-  await refreshCounts(tx, roomId);
+  await refreshCounts(roomId, tx);
 }
 
 /** Locks the room row for the rest of the transaction (serialises edits of one room). */
-export async function lockRoom(tx: Tx, roomId: number): Promise<RoomRow | undefined> {
+export async function lockRoom(roomId: number, tx: Tx): Promise<RoomRow | undefined> {
   const [row] = await tx.select().from(rooms).where(eq(rooms.id, roomId)).for('update');
   return row;
 }
@@ -105,25 +104,25 @@ const counted = {
   tiesCount: sql`(SELECT COUNT(*) FROM ${ties} WHERE ${ties.roomId} = ${rooms.id})`,
 };
 
-export async function refreshCounts(tx: Q, roomId: number): Promise<void> {
+export async function refreshCounts(roomId: number, tx: Conn = db): Promise<void> {
   await tx.update(rooms).set(counted).where(eq(rooms.id, roomId));
 }
 
-export async function bumpVersion(tx: Q, roomId: number): Promise<void> {
+export async function bumpVersion(roomId: number, tx: Conn = db): Promise<void> {
   await tx
     .update(rooms)
     .set({ version: sql`${rooms.version} + 1`, ...counted })
     .where(eq(rooms.id, roomId));
 }
 
-export async function touchRoom(tx: Q, roomId: number): Promise<void> {
+export async function touchRoom(roomId: number, tx: Conn = db): Promise<void> {
   await tx
     .update(rooms)
     .set({ updatedAt: sql`CURRENT_TIMESTAMP(3)` })
     .where(eq(rooms.id, roomId));
 }
 
-export async function updateRoomFields(tx: Q, roomId: number, set: Partial<typeof rooms.$inferInsert>): Promise<void> {
+export async function updateRoomFields(roomId: number, set: Partial<typeof rooms.$inferInsert>, tx: Conn = db): Promise<void> {
   await tx
     .update(rooms)
     .set({ ...set, version: sql`${rooms.version} + 1`, ...counted })
@@ -131,12 +130,12 @@ export async function updateRoomFields(tx: Q, roomId: number, set: Partial<typeo
 }
 
 /** Notes the org-chart headers of a room just created from one (not a content change: no version bump). */
-export async function setOrgChart(tx: Q, roomId: number, saved: string | null): Promise<void> {
+export async function setOrgChart(roomId: number, saved: string | null, tx: Conn = db): Promise<void> {
   await tx.update(rooms).set({ orgChart: saved }).where(eq(rooms.id, roomId));
 }
 
-export async function deleteRoom(roomId: number): Promise<void> {
-  await db.delete(rooms).where(eq(rooms.id, roomId));
+export async function deleteRoom(roomId: number, tx: Conn = db): Promise<void> {
+  await tx.delete(rooms).where(eq(rooms.id, roomId));
 }
 
 const personColumns = {
@@ -150,14 +149,14 @@ const personColumns = {
   pinned: people.pinned,
 };
 
-export async function roomPeople(tx: Q, roomId: number): Promise<PersonDto[]> {
+export async function roomPeople(roomId: number, tx: Conn = db): Promise<PersonDto[]> {
   return tx.select(personColumns).from(people).where(eq(people.roomId, roomId)).orderBy(asc(people.orderIndex), asc(people.id));
 }
 
 /** People with their manager keys, in room order, for the org-chart export. */
 export async function orgChartPeople(
-  tx: Q,
   roomId: number,
+  tx: Conn = db,
 ): Promise<{ key: string; name: string; group: string | null; managerKey: string | null }[]> {
   return tx
     .select({ key: people.personKey, name: people.name, group: people.groupName, managerKey: people.managerKey })
@@ -166,12 +165,12 @@ export async function orgChartPeople(
     .orderBy(asc(people.orderIndex), asc(people.id));
 }
 
-export async function roomOrgChart(tx: Q, roomId: number): Promise<string | null> {
+export async function roomOrgChart(roomId: number, tx: Conn = db): Promise<string | null> {
   const [row] = await tx.select({ orgChart: rooms.orgChart }).from(rooms).where(eq(rooms.id, roomId));
   return row?.orgChart ?? null;
 }
 
-export async function roomTies(tx: Q, roomId: number): Promise<TieDto[]> {
+export async function roomTies(roomId: number, tx: Conn = db): Promise<TieDto[]> {
   return tx
     .select({ id: ties.id, sourceId: ties.sourceId, targetId: ties.targetId, strength: ties.strength })
     .from(ties)
@@ -179,7 +178,7 @@ export async function roomTies(tx: Q, roomId: number): Promise<TieDto[]> {
     .orderBy(asc(ties.id));
 }
 
-export async function maxOrder(tx: Q, roomId: number): Promise<number> {
+export async function maxOrder(roomId: number, tx: Conn = db): Promise<number> {
   const [row] = await tx
     .select({ m: sql<number | null>`MAX(${people.orderIndex})` })
     .from(people)
@@ -187,7 +186,7 @@ export async function maxOrder(tx: Q, roomId: number): Promise<number> {
   return row?.m === null || row?.m === undefined ? -1 : Number(row.m);
 }
 
-export async function countContent(tx: Q, roomId: number): Promise<{ people: number; ties: number }> {
+export async function countContent(roomId: number, tx: Conn = db): Promise<{ people: number; ties: number }> {
   const p = await tx
     .select({ n: sql<number>`COUNT(*)` })
     .from(people)
@@ -272,39 +271,39 @@ export async function listTies(roomId: number, p: ListParams<string> & { personI
 
 // ---- batch edit writes ----
 
-export async function updatePeopleRows(tx: Tx, roomId: number, id: number, set: Partial<typeof people.$inferInsert>): Promise<void> {
+export async function updatePeopleRows(roomId: number, id: number, set: Partial<typeof people.$inferInsert>, tx: Tx): Promise<void> {
   await tx
     .update(people)
     .set(set)
     .where(and(eq(people.id, id), eq(people.roomId, roomId)));
 }
 
-export async function deletePeopleRows(tx: Tx, roomId: number, ids: number[]): Promise<void> {
+export async function deletePeopleRows(roomId: number, ids: number[], tx: Tx): Promise<void> {
   if (ids.length === 0) return;
   await tx.delete(ties).where(and(eq(ties.roomId, roomId), or(inArray(ties.sourceId, ids), inArray(ties.targetId, ids))));
   await tx.delete(people).where(and(eq(people.roomId, roomId), inArray(people.id, ids)));
 }
 
-export async function deleteTieRows(tx: Tx, roomId: number, ids: number[]): Promise<void> {
+export async function deleteTieRows(roomId: number, ids: number[], tx: Tx): Promise<void> {
   if (ids.length === 0) return;
   await tx.delete(ties).where(and(eq(ties.roomId, roomId), inArray(ties.id, ids)));
 }
 
-export async function updateTieRow(tx: Tx, roomId: number, id: number, strength: number): Promise<void> {
+export async function updateTieRow(roomId: number, id: number, strength: number, tx: Tx): Promise<void> {
   await tx
     .update(ties)
     .set({ strength })
     .where(and(eq(ties.id, id), eq(ties.roomId, roomId)));
 }
 
-export async function insertPeopleRows(tx: Tx, roomId: number, folk: PersonRowInput[], firstOrder: number): Promise<number[]> {
-  return insertContent(tx, roomId, folk, [], firstOrder);
+export async function insertPeopleRows(roomId: number, folk: PersonRowInput[], firstOrder: number, tx: Tx): Promise<number[]> {
+  return insertContent(roomId, folk, [], firstOrder, tx);
 }
 
 export async function insertTieRows(
-  tx: Tx,
   roomId: number,
   links: { sourceId: number; targetId: number; strength: number }[],
+  tx: Tx,
 ): Promise<number[]> {
   let firstId: number | undefined;
   for (let at = 0; at < links.length; at += CHUNK) {
@@ -329,7 +328,7 @@ export async function insertTieRows(
  * and a Galera cluster sets it to the cluster size. The room's row is locked (or the room is
  * new), so every row of the room with an id from the first new one on is one of ours.
  */
-async function newIdsByKey(tx: Q, roomId: number, firstId: number, folk: PersonRowInput[]): Promise<number[]> {
+async function newIdsByKey(roomId: number, firstId: number, folk: PersonRowInput[], tx: Conn = db): Promise<number[]> {
   const rows = await tx
     .select({ id: people.id, key: people.personKey })
     .from(people)
@@ -345,9 +344,9 @@ function idOrThrow(id: number | undefined, what: string): number {
 
 /** Many positions in one statement per chunk (a drag of many people is one autosave). */
 export async function movePeopleRows(
-  tx: Tx,
   roomId: number,
   moves: { id: number; x: number; y: number; pinned?: boolean }[],
+  tx: Tx,
 ): Promise<void> {
   for (let at = 0; at < moves.length; at += CHUNK) {
     const part = moves.slice(at, at + CHUNK);

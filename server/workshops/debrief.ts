@@ -1,7 +1,4 @@
-import type { DebriefSettings, MyDebrief } from '../../shared/api/workshops';
-import { HttpError } from '../core/http-error';
-import type { LinkHolder } from '../participants/links';
-import { workshopById } from '../participants/store';
+import type { DebriefSettings } from '../../shared/api/workshops';
 
 /**
  * What participants see once results are released. It is fixed at release time (a snapshot),
@@ -58,33 +55,5 @@ export function composeDebrief(input: DebriefInput, releasedAt = new Date()): De
     peopleInMap: input.people.length,
     starters: input.people.filter((p) => p.starter).map((p) => p.name),
     byPerson,
-  };
-}
-
-export async function myDebrief(holder: LinkHolder): Promise<MyDebrief> {
-  const w = await workshopById(holder.workshopId);
-  const snap = w?.debrief as DebriefSnapshot | null | undefined;
-  if (!w || !snap || (w.status !== 'debrief' && w.status !== 'closed')) {
-    throw new HttpError(
-      409,
-      'not_released',
-      'Results are not released yet. Your facilitator will release them during the debrief; keep this link.',
-    );
-  }
-  const mine = holder.personId === null ? undefined : snap.byPerson[holder.personId];
-  return {
-    name: holder.participantName,
-    workshopTitle: w.title,
-    inMap: mine !== undefined,
-    starter: mine?.starter ?? false,
-    expectedHops: mine?.expectedHops ?? null,
-    heardAtHop: mine?.heardAtHop ?? null,
-    minutesPerHop: snap.minutesPerHop,
-    roomAverage: snap.roomAverage,
-    reachCurve: snap.reachCurve,
-    replayReached: snap.replayReached,
-    peopleInMap: snap.peopleInMap,
-    starters: w.showStarters ? snap.starters : null,
-    seed: snap.seed,
   };
 }

@@ -1,6 +1,6 @@
 import { HttpError } from '../core/http-error';
 import { planDetail } from '../plans/dto';
-import { findPlan, roomVersion } from '../plans/store';
+import { findPlan, roomVersion } from '../plans/service';
 import { replayIndex, replaySample } from '../rehearsals/replay';
 import { loadRehearsalFor } from '../rehearsals/service';
 import type { SignedInUser } from '../types';

@@ -2,7 +2,6 @@ import type { ErrorEnvelope } from '../../shared/api/errors';
 import { Router } from 'express';
 import { z } from 'zod';
 import { BUILD_MODES, NAME_MAX, NOMINATION_LIMIT_MAX, ROSTER_MAX, TITLE_MAX, WORKSHOP_STATUSES } from '../../shared/api/workshops';
-import { db } from '../db';
 import { signedIn } from '../core/access';
 import { audit } from '../core/audit';
 import { parse } from '../core/validate';
@@ -16,7 +15,7 @@ import { qrDataUrl } from './qr';
 import * as service from './service';
 import { deleteWorkshop, insertWorkshop, listWorkshops, participantCounts, updateWorkshop } from './store';
 import type { SignedInUser } from '../types';
-import { findUserById } from '../auth/store';
+import { findUserById } from '../auth/service';
 import { idOf } from '../core/ids';
 import { coFacilitatorIds, roomAccessNote } from './co-facilitators';
 
@@ -245,7 +244,7 @@ workshopsRouter.post('/:id/links/revoke', signedIn(), async (req, res) => {
 workshopsRouter.post('/:id/join-code', signedIn(), async (req, res) => {
   const { workshop } = await loadWorkshopFor(req.user, req.params['id']);
   service.assertNotClosed(workshop);
-  const { code, expiresAt } = await issueJoinCode(db, workshop.id, 1);
+  const { code, expiresAt } = await issueJoinCode(workshop.id, 1);
   const url = joinUrl(code);
   res.set('Cache-Control', 'no-store').json({ url, qr: await qrDataUrl(url), expiresAt: expiresAt.toISOString() });
 });

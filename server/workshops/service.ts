@@ -1,11 +1,11 @@
 import { STATUS_LABELS, STATUS_MOVES, type IssuedLink, type WorkshopDetail, type WorkshopStatus } from '../../shared/api/workshops';
-import { db, transaction } from '../db';
-import { findUserByEmail } from '../auth/store';
+import { transaction } from '../db';
+import { findUserByEmail } from '../auth/service';
 import { badRequest, conflict, HttpError, notFound } from '../core/http-error';
 import { sendMail } from '../mail/transport';
 import { linksFor, participantUrl, reissueLinks, revokeLinks, revokeToken, type ShownLink } from '../participants/links';
 import { loadRoomFor } from '../rooms/access';
-import { roomPeople } from '../rooms/store';
+import { roomPeople } from '../rooms/service';
 import type { SignedInUser } from '../types';
 import type { DebriefSnapshot } from './debrief';
 import { surveyLinkMail } from './mail';
@@ -105,7 +105,7 @@ export async function addParticipants(
   const existing = new Set((await participantsById(w.id)).map((p) => p.name.toLowerCase()));
   const fresh = list.filter((p) => !existing.has(p.name.toLowerCase()));
   const skipped = list.filter((p) => existing.has(p.name.toLowerCase())).map((p) => p.name);
-  const added = await insertParticipants(db, w.id, fresh);
+  const added = await insertParticipants(w.id, fresh);
   return { added, skipped };
 }
 
@@ -113,7 +113,7 @@ export async function participantsFromRoom(w: WorkshopRow, owner: SignedInUser):
   if (w.roomId === null)
     throw conflict('This workshop has no room yet: its room will be built from the survey. Add participants from a roster instead.');
   await loadRoomFor(owner, w.roomId, 'view');
-  const folk = await roomPeople(db, w.roomId);
+  const folk = await roomPeople(w.roomId);
   return addParticipants(
     w,
     folk.map((p) => ({ name: p.name, email: p.email, personId: String(p.id) })),
@@ -129,9 +129,9 @@ export async function resetClaim(w: WorkshopRow, participantId: number): Promise
   const [p] = await participantsById(w.id, [participantId]);
   if (!p) throw new HttpError(404, 'not_found', 'That participant was not found.');
   await transaction(async (tx) => {
-    await lockWorkshop(tx, w.id);
+    await lockWorkshop(w.id, tx);
     await clearClaim(p.id, tx);
-    await revokeLinks(tx, [p.id]);
+    await revokeLinks([p.id], tx);
   });
 }
 
@@ -148,12 +148,12 @@ export async function sheetLinks(w: WorkshopRow, ids: number[] | undefined): Pro
   assertNotClosed(w);
   const list = await targets(w, ids);
   const links = await transaction(async (tx) => {
-    await lockWorkshop(tx, w.id);
+    await lockWorkshop(w.id, tx);
     return linksFor(
-      tx,
       list.map((p) => p.id),
       'sheet',
       w.linkDays,
+      tx,
     );
   });
   return withQr(list, links);
@@ -186,12 +186,12 @@ export async function emailLinks(
   if (!withEmail.length)
     throw badRequest('None of the chosen participants has an e-mail address. Print a sheet of links or show the QR code instead.');
   const links = await transaction(async (tx) => {
-    await lockWorkshop(tx, w.id);
+    await lockWorkshop(w.id, tx);
     return linksFor(
-      tx,
       withEmail.map((p) => p.id),
       'email',
       w.linkDays,
+      tx,
     );
   });
   const sent: string[] = [];
@@ -212,7 +212,7 @@ export async function emailLinks(
       );
       sent.push(p.name);
     } catch {
-      if (link.fresh) await revokeToken(db, link.token);
+      if (link.fresh) await revokeToken(link.token);
       failed.push(p.name);
     }
   }
@@ -224,11 +224,11 @@ export async function reissueParticipantLinks(w: WorkshopRow, ids: number[]): Pr
   assertNotClosed(w);
   const list = await targets(w, ids);
   const links = await transaction(async (tx) => {
-    await lockWorkshop(tx, w.id);
+    await lockWorkshop(w.id, tx);
     return reissueLinks(
-      tx,
       list.map((p) => p.id),
       w.linkDays,
+      tx,
     );
   });
   return withQr(list, links);
@@ -237,10 +237,10 @@ export async function reissueParticipantLinks(w: WorkshopRow, ids: number[]): Pr
 export async function revokeParticipantLinks(w: WorkshopRow, ids: number[]): Promise<number> {
   const list = await targets(w, ids);
   return transaction(async (tx) => {
-    await lockWorkshop(tx, w.id);
+    await lockWorkshop(w.id, tx);
     return revokeLinks(
-      tx,
       list.map((p) => p.id),
+      tx,
     );
   });
 }

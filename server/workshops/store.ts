@@ -10,11 +10,10 @@ import {
   workshops,
 } from '../../db/schema/workshops';
 import type { Facilitator, ParticipantRow, WorkshopSummary } from '../../shared/api/workshops';
-import { db, type Tx } from '../db';
+import { db, type Conn, type Tx } from '../db';
 import { firstOf } from '../../shared/checked';
 
 /** Data access for the facilitator side of workshops. */
-type Conn = Tx | typeof db;
 export type WorkshopRow = typeof workshops.$inferSelect;
 export type ParticipantDbRow = typeof workshopParticipants.$inferSelect;
 
@@ -139,9 +138,9 @@ export async function participantsById(workshopId: number, ids?: number[], tx: C
 }
 
 export async function insertParticipants(
-  tx: Conn,
   workshopId: number,
   list: { name: string; email: string | null; personId: string | null }[],
+  tx: Conn = db,
 ): Promise<number> {
   if (!list.length) return 0;
   await tx.insert(workshopParticipants).values(list.map((p) => ({ workshopId, ...p })));
@@ -185,7 +184,7 @@ export async function activeLinkCount(participantId: number): Promise<number> {
  * or claims (sheets, e-mails, reset-claim, revoke): they queue on one row in one order instead of
  * deadlocking on each other's link rows.
  */
-export async function lockWorkshop(tx: Tx, workshopId: number): Promise<void> {
+export async function lockWorkshop(workshopId: number, tx: Tx): Promise<void> {
   await tx.select({ id: workshops.id }).from(workshops).where(eq(workshops.id, workshopId)).for('update');
 }
 

@@ -17,7 +17,6 @@ const { TestClient } = await import('../support/http-client');
 const { startWebProcess } = await import('../support/web-process');
 const { lastMailId, mailsTo, waitForMail } = await import('./mail-support');
 const { issueToken } = await import('../../server/auth/tokens');
-const { db } = await import('../../server/db');
 type TestServer = Awaited<ReturnType<typeof startTestServer>>;
 
 const freshIp = () => `10.${randomInt(256)}.${randomInt(256)}.${randomInt(1, 255)}`;
@@ -110,7 +109,7 @@ describe('rate limits on sign-in and password reset', () => {
     assert.match(blocked.body.error.message, /Too many links that do not work/);
     assert.equal((await post('/api/auth/password-reset/check', { token: guess() })).status, 429);
     const invited = await createAccount('facilitator', 'invited');
-    const { token } = await issueToken(db, invited.id, 'invite', 3600_000, null);
+    const { token } = await issueToken(invited.id, 'invite', 3600_000, null);
     const good = await post('/api/auth/invitation/check', { token });
     assert.equal(good.status, 200, 'a real invitation still opens from the same address');
     assert.equal(good.body.email, invited.email);

@@ -1,23 +1,16 @@
 import assert from 'node:assert/strict';
-import { after, before, describe, it } from 'node:test';
-import { startTestServer, signedInClient, type TestServer } from '../support/test-server';
-import type { TestClient } from '../support/http-client';
+import { describe, it } from 'node:test';
+import { signedInSuite } from '../support/test-server';
 import { createPathRoom, upload } from './rooms-helpers';
 
 const PEOPLE = 'id,name,group\na,Ann Arbor,Red\nb,Ben Birch,Red\nc,Cai Cole,Blue\n';
 const TIES = 'source,target,strength\na,b,2\nb,c,1\n';
 
 describe('rooms: import', () => {
-  let server: TestServer;
-  let client: TestClient;
-  before(async () => {
-    server = await startTestServer();
-    ({ client } = await signedInClient(server));
-  });
-  after(async () => server.stop());
+  const suite = signedInSuite();
 
   const dry = (files: Parameters<typeof upload>[2], fields: Record<string, string> = {}) =>
-    upload(client, '/api/rooms/import?dryRun=true', files, fields);
+    upload(suite.client, '/api/rooms/import?dryRun=true', files, fields);
   const firstError = async (files: Parameters<typeof upload>[2]) => {
     const reply = await dry(files);
     assert.equal(reply.status, 400, reply.text);
@@ -28,22 +21,22 @@ describe('rooms: import', () => {
   };
 
   it('dry run reports counts and warnings, saves nothing; commit creates the room', async () => {
-    const before = (await client.get('/api/rooms')).body.total;
+    const before = (await suite.client.get('/api/rooms')).body.total;
     const report = await dry({ file: { name: 'ties.csv', content: TIES }, people: { name: 'people.csv', content: PEOPLE } });
     assert.equal(report.status, 200);
     assert.deepEqual(report.body.counts, { people: 3, ties: 2, groups: 2 });
     assert.equal(report.body.committed, false);
     assert.deepEqual(report.body.errors, []);
-    assert.equal((await client.get('/api/rooms')).body.total, before);
+    assert.equal((await suite.client.get('/api/rooms')).body.total, before);
     const done = await upload(
-      client,
+      suite.client,
       '/api/rooms/import?dryRun=false',
       { file: { name: 'ties.csv', content: TIES }, people: { name: 'people.csv', content: PEOPLE } },
       { name: 'Roster room' },
     );
     assert.equal(done.status, 201, done.text);
     assert.equal(done.body.committed, true);
-    const room = (await client.get(`/api/rooms/${done.body.roomId}`)).body;
+    const room = (await suite.client.get(`/api/rooms/${done.body.roomId}`)).body;
     assert.equal(room.name, 'Roster room');
     assert.deepEqual(
       room.people.map((p: { key: string; name: string; group: string }) => [p.key, p.name, p.group]),
@@ -153,22 +146,22 @@ describe('rooms: import', () => {
     const xlsx = await dry({ file: { name: 'room.csv', content: Uint8Array.from([0x50, 0x4b, 3, 4, 0, 0, 1]) } });
     assert.equal(xlsx.status, 415);
     assert.match(xlsx.body.error.message, /CSV UTF-8/);
-    const cut = await client.request('POST', '/api/rooms/import', undefined, {
+    const cut = await suite.client.request('POST', '/api/rooms/import', undefined, {
       headers: { 'content-type': 'multipart/form-data; boundary=xyz' },
       raw: '--xyz\r\nContent-Disposition: form-data; name="file"; filename="t.csv"\r\n\r\nsource,target\na,b',
     });
     assert.equal(cut.status, 400);
     assert.match(cut.body.error.message, /incomplete or malformed/);
-    const none = await upload(client, '/api/rooms/import', {});
+    const none = await upload(suite.client, '/api/rooms/import', {});
     assert.equal(none.status, 400);
     assert.match(none.body.error.message, /Choose a file/);
   });
 
   it('a commit with one bad row leaves the room unchanged (400, nothing saved)', async () => {
-    const room = await createPathRoom(client, 4, 'Keep me');
-    const before = (await client.get(`/api/rooms/${room.id}`)).body;
+    const room = await createPathRoom(suite.client, 4, 'Keep me');
+    const before = (await suite.client.get(`/api/rooms/${room.id}`)).body;
     const reply = await upload(
-      client,
+      suite.client,
       `/api/rooms/${room.id}/import?dryRun=false`,
       { file: { name: 't.csv', content: 'source,target,strength\nx,y,1\ny,z,2\nz,w,-1\n' } },
       { version: '1' },
@@ -177,35 +170,35 @@ describe('rooms: import', () => {
     assert.equal(reply.body.error.code, 'import_errors');
     assert.equal(reply.body.error.details.report.errors[0].line, 4);
     assert.match(reply.body.error.message, /^ties line 4, strength: -1 is not positive/);
-    assert.deepEqual((await client.get(`/api/rooms/${room.id}`)).body, before);
+    assert.deepEqual((await suite.client.get(`/api/rooms/${room.id}`)).body, before);
   });
 
   it("replaces a room's content with the version checked", async () => {
-    const room = await createPathRoom(client, 4, 'Replace me');
-    const dryRun = await upload(client, `/api/rooms/${room.id}/import`, {
+    const room = await createPathRoom(suite.client, 4, 'Replace me');
+    const dryRun = await upload(suite.client, `/api/rooms/${room.id}/import`, {
       file: { name: 't.csv', content: TIES },
       people: { name: 'p.csv', content: PEOPLE },
     });
     assert.deepEqual(dryRun.body.replaces, { people: 4, ties: 3 });
-    const noVersion = await upload(client, `/api/rooms/${room.id}/import?dryRun=false`, { file: { name: 't.csv', content: TIES } });
+    const noVersion = await upload(suite.client, `/api/rooms/${room.id}/import?dryRun=false`, { file: { name: 't.csv', content: TIES } });
     assert.equal(noVersion.status, 400);
-    await client.patch(`/api/rooms/${room.id}`, { version: 1, description: 'edited elsewhere' });
+    await suite.client.patch(`/api/rooms/${room.id}`, { version: 1, description: 'edited elsewhere' });
     const stale = await upload(
-      client,
+      suite.client,
       `/api/rooms/${room.id}/import?dryRun=false`,
       { file: { name: 't.csv', content: TIES } },
       { version: '1' },
     );
     assert.equal(stale.status, 409);
     const done = await upload(
-      client,
+      suite.client,
       `/api/rooms/${room.id}/import?dryRun=false`,
       { file: { name: 't.csv', content: TIES }, people: { name: 'p.csv', content: PEOPLE } },
       { version: '2' },
     );
     assert.equal(done.status, 200, done.text);
     assert.equal(done.body.version, 3);
-    const got = (await client.get(`/api/rooms/${room.id}`)).body;
+    const got = (await suite.client.get(`/api/rooms/${room.id}`)).body;
     assert.equal(got.people.length, 3);
     assert.equal(got.ties.length, 2);
     assert.equal(got.description, 'edited elsewhere');

@@ -1,7 +1,6 @@
 import assert from 'node:assert/strict';
-import { after, before, describe, it } from 'node:test';
-import { startTestServer, signedInClient, type TestServer } from '../support/test-server';
-import type { TestClient } from '../support/http-client';
+import { describe, it } from 'node:test';
+import { signedInSuite } from '../support/test-server';
 import { upload } from './rooms-helpers';
 
 /** An invented company: a head, two leads, four staff; headers the way an HR export might name them. */
@@ -20,16 +19,10 @@ const CHART = [
 const COLUMNS = { personColumn: 'Staff No', managerColumn: 'Reports To', nameColumn: 'Full Name', departmentColumn: 'Dept' };
 
 describe('rooms: import from an org chart', () => {
-  let server: TestServer;
-  let client: TestClient;
-  before(async () => {
-    server = await startTestServer();
-    ({ client } = await signedInClient(server));
-  });
-  after(async () => server.stop());
+  const suite = signedInSuite();
 
   const dry = (content: string, fields: Record<string, string> = COLUMNS) =>
-    upload(client, '/api/rooms/import/org-chart?dryRun=true', { file: { name: 'chart.csv', content } }, fields);
+    upload(suite.client, '/api/rooms/import/org-chart?dryRun=true', { file: { name: 'chart.csv', content } }, fields);
 
   it('suggests columns from the header and previews the first rows', async () => {
     const reply = await dry(CHART, {});
@@ -46,13 +39,13 @@ describe('rooms: import from an org chart', () => {
     // 6 reporting lines; peers: {e2,e3} 1 pair, {e4,e5,e6} 3 pairs, {e7} none.
     assert.deepEqual(reply.body.counts, { people: 7, ties: 10, groups: 3 });
     const done = await upload(
-      client,
+      suite.client,
       '/api/rooms/import/org-chart?dryRun=false',
       { file: { name: 'chart.csv', content: CHART } },
       { ...COLUMNS, reportsTo: '4', sameManager: '0.5', roomName: 'Org chart room' },
     );
     assert.equal(done.status, 201, done.text);
-    const room = (await client.get(`/api/rooms/${done.body.roomId}`)).body;
+    const room = (await suite.client.get(`/api/rooms/${done.body.roomId}`)).body;
     assert.equal(room.version, 1);
     const key = new Map<number, string>(room.people.map((p: { id: number; key: string }) => [p.id, p.key]));
     const ties = new Map<string, number>(
@@ -96,7 +89,7 @@ describe('rooms: import from an org chart', () => {
     assert.equal(byLine(2).length, 0, 'the good row has no error');
 
     const refused = await upload(
-      client,
+      suite.client,
       '/api/rooms/import/org-chart?dryRun=false',
       { file: { name: 'bad.csv', content: bad } },
       {
@@ -121,15 +114,20 @@ describe('rooms: import from an org chart', () => {
   });
 
   it('exports the same CSV back (headers, order, rows), and replaces a room content with a version', async () => {
-    const made = await upload(client, '/api/rooms/import/org-chart?dryRun=false', { file: { name: 'chart.csv', content: CHART } }, COLUMNS);
+    const made = await upload(
+      suite.client,
+      '/api/rooms/import/org-chart?dryRun=false',
+      { file: { name: 'chart.csv', content: CHART } },
+      COLUMNS,
+    );
     assert.equal(made.status, 201, made.text);
-    const exported = await client.get(`/api/rooms/${made.body.roomId}/export?format=org-chart-csv`);
+    const exported = await suite.client.get(`/api/rooms/${made.body.roomId}/export?format=org-chart-csv`);
     assert.equal(exported.status, 200);
     assert.equal(exported.text.replace(/^\uFEFF/, ''), CHART);
     // The exported file imports again into the same room, replacing what is there.
-    const room = (await client.get(`/api/rooms/${made.body.roomId}`)).body;
+    const room = (await suite.client.get(`/api/rooms/${made.body.roomId}`)).body;
     const again = await upload(
-      client,
+      suite.client,
       `/api/rooms/${room.id}/import/org-chart?dryRun=false`,
       { file: { name: 'back.csv', content: exported.text } },
       { ...COLUMNS, version: String(room.version) },
@@ -137,7 +135,7 @@ describe('rooms: import from an org chart', () => {
     assert.equal(again.status, 200, again.text);
     assert.equal(again.body.version, room.version + 1);
     const stale = await upload(
-      client,
+      suite.client,
       `/api/rooms/${room.id}/import/org-chart?dryRun=false`,
       { file: { name: 'back.csv', content: exported.text } },
       { ...COLUMNS, version: String(room.version) },

@@ -1,20 +1,13 @@
 import assert from 'node:assert/strict';
-import { after, before, describe, it } from 'node:test';
-import { startTestServer, signedInClient, type TestServer } from '../support/test-server';
-import type { TestClient } from '../support/http-client';
+import { describe, it } from 'node:test';
+import { signedInSuite } from '../support/test-server';
 import { createPathRoom, personOf } from './rooms-helpers';
 
 describe('rooms: summary', () => {
-  let server: TestServer;
-  let client: TestClient;
-  before(async () => {
-    server = await startTestServer();
-    ({ client } = await signedInClient(server));
-  });
-  after(async () => server.stop());
+  const suite = signedInSuite();
 
   const summary = async (id: number) => {
-    const reply = await client.get(`/api/rooms/${id}/summary`);
+    const reply = await suite.client.get(`/api/rooms/${id}/summary`);
     assert.equal(reply.status, 200, reply.text);
     return reply.body;
   };
@@ -23,7 +16,7 @@ describe('rooms: summary', () => {
     // Walk on a path absorbed at the centre: h(1) = 1 + h(2)/2, h(2) = 1 + h(1), so h(1) = 3, h(2) = 4
     // (the gambler's-ruin recurrence with a reflecting end, solved by hand; Lovász 1993, "Random walks
     // on graphs: a survey", gives the same path hitting times). Average over four people: 3.5.
-    const room = await createPathRoom(client, 5);
+    const room = await createPathRoom(suite.client, 5);
     const s = await summary(room.id);
     assert.equal(s.people, 5);
     assert.equal(s.ties, 4);
@@ -37,7 +30,7 @@ describe('rooms: summary', () => {
   });
 
   it('names isolated people and separate parts, and gives no single-starter hint', async () => {
-    const reply = await client.post('/api/rooms', {
+    const reply = await suite.client.post('/api/rooms', {
       name: 'Split room',
       people: ['a', 'b', 'c', 'd', 'e'].map((k) => ({ key: k, name: `Person ${k.toUpperCase()}` })),
       ties: [
@@ -62,7 +55,7 @@ describe('rooms: summary', () => {
 
   it('directed: a group that asks only itself (cannot enter) and people nobody asks (cannot leave)', async () => {
     // x -> y -> z -> y: {y, z} only ask each other; nobody asks x.
-    const reply = await client.post('/api/rooms', {
+    const reply = await suite.client.post('/api/rooms', {
       name: 'Directed room',
       settings: { directed: true },
       people: [
@@ -85,7 +78,7 @@ describe('rooms: summary', () => {
       ['Xavi'],
     );
     assert.ok(['Yara', 'Zeno'].includes(s.hint.starter.name), 'the best starter is in the group everyone ends up asking');
-    const two = await client.post('/api/rooms', {
+    const two = await suite.client.post('/api/rooms', {
       name: 'Two closed groups',
       settings: { directed: true },
       people: ['a', 'b', 'c', 'd'].map((k) => ({ key: k, name: k })),
@@ -102,7 +95,7 @@ describe('rooms: summary', () => {
   });
 
   it('background mixing joins the parts and a hint is given', async () => {
-    const reply = await client.post('/api/rooms', {
+    const reply = await suite.client.post('/api/rooms', {
       name: 'Mixing room',
       settings: { mixing: 0.1 },
       people: ['a', 'b', 'c', 'd'].map((k) => ({ key: k, name: k })),
@@ -118,11 +111,11 @@ describe('rooms: summary', () => {
   });
 
   it('an empty room and a room without ties say what to add', async () => {
-    const empty = await client.post('/api/rooms', { name: 'Empty' });
+    const empty = await suite.client.post('/api/rooms', { name: 'Empty' });
     const s = await summary(empty.body.id);
     assert.equal(s.people, 0);
     assert.match(s.notes[0], /empty/);
-    const lonely = await client.post('/api/rooms', { name: 'No ties', people: [{ name: 'A' }, { name: 'B' }] });
+    const lonely = await suite.client.post('/api/rooms', { name: 'No ties', people: [{ name: 'A' }, { name: 'B' }] });
     const t = await summary(lonely.body.id);
     assert.equal(t.hint, null);
     assert.equal(t.isolated.length, 2);
@@ -140,7 +133,7 @@ describe('rooms: summary', () => {
       seen.add(k);
       return true;
     });
-    const made = await client.post('/api/rooms', { name: 'Big room', people, ties: unique });
+    const made = await suite.client.post('/api/rooms', { name: 'Big room', people, ties: unique });
     assert.equal(made.status, 201, made.text.slice(0, 300));
     const started = performance.now();
     const s = await summary(made.body.id);

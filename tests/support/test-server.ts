@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { createServer, type Server } from 'node:http';
+import { after, before } from 'node:test';
 import type { AddressInfo } from 'node:net';
 import { users } from '../../db/schema/accounts';
 import type { AccountRole } from '../../shared/api/accounts';
@@ -80,4 +81,30 @@ export async function signedInClient(server: TestServer, role: AccountRole = 'fa
   const client = server.client();
   await client.signIn(account.email, account.password);
   return { client, account };
+}
+
+/**
+ * A test server and a signed-in facilitator for the tests of one describe block: started before
+ * them and stopped after them. Read `server` and `client` inside the tests (once `before` ran).
+ */
+export function signedInSuite(): { readonly server: TestServer; readonly client: TestClient } {
+  let server: TestServer | undefined;
+  let client: TestClient | undefined;
+  before(async () => {
+    server = await startTestServer();
+    ({ client } = await signedInClient(server));
+  });
+  after(async () => server?.stop());
+  const started = <T>(value: T | undefined, what: string): T => {
+    if (value === undefined) throw new Error(`${what} is not started yet: read it inside a test`);
+    return value;
+  };
+  return {
+    get server() {
+      return started(server, 'the test server');
+    },
+    get client() {
+      return started(client, 'the signed-in client');
+    },
+  };
 }

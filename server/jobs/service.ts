@@ -1,0 +1,5 @@
+/**
+ * What the features that queue jobs (plans, rehearsals) use of the job rows. The rows are read and
+ * written in jobs/store.ts, which no other feature imports.
+ */
+export { clearJobKey, findJob, findJobByKey, insertJob, updateJob, type JobRow, type NewJob } from './store';
