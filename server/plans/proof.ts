@@ -12,7 +12,7 @@ import { config } from '../config';
 import type { Tx } from '../db';
 import { runInPlanPool } from '../jobs/pools';
 import { JobFailure, jobRunner, type JobHandler } from '../jobs/runner';
-import { findJob, insertJob, openJobsOf, openLoadOf, plansStoredBy } from '../jobs/store';
+import { findJob, insertJob, openJobsOf, openLoadOf, plansStoredBy } from '../jobs/service';
 import { keyText } from './bound-key';
 import { keyOfPlan, recordComputation, recordSearch, SAME_TOTAL, savedSearchOf } from './bounds';
 import type { ComputeOutcome, PlanComputation } from './compute';
