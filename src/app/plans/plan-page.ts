@@ -17,11 +17,12 @@ import { MatTooltipModule } from '@angular/material/tooltip';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
 import { PercentPipe } from '@angular/common';
-import { firstValueFrom, type Subscription } from 'rxjs';
+import { finalize, forkJoin, switchMap, type Subscription } from 'rxjs';
 import type { CreatePlanRequest, PlanDetail, PlanSearchProgress, PlanSummary } from '../../../shared/api/plans';
 import { PLAN_LIMITS } from '../../../shared/api/plans';
 import type { RoomDto } from '../../../shared/api/rooms';
 import { toApiError } from '../core/api-error';
+import { shownByInterceptor } from '../core/error-interceptor';
 import { jobEvents } from './job-events';
 import { PlanFormPanel, type ServerProblem } from './plan-form-panel';
 import { PlanProgress } from './plan-progress';
@@ -114,65 +115,71 @@ export default class PlanPage {
     });
   }
 
-  private async loadRoom(id: number): Promise<void> {
+  private loadRoom(id: number): void {
     if (!Number.isInteger(id) || id <= 0) {
       this.loadError.set('This address does not name a room.');
       return;
     }
-    try {
-      this.room.set(await firstValueFrom(this.api.room(id)));
-      await this.refreshPlans();
-    } catch (e) {
-      this.loadError.set(toApiError(e).message);
-    }
+    this.api
+      .room(id)
+      .pipe(
+        switchMap((room) => {
+          this.room.set(room);
+          return this.api.plans(id);
+        }),
+      )
+      .subscribe({ next: (plans) => this.plans.set(plans), error: (e: unknown) => this.loadError.set(toApiError(e).message) });
   }
 
-  protected async refreshPlans(): Promise<void> {
-    this.plans.set(await firstValueFrom(this.api.plans(this.id())));
+  protected refreshPlans(): void {
+    this.api.plans(this.id()).subscribe({ next: (plans) => this.plans.set(plans), error: shownByInterceptor });
   }
 
-  private async showPlan(planId: number | null): Promise<void> {
+  private showPlan(planId: number | null): void {
     if (planId === null) {
       this.shown.set(null);
       return;
     }
     if (this.shown()?.id === planId) return;
-    try {
-      const p = await firstValueFrom(this.api.plan(planId));
-      this.present(p);
-      if (p.status === 'computing' && p.jobId) this.follow(p.jobId, p.id, p.k);
-    } catch {
-      this.shown.set(null);
-    }
+    this.api.plan(planId).subscribe({
+      next: (p) => {
+        this.present(p);
+        if (p.status === 'computing' && p.jobId) this.follow(p.jobId, p.id, p.k);
+      },
+      error: () => this.shown.set(null),
+    });
   }
 
-  protected async makePlan(request: CreatePlanRequest): Promise<void> {
+  protected makePlan(request: CreatePlanRequest): void {
     this.pending.set(true);
     this.serverError.set(null);
-    try {
-      const r = await firstValueFrom(this.api.createPlan(this.id(), request));
-      if (isStarted(r)) {
-        this.follow(r.job.id, r.plan.id, r.plan.k);
-      } else {
-        this.present(r);
-        await this.open(r.id);
-      }
-      await this.refreshPlans();
-    } catch (e) {
-      const err = toApiError(e);
-      const suggest = err.details?.['suggest'];
-      const field = typeof err.details?.['field'] === 'string' ? (err.details['field'] as string) : null;
-      this.serverError.set({ message: suggest ? `${err.message} Try “${suggest}”.` : err.message, field });
-    } finally {
-      this.pending.set(false);
-    }
+    this.api
+      .createPlan(this.id(), request)
+      .pipe(finalize(() => this.pending.set(false)))
+      .subscribe({
+        next: (r) => {
+          if (isStarted(r)) {
+            this.follow(r.job.id, r.plan.id, r.plan.k);
+          } else {
+            this.present(r);
+            this.open(r.id);
+          }
+          this.refreshPlans();
+        },
+        error: (e: unknown) => {
+          const err = toApiError(e);
+          const suggest = err.details?.['suggest'];
+          const field = typeof err.details?.['field'] === 'string' ? (err.details['field'] as string) : null;
+          this.serverError.set({ message: suggest ? `${err.message} Try “${suggest}”.` : err.message, field });
+        },
+      });
   }
 
   /**
    * Follows a background plan's progress (the bar, the best total and the proven gap so far); when
    * done, `onDone` runs (by default: open the new plan).
    */
-  private follow(jobId: number, planId: number, k: number, onDone: (planId: number) => Promise<void> = (id) => this.openFresh(id)): void {
+  private follow(jobId: number, planId: number, k: number, onDone: (planId: number) => void = (id) => this.openFresh(id)): void {
     this.jobSub?.unsubscribe();
     this.job.set({ progress: 0, position: null, jobId, search: null, people: this.room()?.people.length ?? 0, k });
     this.jobSub = jobEvents(`/api/jobs/${jobId}/events`).subscribe({
@@ -188,11 +195,12 @@ export default class PlanPage {
         });
         if (e.type === 'done') {
           this.job.set(null);
-          void onDone(planId).then(() => this.refreshPlans());
+          onDone(planId);
+          this.refreshPlans();
         } else if (e.type === 'failed' || e.type === 'cancelled' || e.type === 'interrupted') {
           this.job.set(null);
           this.serverError.set({ message: e.message ?? e.job.message ?? `The plan was ${e.type}.`, field: null });
-          void this.refreshPlans();
+          this.refreshPlans();
         }
       },
       error: (err: Error) => {
@@ -229,113 +237,126 @@ export default class PlanPage {
           });
           return;
         }
-        void this.proofFinished(planId);
+        this.proofFinished(planId);
       },
-      error: () => void this.proofFinished(planId),
+      error: () => this.proofFinished(planId),
     });
   }
 
-  private async proofFinished(planId: number): Promise<void> {
+  private proofFinished(planId: number): void {
     this.proof.set(null);
     this.proofSub = null;
     if (this.shown()?.id !== planId) return;
-    const fresh = await firstValueFrom(this.api.plan(planId));
-    if (this.shown()?.id !== planId) return;
-    this.shown.set(fresh);
-    this.proofEnded.set(true);
-    await this.refreshPlans();
+    this.api.plan(planId).subscribe({
+      next: (fresh) => {
+        if (this.shown()?.id !== planId) return;
+        this.shown.set(fresh);
+        this.proofEnded.set(true);
+        this.refreshPlans();
+      },
+      error: shownByInterceptor,
+    });
   }
 
   /** Stops the background search; it keeps what it proved, and "Keep proving" continues it. */
-  protected async stopProof(): Promise<void> {
+  protected stopProof(): void {
     const pr = this.proof();
-    if (pr) await firstValueFrom(this.api.cancelJob(pr.jobId, true));
+    if (pr) this.api.cancelJob(pr.jobId, true).subscribe({ error: shownByInterceptor });
   }
 
-  private async openFresh(planId: number): Promise<void> {
+  private openFresh(planId: number): void {
     this.shown.set(null);
-    await this.open(planId);
+    this.open(planId);
   }
 
   /**
    * Runs the full search for the shown plan's problem (same k and constraints). Its proven bound
    * is shared, so the shown plan's gap updates; if the search finds a faster plan, that one opens.
    */
-  protected async proveShown(p: PlanDetail): Promise<void> {
+  protected proveShown(p: PlanDetail): void {
     this.serverError.set(null);
-    try {
-      const r = await firstValueFrom(
-        this.api.createPlan(this.id(), {
-          k: p.k,
-          method: 'exhaustive',
-          mustBrief: p.mustBrief,
-          cannotBrief: p.cannotBrief,
-          ...(p.noShow ? { noShow: p.noShow } : {}),
-          timeLimitSeconds: 60,
-          background: true,
-          name: `${p.name} · full search`,
-        }),
-      );
-      const other = isStarted(r) ? r.plan : r;
-      const done = async (id: number) => {
-        const found = await firstValueFrom(this.api.plan(id));
-        const mine = await firstValueFrom(this.api.plan(p.id));
-        if (found.total !== null && mine.total !== null && found.total < mine.total * (1 - 1e-9)) await this.openFresh(id);
-        else this.present(mine);
-      };
-      if (isStarted(r)) this.follow(r.job.id, other.id, p.k, done);
-      else await done(other.id);
-      await this.refreshPlans();
-    } catch (e) {
-      this.serverError.set({ message: toApiError(e).message, field: null });
-    }
+    const done = (id: number) =>
+      forkJoin([this.api.plan(id), this.api.plan(p.id)]).subscribe({
+        next: ([found, mine]) => {
+          if (found.total !== null && mine.total !== null && found.total < mine.total * (1 - 1e-9)) this.openFresh(id);
+          else this.present(mine);
+        },
+        error: shownByInterceptor,
+      });
+    this.api
+      .createPlan(this.id(), {
+        k: p.k,
+        method: 'exhaustive',
+        mustBrief: p.mustBrief,
+        cannotBrief: p.cannotBrief,
+        ...(p.noShow ? { noShow: p.noShow } : {}),
+        timeLimitSeconds: 60,
+        background: true,
+        name: `${p.name} · full search`,
+      })
+      .subscribe({
+        next: (r) => {
+          if (isStarted(r)) this.follow(r.job.id, r.plan.id, p.k, done);
+          else done(r.id);
+          this.refreshPlans();
+        },
+        error: (e: unknown) => this.serverError.set({ message: toApiError(e).message, field: null }),
+      });
   }
 
   /** keepBest: a running search stops and its best plan so far opens when the job ends. */
-  protected async cancelJob(keepBest = false): Promise<void> {
+  protected cancelJob(keepBest = false): void {
     const j = this.job();
-    if (j) await firstValueFrom(this.api.cancelJob(j.jobId, keepBest));
+    if (j) this.api.cancelJob(j.jobId, keepBest).subscribe({ error: shownByInterceptor });
   }
 
-  protected async open(planId: number): Promise<void> {
-    await this.router.navigate([], { queryParams: { plan: planId }, replaceUrl: false });
+  /** Shows a plan by its address (the router's navigation is the browser's own promise). */
+  protected open(planId: number): void {
+    void this.router.navigate([], { queryParams: { plan: planId }, replaceUrl: false });
   }
 
-  protected async toggleChosen(p: PlanSummary): Promise<void> {
-    await firstValueFrom(this.api.updatePlan(p.id, { chosen: !p.chosen }));
-    this.snack.open(p.chosen ? `${p.name} is no longer the chosen plan.` : `${p.name} is now the chosen plan.`, 'OK', { duration: 4000 });
-    await this.refreshPlans();
-    const s = this.shown();
-    if (s) this.shown.set({ ...s, chosen: s.id === p.id ? !p.chosen : false });
+  protected toggleChosen(p: PlanSummary): void {
+    this.api.updatePlan(p.id, { chosen: !p.chosen }).subscribe({
+      next: () => {
+        this.snack.open(p.chosen ? `${p.name} is no longer the chosen plan.` : `${p.name} is now the chosen plan.`, 'OK', {
+          duration: 4000,
+        });
+        this.refreshPlans();
+        const s = this.shown();
+        if (s) this.shown.set({ ...s, chosen: s.id === p.id ? !p.chosen : false });
+      },
+      error: shownByInterceptor,
+    });
   }
 
-  protected async remove(p: PlanSummary): Promise<void> {
+  protected remove(p: PlanSummary): void {
     if (!confirm(`Delete the plan “${p.name}” and its rehearsals?`)) return;
-    await firstValueFrom(this.api.deletePlan(p.id));
-    if (this.shown()?.id === p.id) await this.router.navigate([], { queryParams: {} });
-    await this.refreshPlans();
+    this.api.deletePlan(p.id).subscribe({
+      next: () => {
+        if (this.shown()?.id === p.id) void this.router.navigate([], { queryParams: {} });
+        this.refreshPlans();
+      },
+      error: shownByInterceptor,
+    });
   }
 
   /** Plans the same budget and constraints with plain greedy, then opens the comparison. */
-  protected async compareWithGreedy(p: PlanDetail): Promise<void> {
+  protected compareWithGreedy(p: PlanDetail): void {
     this.pending.set(true);
-    try {
-      const r = await firstValueFrom(
-        this.api.createPlan(this.id(), {
-          k: p.k,
-          method: 'greedy',
-          mustBrief: p.mustBrief,
-          cannotBrief: p.cannotBrief,
-          name: `${p.name} · greedy`,
-        }),
-      );
-      const other = isStarted(r) ? r.plan : r;
-      await this.router.navigate(['/rooms', this.id(), 'plans', 'compare'], { queryParams: { a: p.id, b: other.id } });
-    } catch (e) {
-      this.serverError.set({ message: toApiError(e).message, field: null });
-    } finally {
-      this.pending.set(false);
-    }
+    this.api
+      .createPlan(this.id(), { k: p.k, method: 'greedy', mustBrief: p.mustBrief, cannotBrief: p.cannotBrief, name: `${p.name} · greedy` })
+      .subscribe({
+        next: (r) => {
+          const other = isStarted(r) ? r.plan : r;
+          void this.router
+            .navigate(['/rooms', this.id(), 'plans', 'compare'], { queryParams: { a: p.id, b: other.id } })
+            .finally(() => this.pending.set(false));
+        },
+        error: (e: unknown) => {
+          this.serverError.set({ message: toApiError(e).message, field: null });
+          this.pending.set(false);
+        },
+      });
   }
 
   protected planAgain(p: PlanDetail): void {
@@ -353,12 +374,16 @@ export default class PlanPage {
 
   protected readonly naming = signal(false);
 
-  protected async rename(p: PlanDetail, raw: string): Promise<void> {
+  protected rename(p: PlanDetail, raw: string): void {
     const name = raw.trim();
     this.naming.set(false);
     if (!name || name === p.name) return;
-    const s = await firstValueFrom(this.api.updatePlan(p.id, { name }));
-    this.shown.set({ ...p, name: s.name });
-    await this.refreshPlans();
+    this.api.updatePlan(p.id, { name }).subscribe({
+      next: (s) => {
+        this.shown.set({ ...p, name: s.name });
+        this.refreshPlans();
+      },
+      error: shownByInterceptor,
+    });
   }
 }
