@@ -4,7 +4,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import type { PlanSummary } from '../../../shared/api/plans';
 import { methodLabel } from './method-label';
-import { BOUND_WORDS, fasterKnownLine, gapLine, methodLine, RANK_LINE } from './score-words';
+import { BOUND_WORDS, currentWarnings, fasterKnownLine, gapLine, methodLine, RANK_LINE } from './score-words';
 
 /** The plan's headline numbers, each with its unit and one line saying what it means. */
 @Component({
@@ -108,7 +108,7 @@ import { BOUND_WORDS, fasterKnownLine, gapLine, methodLine, RANK_LINE } from './
         </div>
       }
     </dl>
-    @for (w of p.warnings; track $index) {
+    @for (w of warnings(); track $index) {
       <p class="warning"><mat-icon aria-hidden="true">warning</mat-icon>{{ w }}</p>
     }
     @for (n of p.notes; track $index) {
@@ -123,6 +123,7 @@ export class PlanScores {
   protected readonly rankLine = RANK_LINE;
   protected readonly method = computed(() => methodLabel(this.plan().methodUsed ?? this.plan().methodRequested));
   protected readonly methodText = computed(() => methodLine(this.plan()));
+  protected readonly warnings = computed(() => currentWarnings(this.plan()));
   protected readonly gap = computed(() => gapLine(this.plan()));
   protected readonly faster = computed(() => fasterKnownLine(this.plan()));
   protected readonly rest = computed(() => Math.max(1, this.plan().people - this.plan().k));

@@ -47,10 +47,29 @@ export function methodLine(p: PlanSummary): string {
   if (x?.nodes) parts.push(`${x.nodes.toLocaleString('en-US')} partial groups examined`);
   if (x && x.searchLeft !== null && x.searchLeft > 0)
     parts.push(
-      `${x.stopped ? 'stopped' : 'time limit reached'} with ${(x.searchLeft * 100).toFixed(1)} % of the possible groups not yet ruled out`,
+      p.certified
+        ? `its own search ${x.stopped ? 'was stopped' : 'reached its time limit'}; a later search proved it best`
+        : `${x.stopped ? 'stopped' : 'time limit reached'} with ${(x.searchLeft * 100).toFixed(1)} % of the possible groups not yet ruled out`,
     );
   if (p.elapsedMs !== null) parts.push(`computed in ${formatDuration(p.elapsedMs)}`);
   return parts.join(' · ') + '.';
+}
+
+/** A stopped search's warning, stored with the plan when it was made. */
+const STOPPED_SEARCH = /^(Time limit reached after \d+ search steps|The search was stopped after \d+ steps)/;
+
+/**
+ * The plan's warnings as they read now: once the plan is proven best (by a later search of the
+ * same problem), its own search's "stopped with the space still open" is history, said as such.
+ */
+export function currentWarnings(p: PlanSummary): string[] {
+  if (!p.certified) return p.warnings;
+  const rest = p.warnings.filter((w) => !STOPPED_SEARCH.test(w));
+  if (rest.length === p.warnings.length) return p.warnings;
+  return [
+    ...rest,
+    'This plan was made by a search that stopped before it finished; a later search of the same problem has since proven it best.',
+  ];
 }
 
 export function formatDuration(ms: number): string {
