@@ -89,22 +89,63 @@ export async function createPlan(
   await roomAccess(user, roomId, 'edit', 'That room');
   const snapshot = await snapshotOf(roomId);
   const room = prepared(snapshot);
-  const handMade = body.starters !== undefined;
+  const starters = checkedRequest(room, snapshot, body);
+  await checkPlanQuota(user.id);
+  const base = newPlanRow(user.id, roomId, snapshot, body, starters);
+  if (runsInBackground(body, room.n)) return startInBackground(user.id, base, body, room.n);
+  const task =
+    starters !== null
+      ? { kind: 'hand-made' as const, snapshot, starters }
+      : plannerTask(snapshot, {
+          k: base.k,
+          methodRequested: base.methodRequested,
+          nu: base.nu ?? null,
+          timeLimitSeconds: base.timeLimitSeconds ?? null,
+          mustBrief: base.mustBrief ?? [],
+          cannotBrief: base.cannotBrief ?? [],
+          noShow: base.noShow ?? null,
+        });
+  const outcome = (await runInPlanPool(task, {
+    hardLimitMs: hardLimitMs(base.timeLimitSeconds ?? null),
+  })) as ComputeOutcome<PlanComputation>;
+  const computed = unwrap(outcome);
+  const planId = await db.transaction(async (tx) => {
+    const id = await store.insertPlan({ ...base, ...resultColumns(snapshot, computed) }, tx);
+    await recordComputation({ ...base, noShow: base.noShow ?? null }, computed, snapshot.personIds, tx);
+    return id;
+  });
+  const row = (await store.findPlan(planId))!;
+  return { status: 201, body: await detailOf(row, snapshot.version) };
+}
+
+/** Checks a plan request against the room; the hand-made plan's starters (indices), or null for a planner request. */
+function checkedRequest(room: ReturnType<typeof prepared>, snapshot: RoomSnapshot, body: CreatePlanRequest): number[] | null {
   const must = indicesOfPeople(snapshot, body.mustBrief ?? [], 'People who must be briefed');
   const exclude = indicesOfPeople(snapshot, body.cannotBrief ?? [], 'People who cannot be briefed');
-  let starters: number[] = [];
-  if (handMade) {
-    starters = indicesOfPeople(snapshot, body.starters!, 'Starters');
-    checkHandMade(room, snapshot, starters);
-  } else checkPlannerRequest(room, snapshot, body, must, exclude);
-  await checkPlanQuota(user.id);
-  const k = handMade ? starters.length : body.k!;
-  const method = handMade ? 'hand-made' : (body.method ?? 'auto');
-  const base: NewPlan = {
+  if (body.starters === undefined) {
+    checkPlannerRequest(room, snapshot, body, must, exclude);
+    return null;
+  }
+  const starters = indicesOfPeople(snapshot, body.starters, 'Starters');
+  checkHandMade(room, snapshot, starters);
+  return starters;
+}
+
+/** The plan's row before it is computed (status computing). */
+function newPlanRow(
+  userId: number,
+  roomId: number,
+  snapshot: RoomSnapshot,
+  body: CreatePlanRequest,
+  starters: number[] | null,
+): NewPlan & { k: number; methodRequested: PlanRow['methodRequested'] } {
+  const k = starters !== null ? starters.length : body.k!;
+  const method = starters !== null ? 'hand-made' : (body.method ?? 'auto');
+  return {
     roomId,
-    createdBy: user.id,
+    createdBy: userId,
     name: body.name?.trim() || defaultName(method, k),
-    kind: handMade ? 'hand-made' : 'computed',
+    kind: starters !== null ? 'hand-made' : 'computed',
     status: 'computing',
     k,
     methodRequested: method,
@@ -120,49 +161,33 @@ export async function createPlan(
     notes: [],
     warnings: [],
   };
-  if (runsInBackground(body, room.n)) {
-    await checkJobQuota(user.id);
-    await yieldProofs(user.id);
-    const { planId, jobId } = await db.transaction(async (tx) => {
-      const planId = await store.insertPlan(base, tx);
-      const jobId = await insertJob({ userId: user.id, roomId, kind: 'plan', planId }, tx);
-      await store.updatePlan(planId, { jobId }, tx);
-      return { planId, jobId };
-    });
-    const job = (await findJob(jobId))!;
-    // A quick automatic plan is answered in this request (one round trip instead of a stream).
-    const ended = answersInline(body, room.n) ? jobEnd(jobId, PLAN_LIMITS.autoAnswerWithinMs) : null;
-    await jobRunner.enqueue(job);
-    if ((await ended) === 'done') {
-      const row = await store.findPlan(planId);
-      if (row?.status === 'ready') return { status: 201, body: await detailOf(row, snapshot.version) };
-    }
-    const plan = (await store.findPlan(planId))!;
-    const started = planSummary(plan, snapshot.version, await boundOf(plan));
-    return { status: 202, body: { plan: started, job: jobDto(job, await jobRunner.positionOf(job)) } };
-  }
-  const task = handMade
-    ? { kind: 'hand-made' as const, snapshot, starters }
-    : plannerTask(snapshot, {
-        k,
-        methodRequested: method,
-        nu: base.nu ?? null,
-        timeLimitSeconds: base.timeLimitSeconds ?? null,
-        mustBrief: base.mustBrief,
-        cannotBrief: base.cannotBrief,
-        noShow: base.noShow ?? null,
-      });
-  const outcome = (await runInPlanPool(task, {
-    hardLimitMs: hardLimitMs(base.timeLimitSeconds ?? null),
-  })) as ComputeOutcome<PlanComputation>;
-  const computed = unwrap(outcome);
-  const planId = await db.transaction(async (tx) => {
-    const id = await store.insertPlan({ ...base, ...resultColumns(snapshot, computed) }, tx);
-    await recordComputation({ ...base, noShow: base.noShow ?? null }, computed, snapshot.personIds, tx);
-    return id;
+}
+
+/** Queues the plan as a job; a quick automatic plan is still answered in this request (one round trip instead of a stream). */
+async function startInBackground(
+  userId: number,
+  base: NewPlan,
+  body: CreatePlanRequest,
+  people: number,
+): Promise<{ status: 201; body: PlanDetail } | { status: 202; body: PlanStarted }> {
+  await checkJobQuota(userId);
+  await yieldProofs(userId);
+  const { planId, jobId } = await db.transaction(async (tx) => {
+    const planId = await store.insertPlan(base, tx);
+    const jobId = await insertJob({ userId, roomId: base.roomId, kind: 'plan', planId }, tx);
+    await store.updatePlan(planId, { jobId }, tx);
+    return { planId, jobId };
   });
-  const row = (await store.findPlan(planId))!;
-  return { status: 201, body: await detailOf(row, snapshot.version) };
+  const job = (await findJob(jobId))!;
+  const ended = answersInline(body, people) ? jobEnd(jobId, PLAN_LIMITS.autoAnswerWithinMs) : null;
+  await jobRunner.enqueue(job);
+  if ((await ended) === 'done') {
+    const row = await store.findPlan(planId);
+    if (row?.status === 'ready') return { status: 201, body: await detailOf(row, base.roomVersion) };
+  }
+  const plan = (await store.findPlan(planId))!;
+  const started = planSummary(plan, base.roomVersion, await boundOf(plan));
+  return { status: 202, body: { plan: started, job: jobDto(job, await jobRunner.positionOf(job)) } };
 }
 
 function defaultName(method: string, k: number): string {
