@@ -1,6 +1,6 @@
 import { ChangeDetectionStrategy, Component, effect, ElementRef, input, viewChild } from '@angular/core';
 import { forceCenter, forceLink, forceManyBody, forceSimulation, type SimulationNodeDatum } from 'd3-force';
-import { select } from 'd3-selection';
+import { select, type BaseType, type Selection } from 'd3-selection';
 import type { PersonDto, TieDto } from '../../../shared/api/rooms';
 import { groupStyles, shapePath, type ShapeName } from '../rooms/map/group-style';
 import { hopsShade } from './hops-shade';
@@ -55,27 +55,7 @@ export class PlanMap {
   }
 
   private draw(): void {
-    const people = this.people();
-    const hops = this.hops();
-    const order = new Map(this.starters().map((id, i) => [id, i + 1]));
-    // Groups keep the shapes they have on the room's own map, so the two drawings read alike.
-    const styles = groupStyles([...new Set(people.map((p) => p.group).filter((g): g is string => !!g))].sort());
-    const dots: Dot[] = people.map((p) => ({
-      id: p.id,
-      name: p.name,
-      hops: hops.get(p.id) ?? null,
-      order: order.get(p.id) ?? null,
-      shape: (p.group && styles.get(p.group)?.shape) || 'circle',
-      x: p.x ?? undefined,
-      y: p.y ?? undefined,
-    }));
-    const byId = new Map(dots.map((d) => [d.id, d]));
-    const links = this.ties()
-      .map((t) => ({ source: byId.get(t.sourceId)!, target: byId.get(t.targetId)!, strength: t.strength }))
-      .filter((l) => l.source && l.target);
-    placeMissing(dots, links);
-    fit(dots);
-
+    const { dots, links } = this.layout();
     const finite = dots.map((d) => d.hops).filter((v): v is number => v !== null && v > 0 && Number.isFinite(v));
     const lo = Math.min(...finite, Infinity);
     const hi = Math.max(...finite, -Infinity);
@@ -105,27 +85,56 @@ export class PlanMap {
       .append('path')
       .attr('d', (d) => shapePath(d.shape, d.order ? 11 : 7))
       .attr('fill', (d) => (d.order ? '#fff' : hopsShade(d.hops, lo, hi)));
-    nodes
-      .filter((d) => !!d.order)
-      .append('text')
-      .attr('class', 'order')
-      .attr('text-anchor', 'middle')
-      .attr('dy', '0.35em')
-      .text((d) => String(d.order));
-    nodes
-      .append('title')
-      .text((d) =>
-        d.order ? `${d.name}: starter ${d.order}` : `${d.name}: ${d.hops === null ? 'no value' : d.hops.toFixed(1) + ' expected hops'}`,
-      );
-    if (dots.length <= 40) {
-      nodes
-        .append('text')
-        .attr('class', 'name')
-        .attr('y', (d) => (d.order ? 22 : 17))
-        .attr('text-anchor', 'middle')
-        .text((d) => d.name.split(' ')[0] ?? '');
-    }
+    labelPeople(nodes, dots.length <= 40);
   }
+
+  /** The people as dots (their room-map shapes, hops and briefing order) and the ties between them, placed and fitted. */
+  private layout(): { dots: Dot[]; links: { source: Dot; target: Dot; strength: number }[] } {
+    const people = this.people();
+    const hops = this.hops();
+    const order = new Map(this.starters().map((id, i) => [id, i + 1]));
+    // Groups keep the shapes they have on the room's own map, so the two drawings read alike.
+    const styles = groupStyles([...new Set(people.map((p) => p.group).filter((g): g is string => !!g))].sort());
+    const dots: Dot[] = people.map((p) => ({
+      id: p.id,
+      name: p.name,
+      hops: hops.get(p.id) ?? null,
+      order: order.get(p.id) ?? null,
+      shape: (p.group && styles.get(p.group)?.shape) || 'circle',
+      x: p.x ?? undefined,
+      y: p.y ?? undefined,
+    }));
+    const byId = new Map(dots.map((d) => [d.id, d]));
+    const links = this.ties()
+      .map((t) => ({ source: byId.get(t.sourceId)!, target: byId.get(t.targetId)!, strength: t.strength }))
+      .filter((l) => l.source && l.target);
+    placeMissing(dots, links);
+    fit(dots);
+    return { dots, links };
+  }
+}
+
+/** Starter numbers, a hover title for everyone, and first names when the room is small enough to read them. */
+function labelPeople(nodes: Selection<SVGGElement | BaseType, Dot, SVGGElement, unknown>, withNames: boolean): void {
+  nodes
+    .filter((d) => !!d.order)
+    .append('text')
+    .attr('class', 'order')
+    .attr('text-anchor', 'middle')
+    .attr('dy', '0.35em')
+    .text((d) => String(d.order));
+  nodes
+    .append('title')
+    .text((d) =>
+      d.order ? `${d.name}: starter ${d.order}` : `${d.name}: ${d.hops === null ? 'no value' : d.hops.toFixed(1) + ' expected hops'}`,
+    );
+  if (!withNames) return;
+  nodes
+    .append('text')
+    .attr('class', 'name')
+    .attr('y', (d) => (d.order ? 22 : 17))
+    .attr('text-anchor', 'middle')
+    .text((d) => d.name.split(' ')[0] ?? '');
 }
 
 function placeMissing(dots: Dot[], links: { source: Dot; target: Dot }[]): void {

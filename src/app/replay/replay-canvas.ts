@@ -32,32 +32,45 @@ export interface Frame {
   t: number;
 }
 
+/** Paint order: background, ties, travelling questions, people, starters, names. */
 export function drawFrame(f: Frame): void {
-  const { ctx, width, height, timeline: tl, scene } = f;
-  // The scene was laid out for this room: every person index has a position.
-  const px = (i: number) => itemAt(scene.x, i, 'replay x');
-  const py = (i: number) => itemAt(scene.y, i, 'replay y');
-  const r = scene.r;
+  const { ctx, width, height } = f;
   ctx.fillStyle = REPLAY_COLOURS.background;
   ctx.fillRect(0, 0, width, height);
+  drawTies(f);
+  drawQuestions(f);
+  drawStarters(f, drawPeople(f));
+  drawNames(f);
+}
 
+/** The scene was laid out for this room: every person index has a position. */
+function positions(f: Frame): { px: (i: number) => number; py: (i: number) => number } {
+  return { px: (i) => itemAt(f.scene.x, i, 'replay x'), py: (i) => itemAt(f.scene.y, i, 'replay y') };
+}
+
+function drawTies(f: Frame): void {
+  const { ctx } = f;
+  const { px, py } = positions(f);
   ctx.strokeStyle = REPLAY_COLOURS.tie;
-  ctx.lineWidth = tl.n > 400 ? 1 : 1.6;
+  ctx.lineWidth = f.timeline.n > 400 ? 1 : 1.6;
   ctx.beginPath();
   for (const t of f.ties) {
     ctx.moveTo(px(t.source), py(t.source));
     ctx.lineTo(px(t.target), py(t.target));
   }
   ctx.stroke();
+}
 
-  // Travelling questions: a dashed trail and a diamond at the front.
-  const fronts = chainFronts(tl, f.t);
+/** Travelling questions: a dashed trail and a diamond at the front. */
+function drawQuestions(f: Frame): void {
+  const { ctx } = f;
+  const { px, py } = positions(f);
   ctx.strokeStyle = REPLAY_COLOURS.front;
   ctx.lineWidth = 2;
   ctx.setLineDash([5, 4]);
   ctx.beginPath();
   const heads: { x: number; y: number }[] = [];
-  for (const c of fronts) {
+  for (const c of chainFronts(f.timeline, f.t)) {
     // A question that has not left its asker yet is not drawn: at hop 0 it would sit on everyone.
     if (c.trail.length <= 1 && c.along < 0.02) continue;
     const x = px(c.from) + (px(c.to) - px(c.from)) * c.along;
@@ -70,7 +83,7 @@ export function drawFrame(f: Frame): void {
   ctx.setLineDash([]);
   ctx.fillStyle = REPLAY_COLOURS.front;
   ctx.beginPath();
-  const d = r * 0.7;
+  const d = f.scene.r * 0.7;
   for (const { x, y } of heads) {
     ctx.moveTo(x, y - d);
     ctx.lineTo(x + d, y);
@@ -79,8 +92,16 @@ export function drawFrame(f: Frame): void {
     ctx.closePath();
   }
   ctx.fill();
+}
 
-  // People, batched by look: one path per kind keeps a 300-person frame to a handful of draw calls.
+/**
+ * People, batched by look: one path per kind keeps a 300-person frame to a handful of draw
+ * calls. Returns the starters, drawn on top by drawStarters.
+ */
+function drawPeople(f: Frame): number[] {
+  const { ctx, timeline: tl, scene } = f;
+  const { px, py } = positions(f);
+  const r = scene.r;
   const hop = Math.floor(f.t + 1e-9);
   const heard = new Path2D();
   const heardRing = new Path2D();
@@ -116,6 +137,14 @@ export function drawFrame(f: Frame): void {
   ctx.strokeStyle = REPLAY_COLOURS.waiting;
   ctx.lineWidth = 2;
   ctx.stroke(waiting);
+  return starters;
+}
+
+/** Starters: white squares marked "S". */
+function drawStarters(f: Frame, starters: readonly number[]): void {
+  const { ctx } = f;
+  const { px, py } = positions(f);
+  const r = f.scene.r;
   ctx.font = `700 ${Math.round(r * 1.6)}px "Source Sans 3", sans-serif`;
   ctx.textAlign = 'center';
   ctx.textBaseline = 'middle';
@@ -127,7 +156,6 @@ export function drawFrame(f: Frame): void {
     ctx.fillStyle = REPLAY_COLOURS.background;
     ctx.fillText('S', x, y + 1);
   }
-  drawNames(f);
 }
 
 /** Names at their spots: bold and bright once heard, plain and dimmer while waiting. */
