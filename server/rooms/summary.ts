@@ -74,29 +74,7 @@ export function summarize(loaded: LoadedRoomGraph): RoomSummary {
   const closed = structure.closedClasses;
   base.minStarters = settings.mixing > 0 ? 1 : closed.length;
   const describe = (members: number[]) => members.slice(0, NAMED).map(ref);
-  if (closed.length > 1) {
-    for (const members of closed) {
-      const first = firstOf(members, 'closed group');
-      if (members.length === 1 && !touched[first]) continue; // listed as isolated
-      base.problems.push(
-        settings.directed
-          ? {
-              kind: 'cannot-enter',
-              people: describe(members),
-              size: members.length,
-              message:
-                `${members.length === 1 ? `${itemAt(names, first, 'person name')} asks` : `These ${members.length} people ask only each other`}: ` +
-                'the message gets in only if one of them is briefed. Brief one of them, or add a tie from one of them to someone outside.',
-            }
-          : {
-              kind: 'separate-part',
-              people: describe(members),
-              size: members.length,
-              message: `These ${members.length} people have no tie to the rest of the room: brief one of them as well, or add a tie that connects them.`,
-            },
-      );
-    }
-  }
+  if (closed.length > 1) base.problems.push(...closedGroupProblems(closed, touched, settings.directed, names, describe));
   if (settings.directed) base.problems.push(...cannotLeave(tiesOnly.csr.rowStart, tiesOnly.csr.col, structure, n, names, describe));
   if (base.isolated.length > 0) {
     base.notes.push(
@@ -108,6 +86,39 @@ export function summarize(loaded: LoadedRoomGraph): RoomSummary {
   }
   base.hint = hint(loaded, base, base.notes);
   return base;
+}
+
+/** Each closed group of a room with several (an isolated person is listed as isolated instead). */
+function closedGroupProblems(
+  closed: number[][],
+  touched: Uint8Array,
+  directed: boolean,
+  names: readonly string[],
+  describe: (members: number[]) => PersonRefDto[],
+): RoomGroupProblem[] {
+  const problems: RoomGroupProblem[] = [];
+  for (const members of closed) {
+    const first = firstOf(members, 'closed group');
+    if (members.length === 1 && !touched[first]) continue;
+    problems.push(
+      directed
+        ? {
+            kind: 'cannot-enter',
+            people: describe(members),
+            size: members.length,
+            message:
+              `${members.length === 1 ? `${itemAt(names, first, 'person name')} asks` : `These ${members.length} people ask only each other`}: ` +
+              'the message gets in only if one of them is briefed. Brief one of them, or add a tie from one of them to someone outside.',
+          }
+        : {
+            kind: 'separate-part',
+            people: describe(members),
+            size: members.length,
+            message: `These ${members.length} people have no tie to the rest of the room: brief one of them as well, or add a tie that connects them.`,
+          },
+    );
+  }
+  return problems;
 }
 
 /** Directed rooms: components nobody outside asks. A starter there reaches only them. */
