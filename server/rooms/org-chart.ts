@@ -10,6 +10,7 @@ import {
   parseOrgChart,
   writeOrgChart,
   type OrgChartField,
+  type RoomGraph,
 } from '../../shared/engine/index';
 import {
   ORG_CHART_HEADER_HINTS,
@@ -63,20 +64,7 @@ export function readOrgChart(
     strengths,
   };
   const decoded = decodeUtf8(file.bytes, 'org chart');
-  if (decoded.error) {
-    return {
-      report: {
-        ...base,
-        counts: { people: 0, ties: 0, groups: 0 },
-        warnings: [],
-        errors: [{ ...decoded.error }],
-        preview: { columns: [], rows: [] },
-        columns: chosen,
-      },
-      content: { people: [], ties: [] },
-      saved: null,
-    };
-  }
+  if (decoded.error) return refused(base, { ...decoded.error }, { columns: [], rows: [] }, chosen);
   const preview = orgChartPreview(decoded.text);
   const columns = chosen ?? suggestColumns(preview.columns);
   if (!columns) {
@@ -87,18 +75,7 @@ export function readOrgChart(
       line: 1,
       message: 'choose which column holds the person id and which one names their manager',
     };
-    return {
-      report: {
-        ...base,
-        counts: { people: 0, ties: 0, groups: 0 },
-        warnings: [],
-        errors: [error],
-        preview: { columns: preview.columns, rows: preview.rows },
-        columns: null,
-      },
-      content: { people: [], ties: [] },
-      saved: null,
-    };
+    return refused(base, error, { columns: preview.columns, rows: preview.rows }, null);
   }
   const result = parseOrgChart(decoded.text, columns, strengths, {
     maxPeople: L.maxPeople,
@@ -107,30 +84,7 @@ export function readOrgChart(
   });
   const { graph } = result;
   const errors: ImportIssue[] = result.errors.map((e) => ({ ...e }));
-  graph.ids.forEach((id, i) => {
-    if (errors.length >= 200) return;
-    if (id.length > L.personKeyMax)
-      errors.push({
-        severity: 'error',
-        code: 'too-long',
-        file: 'org chart',
-        message: `the id "${id.slice(0, 40)}..." is longer than ${L.personKeyMax} characters`,
-      });
-    if ((graph.labels?.[i] ?? '').length > L.personNameMax)
-      errors.push({
-        severity: 'error',
-        code: 'too-long',
-        file: 'org chart',
-        message: `the name of "${id.slice(0, 40)}" is longer than ${L.personNameMax} characters`,
-      });
-    if ((graph.groups?.[i] ?? '').length > L.groupMax)
-      errors.push({
-        severity: 'error',
-        code: 'too-long',
-        file: 'org chart',
-        message: `the department of "${id.slice(0, 40)}" is longer than ${L.groupMax} characters`,
-      });
-  });
+  errors.push(...tooLong(graph));
   const report: OrgChartReport = {
     ...base,
     counts: { people: graph.ids.length, ties: graph.ties.length, groups: new Set(graph.groups?.filter((g) => g)).size },
@@ -151,6 +105,37 @@ export function readOrgChart(
   }));
   const ties: TieRowInput[] = graph.ties.map((t) => ({ source: t.source, target: t.target, strength: t.strength }));
   return { report, content: { people, ties }, saved: JSON.stringify({ columns, order: result.order }) };
+}
+
+type ReportBase = Pick<OrgChartReport, 'format' | 'dryRun' | 'committed' | 'directed' | 'strengths'>;
+
+/** A file refused before any row was read: the one error, and the preview so far. */
+function refused(
+  base: ReportBase,
+  error: ImportIssue,
+  preview: OrgChartReport['preview'],
+  columns: OrgChartColumnsDto | null,
+): OrgChartRead {
+  return {
+    report: { ...base, counts: { people: 0, ties: 0, groups: 0 }, warnings: [], errors: [error], preview, columns },
+    content: { people: [], ties: [] },
+    saved: null,
+  };
+}
+
+/** Ids, names and departments longer than the room's columns hold (at most 200 errors in all). */
+function tooLong(graph: RoomGraph): ImportIssue[] {
+  const errors: ImportIssue[] = [];
+  const add = (message: string) => errors.push({ severity: 'error', code: 'too-long', file: 'org chart', message });
+  graph.ids.forEach((id, i) => {
+    if (errors.length >= 200) return;
+    if (id.length > L.personKeyMax) add(`the id "${id.slice(0, 40)}..." is longer than ${L.personKeyMax} characters`);
+    if ((graph.labels?.[i] ?? '').length > L.personNameMax)
+      add(`the name of "${id.slice(0, 40)}" is longer than ${L.personNameMax} characters`);
+    if ((graph.groups?.[i] ?? '').length > L.groupMax)
+      add(`the department of "${id.slice(0, 40)}" is longer than ${L.groupMax} characters`);
+  });
+  return errors;
 }
 
 export const DEFAULT_STRENGTHS: OrgChartStrengthsDto = { ...ORG_CHART_DEFAULT_STRENGTHS };
