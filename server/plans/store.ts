@@ -113,18 +113,18 @@ export async function mergeBound(key: BoundKey, facts: BoundFacts, tx: Conn = db
                       VALUES(best_total), best_total)`);
 }
 
+/** The one bound row of a key (room, room version, k, constraints). */
+function boundKeyIs(key: BoundKey) {
+  return and(
+    eq(planBounds.roomId, key.roomId),
+    eq(planBounds.roomVersion, key.roomVersion),
+    eq(planBounds.k, key.k),
+    eq(planBounds.constraintsKey, key.constraintsKey),
+  );
+}
+
 export async function findBound(key: BoundKey, tx: Conn = db): Promise<BoundRow | undefined> {
-  const [row] = await tx
-    .select()
-    .from(planBounds)
-    .where(
-      and(
-        eq(planBounds.roomId, key.roomId),
-        eq(planBounds.roomVersion, key.roomVersion),
-        eq(planBounds.k, key.k),
-        eq(planBounds.constraintsKey, key.constraintsKey),
-      ),
-    );
+  const [row] = await tx.select().from(planBounds).where(boundKeyIs(key));
   return row;
 }
 
@@ -148,18 +148,7 @@ export async function saveSearchState(key: BoundKey, state: SearchResume, tx: Co
 
 /** The bound row of a key, locked until the transaction ends (one background proof per key). */
 export async function lockBound(key: BoundKey, tx: Tx): Promise<BoundRow | undefined> {
-  const [row] = await tx
-    .select()
-    .from(planBounds)
-    .where(
-      and(
-        eq(planBounds.roomId, key.roomId),
-        eq(planBounds.roomVersion, key.roomVersion),
-        eq(planBounds.k, key.k),
-        eq(planBounds.constraintsKey, key.constraintsKey),
-      ),
-    )
-    .for('update');
+  const [row] = await tx.select().from(planBounds).where(boundKeyIs(key)).for('update');
   return row;
 }
 
