@@ -46,6 +46,54 @@ export function planContext(input: RoomInput, options: PlanOptions): PlanContext
   const room = prepareRoom(input, options);
   const n = room.n;
   const k = options.k;
+  const { mustInclude, exclude, allowed, classes } = checkedRequest(room, options);
+  let coverCache: CoverResult | undefined;
+  let p1Cache: Float64Array | undefined;
+  let ergCache: ErgodicData | null | undefined;
+  let worstCache: number | undefined;
+  const ctx: PlanContext = {
+    room,
+    n,
+    k,
+    mustInclude,
+    exclude,
+    allowed,
+    classes,
+    started,
+    options,
+    notes: [],
+    warnings: [],
+    bounds: [],
+    deadline: started + (options.timeLimitMs ?? 10_000),
+    cover: () => (coverCache ??= vertexCover(room)),
+    p1: () => (p1Cache ??= denseWalk(room)),
+    ergodic: () => {
+      if (ergCache === undefined) {
+        if (classes.closedClasses.length !== 1) ergCache = null;
+        else if (options.ergodic && options.ergodic.n === n) ergCache = options.ergodic;
+        else if (isReversibleErgodic(room, 1)) ergCache = ergodicSymmetric(room);
+        else ergCache = ergodicFromWalk(ctx.p1(), n, 1 / (1 - room.laziness));
+      }
+      return ergCache;
+    },
+    worstTotal: () => ctx.worstOverride ?? (worstCache ??= worstSingle(ctx)),
+  };
+  if (classes.closedClasses.length > 1) {
+    ctx.notes.push(`The room has ${classes.closedClasses.length} closed groups; the plan keeps at least one starter in each.`);
+  }
+  return ctx;
+}
+
+/**
+ * The request checked against the room: k in range, the constraint lists, and one starter
+ * possible in every closed group. Throws an EngineError naming what to change.
+ */
+function checkedRequest(
+  room: PreparedRoom,
+  options: PlanOptions,
+): { mustInclude: number[]; exclude: number[]; allowed: Uint8Array; classes: ClassStructure } {
+  const n = room.n;
+  const k = options.k;
   if (n < 2) throw new EngineError('INVALID_K', 'A plan needs a room of at least two people.');
   if (!Number.isInteger(k) || k < 1 || k >= n) {
     throw new EngineError('INVALID_K', `k must be a whole number with 1 <= k <= ${n - 1} (the room has ${n} people); got ${String(k)}.`, {
@@ -97,41 +145,7 @@ export function planContext(input: RoomInput, options: PlanOptions): PlanContext
       { closedGroups: classes.closedClasses.length, needed: mustInclude.length + open },
     );
   }
-  let coverCache: CoverResult | undefined;
-  let p1Cache: Float64Array | undefined;
-  let ergCache: ErgodicData | null | undefined;
-  let worstCache: number | undefined;
-  const ctx: PlanContext = {
-    room,
-    n,
-    k,
-    mustInclude,
-    exclude,
-    allowed,
-    classes,
-    started,
-    options,
-    notes: [],
-    warnings: [],
-    bounds: [],
-    deadline: started + (options.timeLimitMs ?? 10_000),
-    cover: () => (coverCache ??= vertexCover(room)),
-    p1: () => (p1Cache ??= denseWalk(room)),
-    ergodic: () => {
-      if (ergCache === undefined) {
-        if (classes.closedClasses.length !== 1) ergCache = null;
-        else if (options.ergodic && options.ergodic.n === n) ergCache = options.ergodic;
-        else if (isReversibleErgodic(room, 1)) ergCache = ergodicSymmetric(room);
-        else ergCache = ergodicFromWalk(ctx.p1(), n, 1 / (1 - room.laziness));
-      }
-      return ergCache;
-    },
-    worstTotal: () => ctx.worstOverride ?? (worstCache ??= worstSingle(ctx)),
-  };
-  if (classes.closedClasses.length > 1) {
-    ctx.notes.push(`The room has ${classes.closedClasses.length} closed groups; the plan keeps at least one starter in each.`);
-  }
-  return ctx;
+  return { mustInclude, exclude, allowed, classes };
 }
 
 function describe(room: PreparedRoom, cls: number[]): string {
