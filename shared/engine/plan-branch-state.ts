@@ -104,6 +104,7 @@ export class CandState {
    * v = N_x·), so only the diagonal, h, c and one column and row per step are formed:
    * O(m r^2) using `scratch`'s buffers, instead of O(r m^2).
    */
+  // eslint-disable-next-line max-lines-per-function -- runs at every search node over one set of scratch buffers (h, c, the diagonal, the rank-one terms); split, each greedy step would pass them all around.
   dualBound(r: number, scratch: CandState, picked: Uint8Array): number {
     const m = this.m;
     const N = this.N;
