@@ -152,19 +152,22 @@ export async function lockBound(key: BoundKey, tx: Tx): Promise<BoundRow | undef
   return row;
 }
 
+/** The columns that name a plan's problem (its bound key): room, room version, k, constraints, no-show chance. */
+const problemColumns = {
+  roomId: plans.roomId,
+  roomVersion: plans.roomVersion,
+  k: plans.k,
+  mustBrief: plans.mustBrief,
+  cannotBrief: plans.cannotBrief,
+  noShow: plans.noShow,
+};
+
 /** Open background proofs of a room, with the key columns of their plans. */
 export async function openProofsOfRoom(roomId: number, tx: Conn = db) {
   return tx
     .select({
       job: jobs,
-      plan: {
-        roomId: plans.roomId,
-        roomVersion: plans.roomVersion,
-        k: plans.k,
-        mustBrief: plans.mustBrief,
-        cannotBrief: plans.cannotBrief,
-        noShow: plans.noShow,
-      },
+      plan: problemColumns,
     })
     .from(jobs)
     .innerJoin(plans, eq(plans.id, jobs.planId))
@@ -176,12 +179,7 @@ export async function readyPlansOfRoom(roomId: number) {
   return db
     .select({
       id: plans.id,
-      roomId: plans.roomId,
-      roomVersion: plans.roomVersion,
-      k: plans.k,
-      mustBrief: plans.mustBrief,
-      cannotBrief: plans.cannotBrief,
-      noShow: plans.noShow,
+      ...problemColumns,
       total: plans.total,
     })
     .from(plans)
