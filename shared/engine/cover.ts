@@ -6,6 +6,7 @@
  * pruning of redundant people; O(m log n). Exact branch and bound (branch on a person of
  * largest degree: take it, or take all its neighbours) for rooms up to `exactLimit` people.
  */
+import type { Csr } from './graph';
 import { prepareRoom, type RoomInput } from './room';
 
 export interface CoverResult {
@@ -23,82 +24,169 @@ export interface CoverOptions {
   readonly nodeLimit?: number;
 }
 
+/**
+ * Covers of rooms asked with the default options, per CSR (a prepared room's ties never change):
+ * a planning run, a k-sweep and the quality rank of every plan of a room share one computation.
+ */
+const coverCache = new WeakMap<object, CoverResult>();
+
 export function vertexCover(input: RoomInput, options: CoverOptions = {}): CoverResult {
   const room = prepareRoom(input);
-  const { n, csr } = room;
+  const cacheable = options.exactLimit === undefined && options.nodeLimit === undefined;
+  const hit = cacheable ? coverCache.get(room.csr) : undefined;
+  if (hit) return { ...hit, cover: hit.cover.slice() };
+  const result = computeCover(room.csr, options);
+  if (cacheable) coverCache.set(room.csr, { ...result, cover: result.cover.slice() });
+  return result;
+}
+
+/** The remaining ties as symmetric CSR over people not forced into the cover, rows sorted, no repeats. */
+interface CoverGraph {
+  readonly forced: Uint8Array;
+  readonly start: Int32Array;
+  readonly adj: Int32Array;
+}
+
+function coverGraph(csr: Csr): CoverGraph {
+  const { n, rowStart, col } = csr;
   const forced = new Uint8Array(n);
-  const nbr: Set<number>[] = Array.from({ length: n }, () => new Set());
   for (let i = 0; i < n; i++) {
-    if (csr.rowStart[i + 1] === csr.rowStart[i]) forced[i] = 1;
-    for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) {
-      const j = csr.col[e];
-      if (j === i) forced[i] = 1;
-      else {
-        nbr[i].add(j);
-        nbr[j].add(i);
-      }
+    if (rowStart[i + 1] === rowStart[i]) forced[i] = 1;
+    for (let e = rowStart[i]; e < rowStart[i + 1]; e++) if (col[e] === i) forced[i] = 1;
+  }
+  // Both directions of every tie between people not forced, then each row sorted and deduplicated.
+  const count = new Int32Array(n + 1);
+  for (let i = 0; i < n; i++) {
+    if (forced[i]) continue;
+    for (let e = rowStart[i]; e < rowStart[i + 1]; e++) {
+      const j = col[e];
+      if (forced[j]) continue;
+      count[i + 1]++;
+      count[j + 1]++;
     }
   }
-  // Edges still to cover: those with no forced end.
-  const adj: number[][] = Array.from({ length: n }, (_, i) =>
-    forced[i] ? [] : [...nbr[i]].filter((j) => !forced[j]).sort((a, b) => a - b),
-  );
-  const inCover = (order: number[]): Uint8Array => {
+  for (let i = 0; i < n; i++) count[i + 1] += count[i];
+  const at = count.slice(0, n);
+  const raw = new Int32Array(count[n]);
+  for (let i = 0; i < n; i++) {
+    if (forced[i]) continue;
+    for (let e = rowStart[i]; e < rowStart[i + 1]; e++) {
+      const j = col[e];
+      if (forced[j]) continue;
+      raw[at[i]++] = j;
+      raw[at[j]++] = i;
+    }
+  }
+  const start = new Int32Array(n + 1);
+  let q = 0;
+  for (let i = 0; i < n; i++) {
+    const row = raw.subarray(count[i], count[i + 1]).sort();
+    let last = -1;
+    for (let t = 0; t < row.length; t++)
+      if (row[t] !== last) {
+        last = row[t];
+        raw[q++] = last;
+      }
+    start[i + 1] = q;
+  }
+  return { forced, start, adj: raw.subarray(0, q) };
+}
+
+function computeCover(csr: Csr, options: CoverOptions): CoverResult {
+  const n = csr.n;
+  const g = coverGraph(csr);
+  const { forced, start, adj } = g;
+  const degreeOf = (i: number) => start[i + 1] - start[i];
+  const inCover = (order: ArrayLike<number>, len: number): Uint8Array => {
     const c = Uint8Array.from(forced);
-    for (const v of order) c[v] = 1;
+    for (let q = 0; q < len; q++) c[order[q]] = 1;
     return c;
   };
   const prune = (c: Uint8Array): Uint8Array => {
-    const order = Array.from({ length: n }, (_, i) => i)
-      .filter((i) => c[i] && !forced[i])
-      .sort((a, b) => adj[a].length - adj[b].length || a - b);
-    for (const v of order) if (adj[v].every((u) => c[u])) c[v] = 0;
+    const order: number[] = [];
+    for (let i = 0; i < n; i++) if (c[i] && !forced[i]) order.push(i);
+    order.sort((a, b) => degreeOf(a) - degreeOf(b) || a - b);
+    for (const v of order) {
+      let all = true;
+      for (let e = start[v]; e < start[v + 1]; e++)
+        if (!c[adj[e]]) {
+          all = false;
+          break;
+        }
+      if (all) c[v] = 0;
+    }
     return c;
   };
-  // Maximal matching.
-  const matched: number[] = [];
+  const matched = maximalMatching(g);
+  let best = prune(inCover(matched, matched.length));
+  const count = (c: Uint8Array) => {
+    let s = 0;
+    for (let i = 0; i < n; i++) s += c[i];
+    return s;
+  };
+  const greedy = prune(maxDegreeGreedy(g));
+  if (count(greedy) < count(best)) best = greedy;
+  let exact = adj.length === 0;
+  const active: number[] = [];
+  for (let i = 0; i < n; i++) if (degreeOf(i) > 0) active.push(i);
+  if (!exact && active.length <= (options.exactLimit ?? 60)) {
+    const lists: number[][] = Array.from({ length: n }, (_, i) => Array.from(adj.subarray(start[i], start[i + 1])));
+    const r = exactCover(lists, active, count(best) - count(forced), options.nodeLimit ?? 2e6);
+    if (r.cover) best = inCover(r.cover, r.cover.length);
+    exact = r.complete;
+  }
+  const cover: number[] = [];
+  for (let i = 0; i < n; i++) if (best[i]) cover.push(i);
+  return { size: cover.length, cover, exact };
+}
+
+/** Both ends of each edge of a maximal matching (people in order, first free neighbour). */
+function maximalMatching(g: CoverGraph): Int32Array {
+  const { start, adj } = g;
+  const n = g.forced.length;
+  const matched = new Int32Array(n);
+  let nm = 0;
   const used = new Uint8Array(n);
   for (let i = 0; i < n; i++) {
     if (used[i]) continue;
-    for (const j of adj[i])
+    for (let e = start[i]; e < start[i + 1]; e++) {
+      const j = adj[e];
       if (!used[j]) {
         used[i] = used[j] = 1;
-        matched.push(i, j);
+        matched[nm++] = i;
+        matched[nm++] = j;
         break;
       }
+    }
   }
-  let best = prune(inCover(matched));
-  // Max-degree greedy with a lazy max-heap (stale entries skipped): O(m log n).
-  const deg = adj.map((a) => a.length);
-  const chosen: number[] = [];
+  return matched.subarray(0, nm);
+}
+
+/** Max-degree greedy with a lazy max-heap (stale entries skipped): O(m log n). The chosen people plus the forced ones. */
+function maxDegreeGreedy(g: CoverGraph): Uint8Array {
+  const { forced, start, adj } = g;
+  const n = forced.length;
+  const deg = new Int32Array(n);
+  for (let i = 0; i < n; i++) deg[i] = start[i + 1] - start[i];
+  const c = Uint8Array.from(forced);
   const covered = new Uint8Array(n);
-  const heap = new MaxHeap();
+  const heap = new MaxHeap(n + adj.length);
   for (let i = 0; i < n; i++) if (deg[i] > 0) heap.push(deg[i], i);
   while (heap.size > 0) {
-    const [d, v] = heap.pop();
+    const v = heap.pop();
+    const d = heap.poppedKey;
     if (covered[v] || d !== deg[v] || d === 0) continue;
-    chosen.push(v);
+    c[v] = 1;
     covered[v] = 1;
-    for (const u of adj[v]) {
+    for (let e = start[v]; e < start[v + 1]; e++) {
+      const u = adj[e];
       if (covered[u]) continue;
       deg[u]--;
       if (deg[u] > 0) heap.push(deg[u], u);
     }
     deg[v] = 0;
   }
-  const greedy = prune(inCover(chosen));
-  const count = (c: Uint8Array) => c.reduce((s, x) => s + x, 0);
-  if (count(greedy) < count(best)) best = greedy;
-  let exact = adj.every((a) => a.length === 0);
-  const active = adj.map((a, i) => (a.length > 0 ? i : -1)).filter((i) => i >= 0);
-  if (!exact && active.length <= (options.exactLimit ?? 60)) {
-    const r = exactCover(adj, active, count(best) - count(forced), options.nodeLimit ?? 2e6);
-    if (r.cover) best = inCover(r.cover);
-    exact = r.complete;
-  }
-  const cover: number[] = [];
-  for (let i = 0; i < n; i++) if (best[i]) cover.push(i);
-  return { size: cover.length, cover, exact };
+  return c;
 }
 
 function exactCover(adj: number[][], active: number[], upper: number, nodeLimit: number): { cover: number[] | null; complete: boolean } {
@@ -164,49 +252,55 @@ function exactCover(adj: number[][], active: number[], upper: number, nodeLimit:
   return { cover: bestSet, complete };
 }
 
-/** Binary max-heap of (key, person); ties pop the earlier person first. */
+/** Binary max-heap of (key, person) on typed arrays of a fixed capacity; ties pop the earlier person first. */
 class MaxHeap {
-  private keys: number[] = [];
-  private vals: number[] = [];
-  get size(): number {
-    return this.keys.length;
+  private readonly keys: Int32Array;
+  private readonly vals: Int32Array;
+  size = 0;
+  /** Key of the entry the last pop returned. */
+  poppedKey = 0;
+  constructor(capacity: number) {
+    this.keys = new Int32Array(Math.max(1, capacity));
+    this.vals = new Int32Array(Math.max(1, capacity));
   }
-  private above(a: number, b: number): boolean {
-    return this.keys[a] > this.keys[b] || (this.keys[a] === this.keys[b] && this.vals[a] < this.vals[b]);
-  }
-  private swap(a: number, b: number): void {
-    [this.keys[a], this.keys[b]] = [this.keys[b], this.keys[a]];
-    [this.vals[a], this.vals[b]] = [this.vals[b], this.vals[a]];
+  private above(ka: number, va: number, kb: number, vb: number): boolean {
+    return ka > kb || (ka === kb && va < vb);
   }
   push(key: number, val: number): void {
-    this.keys.push(key);
-    this.vals.push(val);
-    let i = this.keys.length - 1;
+    const { keys, vals } = this;
+    let i = this.size++;
     while (i > 0) {
       const p = (i - 1) >> 1;
-      if (!this.above(i, p)) break;
-      this.swap(i, p);
+      if (!this.above(key, val, keys[p], vals[p])) break;
+      keys[i] = keys[p];
+      vals[i] = vals[p];
       i = p;
     }
+    keys[i] = key;
+    vals[i] = val;
   }
-  pop(): [number, number] {
-    const top: [number, number] = [this.keys[0], this.vals[0]];
-    const lastK = this.keys.pop()!;
-    const lastV = this.vals.pop()!;
-    if (this.keys.length > 0) {
-      this.keys[0] = lastK;
-      this.vals[0] = lastV;
+  /** Removes the top entry and returns its person (its key in `poppedKey`). */
+  pop(): number {
+    const { keys, vals } = this;
+    const top = vals[0];
+    this.poppedKey = keys[0];
+    const size = --this.size;
+    if (size > 0) {
+      const k = keys[size];
+      const v = vals[size];
       let i = 0;
       for (;;) {
         const l = 2 * i + 1;
+        if (l >= size) break;
         const r = l + 1;
-        let m = i;
-        if (l < this.keys.length && this.above(l, m)) m = l;
-        if (r < this.keys.length && this.above(r, m)) m = r;
-        if (m === i) break;
-        this.swap(i, m);
+        const m = r < size && this.above(keys[r], vals[r], keys[l], vals[l]) ? r : l;
+        if (!this.above(keys[m], vals[m], k, v)) break;
+        keys[i] = keys[m];
+        vals[i] = vals[m];
         i = m;
       }
+      keys[i] = k;
+      vals[i] = v;
     }
     return top;
   }

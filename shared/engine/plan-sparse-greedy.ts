@@ -16,7 +16,8 @@ import { GroundedFactor, factorFits, fillReducingOrder, MAX_FACTOR_WORK } from '
 import { oneHopBoundSparse } from './plan-bounds';
 import { finishPlan, type PlanContext } from './plan-context';
 import type { PlanResult } from './plan-types';
-import { firstStarters } from './sparse-first-pick';
+import { refine } from './linalg/refine';
+import { firstStarters, type FirstStarters } from './sparse-first-pick';
 
 /** Largest factor (nonzeros below the diagonal) the sparse path builds; about 20 bytes each. */
 export const DEFAULT_MAX_FILL = 40_000_000;
@@ -29,12 +30,34 @@ export function sparseGreedyEligible(ctx: PlanContext): boolean {
 
 interface GreedyState {
   readonly f: GroundedFactor;
+  /** People grounded in `f` who are not starters (their rows of the base inverse are zero). */
+  readonly groundedFree: number[];
   readonly inT: Uint8Array;
   readonly u: Float64Array;
   readonly v: Float64Array;
   readonly dg: Float64Array;
+  /** G = (inverse from f) - sum_p sign_p w_p w_p^T on T. */
   readonly cols: Float64Array[];
+  readonly signs: number[];
   sigma: number;
+}
+
+/**
+ * Tie strengths within this ratio of each other count as well scaled: the greedy's G then comes
+ * from the first factor by a change of ground (no second factorisation), and the reported total
+ * is refined against that same factor. Wider spreads keep a fresh factor for each (docs/sparse-greedy.md).
+ */
+const WELL_SCALED = 1e4;
+
+function wellScaled(w: Float64Array): boolean {
+  let lo = Infinity;
+  let hi = 0;
+  for (let e = 0; e < w.length; e++) {
+    const x = w[e];
+    if (x < lo) lo = x;
+    if (x > hi) hi = x;
+  }
+  return w.length === 0 || hi <= WELL_SCALED * lo;
 }
 
 /**
@@ -43,7 +66,7 @@ interface GreedyState {
  * some seven factorisations' work, the dense greedy about n^3.
  */
 export function sparseGreedyPlan(ctx: PlanContext, maxFill = DEFAULT_MAX_FILL, maxWork = MAX_FACTOR_WORK): PlanResult | null {
-  const { room, n, k } = ctx;
+  const { room, n } = ctx;
   const progress = ctx.options.onProgress;
   const beta = room.mixing / n;
   const gamma = 1 - room.mixing;
@@ -52,16 +75,104 @@ export function sparseGreedyPlan(ctx: PlanContext, maxFill = DEFAULT_MAX_FILL, m
   progress?.({ stage: 'ordering', done: 1, of: 1 });
   const first = firstStarters(ctx, order, maxFill, maxWork);
   if (!first) return null;
+  const scaled = wellScaled(room.csr.weight);
+  const s = scaled && first.scoredAll && first.grounded ? regroundedState(n, first.set[0], first.grounded, room.csr.outStrength) : null;
+  const state = s ?? freshState(ctx, first.set, order, gamma, maxFill, maxWork);
+  if (!state) return null;
+  return greedyFromState(ctx, state, first, { order, gamma, beta, scale, scaled });
+}
+
+/** The state on a new factor grounded at the starting set (G = K_TT^-1 by selected inversion). */
+function freshState(
+  ctx: PlanContext,
+  set: number[],
+  order: Int32Array,
+  gamma: number,
+  maxFill: number,
+  maxWork: number,
+): GreedyState | null {
+  const { room, n } = ctx;
   const inT = new Uint8Array(n).fill(1);
-  for (const a of first.set) inT[a] = 0;
+  for (const a of set) inT[a] = 0;
   const f = new GroundedFactor(room.csr, order, invert(inT), gamma);
   if (!factorFits(f.sym, maxFill, maxWork)) return null;
   f.factorise();
-  progress?.({ stage: 'factor', done: 1, of: 1 });
+  ctx.options.onProgress?.({ stage: 'factor', done: 1, of: 1 });
+  const s: GreedyState = {
+    f,
+    groundedFree: [],
+    inT,
+    u: new Float64Array(n),
+    v: new Float64Array(n),
+    dg: f.inverseDiagonal(),
+    cols: [],
+    signs: [],
+    sigma: 0,
+  };
+  setSums(s, room.csr.outStrength);
+  return s;
+}
+
+/**
+ * One closed group, nothing required, no mixing: the first factor X (grounded at r, the person
+ * eliminated last) already holds G for the starter j by a change of ground,
+ * G_ab = X_ab - X_aj - X_jb + X_jj = X_ab - x_a x_b + z_a z_b with x = X e_j / sqrt(X_jj) and
+ * z = (X_jj 1 - X e_j) / sqrt(X_jj) (z_r = sqrt(X_jj), because X is zero on r): two corrections
+ * of the kind every pick adds, and diag(G) from diag(X) without a second selected inversion.
+ */
+function regroundedState(n: number, j: number, g: NonNullable<FirstStarters['grounded']>, d: Float64Array): GreedyState {
+  const inT = new Uint8Array(n).fill(1);
+  inT[j] = 0;
+  const groundedFree: number[] = [];
+  for (let i = 0; i < n; i++) if (g.ground[i] && i !== j) groundedFree.push(i);
+  const dg = Float64Array.from(g.diag);
+  const s: GreedyState = { f: g.f, groundedFree, inT, u: new Float64Array(n), v: new Float64Array(n), dg, cols: [], signs: [], sigma: 0 };
+  if (!g.ground[j]) {
+    const e = new Float64Array(n);
+    e[j] = 1;
+    const xj = g.f.solve(e);
+    for (const r of groundedFree) xj[r] = 0;
+    const xjj = xj[j];
+    const sq = 1 / Math.sqrt(xjj);
+    const x = new Float64Array(n);
+    const z = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      x[i] = xj[i] * sq;
+      z[i] = (xjj - xj[i]) * sq;
+      dg[i] += z[i] * z[i] - x[i] * x[i];
+    }
+    z[j] = 0;
+    s.cols.push(x, z);
+    s.signs.push(1, -1);
+  }
+  dg[j] = 0;
+  setSums(s, d);
+  return s;
+}
+
+/** u = G d_T, v = G 1_T and sigma = 1^T u from the state's factor and corrections. */
+function setSums(s: GreedyState, d: Float64Array): void {
+  const n = s.inT.length;
+  const ones = new Float64Array(n).fill(1);
+  s.u.set(applyG(s, masked(d, s.inT)));
+  s.v.set(applyG(s, masked(ones, s.inT)));
+  s.sigma = sumOn(s.u, s.inT);
+}
+
+interface Setup {
+  readonly order: Int32Array;
+  readonly gamma: number;
+  readonly beta: number;
+  readonly scale: number;
+  readonly scaled: boolean;
+}
+
+function greedyFromState(ctx: PlanContext, s: GreedyState, first: FirstStarters, setup: Setup): PlanResult {
+  const { room, k } = ctx;
+  const progress = ctx.options.onProgress;
+  const { order, gamma, beta, scale } = setup;
+  const f = s.f;
   const d = room.csr.outStrength;
-  const u = f.solve(masked(d, inT));
-  const v = f.solve(masked(new Float64Array(n).fill(1), inT));
-  const s: GreedyState = { f, inT, u, v, dg: f.inverseDiagonal(), cols: [], sigma: sumOn(u, inT) };
   const starters = [...first.set];
   const totalOf = (sigma: number) => sigma / (1 - beta * sigma);
   if (room.mixing > 0) {
@@ -88,10 +199,13 @@ export function sparseGreedyPlan(ctx: PlanContext, maxFill = DEFAULT_MAX_FILL, m
     progress?.({ stage: 'greedy', done: starters.length, of: k });
   }
   record();
-  // Fresh factor of the final set, refined solve: the reported total does not carry the
-  // rounding of k rank-one updates.
-  const fin = new GroundedFactor(room.csr, order, invert(s.inT), gamma).factorise();
-  const sol = fin.solveRefined(masked(d, s.inT));
+  // The reported total from a refined solve (double-double residuals from the ties), so it does not
+  // carry the rounding of the rank-one updates: against the same factor and corrections for
+  // well-scaled rooms, against a fresh factor of the final set otherwise.
+  const b = masked(d, s.inT);
+  const sol = setup.scaled
+    ? refine(room.csr, s.inT, gamma, b, applyG(s, b.slice()), (res) => applyG(s, res), 1e-13)
+    : new GroundedFactor(room.csr, order, invert(s.inT), gamma).factorise().solveRefined(b);
   const sigma = sumOn(sol.x, s.inT);
   const total = totalOf(sigma) * scale;
   ctx.notes.push(
@@ -177,14 +291,40 @@ function siftDown(heap: Float64Array, size: number, g: number): void {
   heap[i] = g;
 }
 
-/** Column j of the current G: one solve with the first factor, minus the picked columns. */
+/** G b on T (0 elsewhere; b is overwritten): one solve with the state's factor, then the signed corrections. */
+function applyG(s: GreedyState, b: Float64Array): Float64Array {
+  const n = s.inT.length;
+  const { cols, signs } = s;
+  const dots = new Float64Array(cols.length);
+  for (let p = 0; p < cols.length; p++) {
+    const w = cols[p];
+    let c = 0;
+    for (let i = 0; i < n; i++) c += w[i] * b[i];
+    dots[p] = c * signs[p];
+  }
+  // The base inverse is zero on the grounded people who are not starters.
+  for (const r of s.groundedFree) b[r] = 0;
+  const y = s.f.solve(b);
+  for (let p = 0; p < cols.length; p++) {
+    const w = cols[p];
+    const c = dots[p];
+    if (c !== 0) for (let i = 0; i < n; i++) y[i] -= c * w[i];
+  }
+  for (let i = 0; i < n; i++) if (!s.inT[i]) y[i] = 0;
+  return y;
+}
+
+/** Column j of the current G: one solve with the state's factor, minus the corrections. */
 function currentColumn(s: GreedyState, j: number): Float64Array {
   const n = s.inT.length;
   const e = new Float64Array(n);
   e[j] = 1;
+  for (const r of s.groundedFree) e[r] = 0;
   const g = s.f.solve(e);
-  for (const w of s.cols) {
-    const c = w[j];
+  const { cols, signs } = s;
+  for (let p = 0; p < cols.length; p++) {
+    const w = cols[p];
+    const c = w[j] * signs[p];
     if (c !== 0) for (let i = 0; i < n; i++) g[i] -= c * w[i];
   }
   for (let i = 0; i < n; i++) if (!s.inT[i]) g[i] = 0;
@@ -208,9 +348,9 @@ function addStarter(s: GreedyState, j: number): void {
   u[j] = 0;
   v[j] = 0;
   dg[j] = 0;
-  const w = new Float64Array(inT.length);
   const sq = 1 / Math.sqrt(gjj);
-  for (let i = 0; i < inT.length; i++) w[i] = g[i] * sq;
-  s.cols.push(w);
+  for (let i = 0; i < inT.length; i++) g[i] *= sq;
+  s.cols.push(g);
+  s.signs.push(1);
   s.sigma = sumOn(u, inT);
 }

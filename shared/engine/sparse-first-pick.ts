@@ -22,6 +22,8 @@ export interface FirstStarters {
   readonly worst?: number;
   /** With one closed group: the best single starter over everyone and its total (unscaled). */
   readonly bestSingle?: { person: number; total: number };
+  /** The factor of the room grounded at `ground` and diag of its inverse X (0 on the grounded people), for reuse. */
+  readonly grounded?: { readonly f: GroundedFactor; readonly ground: Uint8Array; readonly diag: Float64Array };
 }
 
 export function firstStarters(ctx: PlanContext, order: Int32Array, maxFill: number, maxWork: number): FirstStarters | null {
@@ -59,7 +61,13 @@ export function firstStarters(ctx: PlanContext, order: Int32Array, maxFill: numb
     if (classes.length === 1) bestSingle = part.bestAny;
     if (!cls.some((p) => isIn[p])) set.push(part.best);
   }
-  return { set, scoredAll: classes.length === 1 && ctx.mustInclude.length === 0, worst, ...(bestSingle ? { bestSingle } : {}) };
+  return {
+    set,
+    scoredAll: classes.length === 1 && ctx.mustInclude.length === 0,
+    worst,
+    ...(bestSingle ? { bestSingle } : {}),
+    grounded: { f, ground: grounded, diag: xd },
+  };
 }
 
 /** The best allowed single starter of a part (tie-break of docs/engine.md) and the worst single total. */
