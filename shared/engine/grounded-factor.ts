@@ -21,8 +21,17 @@ export function factorFits(sym: { nnz: number; flops: number }, maxFill: number,
   return sym.nnz <= maxFill && sym.flops <= maxWork;
 }
 
+/** Orders per CSR: the ties of a prepared room never change, so repeated plans of a room (a k-sweep, a re-plan) order it once. */
+const orders = new WeakMap<Csr, Int32Array>();
+
+/** The room's fill-reducing order (read only: it is shared between calls). */
 export function fillReducingOrder(csr: Csr): Int32Array {
-  return amdOrder({ n: csr.n, rowStart: csr.rowStart, col: csr.col });
+  let order = orders.get(csr);
+  if (!order) {
+    order = amdOrder({ n: csr.n, rowStart: csr.rowStart, col: csr.col });
+    orders.set(csr, order);
+  }
+  return order;
 }
 
 export function groundedMatrix(csr: Csr, grounded: Uint8Array, gamma: number): SpdMatrix {

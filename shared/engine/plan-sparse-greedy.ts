@@ -39,6 +39,8 @@ interface GreedyState {
   /** G = (inverse from f) - sum_p sign_p w_p w_p^T on T. */
   readonly cols: Float64Array[];
   readonly signs: number[];
+  /** Work space for unit right-hand sides (all zero between uses). */
+  readonly unit: Float64Array;
   sigma: number;
 }
 
@@ -107,6 +109,7 @@ function freshState(
     dg: f.inverseDiagonal(),
     cols: [],
     signs: [],
+    unit: new Float64Array(n),
     sigma: 0,
   };
   setSums(s, room.csr.outStrength);
@@ -126,7 +129,18 @@ function regroundedState(n: number, j: number, g: NonNullable<FirstStarters['gro
   const groundedFree: number[] = [];
   for (let i = 0; i < n; i++) if (g.ground[i] && i !== j) groundedFree.push(i);
   const dg = Float64Array.from(g.diag);
-  const s: GreedyState = { f: g.f, groundedFree, inT, u: new Float64Array(n), v: new Float64Array(n), dg, cols: [], signs: [], sigma: 0 };
+  const s: GreedyState = {
+    f: g.f,
+    groundedFree,
+    inT,
+    u: new Float64Array(n),
+    v: new Float64Array(n),
+    dg,
+    cols: [],
+    signs: [],
+    unit: new Float64Array(n),
+    sigma: 0,
+  };
   if (!g.ground[j]) {
     const e = new Float64Array(n);
     e[j] = 1;
@@ -317,17 +331,28 @@ function applyG(s: GreedyState, b: Float64Array): Float64Array {
 /** Column j of the current G: one solve with the state's factor, minus the corrections. */
 function currentColumn(s: GreedyState, j: number): Float64Array {
   const n = s.inT.length;
-  const e = new Float64Array(n);
+  const e = s.unit;
   e[j] = 1;
   for (const r of s.groundedFree) e[r] = 0;
   const g = s.f.solve(e);
+  e[j] = 0;
   const { cols, signs } = s;
-  for (let p = 0; p < cols.length; p++) {
+  // Two corrections per sweep over g (the same operations in the same order as one at a time).
+  let p = 0;
+  for (; p + 1 < cols.length; p += 2) {
+    const w0 = cols[p];
+    const w1 = cols[p + 1];
+    const c0 = w0[j] * signs[p];
+    const c1 = w1[j] * signs[p + 1];
+    if (c0 !== 0 && c1 !== 0) for (let i = 0; i < n; i++) g[i] = g[i] - c0 * w0[i] - c1 * w1[i];
+    else if (c0 !== 0) for (let i = 0; i < n; i++) g[i] -= c0 * w0[i];
+    else if (c1 !== 0) for (let i = 0; i < n; i++) g[i] -= c1 * w1[i];
+  }
+  if (p < cols.length) {
     const w = cols[p];
     const c = w[j] * signs[p];
     if (c !== 0) for (let i = 0; i < n; i++) g[i] -= c * w[i];
   }
-  for (let i = 0; i < n; i++) if (!s.inT[i]) g[i] = 0;
   return g;
 }
 
@@ -337,20 +362,28 @@ function addStarter(s: GreedyState, j: number): void {
   const gjj = g[j];
   const fu = u[j] / gjj;
   const fv = v[j] / gjj;
+  const sq = 1 / Math.sqrt(gjj);
+  let sigma = 0;
+  // One sweep: the updates of identity 3 on T, the stored correction g / sqrt(g_j) (0 off T).
   for (let i = 0; i < inT.length; i++) {
     const gi = g[i];
-    if (gi === 0) continue;
-    u[i] -= gi * fu;
-    v[i] -= gi * fv;
-    dg[i] -= (gi * gi) / gjj;
+    if (!inT[i]) {
+      g[i] = 0;
+      continue;
+    }
+    if (gi !== 0) {
+      u[i] -= gi * fu;
+      v[i] -= gi * fv;
+      dg[i] -= (gi * gi) / gjj;
+      g[i] = gi * sq;
+    }
+    if (i !== j) sigma += u[i];
   }
   inT[j] = 0;
   u[j] = 0;
   v[j] = 0;
   dg[j] = 0;
-  const sq = 1 / Math.sqrt(gjj);
-  for (let i = 0; i < inT.length; i++) g[i] *= sq;
   s.cols.push(g);
   s.signs.push(1);
-  s.sigma = sumOn(u, inT);
+  s.sigma = sigma;
 }
