@@ -14,7 +14,7 @@
  * entry up in the pattern; its entries are then stored on the pattern for the columns below.
  * Returns diag(A^-1) in the original numbering.
  */
-import type { LdlFactor } from './sparse-ldl';
+import { trailingBlocks, type LdlFactor } from './sparse-ldl';
 
 export function inverseDiagonal(f: LdlFactor): Float64Array {
   const { n, perm, colStart } = f.sym;
@@ -22,11 +22,16 @@ export function inverseDiagonal(f: LdlFactor): Float64Array {
   const zx = new Float64Array(lx.length);
   const zd = new Float64Array(n);
   const pos = new Int32Array(n).fill(-1);
-  const blockStart = trailingBlocks(f);
+  const blockStart = trailingBlocks(f.sym);
+  // For people inside an inverted block: its first column and its dense inverse.
+  const blockOf = new Int32Array(n).fill(-1);
+  const blocks: { b0: number; s: number; z: Float64Array }[] = [];
   for (let j = n - 1; j >= 0; j--) {
     if (blockStart[j] >= 0) {
-      invertBlock(f, blockStart[j], j, zx, zd);
-      j = blockStart[j];
+      const b0 = blockStart[j];
+      blocks.push({ b0, s: j - b0 + 1, z: invertBlock(f, b0, j, zx, zd) });
+      blockOf.fill(blocks.length - 1, b0, j + 1);
+      j = b0;
       continue;
     }
     const a = colStart[j];
@@ -39,6 +44,12 @@ export function inverseDiagonal(f: LdlFactor): Float64Array {
       const l = rowIdx[p];
       const llj = lx[p];
       let zlj = zx[p] - zd[l] * llj;
+      if (blockOf[l] >= 0) {
+        // l and every later row of S_j lie in a dense block: Z_il read from it directly.
+        zlj = fromBlock(blocks[blockOf[l]], l, llj, zlj, p + 1, b, rowIdx, lx, zx);
+        zx[p] = zlj;
+        continue;
+      }
       // Pairs (i, l) with i > l, both in S_j: Z_il sits in column l of the pattern. Rows are
       // sorted and S_j after l lies inside S_l, so the scan stops once the b - p - 1 rows of S_j
       // after l have been met.
@@ -66,29 +77,8 @@ export function inverseDiagonal(f: LdlFactor): Float64Array {
   return out;
 }
 
-/** Smallest and largest dense trailing block handled by invertBlock (s^2 doubles of work space). */
-const MIN_BLOCK = 16;
-const MAX_BLOCK = 2048;
-
-/**
- * For every root b1 of the elimination tree with an empty column: the first column b0 of the
- * longest chain b0..b1 with parent j + 1 and one more row than the next column (so the rows of
- * column j are exactly j + 1..b1). blockStart[b1] = b0 for chains of MIN_BLOCK..MAX_BLOCK columns, else -1.
- */
-function trailingBlocks(f: LdlFactor): Int32Array {
-  const { n, parent, colCount } = f.sym;
-  const start = new Int32Array(n).fill(-1);
-  for (let b1 = 0; b1 < n; b1++) {
-    if (parent[b1] !== -1 || colCount[b1] !== 0) continue;
-    let b0 = b1;
-    while (b0 > 0 && parent[b0 - 1] === b0 && colCount[b0 - 1] === colCount[b0] + 1 && b1 - b0 + 1 < MAX_BLOCK) b0--;
-    if (b1 - b0 + 1 >= MIN_BLOCK) start[b1] = b0;
-  }
-  return start;
-}
-
 /** Selected inversion of the dense trailing block b0..b1 (rows of column j: j + 1..b1, in order). */
-function invertBlock(f: LdlFactor, b0: number, b1: number, zx: Float64Array, zd: Float64Array): void {
+function invertBlock(f: LdlFactor, b0: number, b1: number, zx: Float64Array, zd: Float64Array): Float64Array {
   const { colStart } = f.sym;
   const { lx, d } = f;
   const s = b1 - b0 + 1;
@@ -108,4 +98,27 @@ function invertBlock(f: LdlFactor, b0: number, b1: number, zx: Float64Array, zd:
     zd[b0 + jj] = djj;
     for (let i = jj + 1; i < s; i++) zx[c + i] = z[i * s + jj];
   }
+  return z;
+}
+
+/** Z_ij -= Z_il L_lj and Z_lj -= Z_il L_ij for the rows i of column j at positions from..to - 1, Z_il from the dense block. Returns Z_lj. */
+function fromBlock(
+  blk: { b0: number; s: number; z: Float64Array },
+  l: number,
+  llj: number,
+  zlj: number,
+  from: number,
+  to: number,
+  rowIdx: Int32Array,
+  lx: Float64Array,
+  zx: Float64Array,
+): number {
+  const { b0, s, z } = blk;
+  const base = (l - b0) * s - b0;
+  for (let t = from; t < to; t++) {
+    const zil = z[base + rowIdx[t]];
+    zx[t] -= zil * llj;
+    zlj -= zil * lx[t];
+  }
+  return zlj;
 }

@@ -37,6 +37,8 @@ export interface LdlFactor {
   readonly rowIdx: Int32Array;
   readonly lx: Float64Array;
   readonly d: Float64Array;
+  /** 1 for the columns of dense trailing blocks (rows of column j: j + 1 up to the block's last). */
+  readonly inBlock: Uint8Array;
 }
 
 export function analyse(a: SpdMatrix, perm: Int32Array): Symbolic {
@@ -68,6 +70,27 @@ export function analyse(a: SpdMatrix, perm: Int32Array): Symbolic {
   return { n, perm, pinv, parent, colCount: count, colStart, nnz: colStart[n], flops };
 }
 
+/** Smallest and largest dense trailing block given dense treatment (the selected inversion keeps s^2 doubles). */
+const MIN_BLOCK = 16;
+const MAX_BLOCK = 2048;
+
+/**
+ * For every root b1 of the elimination tree with an empty column: the first column b0 of the
+ * longest chain b0..b1 with parent j + 1 and one more row than the next column (so the rows of
+ * column j are exactly j + 1..b1). blockStart[b1] = b0 for chains of MIN_BLOCK..MAX_BLOCK columns, else -1.
+ */
+export function trailingBlocks(sym: Symbolic): Int32Array {
+  const { n, parent, colCount } = sym;
+  const start = new Int32Array(n).fill(-1);
+  for (let b1 = 0; b1 < n; b1++) {
+    if (parent[b1] !== -1 || colCount[b1] !== 0) continue;
+    let b0 = b1;
+    while (b0 > 0 && parent[b0 - 1] === b0 && colCount[b0 - 1] === colCount[b0] + 1 && b1 - b0 + 1 < MAX_BLOCK) b0--;
+    if (b1 - b0 + 1 >= MIN_BLOCK) start[b1] = b0;
+  }
+  return start;
+}
+
 /** Numeric LDL^T; throws when a pivot is not positive (the matrix is not positive definite). */
 export function factor(a: SpdMatrix, sym: Symbolic): LdlFactor {
   const { n, perm, pinv, parent, colStart } = sym;
@@ -78,6 +101,9 @@ export function factor(a: SpdMatrix, sym: Symbolic): LdlFactor {
   const pattern = new Int32Array(n);
   const flag = new Int32Array(n);
   const fillAt = new Int32Array(n);
+  const inBlock = new Uint8Array(n);
+  const blockStart = trailingBlocks(sym);
+  for (let b1 = 0; b1 < n; b1++) if (blockStart[b1] >= 0) inBlock.fill(1, blockStart[b1], b1 + 1);
   for (let k = 0; k < n; k++) {
     let top = n;
     flag[k] = k;
@@ -101,7 +127,11 @@ export function factor(a: SpdMatrix, sym: Symbolic): LdlFactor {
       const yi = y[i];
       y[i] = 0;
       const p2 = colStart[i] + fillAt[i];
-      for (let p = colStart[i]; p < p2; p++) y[rowIdx[p]] -= lx[p] * yi;
+      if (inBlock[i]) {
+        // Column i of a dense trailing block: its rows so far are i + 1, ..., k - 1.
+        const shift = i + 1 - colStart[i];
+        for (let p = colStart[i]; p < p2; p++) y[p + shift] -= lx[p] * yi;
+      } else for (let p = colStart[i]; p < p2; p++) y[rowIdx[p]] -= lx[p] * yi;
       const lki = yi / d[i];
       dk -= lki * yi;
       rowIdx[p2] = k;
@@ -111,24 +141,32 @@ export function factor(a: SpdMatrix, sym: Symbolic): LdlFactor {
     if (!(dk > 0)) throw new Error(`The matrix is not positive definite (pivot ${dk} at step ${k}).`);
     d[k] = dk;
   }
-  return { sym, rowIdx, lx, d };
+  return { sym, rowIdx, lx, d, inBlock };
 }
 
 /** x = A^-1 b (original numbering); `work` (length n) may be passed to avoid allocation. */
 export function ldlSolve(f: LdlFactor, b: Float64Array, out?: Float64Array, work?: Float64Array): Float64Array {
   const { n, perm, colStart } = f.sym;
-  const { rowIdx, lx, d } = f;
+  const { rowIdx, lx, d, inBlock } = f;
   const y = work ?? new Float64Array(n);
   for (let k = 0; k < n; k++) y[k] = b[perm[k]];
   for (let j = 0; j < n; j++) {
     const yj = y[j];
     if (yj === 0) continue;
-    for (let p = colStart[j]; p < colStart[j + 1]; p++) y[rowIdx[p]] -= lx[p] * yj;
+    const p1 = colStart[j + 1];
+    if (inBlock[j]) {
+      const shift = j + 1 - colStart[j];
+      for (let p = colStart[j]; p < p1; p++) y[p + shift] -= lx[p] * yj;
+    } else for (let p = colStart[j]; p < p1; p++) y[rowIdx[p]] -= lx[p] * yj;
   }
   for (let j = 0; j < n; j++) y[j] /= d[j];
   for (let j = n - 1; j >= 0; j--) {
     let s = y[j];
-    for (let p = colStart[j]; p < colStart[j + 1]; p++) s -= lx[p] * y[rowIdx[p]];
+    const p1 = colStart[j + 1];
+    if (inBlock[j]) {
+      const shift = j + 1 - colStart[j];
+      for (let p = colStart[j]; p < p1; p++) s -= lx[p] * y[p + shift];
+    } else for (let p = colStart[j]; p < p1; p++) s -= lx[p] * y[rowIdx[p]];
     y[j] = s;
   }
   const x = out ?? new Float64Array(n);
