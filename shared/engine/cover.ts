@@ -24,14 +24,39 @@ export interface CoverOptions {
 }
 
 export function vertexCover(input: RoomInput, options: CoverOptions = {}): CoverResult {
-  const room = prepareRoom(input);
-  const { n, csr } = room;
+  const { n, csr } = prepareRoom(input);
+  const { forced, adj } = coverGraph(n, csr.rowStart, csr.col);
+  const inCover = (order: number[]): Uint8Array => {
+    const c = Uint8Array.from(forced);
+    for (const v of order) c[v] = 1;
+    return c;
+  };
+  let best = pruneCover(inCover(matchingOrder(adj)), forced, adj);
+  const greedy = pruneCover(inCover(maxDegreeOrder(adj)), forced, adj);
+  if (countMembers(greedy) < countMembers(best)) best = greedy;
+  let exact = adj.every((a) => a.length === 0);
+  const active = adj.map((a, i) => (a.length > 0 ? i : -1)).filter((i) => i >= 0);
+  if (!exact && active.length <= (options.exactLimit ?? 60)) {
+    const r = exactCover(adj, active, countMembers(best) - countMembers(forced), options.nodeLimit ?? 2e6);
+    if (r.cover) best = inCover(r.cover);
+    exact = r.complete;
+  }
+  const cover: number[] = [];
+  for (let i = 0; i < n; i++) if (best[i]) cover.push(i);
+  return { size: cover.length, cover, exact };
+}
+
+/**
+ * The people who must be in every cover (they ask nobody, or themselves) and, for the rest,
+ * the ties still to cover as sorted neighbour lists (ties with a forced end are covered already).
+ */
+function coverGraph(n: number, rowStart: Int32Array, col: Int32Array): { forced: Uint8Array; adj: number[][] } {
   const forced = new Uint8Array(n);
   const nbr: Set<number>[] = Array.from({ length: n }, () => new Set());
   for (let i = 0; i < n; i++) {
-    if (csr.rowStart[i + 1] === csr.rowStart[i]) forced[i] = 1;
-    for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) {
-      const j = csr.col[e];
+    if (rowStart[i + 1] === rowStart[i]) forced[i] = 1;
+    for (let e = rowStart[i]; e < rowStart[i + 1]; e++) {
+      const j = col[e];
       if (j === i) forced[i] = 1;
       else {
         nbr[i].add(j);
@@ -39,26 +64,30 @@ export function vertexCover(input: RoomInput, options: CoverOptions = {}): Cover
       }
     }
   }
-  // Edges still to cover: those with no forced end.
   const adj: number[][] = Array.from({ length: n }, (_, i) =>
     forced[i] ? [] : [...nbr[i]].filter((j) => !forced[j]).sort((a, b) => a - b),
   );
-  const inCover = (order: number[]): Uint8Array => {
-    const c = Uint8Array.from(forced);
-    for (const v of order) c[v] = 1;
-    return c;
-  };
-  const prune = (c: Uint8Array): Uint8Array => {
-    const order = Array.from({ length: n }, (_, i) => i)
-      .filter((i) => c[i] && !forced[i])
-      .sort((a, b) => adj[a].length - adj[b].length || a - b);
-    for (const v of order) if (adj[v].every((u) => c[u])) c[v] = 0;
-    return c;
-  };
-  // Maximal matching.
+  return { forced, adj };
+}
+
+function countMembers(c: Uint8Array): number {
+  return c.reduce((s, x) => s + x, 0);
+}
+
+/** Drops members whose neighbours are all members, fewest ties first. Changes `c` in place. */
+function pruneCover(c: Uint8Array, forced: Uint8Array, adj: number[][]): Uint8Array {
+  const order = Array.from({ length: adj.length }, (_, i) => i)
+    .filter((i) => c[i] && !forced[i])
+    .sort((a, b) => adj[a].length - adj[b].length || a - b);
+  for (const v of order) if (adj[v].every((u) => c[u])) c[v] = 0;
+  return c;
+}
+
+/** Both ends of a maximal matching, taken in person order. */
+function matchingOrder(adj: number[][]): number[] {
   const matched: number[] = [];
-  const used = new Uint8Array(n);
-  for (let i = 0; i < n; i++) {
+  const used = new Uint8Array(adj.length);
+  for (let i = 0; i < adj.length; i++) {
     if (used[i]) continue;
     for (const j of adj[i])
       if (!used[j]) {
@@ -67,8 +96,12 @@ export function vertexCover(input: RoomInput, options: CoverOptions = {}): Cover
         break;
       }
   }
-  let best = prune(inCover(matched));
-  // Max-degree greedy with a lazy max-heap (stale entries skipped): O(m log n).
+  return matched;
+}
+
+/** Max-degree greedy with a lazy max-heap (stale entries skipped): O(m log n). */
+function maxDegreeOrder(adj: number[][]): number[] {
+  const n = adj.length;
   const deg = adj.map((a) => a.length);
   const chosen: number[] = [];
   const covered = new Uint8Array(n);
@@ -86,82 +119,101 @@ export function vertexCover(input: RoomInput, options: CoverOptions = {}): Cover
     }
     deg[v] = 0;
   }
-  const greedy = prune(inCover(chosen));
-  const count = (c: Uint8Array) => c.reduce((s, x) => s + x, 0);
-  if (count(greedy) < count(best)) best = greedy;
-  let exact = adj.every((a) => a.length === 0);
-  const active = adj.map((a, i) => (a.length > 0 ? i : -1)).filter((i) => i >= 0);
-  if (!exact && active.length <= (options.exactLimit ?? 60)) {
-    const r = exactCover(adj, active, count(best) - count(forced), options.nodeLimit ?? 2e6);
-    if (r.cover) best = inCover(r.cover);
-    exact = r.complete;
-  }
-  const cover: number[] = [];
-  for (let i = 0; i < n; i++) if (best[i]) cover.push(i);
-  return { size: cover.length, cover, exact };
+  return chosen;
 }
 
 function exactCover(adj: number[][], active: number[], upper: number, nodeLimit: number): { cover: number[] | null; complete: boolean } {
-  const n = adj.length;
-  const removed = new Uint8Array(n);
-  const deg = adj.map((a) => a.length);
-  let best = upper;
-  let bestSet: number[] | null = null;
-  let nodes = 0;
-  let complete = true;
-  const cur: number[] = [];
-  const take = (v: number, undo: number[]) => {
-    removed[v] = 1;
-    undo.push(v);
-    for (const u of adj[v]) if (!removed[u]) deg[u]--;
-  };
-  const restore = (undo: number[]) => {
-    for (let q = undo.length - 1; q >= 0; q--) {
-      const v = undo[q];
-      removed[v] = 0;
-      for (const u of adj[v]) if (!removed[u]) deg[u]++;
-    }
-  };
-  const rec = () => {
-    if (++nodes > nodeLimit) {
-      complete = false;
+  const search = new CoverSearch(adj, active, upper, nodeLimit);
+  search.run();
+  return { cover: search.bestSet, complete: search.complete };
+}
+
+/** The branch and bound of `exactCover`: the people taken so far, with their degrees kept current. */
+class CoverSearch {
+  private readonly removed: Uint8Array;
+  private readonly deg: number[];
+  private readonly cur: number[] = [];
+  private best: number;
+  private nodes = 0;
+  bestSet: number[] | null = null;
+  complete = true;
+
+  constructor(
+    private readonly adj: number[][],
+    private readonly active: number[],
+    upper: number,
+    private readonly nodeLimit: number,
+  ) {
+    this.removed = new Uint8Array(adj.length);
+    this.deg = adj.map((a) => a.length);
+    this.best = upper;
+  }
+
+  run(): void {
+    if (++this.nodes > this.nodeLimit) {
+      this.complete = false;
       return;
     }
+    const { v, edges } = this.branchPerson();
+    if (v < 0) {
+      if (this.cur.length < this.best) {
+        this.best = this.cur.length;
+        this.bestSet = [...this.cur];
+      }
+      return;
+    }
+    if (this.cur.length + Math.ceil(edges / this.deg[v]) >= this.best) return;
+    this.takePerson(v);
+    if (!this.complete) return;
+    this.takeNeighbours(v);
+  }
+
+  /** The uncovered person of largest degree (-1 when every tie is covered) and the ties left. */
+  private branchPerson(): { v: number; edges: number } {
     let v = -1;
     let edges = 0;
-    for (const i of active)
-      if (!removed[i] && deg[i] > 0) {
-        edges += deg[i];
-        if (v < 0 || deg[i] > deg[v]) v = i;
+    for (const i of this.active)
+      if (!this.removed[i] && this.deg[i] > 0) {
+        edges += this.deg[i];
+        if (v < 0 || this.deg[i] > this.deg[v]) v = i;
       }
-    if (v < 0) {
-      if (cur.length < best) {
-        best = cur.length;
-        bestSet = [...cur];
-      }
-      return;
-    }
-    edges /= 2;
-    if (cur.length + Math.ceil(edges / deg[v]) >= best) return;
-    const u1: number[] = [];
-    take(v, u1);
-    cur.push(v);
-    rec();
-    cur.pop();
-    restore(u1);
-    if (!complete) return;
-    const u2: number[] = [];
-    const ns = adj[v].filter((u) => !removed[u]);
+    return { v, edges: edges / 2 };
+  }
+
+  private takePerson(v: number): void {
+    const undo: number[] = [];
+    this.take(v, undo);
+    this.cur.push(v);
+    this.run();
+    this.cur.pop();
+    this.restore(undo);
+  }
+
+  private takeNeighbours(v: number): void {
+    const undo: number[] = [];
+    const ns = this.adj[v].filter((u) => !this.removed[u]);
     for (const u of ns) {
-      take(u, u2);
-      cur.push(u);
+      this.take(u, undo);
+      this.cur.push(u);
     }
-    if (cur.length < best) rec();
-    for (let q = 0; q < ns.length; q++) cur.pop();
-    restore(u2);
-  };
-  rec();
-  return { cover: bestSet, complete };
+    if (this.cur.length < this.best) this.run();
+    for (let q = 0; q < ns.length; q++) this.cur.pop();
+    this.restore(undo);
+  }
+
+  private take(v: number, undo: number[]): void {
+    this.removed[v] = 1;
+    undo.push(v);
+    for (const u of this.adj[v]) if (!this.removed[u]) this.deg[u]--;
+  }
+
+  private restore(undo: number[]): void {
+    for (let q = undo.length - 1; q >= 0; q--) {
+      const v = undo[q];
+      this.removed[v] = 0;
+      for (const u of this.adj[v]) if (!this.removed[u]) this.deg[u]++;
+    }
+  }
 }
 
 /** Binary max-heap of (key, person); ties pop the earlier person first. */
