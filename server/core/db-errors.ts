@@ -7,13 +7,17 @@ import { HttpError } from './http-error';
 interface DriverError {
   code?: unknown;
   errno?: unknown;
+  message?: unknown;
   cause?: unknown;
 }
 
+/** The error and its causes, outermost first, at most five deep (a cycle of causes cannot loop). */
+function* causeChain(err: unknown): Generator<DriverError> {
+  for (let e = err as DriverError | undefined, depth = 0; e && depth < 5; e = e.cause as DriverError | undefined, depth++) yield e;
+}
+
 export function dbErrorCode(err: unknown): string | undefined {
-  for (let e = err as DriverError | undefined, depth = 0; e && depth < 5; e = e.cause as DriverError | undefined, depth++) {
-    if (typeof e.code === 'string' && e.code) return e.code;
-  }
+  for (const e of causeChain(err)) if (typeof e.code === 'string' && e.code) return e.code;
   return undefined;
 }
 
@@ -58,8 +62,6 @@ export function databaseAnswer(err: unknown): HttpError | undefined {
 
 /** The driver's refusal after pool.end(): it carries no code, only this message (also as a cause). */
 function poolClosed(err: unknown): boolean {
-  for (let e = err as DriverError | undefined, depth = 0; e && depth < 5; e = e.cause as DriverError | undefined, depth++) {
-    if ((e as { message?: unknown }).message === 'Pool is closed.') return true;
-  }
+  for (const e of causeChain(err)) if (e.message === 'Pool is closed.') return true;
   return false;
 }

@@ -37,7 +37,7 @@ export async function briefingSheet(plan: LoadedPlan): Promise<BriefingSheet> {
   if (plan.status !== 'ready' || !results || plan.average === null) {
     throw planError('not_ready', 'This plan is not computed yet: the briefing sheet needs a finished plan.');
   }
-  const snap = parseSnapshot(plan);
+  const snapshot = parseSnapshot(plan);
   const mph = plan.settings.minutesPerHop;
   const current = (await roomVersion(plan.roomId)) ?? plan.roomVersion;
   const expectations = results.curve.quantiles
@@ -60,7 +60,7 @@ export async function briefingSheet(plan: LoadedPlan): Promise<BriefingSheet> {
     generatedAt: new Date().toISOString(),
     minutesPerHop: mph,
     starters: (plan.starters ?? []).map((s, i) => ({ personId: s.personId, personKey: s.key, name: s.name, group: s.group, order: i + 1 })),
-    people: snap.personIds.length,
+    people: snapshot.personIds.length,
     average: plan.average,
     averageMinutes: plan.average * mph,
     expectations,
@@ -71,15 +71,15 @@ export async function briefingSheet(plan: LoadedPlan): Promise<BriefingSheet> {
 /** One table: starters in briefing order, then everyone else by expected hops. */
 export async function briefingCsv(plan: LoadedPlan): Promise<string> {
   await briefingSheet(plan);
-  const snap = parseSnapshot(plan);
+  const snapshot = parseSnapshot(plan);
   const h = parseResults(plan)!.h;
   const mph = plan.settings.minutesPerHop;
   const order = new Map((plan.starters ?? []).map((s, i) => [s.personId, i + 1]));
-  const rows = snap.personIds.map((id, i) => ({ i, id, order: order.get(id) ?? null, hops: h[i] ?? Infinity }));
+  const rows = snapshot.personIds.map((id, i) => ({ i, id, order: order.get(id) ?? null, hops: h[i] ?? Infinity }));
   rows.sort((a, b) => (a.order ?? Infinity) - (b.order ?? Infinity) || a.hops - b.hops || a.i - b.i);
   const out: string[][] = [['briefing order', 'person key', 'name', 'group', 'role', 'expected hops to hear', 'expected minutes']];
   for (const r of rows) {
-    const person = personAt(snap, r.i);
+    const person = personAt(snapshot, r.i);
     out.push([
       r.order === null ? '' : String(r.order),
       person.key,

@@ -80,12 +80,12 @@ export function planDetail(row: PlanRow & { createdByName: string }, currentRoom
   const summary = planSummary(row, currentRoomVersion, bound);
   const results = parseResults(row);
   if (!results || row.status !== 'ready') return { ...summary, perPerson: [], reach: null };
-  const snap = parseSnapshot(row);
+  const snapshot = parseSnapshot(row);
   const mph = row.settings.minutesPerHop;
   const order = new Map((row.starters ?? []).map((s, i) => [s.personId, i + 1]));
-  const perPerson = snap.personIds.map((personId, i) => {
+  const perPerson = snapshot.personIds.map((personId, i) => {
     const h = results.h[i] ?? Infinity;
-    const { name, group } = personAt(snap, i);
+    const { name, group } = personAt(snapshot, i);
     return {
       personId,
       name,

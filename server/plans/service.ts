@@ -294,21 +294,21 @@ export async function comparePlans(a: LoadedPlan, b: LoadedPlan): Promise<PlanCo
   const hops = (p: LoadedPlan) => {
     const r = parseResults(p);
     const s = parseSnapshot(p);
-    return { map: new Map(s.personIds.map((id, i) => [id, r?.h[i] ?? null])), snap: s };
+    return { map: new Map(s.personIds.map((id, i) => [id, r?.h[i] ?? null])), snapshot: s };
   };
-  const ha = hops(a);
-  const hb = hops(b);
-  const ids = [...ha.snap.personIds, ...hb.snap.personIds.filter((id) => !ha.map.has(id))];
+  const hopsA = hops(a);
+  const hopsB = hops(b);
+  const ids = [...hopsA.snapshot.personIds, ...hopsB.snapshot.personIds.filter((id) => !hopsA.map.has(id))];
   const nameOf = new Map<number, string>();
-  hb.snap.personIds.forEach((id, i) => nameOf.set(id, personAt(hb.snap, i).name));
-  ha.snap.personIds.forEach((id, i) => nameOf.set(id, personAt(ha.snap, i).name));
+  hopsB.snapshot.personIds.forEach((id, i) => nameOf.set(id, personAt(hopsB.snapshot, i).name));
+  hopsA.snapshot.personIds.forEach((id, i) => nameOf.set(id, personAt(hopsA.snapshot, i).name));
   const people = ids.map((personId) => {
-    const va = ha.map.get(personId) ?? null;
-    const vb = hb.map.get(personId) ?? null;
-    return { personId, name: nameOf.get(personId) ?? '', a: va, b: vb, difference: va !== null && vb !== null ? vb - va : null };
+    const inA = hopsA.map.get(personId) ?? null;
+    const inB = hopsB.map.get(personId) ?? null;
+    return { personId, name: nameOf.get(personId) ?? '', a: inA, b: inB, difference: inA !== null && inB !== null ? inB - inA : null };
   });
-  const sa = new Set((a.starters ?? []).map((s) => s.personId));
-  const sb = new Set((b.starters ?? []).map((s) => s.personId));
+  const startersA = new Set((a.starters ?? []).map((s) => s.personId));
+  const startersB = new Set((b.starters ?? []).map((s) => s.personId));
   const diff = a.average !== null && b.average !== null ? b.average - a.average : null;
   let line = 'One of the plans is not finished yet.';
   if (diff !== null && a.average) {
@@ -322,9 +322,9 @@ export async function comparePlans(a: LoadedPlan, b: LoadedPlan): Promise<PlanCo
     a: planSummary(a, version, await boundOf(a)),
     b: planSummary(b, version, await boundOf(b)),
     people,
-    onlyInA: [...sa].filter((id) => !sb.has(id)),
-    onlyInB: [...sb].filter((id) => !sa.has(id)),
-    inBoth: [...sa].filter((id) => sb.has(id)),
+    onlyInA: [...startersA].filter((id) => !startersB.has(id)),
+    onlyInB: [...startersB].filter((id) => !startersA.has(id)),
+    inBoth: [...startersA].filter((id) => startersB.has(id)),
     averageDifference: diff,
     sameRoomVersion: a.roomVersion === b.roomVersion,
     line,

@@ -68,16 +68,16 @@ export interface LoadedRoomGraph {
 export async function loadRoomGraph(roomId: number, tx: Conn = db): Promise<LoadedRoomGraph> {
   const room = await roomRow(roomId, tx);
   if (!room) throw notFound('That room');
-  const folk = await graphPeople(roomId, tx);
-  const links = await graphTies(roomId, tx);
+  const people = await graphPeople(roomId, tx);
+  const tieRows = await graphTies(roomId, tx);
   const indexOf = new Map<number, number>();
-  folk.forEach((p, i) => indexOf.set(p.id, i));
+  people.forEach((p, i) => indexOf.set(p.id, i));
   const graph: RoomGraph = {
-    ids: folk.map((p) => p.key),
-    labels: folk.map((p) => p.name),
-    groups: folk.map((p) => p.group),
+    ids: people.map((p) => p.key),
+    labels: people.map((p) => p.name),
+    groups: people.map((p) => p.group),
     directed: room.directed,
-    ties: links.map((l) => ({ source: indexOf.get(l.s)!, target: indexOf.get(l.t)!, strength: l.w })),
+    ties: tieRows.map((l) => ({ source: indexOf.get(l.s)!, target: indexOf.get(l.t)!, strength: l.w })),
   };
-  return { graph, personIds: folk.map((p) => p.id), names: folk.map((p) => p.name), settings: settingsOf(room), version: room.version };
+  return { graph, personIds: people.map((p) => p.id), names: people.map((p) => p.name), settings: settingsOf(room), version: room.version };
 }

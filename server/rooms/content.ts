@@ -40,14 +40,14 @@ export function keyMaker(taken: Iterable<string>): () => string {
 export const pairKey = (a: number, b: number, directed: boolean) => (directed || a < b ? `${a}:${b}` : `${b}:${a}`);
 
 export function checkContent(
-  folk: NewPersonInput[],
-  links: { source: string; target: string; strength?: number }[],
+  people: NewPersonInput[],
+  ties: { source: string; target: string; strength?: number }[],
   settings: RoomSettings,
 ): RoomContent {
   const errors: FieldError[] = [];
   const index = new Map<string, number>();
-  const nextKey = keyMaker(folk.flatMap((p) => (p.key ? [p.key] : [])));
-  const peopleRows: PersonRowInput[] = folk.map((p, i) => {
+  const nextKey = keyMaker(people.flatMap((p) => (p.key ? [p.key] : [])));
+  const peopleRows: PersonRowInput[] = people.map((p, i) => {
     const key = p.key ?? nextKey();
     if (index.has(key)) {
       errors.push({
@@ -70,7 +70,7 @@ export function checkContent(
   }
   const seen = new Map<string, number>();
   const tieRows: TieRowInput[] = [];
-  links.forEach((t, i) => {
+  ties.forEach((t, i) => {
     const s = index.get(t.source);
     const g = index.get(t.target);
     if (s === undefined) errors.push({ field: `ties.${i}.source`, message: `"${t.source}" is not a person of this room.` });

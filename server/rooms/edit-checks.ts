@@ -27,7 +27,7 @@ export type Step =
 
 /** The room as the ops so far have left it, and the steps and errors they produced. */
 class RoomModel {
-  readonly folk = new Map<Ref, { key: string; name: string }>();
+  readonly people = new Map<Ref, { key: string; name: string }>();
   readonly keys = new Map<string, Ref>();
   readonly tieIds = new Map<number, { s: Ref; t: Ref }>();
   readonly pairs = new Set<string>();
@@ -53,7 +53,7 @@ class RoomModel {
 
   /** True when the person is in the room; otherwise notes the error. */
   person(i: number, field: string, ref: Ref): boolean {
-    if (this.folk.has(ref)) return true;
+    if (this.people.has(ref)) return true;
     this.err(
       i,
       field,
@@ -71,22 +71,22 @@ class RoomModel {
 
 async function loadModel(roomId: number, directed: boolean, tx: Tx): Promise<RoomModel> {
   const m = new RoomModel(directed);
-  for (const p of await store.roomPeople(roomId, tx)) m.folk.set(p.id, { key: p.key, name: p.name });
+  for (const p of await store.roomPeople(roomId, tx)) m.people.set(p.id, { key: p.key, name: p.name });
   for (const t of await store.roomTies(roomId, tx)) {
     m.tieIds.set(t.id, { s: t.sourceId, t: t.targetId });
     m.pairs.add(m.pair(t.sourceId, t.targetId));
   }
-  for (const [ref, p] of m.folk) m.keys.set(p.key, ref);
+  for (const [ref, p] of m.people) m.keys.set(p.key, ref);
   m.nextKey = keyMaker(m.keys.keys());
   return m;
 }
 
 function checkAddPerson(m: RoomModel, op: Op<'addPerson'>, i: number): void {
-  if (m.folk.has(op.tempId)) return m.err(i, 'tempId', `The tempId "${op.tempId}" is used twice in this batch.`);
+  if (m.people.has(op.tempId)) return m.err(i, 'tempId', `The tempId "${op.tempId}" is used twice in this batch.`);
   const key = op.key ?? m.nextKey();
   if (m.keys.has(key)) return m.err(i, 'key', `The person id "${key}" is already used in this room.`);
-  if (m.folk.size >= ROOM_LIMITS.maxPeople) return m.err(i, undefined, `A room can hold at most ${ROOM_LIMITS.maxPeople} people.`);
-  m.folk.set(op.tempId, { key, name: op.name });
+  if (m.people.size >= ROOM_LIMITS.maxPeople) return m.err(i, undefined, `A room can hold at most ${ROOM_LIMITS.maxPeople} people.`);
+  m.people.set(op.tempId, { key, name: op.name });
   m.keys.set(key, op.tempId);
   const row = {
     key,
@@ -106,7 +106,7 @@ function checkAddPerson(m: RoomModel, op: Op<'addPerson'>, i: number): void {
 
 function checkUpdatePerson(m: RoomModel, op: Op<'updatePerson'>, i: number): void {
   if (!m.person(i, 'id', op.id)) return;
-  const state = m.folk.get(op.id)!;
+  const state = m.people.get(op.id)!;
   const set: PersonSet = {};
   if (op.key !== undefined && op.key !== state.key) {
     if (m.keys.has(op.key)) return m.err(i, 'key', `The person id "${op.key}" is already used in this room.`);
@@ -126,8 +126,8 @@ function checkUpdatePerson(m: RoomModel, op: Op<'updatePerson'>, i: number): voi
 
 function checkDeletePerson(m: RoomModel, op: Op<'deletePerson'>, i: number): void {
   if (!m.person(i, 'id', op.id)) return;
-  m.keys.delete(m.folk.get(op.id)!.key);
-  m.folk.delete(op.id);
+  m.keys.delete(m.people.get(op.id)!.key);
+  m.people.delete(op.id);
   for (const [id, t] of m.tieIds) if (t.s === op.id || t.t === op.id) m.tieIds.delete(id);
   for (const k of [...m.pairs]) {
     const [a, b] = k.split(':').map(Number);
@@ -142,11 +142,11 @@ function checkAddTie(m: RoomModel, op: Op<'addTie'>, i: number): void {
   const okS = m.person(i, 'source', op.source);
   const okT = m.person(i, 'target', op.target);
   if (!okS || !okT) return;
-  const source = m.folk.get(op.source)!.name;
+  const source = m.people.get(op.source)!.name;
   if (op.source === op.target) return m.err(i, 'target', `${source} cannot be tied to themself.`);
   const pk = m.pair(op.source, op.target);
   if (m.pairs.has(pk)) {
-    const target = m.folk.get(op.target)!.name;
+    const target = m.people.get(op.target)!.name;
     const how = m.directed ? ' in this direction' : '';
     return m.err(i, undefined, `${source} and ${target} are already tied${how}; change that tie's strength instead.`);
   }
@@ -178,7 +178,7 @@ function checkDeleteTie(m: RoomModel, op: Op<'deleteTie'>, i: number): void {
 function checkMovePeople(m: RoomModel, op: Op<'movePeople'>, i: number): void {
   const moves: { ref: Ref; x: number; y: number; pinned?: boolean }[] = [];
   op.moves.forEach((move, j) => {
-    if (!m.folk.has(move.id)) return m.err(i, `moves.${j}.id`, `Person ${move.id} is not in this room.`);
+    if (!m.people.has(move.id)) return m.err(i, `moves.${j}.id`, `Person ${move.id} is not in this room.`);
     moves.push({ ref: move.id, x: move.x, y: move.y, pinned: move.pinned });
   });
   m.steps.push({ kind: 'move', moves });

@@ -27,13 +27,13 @@ export function fileStem(name: string): string {
   return stem || 'room';
 }
 
-export function exportRoom(format: ExportFormat, roomName: string, loaded: LoadedRoomGraph, folk: PersonDto[]): ExportFile {
+export function exportRoom(format: ExportFormat, roomName: string, loaded: LoadedRoomGraph, people: PersonDto[]): ExportFile {
   const stem = fileStem(roomName);
   const { graph, settings } = loaded;
   switch (format) {
     case 'json': {
       const doc = JSON.parse(writeNodeLink(graph)) as { directed: boolean; nodes: Record<string, unknown>[]; links: unknown[] };
-      const byKey = new Map(folk.map((p) => [p.key, p]));
+      const byKey = new Map(people.map((p) => [p.key, p]));
       for (const node of doc.nodes) {
         const p = byKey.get(node['id'] as string);
         if (p && p.x !== null && p.y !== null) Object.assign(node, { x: p.x, y: p.y, pinned: p.pinned });

@@ -142,7 +142,7 @@ export const DEFAULT_STRENGTHS: OrgChartStrengthsDto = { ...ORG_CHART_DEFAULT_ST
 
 /** The org-chart CSV of a room: its manager keys, under the headers it was imported with (or plain ones). */
 export function writeRoomOrgChart(
-  folk: { key: string; name: string; group: string | null; managerKey: string | null }[],
+  people: { key: string; name: string; group: string | null; managerKey: string | null }[],
   saved: string | null,
 ): string {
   let columns: OrgChartColumnsDto = { person: 'id', name: 'name', manager: 'manager', department: 'department' };
@@ -152,9 +152,9 @@ export function writeRoomOrgChart(
   } catch {
     // A damaged note falls back to plain headers; the people and managers are still written.
   }
-  const keys = new Set(folk.map((p) => p.key));
+  const keys = new Set(people.map((p) => p.key));
   // A manager deleted on the map since the import is no longer named.
-  const rows = folk.map((p) => ({
+  const rows = people.map((p) => ({
     key: p.key,
     name: p.name,
     group: p.group,

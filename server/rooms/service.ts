@@ -82,7 +82,7 @@ export async function contentCounts(roomId: number): Promise<{ people: number; t
 
 export async function roomDto(loaded: LoadedRoom, tx: Conn = db): Promise<RoomDto> {
   const { room } = loaded;
-  const [folk, links] = await Promise.all([store.roomPeople(room.id, tx), store.roomTies(room.id, tx)]);
+  const [people, ties] = await Promise.all([store.roomPeople(room.id, tx), store.roomTies(room.id, tx)]);
   return {
     id: room.id,
     name: room.name,
@@ -91,8 +91,8 @@ export async function roomDto(loaded: LoadedRoom, tx: Conn = db): Promise<RoomDt
     version: room.version,
     access: loaded.access,
     ownerName: loaded.ownerName,
-    people: folk,
-    ties: links,
+    people,
+    ties,
     updatedAt: room.updatedAt.toISOString(),
   };
 }
@@ -125,17 +125,17 @@ export async function updateRoom(roomId: number, patch: RoomPatch): Promise<void
 
 /** Turning a directed room undirected would make a -> b and b -> a one doubled tie: refuse, and say which. */
 async function checkUndirectedPairs(roomId: number, tx: Tx): Promise<void> {
-  const links = await store.roomTies(roomId, tx);
+  const tieRows = await store.roomTies(roomId, tx);
   const seen = new Set<string>();
   const pairs: { a: number; b: number }[] = [];
-  for (const t of links) {
+  for (const t of tieRows) {
     const k = pairKey(t.sourceId, t.targetId, false);
     if (seen.has(k)) pairs.push({ a: Math.min(t.sourceId, t.targetId), b: Math.max(t.sourceId, t.targetId) }); // as pairKey orders them
     seen.add(k);
   }
   if (pairs.length === 0) return;
-  const folk = new Map((await store.roomPeople(roomId, tx)).map((p) => [p.id, p.name]));
-  const named = pairs.slice(0, 5).map(({ a, b }) => `${folk.get(a)} - ${folk.get(b)}`);
+  const nameOf = new Map((await store.roomPeople(roomId, tx)).map((p) => [p.id, p.name]));
+  const named = pairs.slice(0, 5).map(({ a, b }) => `${nameOf.get(a)} - ${nameOf.get(b)}`);
   throw new HttpError(
     409,
     'reciprocal_ties',
@@ -149,12 +149,12 @@ async function checkUndirectedPairs(roomId: number, tx: Tx): Promise<void> {
 export async function duplicateRoom(loaded: LoadedRoom, ownerId: number, name?: string): Promise<number> {
   return db.transaction(async (tx) => {
     const { room } = loaded;
-    const folk = await store.roomPeople(room.id, tx);
-    const links = await store.roomTies(room.id, tx);
-    const at = new Map(folk.map((p, i) => [p.id, i]));
+    const personRows = await store.roomPeople(room.id, tx);
+    const tieRows = await store.roomTies(room.id, tx);
+    const at = new Map(personRows.map((p, i) => [p.id, i]));
     const content: RoomContent = {
-      people: folk.map(({ key, name: n, group, email, x, y, pinned }) => ({ key, name: n, group, email, x, y, pinned })),
-      ties: links.map((t) => ({ source: at.get(t.sourceId)!, target: at.get(t.targetId)!, strength: t.strength })),
+      people: personRows.map(({ key, name: n, group, email, x, y, pinned }) => ({ key, name: n, group, email, x, y, pinned })),
+      ties: tieRows.map((t) => ({ source: at.get(t.sourceId)!, target: at.get(t.targetId)!, strength: t.strength })),
     };
     const copyName = name ?? `${room.name} (copy)`.slice(0, 120);
     return createWithContent(ownerId, copyName, room.description, settingsOf(room), content, tx);

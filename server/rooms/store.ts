@@ -42,18 +42,18 @@ export async function insertRoom(
   return firstOf(inserted, 'new room id').id;
 }
 
-/** Inserts people and ties (by index into `folk`); returns the new person ids in order. */
+/** Inserts people and ties (by index into `personRows`); returns the new person ids in order. */
 export async function insertContent(
   roomId: number,
-  folk: PersonRowInput[],
-  links: TieRowInput[],
+  personRows: PersonRowInput[],
+  tieRows: TieRowInput[],
   firstOrder: number,
   tx: Conn = db,
 ): Promise<number[]> {
   const ids: number[] = [];
   let firstId: number | undefined;
-  for (let at = 0; at < folk.length; at += CHUNK) {
-    const rows = folk.slice(at, at + CHUNK).map((p, i) => ({
+  for (let at = 0; at < personRows.length; at += CHUNK) {
+    const rows = personRows.slice(at, at + CHUNK).map((p, i) => ({
       roomId,
       personKey: p.key,
       name: p.name,
@@ -68,9 +68,9 @@ export async function insertContent(
     const got = await tx.insert(people).values(rows).$returningId();
     firstId ??= got[0]?.id;
   }
-  if (firstId !== undefined) ids.push(...(await newIdsByKey(roomId, firstId, folk, tx)));
-  for (let at = 0; at < links.length; at += CHUNK) {
-    const rows = links.slice(at, at + CHUNK).map((t) => ({
+  if (firstId !== undefined) ids.push(...(await newIdsByKey(roomId, firstId, personRows, tx)));
+  for (let at = 0; at < tieRows.length; at += CHUNK) {
+    const rows = tieRows.slice(at, at + CHUNK).map((t) => ({
       roomId,
       sourceId: itemAt(ids, t.source, 'tie source person'),
       targetId: itemAt(ids, t.target, 'tie target person'),
@@ -296,20 +296,20 @@ export async function updateTieRow(roomId: number, id: number, strength: number,
     .where(and(eq(ties.id, id), eq(ties.roomId, roomId)));
 }
 
-export async function insertPeopleRows(roomId: number, folk: PersonRowInput[], firstOrder: number, tx: Tx): Promise<number[]> {
-  return insertContent(roomId, folk, [], firstOrder, tx);
+export async function insertPeopleRows(roomId: number, personRows: PersonRowInput[], firstOrder: number, tx: Tx): Promise<number[]> {
+  return insertContent(roomId, personRows, [], firstOrder, tx);
 }
 
 export async function insertTieRows(
   roomId: number,
-  links: { sourceId: number; targetId: number; strength: number }[],
+  tieRows: { sourceId: number; targetId: number; strength: number }[],
   tx: Tx,
 ): Promise<number[]> {
   let firstId: number | undefined;
-  for (let at = 0; at < links.length; at += CHUNK) {
+  for (let at = 0; at < tieRows.length; at += CHUNK) {
     const got = await tx
       .insert(ties)
-      .values(links.slice(at, at + CHUNK).map((l) => ({ roomId, ...l })))
+      .values(tieRows.slice(at, at + CHUNK).map((l) => ({ roomId, ...l })))
       .$returningId();
     firstId ??= got[0]?.id;
   }
@@ -319,7 +319,7 @@ export async function insertTieRows(
     .from(ties)
     .where(and(eq(ties.roomId, roomId), gte(ties.id, firstId)));
   const byPair = new Map(rows.map((r) => [`${r.sourceId}:${r.targetId}`, r.id]));
-  return links.map((l) => idOrThrow(byPair.get(`${l.sourceId}:${l.targetId}`), 'tie'));
+  return tieRows.map((l) => idOrThrow(byPair.get(`${l.sourceId}:${l.targetId}`), 'tie'));
 }
 
 /*
@@ -328,13 +328,13 @@ export async function insertTieRows(
  * and a Galera cluster sets it to the cluster size. The room's row is locked (or the room is
  * new), so every row of the room with an id from the first new one on is one of ours.
  */
-async function newIdsByKey(roomId: number, firstId: number, folk: PersonRowInput[], tx: Conn = db): Promise<number[]> {
+async function newIdsByKey(roomId: number, firstId: number, personRows: PersonRowInput[], tx: Conn = db): Promise<number[]> {
   const rows = await tx
     .select({ id: people.id, key: people.personKey })
     .from(people)
     .where(and(eq(people.roomId, roomId), gte(people.id, firstId)));
   const byKey = new Map(rows.map((r) => [r.key, r.id]));
-  return folk.map((p) => idOrThrow(byKey.get(p.key), 'person'));
+  return personRows.map((p) => idOrThrow(byKey.get(p.key), 'person'));
 }
 
 function idOrThrow(id: number | undefined, what: string): number {

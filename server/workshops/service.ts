@@ -113,10 +113,10 @@ export async function participantsFromRoom(w: WorkshopRow, owner: SignedInUser):
   if (w.roomId === null)
     throw conflict('This workshop has no room yet: its room will be built from the survey. Add participants from a roster instead.');
   await loadRoomFor(owner, w.roomId, 'view');
-  const folk = await roomPeople(w.roomId);
+  const people = await roomPeople(w.roomId);
   return addParticipants(
     w,
-    folk.map((p) => ({ name: p.name, email: p.email, personId: String(p.id) })),
+    people.map((p) => ({ name: p.name, email: p.email, personId: String(p.id) })),
   );
 }
 

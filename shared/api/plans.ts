@@ -159,11 +159,14 @@ export interface PlanSettingsSnapshot {
   mixing: number;
 }
 
+/** A computed plan is found by a planner; a hand-made one has starters the facilitator picked. */
+export type PlanKind = 'computed' | 'hand-made';
+
 export interface PlanSummary {
   id: number;
   roomId: number;
   name: string;
-  kind: 'computed' | 'hand-made';
+  kind: PlanKind;
   status: PlanStatus;
   k: number;
   methodRequested: PlanMethodChoice | 'hand-made';

@@ -8,7 +8,7 @@
 import { EngineError } from './errors';
 import type { WalkOptions } from './graph';
 import { unreachablePeople, type UnreachablePerson } from './reachability';
-import { checkPeople, prepareRoom, type RoomInput } from './room';
+import { checkPeople, prepareRoom, type PreparedRoom, type RoomInput } from './room';
 import { sparseWalk } from './walk';
 
 export interface ReachCurveOptions extends WalkOptions {
@@ -52,14 +52,35 @@ export function reachCurve(input: RoomInput, starterList: readonly number[], opt
   const starters = checkPeople(room, starterList, 'Starters');
   if (starters.length === 0) throw new EngineError('INVALID_STARTERS', 'Choose at least one starter.');
   const people = checkPeople(room, options.people ?? [], 'People');
-  const mph = options.minutesPerHop;
-  if (mph !== undefined && !(mph > 0 && Number.isFinite(mph)))
+  const minutesPerHop = options.minutesPerHop;
+  if (minutesPerHop !== undefined && !(minutesPerHop > 0 && Number.isFinite(minutesPerHop)))
     throw new EngineError('INVALID_OPTION', 'Minutes per hop must be a positive number.');
-  const { n } = room;
-  const m = room.csr.col.length;
-  const cap = options.maxHops ?? Math.min(20_000, Math.max(200, Math.floor(4e8 / (m + n))));
+  const cap = options.maxHops ?? Math.min(20_000, Math.max(200, Math.floor(4e8 / (room.csr.col.length + room.n))));
   if (!(Number.isInteger(cap) && cap >= 1)) throw new EngineError('INVALID_OPTION', 'maxHops must be a whole number of at least 1.');
   const tol = options.tolerance ?? 1e-6;
+  const { share, perPerson, hops, remaining } = walkHops(room, starters, people, cap, tol);
+  const shareReached = Float64Array.from(share);
+  const others = room.n - starters.length;
+  const roomShare = shareReached.map((v) => (starters.length + others * v) / room.n);
+  return {
+    starters,
+    shareReached,
+    roomShare,
+    hops,
+    complete: remaining <= tol,
+    quantiles: reachQuantiles(shareReached, options.quantiles ?? [0.5, 0.9, 0.99], minutesPerHop),
+    minutesPerHop,
+    people: people.map((p, q) => ({ index: p, reachedBy: Float64Array.from(perPerson[q]) })),
+    unreachable: unreachablePeople(room, starters),
+  };
+}
+
+/**
+ * Steps s = Q^t 1 (the lazy walk's survival vector) until the share not yet reached is at most
+ * `tol` or `cap` hops are done; collects the share reached by each hop and each person's curve.
+ */
+function walkHops(room: PreparedRoom, starters: number[], people: number[], cap: number, tol: number) {
+  const { n } = room;
   const walk = sparseWalk(room, starters);
   const a = room.laziness;
   const others = n - starters.length;
@@ -86,9 +107,12 @@ export function reachCurve(input: RoomInput, starterList: readonly number[], opt
     share.push(1 - remaining);
     people.forEach((p, q) => perPerson[q].push(walk.inT[p] ? 1 - s[p] : 1));
   }
-  const shareReached = Float64Array.from(share);
-  const roomShare = shareReached.map((v) => (starters.length + others * v) / n);
-  const quantiles = (options.quantiles ?? [0.5, 0.9, 0.99]).map((q) => {
+  return { share, perPerson, hops, remaining };
+}
+
+/** The first hop by which each share of the non-starters is reached (null beyond the hops computed). */
+function reachQuantiles(shareReached: Float64Array, shares: readonly number[], minutesPerHop: number | undefined): ReachQuantile[] {
+  return shares.map((q) => {
     if (!(q > 0 && q <= 1)) throw new EngineError('INVALID_OPTION', `Quantile shares must be in (0, 1] (got ${q}).`);
     let hop: number | null = null;
     for (let t = 0; t < shareReached.length; t++)
@@ -96,19 +120,8 @@ export function reachCurve(input: RoomInput, starterList: readonly number[], opt
         hop = t;
         break;
       }
-    return { share: q, hop, minutes: hop !== null && mph !== undefined ? hop * mph : null };
+    return { share: q, hop, minutes: hop !== null && minutesPerHop !== undefined ? hop * minutesPerHop : null };
   });
-  return {
-    starters,
-    shareReached,
-    roomShare,
-    hops,
-    complete: remaining <= tol,
-    quantiles,
-    minutesPerHop: mph,
-    people: people.map((p, q) => ({ index: p, reachedBy: Float64Array.from(perPerson[q]) })),
-    unreachable: unreachablePeople(room, starters),
-  };
 }
 
 /** Hops expressed as minutes. */

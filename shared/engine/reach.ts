@@ -102,40 +102,14 @@ export function exactReach(input: RoomInput, starterList: readonly number[], opt
   for (let i = 0; i < n; i++) if (active[i]) idxList.push(i);
   const idx = Int32Array.from(idxList);
   const f = idx.length;
-  const scale = 1 / (1 - room.laziness);
-  let solver: ReachResult['solver'] = 'none';
   const warnings: string[] = [];
-  let iterations: number | undefined;
-  let relativeResidual: number | undefined;
+  let solved: SolveOutcome = { solver: 'none' };
   const limit = options.denseLimit ?? DEFAULT_DENSE_LIMIT;
   const dense = options.solver === 'dense' || (options.solver !== 'sparse' && f <= limit);
-  if (f > 0 && dense) {
-    const sym = isSymmetricForm(room);
-    if (sym) {
-      // Eliminate in minimum degree order so a sparse room's factor stays sparse for longer.
-      const ord = f >= 64 ? fillReducingOrder(room, idx) : idx;
-      const x = refinedSymmetric(room, ord, active, warnings);
-      for (let k = 0; k < f; k++) h[ord[k]] = x[ord[k]] * scale;
-      solver = 'ldlt';
-    } else {
-      // Without mixing the system is sparse: minimum degree order on the ties taken both ways,
-      // then elimination without pivoting (I - Q is a diagonally dominant M-matrix).
-      const sparse = room.mixing === 0 && f >= 64;
-      const ord = sparse ? fillReducingOrder(room, idx) : idx;
-      const m = denseSystem(room, ord, false);
-      const rhs = new Float64Array(f);
-      rhs.fill(1);
-      luSolve(sparse ? luFactorDominant(m, f) : luFactor(m, f), rhs);
-      solver = 'lu';
-      for (let k = 0; k < f; k++) h[ord[k]] = rhs[k] * scale;
-    }
-  } else if (f > 0) {
-    const sys = new SparseSystem(room, [...starters, ...unreachable.map((u) => u.index)], options.tolerance ?? 1e-12);
-    const x = sys.solve(new Float64Array(n).fill(1));
-    solver = sys.symmetric ? 'cg' : 'bicgstab';
-    iterations = sys.iterations;
-    relativeResidual = sys.lastResidual;
-    for (let k = 0; k < f; k++) h[idx[k]] = x[idx[k]] * scale;
+  if (f > 0 && dense) solved = solveDense(room, idx, active, h, warnings);
+  else if (f > 0) {
+    const excluded = [...starters, ...unreachable.map((u) => u.index)];
+    solved = solveSparse(room, idx, excluded, options.tolerance ?? 1e-12, h);
   }
   let reachableTotal = 0;
   for (let k = 0; k < f; k++) reachableTotal += h[idx[k]];
@@ -150,11 +124,45 @@ export function exactReach(input: RoomInput, starterList: readonly number[], opt
     reachableTotal,
     reachableAverage: f > 0 ? reachableTotal / f : 0,
     unreachable,
-    solver,
-    iterations,
-    relativeResidual,
+    solver: solved.solver,
+    iterations: solved.iterations,
+    relativeResidual: solved.relativeResidual,
     warnings,
   };
+}
+
+type SolveOutcome = Pick<ReachResult, 'solver' | 'iterations' | 'relativeResidual'>;
+
+/** Fills h on the people of `idx` by a dense factorisation (LDL^T on the symmetric form, else LU). */
+function solveDense(room: PreparedRoom, idx: Int32Array, active: Uint8Array, h: Float64Array, warnings: string[]): SolveOutcome {
+  const f = idx.length;
+  const scale = 1 / (1 - room.laziness);
+  if (isSymmetricForm(room)) {
+    // Eliminate in minimum degree order so a sparse room's factor stays sparse for longer.
+    const ord = f >= 64 ? fillReducingOrder(room, idx) : idx;
+    const x = refinedSymmetric(room, ord, active, warnings);
+    for (let k = 0; k < f; k++) h[ord[k]] = x[ord[k]] * scale;
+    return { solver: 'ldlt' };
+  }
+  // Without mixing the system is sparse: minimum degree order on the ties taken both ways,
+  // then elimination without pivoting (I - Q is a diagonally dominant M-matrix).
+  const sparse = room.mixing === 0 && f >= 64;
+  const ord = sparse ? fillReducingOrder(room, idx) : idx;
+  const m = denseSystem(room, ord, false);
+  const rhs = new Float64Array(f);
+  rhs.fill(1);
+  luSolve(sparse ? luFactorDominant(m, f) : luFactor(m, f), rhs);
+  for (let k = 0; k < f; k++) h[ord[k]] = rhs[k] * scale;
+  return { solver: 'lu' };
+}
+
+/** Fills h on the people of `idx` by CG or BiCGSTAB with the `excluded` people (starters, unreachable) taken out. */
+function solveSparse(room: PreparedRoom, idx: Int32Array, excluded: number[], tolerance: number, h: Float64Array): SolveOutcome {
+  const scale = 1 / (1 - room.laziness);
+  const sys = new SparseSystem(room, excluded, tolerance);
+  const x = sys.solve(new Float64Array(room.n).fill(1));
+  for (let k = 0; k < idx.length; k++) h[idx[k]] = x[idx[k]] * scale;
+  return { solver: sys.symmetric ? 'cg' : 'bicgstab', iterations: sys.iterations, relativeResidual: sys.lastResidual };
 }
 
 /**

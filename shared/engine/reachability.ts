@@ -125,64 +125,69 @@ export function unreachablePeople(room: PreparedRoom, starters: readonly number[
   const isStarter = new Uint8Array(n);
   for (const s of starters) isStarter[s] = 1;
   const pred = predecessors(room);
-  const reaches = new Uint8Array(n);
   const queue = new Int32Array(n);
-  let qh = 0;
+  // People with a chain of ties to a starter.
+  const reaches = new Uint8Array(n);
   let qt = 0;
   for (const s of starters)
     if (!reaches[s]) {
       reaches[s] = 1;
       queue[qt++] = s;
     }
-  while (qh < qt) {
-    const v = queue[qh++];
-    for (let e = pred.start[v]; e < pred.start[v + 1]; e++) {
-      const u = pred.adj[e];
-      if (!reaches[u]) {
-        reaches[u] = 1;
-        queue[qt++] = u;
-      }
-    }
-  }
+  markBackwards(pred, reaches, queue, qt, null);
   // People who can get to a dead end (a person with no way to a starter) without passing a starter.
   const stuck = new Uint8Array(n);
-  qh = qt = 0;
+  qt = 0;
   for (let i = 0; i < n; i++)
     if (!reaches[i]) {
       stuck[i] = 1;
       queue[qt++] = i;
     }
+  markBackwards(pred, stuck, queue, qt, isStarter);
+  const out: UnreachablePerson[] = [];
+  for (let i = 0; i < n; i++) if (stuck[i]) out.push(unreachableReason(room, i, reaches[i] === 1, starters.length));
+  return out;
+}
+
+/**
+ * Breadth-first along ties taken backwards from the `count` people already in `queue` (and marked):
+ * marks everyone who asks a marked person, except the people `stop` marks, who are neither marked nor passed.
+ */
+function markBackwards(
+  pred: { start: Int32Array; adj: Int32Array },
+  mark: Uint8Array,
+  queue: Int32Array,
+  count: number,
+  stop: Uint8Array | null,
+): void {
+  let qh = 0;
+  let qt = count;
   while (qh < qt) {
     const v = queue[qh++];
     for (let e = pred.start[v]; e < pred.start[v + 1]; e++) {
       const u = pred.adj[e];
-      if (!stuck[u] && !isStarter[u]) {
-        stuck[u] = 1;
+      if (!mark[u] && !(stop !== null && stop[u])) {
+        mark[u] = 1;
         queue[qt++] = u;
       }
     }
   }
-  const out: UnreachablePerson[] = [];
-  const undirected = !room.directed;
-  for (let i = 0; i < n; i++) {
-    if (!stuck[i]) continue;
-    const id = room.ids[i];
-    if (!reaches[i]) {
-      const message =
-        starters.length === 0
-          ? `${id} cannot be reached: no starter is chosen.`
-          : undirected
-            ? `${id} is in a part of the room with no tie to any starter (the room is disconnected): add a starter there or connect it.`
-            : `${id} has no chain of ties leading to any starter: add a starter in the group they ask, or add a tie.`;
-      out.push({ index: i, id, reason: 'no-path', message });
-    } else {
-      out.push({
-        index: i,
-        id,
-        reason: 'may-get-stuck',
-        message: `${id} can reach a starter, but the question may drift into a group of people with no way to any starter: add a starter in that group.`,
-      });
-    }
-  }
-  return out;
+}
+
+function unreachableReason(room: PreparedRoom, i: number, reachesStarter: boolean, starterCount: number): UnreachablePerson {
+  const id = room.ids[i];
+  if (reachesStarter)
+    return {
+      index: i,
+      id,
+      reason: 'may-get-stuck',
+      message: `${id} can reach a starter, but the question may drift into a group of people with no way to any starter: add a starter in that group.`,
+    };
+  const message =
+    starterCount === 0
+      ? `${id} cannot be reached: no starter is chosen.`
+      : !room.directed
+        ? `${id} is in a part of the room with no tie to any starter (the room is disconnected): add a starter there or connect it.`
+        : `${id} has no chain of ties leading to any starter: add a starter in the group they ask, or add a tie.`;
+  return { index: i, id, reason: 'no-path', message };
 }

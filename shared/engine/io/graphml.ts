@@ -19,12 +19,22 @@ export function parseGraphml(text: string, options: ParseOptions = {}): ParseRes
   const issues = new IssueList('graphml', 500, options.maxErrors);
   const builder = new RoomBuilder(issues, options);
   let directed = false;
-  const done = () => {
-    const graph = builder.finish(directed, 'graphml');
-    issues.finish();
-    return { graph, warnings: issues.warnings, errors: issues.errors, meta: { format: 'graphml' as const } };
-  };
-  if (!checkTextSize(text, { ...options, maxChars: options.maxChars ?? GRAPHML_DEFAULT_MAX_CHARS }, issues)) return done();
+  const sized = checkTextSize(text, { ...options, maxChars: options.maxChars ?? GRAPHML_DEFAULT_MAX_CHARS }, issues);
+  const root = sized ? safeRoot(text, issues) : null;
+  const g = root ? firstGraph(root, issues) : null;
+  if (root && g) {
+    const keys = readKeys(childrenOf(root, 'key'));
+    const defaultDirected = readEdgeDefault(g, issues);
+    addNodes(g, keys, builder, issues);
+    directed = addEdges(g, keys, defaultDirected, builder, issues);
+  }
+  const graph = builder.finish(directed, 'graphml');
+  issues.finish();
+  return { graph, warnings: issues.warnings, errors: issues.errors, meta: { format: 'graphml' as const } };
+}
+
+/** The <graphml> root element, or null with an error when the text declares markup, is not XML or has another root. */
+function safeRoot(text: string, issues: IssueList): XmlElement | null {
   const declaration = /<!\s*(DOCTYPE|ENTITY|ELEMENT|ATTLIST|NOTATION)/i.exec(text);
   if (declaration) {
     issues.error(
@@ -35,29 +45,37 @@ export function parseGraphml(text: string, options: ParseOptions = {}): ParseRes
         element: `<!${declaration[1].toUpperCase()}>`,
       },
     );
-    return done();
+    return null;
   }
   const read = readXml(text);
   if (read.error) {
     const e = read.error;
     const what = e.tooDeep ? 'not accepted:' : 'not well-formed XML:';
     issues.error(e.tooDeep ? 'too-deep' : 'syntax', `${what} ${e.message} (column ${e.column}, byte ${e.offset + 1})`, { line: e.line });
-    return done();
+    return null;
   }
   const root = read.root;
   if (root.name !== 'graphml') {
     issues.error('syntax', `the root element must be <graphml>, not <${clip(root.name)}>`, { element: '<graphml>' });
-    return done();
+    return null;
   }
+  return root;
+}
+
+/** The first <graph> (a warning when there are more), or null with an error when there is none. */
+function firstGraph(root: XmlElement, issues: IssueList): XmlElement | null {
   const graphs = childrenOf(root, 'graph');
   if (graphs.length === 0) {
     issues.error('missing-field', 'there is no <graph> element inside <graphml>', { element: '<graph>' });
-    return done();
+    return null;
   }
   if (graphs.length > 1)
     issues.warn('ignored-column', `the file has ${graphs.length} <graph> elements; only the first was read`, { element: '<graph> #2' });
-  const g = graphs[0];
-  const keys = readKeys(childrenOf(root, 'key'));
+  return graphs[0];
+}
+
+/** Whether edges are directed unless they say otherwise (an error for a value other than the two allowed). */
+function readEdgeDefault(g: XmlElement, issues: IssueList): boolean {
   const edgeDefault = attr(g, 'edgedefault');
   if (edgeDefault !== undefined && edgeDefault !== 'directed' && edgeDefault !== 'undirected') {
     issues.error('syntax', `edgedefault must be "directed" or "undirected", not "${clip(edgeDefault)}"`, {
@@ -65,21 +83,26 @@ export function parseGraphml(text: string, options: ParseOptions = {}): ParseRes
       field: 'edgedefault',
     });
   }
-  const defaultDirected = edgeDefault === 'directed';
+  return edgeDefault === 'directed';
+}
 
+function addNodes(g: XmlElement, keys: Keys, builder: RoomBuilder, issues: IssueList): void {
   const nodes = childrenOf(g, 'node');
   for (let i = 0; i < nodes.length && !issues.full; i++) {
     const element = `<node> #${i + 1}`;
     const data = dataOf(nodes[i], keys);
     builder.addPerson(attr(nodes[i], 'id'), data.get(keys.label ?? ''), data.get(keys.group ?? ''), { element, field: 'id' });
   }
+}
 
+/** Adds the edges as ties and returns whether the room is directed (any directed edge makes it so). */
+function addEdges(g: XmlElement, keys: Keys, defaultDirected: boolean, builder: RoomBuilder, issues: IssueList): boolean {
   const edges = childrenOf(g, 'edge');
   const edgeDirected = edges.map((edge) => {
     const d = attr(edge, 'directed');
     return d === undefined ? defaultDirected : d === 'true' || d === '1';
   });
-  directed = edges.length === 0 ? defaultDirected : edgeDirected.some((d) => d);
+  const directed = edges.length === 0 ? defaultDirected : edgeDirected.some((d) => d);
   if (directed && edgeDirected.some((d) => !d)) {
     issues.warn(
       'mixed-direction',
@@ -102,7 +125,7 @@ export function parseGraphml(text: string, options: ParseOptions = {}): ParseRes
     builder.addTie(source, target, strength, { element }, fields, directed);
     if (directed && !edgeDirected[i]) builder.addTie(target, source, strength, { element }, fields, directed);
   }
-  return done();
+  return directed;
 }
 
 interface Keys {

@@ -9,7 +9,7 @@
  * team over TEAM_PAIRS_MAX members gets no same-manager ties (a warning says so).
  */
 import type { RoomGraph, RoomTie } from '../graph';
-import { readCsv, unprotectCell, writeCsvRows, type Delimiter } from './csv-text';
+import { readCsv, unprotectCell, writeCsvRows, type CsvRecord, type Delimiter } from './csv-text';
 import { DEFAULT_LIMITS, IssueList, type ParseOptions, type ParseResult } from './issues';
 import { checkTextSize } from './text-limits';
 
@@ -76,63 +76,13 @@ export function parseOrgChart(
     issues.error('syntax', 'a quoted cell starts here but its closing quote (") is missing', { line: csv.unclosedQuoteLine });
     return empty;
   }
-  const header = csv.records[0];
-  const at = (name: string | undefined) => (name === undefined ? -1 : (header?.cells.findIndex((c) => c.trim() === name) ?? -1));
-  const col = { person: at(columns.person), manager: at(columns.manager), name: at(columns.name), department: at(columns.department) };
-  for (const [key, label] of [
-    ['person', columns.person],
-    ['manager', columns.manager],
-    ['name', columns.name],
-    ['department', columns.department],
-  ] as const) {
-    if (label !== undefined && col[key] < 0)
-      issues.error('missing-column', `the header has no column "${label}" (chosen as the ${key} column)`, { line: header?.line ?? 1 });
-  }
+  const col = columnIndexes(csv.records[0], columns, issues);
   if (issues.errors.length) return { ...empty, meta: { format: 'csv', delimiter: csv.delimiter } };
 
-  const ids: string[] = [];
-  const labels: string[] = [];
-  const groups: (string | null)[] = [];
-  const managerOf: (string | null)[] = [];
-  const lines: number[] = [];
-  const index = new Map<string, number>();
-  const cell = (cells: readonly string[], i: number) => (i < 0 || i >= cells.length ? '' : unprotectCell(cells[i].trim()));
-  const maxPeople = options.maxPeople ?? DEFAULT_LIMITS.maxPeople;
-  for (const record of csv.records.slice(1)) {
-    if (record.cells.every((c) => c.trim() === '')) continue;
-    const id = cell(record.cells, col.person);
-    const where = { line: record.line, field: columns.person };
-    if (!id) {
-      issues.error('missing-field', `the ${columns.person} cell is empty; give every person an id`, where);
-      continue;
-    }
-    if (index.has(id)) {
-      issues.error('duplicate-person', `"${id}" is listed twice (first on line ${lines[index.get(id)!]}); keep one row per person`, where);
-      continue;
-    }
-    if (ids.length >= maxPeople) {
-      issues.error('room-too-large', `more than ${maxPeople} people; split the org chart`, where);
-      break;
-    }
-    index.set(id, ids.length);
-    ids.push(id);
-    labels.push(cell(record.cells, col.name) || id);
-    groups.push(cell(record.cells, col.department) || null);
-    managerOf.push(cell(record.cells, col.manager) || null);
-    lines.push(record.line);
-  }
+  const people = readPeople(csv.records.slice(1), col, columns.person, options.maxPeople ?? DEFAULT_LIMITS.maxPeople, issues);
+  const { ids, labels, groups, managerOf, lines } = people;
   if (!ids.length && !issues.errors.length) issues.error('empty-room', 'the file has a header but no people', { line: 1 });
-
-  // Managers must be people of the file.
-  const parent = new Int32Array(ids.length).fill(-1);
-  managerOf.forEach((m, i) => {
-    if (m === null) return;
-    const j = index.get(m);
-    const where = { line: lines[i], field: columns.manager };
-    if (j === undefined) issues.error('unknown-id', `the manager "${m}" of "${ids[i]}" is not a person in this file`, where);
-    else if (j === i) issues.error('reporting-cycle', `"${ids[i]}" is named as their own manager; leave the cell empty at the top`, where);
-    else parent[i] = j;
-  });
+  const parent = managerIndexes(people, columns.manager, issues);
   reportCycles(parent, ids, lines, columns.manager, issues);
 
   const ties = buildTies(parent, strengths, options, issues, ids);
@@ -147,6 +97,86 @@ export function parseOrgChart(
     errors: issues.errors,
     meta: { format: 'csv', delimiter: csv.delimiter },
   };
+}
+
+type ColumnIndexes = Record<OrgChartField, number>;
+
+/** Where each chosen column stands in the header (-1 when not chosen); an error for each chosen one that is missing. */
+function columnIndexes(header: CsvRecord | undefined, columns: OrgChartColumns, issues: IssueList): ColumnIndexes {
+  const at = (name: string | undefined) => (name === undefined ? -1 : (header?.cells.findIndex((c) => c.trim() === name) ?? -1));
+  const col = { person: at(columns.person), manager: at(columns.manager), name: at(columns.name), department: at(columns.department) };
+  for (const [key, label] of [
+    ['person', columns.person],
+    ['manager', columns.manager],
+    ['name', columns.name],
+    ['department', columns.department],
+  ] as const) {
+    if (label !== undefined && col[key] < 0)
+      issues.error('missing-column', `the header has no column "${label}" (chosen as the ${key} column)`, { line: header?.line ?? 1 });
+  }
+  return col;
+}
+
+/** The rows' people in file order (blank rows skipped), with their manager cells and CSV lines. */
+interface OrgChartPeople {
+  readonly ids: string[];
+  readonly labels: string[];
+  readonly groups: (string | null)[];
+  readonly managerOf: (string | null)[];
+  readonly lines: number[];
+  /** Position in `ids`, by person id. */
+  readonly index: Map<string, number>;
+}
+
+function readPeople(
+  records: readonly CsvRecord[],
+  col: ColumnIndexes,
+  personField: string,
+  maxPeople: number,
+  issues: IssueList,
+): OrgChartPeople {
+  const people: OrgChartPeople = { ids: [], labels: [], groups: [], managerOf: [], lines: [], index: new Map() };
+  const { ids, index, lines } = people;
+  const cell = (cells: readonly string[], i: number) => (i < 0 || i >= cells.length ? '' : unprotectCell(cells[i].trim()));
+  for (const record of records) {
+    if (record.cells.every((c) => c.trim() === '')) continue;
+    const id = cell(record.cells, col.person);
+    const where = { line: record.line, field: personField };
+    if (!id) {
+      issues.error('missing-field', `the ${personField} cell is empty; give every person an id`, where);
+      continue;
+    }
+    if (index.has(id)) {
+      issues.error('duplicate-person', `"${id}" is listed twice (first on line ${lines[index.get(id)!]}); keep one row per person`, where);
+      continue;
+    }
+    if (ids.length >= maxPeople) {
+      issues.error('room-too-large', `more than ${maxPeople} people; split the org chart`, where);
+      break;
+    }
+    index.set(id, ids.length);
+    ids.push(id);
+    people.labels.push(cell(record.cells, col.name) || id);
+    people.groups.push(cell(record.cells, col.department) || null);
+    people.managerOf.push(cell(record.cells, col.manager) || null);
+    lines.push(record.line);
+  }
+  return people;
+}
+
+/** Each person's manager as a position (-1 at the top); managers must be other people of the file. */
+function managerIndexes(people: OrgChartPeople, field: string, issues: IssueList): Int32Array {
+  const { ids, lines, index } = people;
+  const parent = new Int32Array(ids.length).fill(-1);
+  people.managerOf.forEach((m, i) => {
+    if (m === null) return;
+    const j = index.get(m);
+    const where = { line: lines[i], field };
+    if (j === undefined) issues.error('unknown-id', `the manager "${m}" of "${ids[i]}" is not a person in this file`, where);
+    else if (j === i) issues.error('reporting-cycle', `"${ids[i]}" is named as their own manager; leave the cell empty at the top`, where);
+    else parent[i] = j;
+  });
+  return parent;
 }
 
 /** Follows each chain of managers; a chain that comes back to itself is reported once, on each of its rows. */

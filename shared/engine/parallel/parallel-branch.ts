@@ -9,6 +9,7 @@
 import { Piscina } from 'piscina';
 import { BranchSearch, resumeFrom, type ExhaustiveOutcome } from '../plan-exhaustive';
 import type { PlanContext } from '../plan-context';
+import type { Piece } from '../plan-resume';
 import type { AbsorbingState } from '../dense-state';
 import { shouldStop } from '../plan-search-meter';
 import { SharedSearchState } from './branch-shared';
@@ -51,69 +52,20 @@ export async function exhaustiveParallel(
   // The worker threads start (and load their code) while this thread searches the first pieces
   // in slices, returning to the event loop between slices so the pool can hand them work.
   const warm = soloMs > 0 ? Promise.all(Array.from({ length: threads }, () => pool.run({ warm: true }))).catch(() => undefined) : null;
-  let next = 0;
-  while (next < items.length && !main.halted && performance.now() - t0 < soloMs) {
-    const sliceEnd = Math.min(t0 + soloMs, performance.now() + SLICE_MS);
-    main.searchItems(items, () => (next < items.length && performance.now() < sliceEnd ? next++ : -1));
-    await new Promise((done) => setImmediate(done));
-  }
+  const next = await searchSolo(main, items, t0, soloMs);
   if (next >= items.length || main.halted)
     return main.outcome(main.saved(saved, { work: items, untakenFrom: next, partial: main.partial ? [main.partial] : [] }));
   await warm;
   const solo = main.threadResult();
-  const preClosed = main.closedSets();
   const space = main.space();
-  const soloRaw = solo.rawTotal;
-  const state = SharedSearchState.create(threads, soloRaw, next);
-  const incumbent = { starters: [...solo.starters], rawTotal: soloRaw, scale: start.scale };
-  const remaining = Math.max(1, ctx.deadline - performance.now());
-  const base: Omit<BranchWorkerData, 'slot'> = {
-    room: ctx.room,
-    k: ctx.k,
-    mustInclude: ctx.mustInclude,
-    exclude: ctx.exclude,
-    ergodic: ctx.ergodic(),
-    items,
-    incumbent,
-    timeLimitMs: remaining,
-    ...(ctx.options.maxNodes !== undefined ? { maxNodes: ctx.options.maxNodes } : {}),
-    sab: state.sab,
-    threads,
-  };
-  const lowerRaw = (): number => {
-    let lb = state.best();
-    const from = Math.max(0, Math.min(items.length, state.taken()) - threads);
-    if (from < items.length) lb = Math.min(lb, items[from].bound);
-    for (let t = 0; t < threads; t++) lb = Math.min(lb, state.slot(t)[0]);
-    return Math.max(ctx.n - ctx.k, lb);
-  };
-  const status = () => {
-    let closed = preClosed;
-    let nodes = 0;
-    for (let t = 0; t < threads; t++) {
-      closed += state.slot(t)[1];
-      nodes += state.slot(t)[2];
-    }
-    return { closed, nodes };
-  };
-  const timer = setInterval(() => {
-    if (shouldStop(ctx) || performance.now() > ctx.deadline) state.requestStop();
-    const { closed, nodes } = status();
-    const best = state.best() * start.scale;
-    const lb = Math.min(best, lowerRaw() * start.scale);
-    ctx.options.onProgress?.({
-      stage: 'exhaustive',
-      done: Math.round((1000 * closed) / space),
-      of: 1000,
-      fraction: Math.min(1, closed / space),
-      bestTotal: best,
-      lowerBound: lb,
-      gap: best > 0 ? (best - lb) / best : 0,
-      nodes: main.priorNodes() + solo.nodes + nodes,
-    });
-  }, 100);
+  const state = SharedSearchState.create(threads, solo.rawTotal, next);
+  const incumbent = { starters: [...solo.starters], rawTotal: solo.rawTotal, scale: start.scale };
+  const watch = new WorkerWatch(ctx, state, items, threads, main.closedSets());
+  const nodesBefore = main.priorNodes() + solo.nodes;
+  const timer = setInterval(() => watch.report(start.scale, space, nodesBefore), 100);
   let results: BranchWorkerResult[];
   try {
+    const base = workerData(ctx, items, incumbent, state, threads);
     results = (await Promise.all(Array.from({ length: threads }, (_, slot) => pool.run({ ...base, slot })))) as BranchWorkerResult[];
   } finally {
     clearInterval(timer);
@@ -124,10 +76,10 @@ export async function exhaustiveParallel(
   for (const r of results) if (r.rawTotal < best.rawTotal - 1e-12 * Math.abs(best.rawTotal)) best = r;
   let lb = best.rawTotal;
   if (halted) {
-    lb = lowerRaw();
+    lb = watch.lowerRaw();
     for (const r of results) lb = Math.min(lb, r.pendingRaw);
   }
-  const { closed } = status();
+  const { closed } = watch.status();
   const nodes = solo.nodes + results.reduce((t, r) => t + r.nodes, 0);
   const resume = main.saved(
     saved,
@@ -144,4 +96,87 @@ export async function exhaustiveParallel(
     resume,
     resumed: resume.runs > 1,
   };
+}
+
+/** Searches pieces on this thread in slices of SLICE_MS until `soloMs` after `t0`; returns the first piece not taken. */
+async function searchSolo(main: BranchSearch, items: Piece[], t0: number, soloMs: number): Promise<number> {
+  let next = 0;
+  while (next < items.length && !main.halted && performance.now() - t0 < soloMs) {
+    const sliceEnd = Math.min(t0 + soloMs, performance.now() + SLICE_MS);
+    main.searchItems(items, () => (next < items.length && performance.now() < sliceEnd ? next++ : -1));
+    await new Promise((done) => setImmediate(done));
+  }
+  return next;
+}
+
+function workerData(
+  ctx: PlanContext,
+  items: Piece[],
+  incumbent: BranchWorkerData['incumbent'],
+  state: SharedSearchState,
+  threads: number,
+): Omit<BranchWorkerData, 'slot'> {
+  return {
+    room: ctx.room,
+    k: ctx.k,
+    mustInclude: ctx.mustInclude,
+    exclude: ctx.exclude,
+    ergodic: ctx.ergodic(),
+    items,
+    incumbent,
+    timeLimitMs: Math.max(1, ctx.deadline - performance.now()),
+    ...(ctx.options.maxNodes !== undefined ? { maxNodes: ctx.options.maxNodes } : {}),
+    sab: state.sab,
+    threads,
+  };
+}
+
+/** The main thread's view of the workers while they search: their bound and counts, the stop flag, progress. */
+class WorkerWatch {
+  constructor(
+    private readonly ctx: PlanContext,
+    private readonly state: SharedSearchState,
+    private readonly items: Piece[],
+    private readonly threads: number,
+    private readonly preClosed: number,
+  ) {}
+
+  /** The smallest raw total any plan not yet ruled out could have. */
+  lowerRaw(): number {
+    const { state, items, threads } = this;
+    let lb = state.best();
+    const from = Math.max(0, Math.min(items.length, state.taken()) - threads);
+    if (from < items.length) lb = Math.min(lb, items[from].bound);
+    for (let t = 0; t < threads; t++) lb = Math.min(lb, state.slot(t)[0]);
+    return Math.max(this.ctx.n - this.ctx.k, lb);
+  }
+
+  status(): { closed: number; nodes: number } {
+    let closed = this.preClosed;
+    let nodes = 0;
+    for (let t = 0; t < this.threads; t++) {
+      closed += this.state.slot(t)[1];
+      nodes += this.state.slot(t)[2];
+    }
+    return { closed, nodes };
+  }
+
+  /** Raises the stop flag when the search is cancelled or out of time, and reports progress. */
+  report(scale: number, space: number, nodesBefore: number): void {
+    const { ctx, state } = this;
+    if (shouldStop(ctx) || performance.now() > ctx.deadline) state.requestStop();
+    const { closed, nodes } = this.status();
+    const best = state.best() * scale;
+    const lb = Math.min(best, this.lowerRaw() * scale);
+    ctx.options.onProgress?.({
+      stage: 'exhaustive',
+      done: Math.round((1000 * closed) / space),
+      of: 1000,
+      fraction: Math.min(1, closed / space),
+      bestTotal: best,
+      lowerBound: lb,
+      gap: best > 0 ? (best - lb) / best : 0,
+      nodes: nodesBefore + nodes,
+    });
+  }
 }

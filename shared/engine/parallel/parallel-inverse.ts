@@ -56,19 +56,13 @@ export async function invertParallel(src: Float64Array, n: number, symmetric: bo
   const ctrl = new Int32Array(new SharedArrayBuffer(16));
   ctrl[3] = symmetric ? 1 : 0;
   const helpers = Math.max(0, Math.min(threads, 8) - 1);
-  // Row ranges of roughly equal work: symmetric rows shrink with i (upper triangle only).
-  const cuts = [0];
-  for (let t = 1; t <= helpers; t++)
-    cuts.push(symmetric ? Math.round(n * (1 - Math.sqrt(1 - t / (helpers + 1)))) : Math.round((n * t) / (helpers + 1)));
-  cuts.push(n);
+  const cuts = rowCuts(n, helpers, symmetric);
   const workers: Worker[] = [];
   for (let t = 0; t < helpers; t++) {
     workers.push(
       new Worker(WORKER_SOURCE, { eval: true, workerData: { sab, colSab, ctrlSab: ctrl.buffer, n, from: cuts[t + 1], to: cuts[t + 2] } }),
     );
   }
-  const ownFrom = 0;
-  const ownTo = cuts[1];
   const perm = new Int32Array(n);
   for (let i = 0; i < n; i++) perm[i] = i;
   try {
@@ -82,67 +76,94 @@ export async function invertParallel(src: Float64Array, n: number, symmetric: bo
       ),
     );
     for (let k = 0; k < n; k++) {
-      const rk = k * n;
-      let inv: number;
-      if (symmetric) {
-        const d = a[rk + k];
-        if (!(d > 0)) throw new EngineError('SOLVER_FAILED', 'The matrix is not positive definite.');
-        for (let j = 0; j < k; j++) col[j] = a[j * n + k];
-        for (let j = k; j < n; j++) col[j] = a[rk + j];
-        inv = 1 / d;
-      } else {
-        let p = k;
-        let best = Math.abs(a[rk + k]);
-        for (let i = k + 1; i < n; i++) {
-          const v = Math.abs(a[i * n + k]);
-          if (v > best) {
-            best = v;
-            p = i;
-          }
-        }
-        if (!(best > 0)) throw new EngineError('SOLVER_FAILED', 'The matrix is singular: some people cannot reach any starter.');
-        if (p !== k) {
-          const rp = p * n;
-          for (let j = 0; j < n; j++) {
-            const t = a[rk + j];
-            a[rk + j] = a[rp + j];
-            a[rp + j] = t;
-          }
-          const t = perm[k];
-          perm[k] = perm[p];
-          perm[p] = t;
-        }
-        inv = 1 / a[rk + k];
-        a[rk + k] = 1;
-        for (let j = 0; j < n; j++) a[rk + j] *= inv;
-        for (let j = 0; j < n; j++) col[j] = a[rk + j];
-      }
+      const inv = symmetric ? sweepPivot(a, col, n, k) : gaussJordanPivot(a, col, perm, n, k);
       col[n] = inv;
       ctrl[0] = k;
       Atomics.store(ctrl, 2, 0);
       Atomics.add(ctrl, 1, 1);
       Atomics.notify(ctrl, 1);
-      updateRows(a, col, n, k, ownFrom, ownTo, symmetric, inv);
+      updateRows(a, col, n, k, 0, cuts[1], symmetric, inv);
       while (Atomics.load(ctrl, 2) < helpers) Atomics.wait(ctrl, 2, Atomics.load(ctrl, 2), 50);
       if (symmetric) {
+        const rk = k * n;
         for (let j = 0; j < k; j++) a[j * n + k] = col[j] * inv;
         for (let j = k + 1; j < n; j++) a[rk + j] = col[j] * inv;
         a[rk + k] = -inv;
       }
     }
   } finally {
-    ctrl[0] = -1;
-    Atomics.add(ctrl, 1, 1);
-    Atomics.notify(ctrl, 1);
-    await Promise.all(
-      workers.map(
-        (w) =>
-          new Promise((res) => {
-            w.once('exit', res);
-          }),
-      ),
-    );
+    await stopHelpers(ctrl, workers);
   }
+  return unpackInverse(a, perm, n, symmetric);
+}
+
+/** Row ranges of roughly equal work, this thread's first: symmetric rows shrink with i (upper triangle only). */
+function rowCuts(n: number, helpers: number, symmetric: boolean): number[] {
+  const cuts = [0];
+  for (let t = 1; t <= helpers; t++)
+    cuts.push(symmetric ? Math.round(n * (1 - Math.sqrt(1 - t / (helpers + 1)))) : Math.round((n * t) / (helpers + 1)));
+  cuts.push(n);
+  return cuts;
+}
+
+/** Sweep step k: copies pivot column k (upper triangle) into `col` and returns 1 / pivot. */
+function sweepPivot(a: Float64Array, col: Float64Array, n: number, k: number): number {
+  const rk = k * n;
+  const d = a[rk + k];
+  if (!(d > 0)) throw new EngineError('SOLVER_FAILED', 'The matrix is not positive definite.');
+  for (let j = 0; j < k; j++) col[j] = a[j * n + k];
+  for (let j = k; j < n; j++) col[j] = a[rk + j];
+  return 1 / d;
+}
+
+/** Gauss-Jordan step k: swaps in the row of largest pivot, scales it, copies it into `col`; returns 1 / pivot. */
+function gaussJordanPivot(a: Float64Array, col: Float64Array, perm: Int32Array, n: number, k: number): number {
+  const rk = k * n;
+  let p = k;
+  let best = Math.abs(a[rk + k]);
+  for (let i = k + 1; i < n; i++) {
+    const v = Math.abs(a[i * n + k]);
+    if (v > best) {
+      best = v;
+      p = i;
+    }
+  }
+  if (!(best > 0)) throw new EngineError('SOLVER_FAILED', 'The matrix is singular: some people cannot reach any starter.');
+  if (p !== k) {
+    const rp = p * n;
+    for (let j = 0; j < n; j++) {
+      const t = a[rk + j];
+      a[rk + j] = a[rp + j];
+      a[rp + j] = t;
+    }
+    const t = perm[k];
+    perm[k] = perm[p];
+    perm[p] = t;
+  }
+  const inv = 1 / a[rk + k];
+  a[rk + k] = 1;
+  for (let j = 0; j < n; j++) a[rk + j] *= inv;
+  for (let j = 0; j < n; j++) col[j] = a[rk + j];
+  return inv;
+}
+
+/** Tells the helper threads to leave and waits until they have. */
+async function stopHelpers(ctrl: Int32Array, workers: Worker[]): Promise<void> {
+  ctrl[0] = -1;
+  Atomics.add(ctrl, 1, 1);
+  Atomics.notify(ctrl, 1);
+  await Promise.all(
+    workers.map(
+      (w) =>
+        new Promise((res) => {
+          w.once('exit', res);
+        }),
+    ),
+  );
+}
+
+/** The inverse from the eliminated matrix: the negated upper triangle mirrored, or the columns put back in order. */
+function unpackInverse(a: Float64Array, perm: Int32Array, n: number, symmetric: boolean): Float64Array {
   const out = new Float64Array(n * n);
   if (symmetric) {
     for (let i = 0; i < n; i++)

@@ -27,6 +27,8 @@ export function runCascadePaired(plan: SimPlan, st: Xor128State, tally: CascadeT
   const pathCap = sample ? sample.pathCap : 0;
   if (count === 0) return;
   let next = 0;
+  // Per lane (suffix a or b): q the walker's index, v the person the question is at, h the hops so far,
+  // p the sampled path (null when this walker's path is not kept).
   // lane A
   let qa = next++;
   let va = walkers[qa];

@@ -22,6 +22,7 @@ import {
   maxBudget,
   METHOD_CHOICES,
   NO_SHOW_PERCENT_MAX,
+  type PlanMode,
 } from './plan-form-rules';
 
 /** A problem the server reported for the last request, and the field it belongs to. */
@@ -94,7 +95,7 @@ export class PlanFormPanel {
   protected readonly whyDisabled = computed(() => {
     this.changes();
     const f = this.form.getRawValue();
-    return f.mode === 'hand' && f.starters.length === 0
+    return f.mode === 'hand-made' && f.starters.length === 0
       ? 'Pick at least one starter to continue.'
       : 'Correct the marked field to continue.';
   });
@@ -135,7 +136,7 @@ export class PlanFormPanel {
     this.form.valueChanges.subscribe(() => this.serverVisible.set(false));
   }
 
-  protected setMode(mode: 'computed' | 'hand'): void {
+  protected setMode(mode: PlanMode): void {
     this.form.controls.mode.setValue(mode);
     applyMode(this.form);
   }
@@ -152,7 +153,7 @@ export class PlanFormPanel {
     this.form.updateValueAndValidity();
     if (this.form.invalid || this.pending()) return;
     const f = this.form.getRawValue();
-    if (f.mode === 'hand') {
+    if (f.mode === 'hand-made') {
       this.submitted.emit({ starters: f.starters });
     } else {
       const noShow = f.noShowPercent ? f.noShowPercent / 100 : 0;
@@ -172,7 +173,7 @@ export class PlanFormPanel {
   /** Lets the page pre-fill the form (e.g. "plan the same again with greedy"). */
   prefill(request: CreatePlanRequest): void {
     if (request.starters) {
-      this.form.patchValue({ mode: 'hand', starters: request.starters });
+      this.form.patchValue({ mode: 'hand-made', starters: request.starters });
     } else {
       this.form.patchValue({
         mode: 'computed',

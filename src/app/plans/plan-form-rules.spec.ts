@@ -85,7 +85,7 @@ describe('plan form rules', () => {
 
   it('checks the starters of a hand-made plan instead of the budget', () => {
     const form = make();
-    form.controls.mode.setValue('hand');
+    form.controls.mode.setValue('hand-made');
     form.controls.k.setValue(0);
     applyMode(form);
     expect(constraintMessages(form.errors).starters).toBe('Pick at least one starter.');

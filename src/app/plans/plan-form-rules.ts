@@ -9,9 +9,10 @@ import {
   startersProblem,
   type PlanField,
 } from '../../../shared/api/plan-rules';
-import { PLAN_LIMITS, type PlanMethodChoice } from '../../../shared/api/plans';
+import { PLAN_LIMITS, type PlanKind, type PlanMethodChoice } from '../../../shared/api/plans';
 import { METHOD_LABELS } from './method-label';
-export type PlanMode = 'computed' | 'hand';
+/** The plan form's two modes are the two kinds of plan it makes. */
+export type PlanMode = PlanKind;
 
 /** The methods offered, each explained in one plain line. */
 export const METHOD_CHOICES: readonly { value: PlanMethodChoice; label: string; line: string }[] = [
@@ -85,7 +86,7 @@ export function planConstraintsValidator(roomSize: () => number, nameOf: (id: nu
   return (g: AbstractControl): ValidationErrors | null => {
     const f = (g as PlanForm).getRawValue();
     const errors: Partial<Record<PlanField, string>> = {};
-    if (f.mode === 'hand') {
+    if (f.mode === 'hand-made') {
       const p = startersProblem(f.starters.length, roomSize());
       if (p) errors.starters = p.message;
     } else {
@@ -134,7 +135,7 @@ export const NO_SHOW_PERCENT_MAX = NO_SHOW_LIMITS.max * 100;
 
 /** In hand-made mode the budget and the no-show field are not used (k is the number of starters picked). */
 export function applyMode(form: PlanForm): void {
-  const hand = form.controls.mode.value === 'hand';
+  const hand = form.controls.mode.value === 'hand-made';
   for (const c of [form.controls.k, form.controls.noShowPercent, form.controls.timeLimitSeconds]) {
     if (hand) c.disable({ emitEvent: false });
     else c.enable({ emitEvent: false });
