@@ -31,6 +31,13 @@ const schema = z.object({
   LINK_SECRET: z.string().min(16).default('dev-only-link-secret-change-me'),
   SESSION_IDLE_MINUTES: z.coerce.number().positive().default(30),
   SESSION_MAX_HOURS: z.coerce.number().positive().default(8),
+  /**
+   * How long a web process may answer from its own copy of a session row and its account, in ms
+   * (0 = read both on every request). Capped at 2 s: it bounds how long a sign-out, password reset,
+   * deactivation or role change made in another process (or straight in the database) can go
+   * unnoticed here; the process that makes the change forgets its copy at once.
+   */
+  SESSION_CACHE_MS: z.coerce.number().int().min(0).max(2000).default(1000),
   TRUST_PROXY: z
     .enum(['true', 'false'])
     .default('false')

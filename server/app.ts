@@ -30,7 +30,7 @@ export function createApp(): Express {
   // Pages get a fresh CSP nonce each (Angular stamps its run-time styles with it); API answers
   // style nothing, so they carry the same policy without a nonce, its header built once.
   const pageHeaders = securityHeaders(secure, (_req, res) => `'nonce-${(res as Response).locals['cspNonce']}'`);
-  const apiHeaders = securityHeaders(secure);
+  const apiHeaders = fixedHeaders(securityHeaders(secure));
   app.use((req, res, next) => {
     if (req.path.startsWith('/api/')) return apiHeaders(req, res, next);
     res.locals['cspNonce'] = randomBytes(16).toString('base64');
@@ -69,6 +69,38 @@ function securityHeaders(secure: boolean, styleNonce?: NonceDirective) {
     },
     strictTransportSecurity: secure,
   });
+}
+
+/**
+ * The headers a middleware sets when they never depend on the request (helmet without a nonce),
+ * recorded once and then set in one step; the middleware itself runs per request if it did
+ * anything else while being recorded.
+ */
+function fixedHeaders(middleware: (req: IncomingMessage, res: ServerResponse, next: (err?: unknown) => void) => void) {
+  const headers: [string, string][] = [];
+  const removed: string[] = [];
+  let plain = true;
+  let nexted = false;
+  const recorder = {
+    setHeader: (name: string, value: unknown) => {
+      if (typeof value !== 'string') plain = false;
+      headers.push([name, String(value)]);
+    },
+    removeHeader: (name: string) => removed.push(name),
+  };
+  try {
+    middleware({ method: 'GET', url: '/api/', headers: {} } as IncomingMessage, recorder as unknown as ServerResponse, (err) => {
+      nexted = err === undefined;
+    });
+  } catch {
+    plain = false;
+  }
+  if (!plain || !nexted) return middleware;
+  return (_req: IncomingMessage, res: ServerResponse, next: () => void) => {
+    for (const name of removed) res.removeHeader(name);
+    for (const [name, value] of headers) res.setHeader(name, value);
+    next();
+  };
 }
 
 function noStore(_req: Request, res: Response, next: NextFunction) {

@@ -1,3 +1,4 @@
+import type { Logger } from 'pino';
 import type { AccountRole } from '../shared/api/accounts';
 
 export interface SignedInUser {
@@ -10,9 +11,11 @@ export interface SignedInUser {
 declare global {
   namespace Express {
     interface Request {
-      /** The signed-in account, loaded fresh from the database on every request. */
+      /** The signed-in account, read with its session (at most SESSION_CACHE_MS old, see server/core/session-cache.ts). */
       user?: SignedInUser;
       id: string | number | object;
+      /** This request's logger (server/core/logging.ts). */
+      log?: Logger;
     }
   }
 }

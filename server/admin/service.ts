@@ -13,6 +13,7 @@ import type { AuditWriter } from '../core/audit';
 import { conflict, HttpError, notFound } from '../core/http-error';
 import { logger } from '../core/logging';
 import { endSessionsOf } from '../core/session';
+import { forgetCachedAccount } from '../core/session-cache';
 import {
   findUserByEmail,
   findUserById,
@@ -148,6 +149,9 @@ export async function setStatus(actor: SignedInUser, id: number, status: 'active
     if (status === 'deactivated') await revokeTokens(id, 'reset', tx);
     await audit({ action: status === 'active' ? 'account.reactivated' : 'account.deactivated', targetType: 'user', targetId: id }, tx);
   });
+  // The change is visible once committed: forget this process's session copies again (a read
+  // between the write and the commit kept the old status).
+  forgetCachedAccount(id);
   // Ends that account's sessions at once; its next request is answered 401.
   if (status === 'deactivated') await endSessionsOf(id);
 }
@@ -161,6 +165,8 @@ export async function changeRole(id: number, role: AccountRole, audit: AuditWrit
     await updateUser(id, { role }, tx);
     await audit({ action: 'account.role_changed', targetType: 'user', targetId: id, detail: { from: user.role, to: role } }, tx);
   });
+  // As in setStatus: the open sessions of the account get the new role on their next request.
+  forgetCachedAccount(id);
 }
 
 /** An admin sends a reset link to an active account ("resets access"). */

@@ -1,5 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { users } from '../../db/schema/accounts';
+import { forgetCachedAccount } from '../core/session-cache';
 import { db, type Conn, type Tx } from '../db';
 
 export type UserRow = typeof users.$inferSelect;
@@ -20,10 +21,18 @@ export async function lockUserById(id: number, tx: Tx): Promise<UserRow | undefi
   return row;
 }
 
+/**
+ * Writes account fields. The session copies of this process (`SessionCache`) are forgotten
+ * before and after, so a role or status change counts on the account's next request here.
+ * Inside a transaction the change is visible once it commits: a read between the write and the
+ * commit may keep the old row, for at most SESSION_CACHE_MS (as in any other process).
+ */
 export async function updateUser(
   id: number,
   values: Partial<Omit<UserRow, 'id' | 'createdAt' | 'updatedAt'>>,
   tx: Conn = db,
 ): Promise<void> {
+  forgetCachedAccount(id);
   await tx.update(users).set(values).where(eq(users.id, id));
+  forgetCachedAccount(id);
 }

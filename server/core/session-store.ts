@@ -2,7 +2,9 @@ import session from 'express-session';
 import MySQLStoreFactory from 'express-mysql-session';
 import type { RowDataPacket } from 'mysql2';
 import type { AccountRole } from '../../shared/api/accounts';
+import { config } from '../config';
 import { pool } from '../db';
+import { SessionCache, type CachedSession } from './session-cache';
 
 /** The signed-in account as read together with its session row. */
 export interface SessionAccount {
@@ -20,8 +22,9 @@ type SessionRequest = Parameters<session.Store['createSession']>[0];
 /**
  * Read one session row and its account in one statement (the session's `userId` joined to
  * `users`), so a signed-in request makes one database round trip before its route instead of
- * two. Nothing is cached: every request still reads both rows, so a sign-out, a deactivation or
- * a role change made by any process counts on the next request everywhere.
+ * two, and none while this process's copy is fresh (`SessionCache`, at most `SESSION_CACHE_MS`):
+ * a sign-out, a deactivation or a role change made by this process counts on its next request,
+ * one made by any other process within that time.
  */
 const READ = `SELECT s.data AS data, s.expires AS expires, u.id AS id, u.email AS email, u.name AS name, u.role AS role, u.status AS status
   FROM sessions s LEFT JOIN users u ON u.id = CAST(JSON_VALUE(s.data, '$.userId') AS UNSIGNED)
@@ -40,9 +43,16 @@ export function sessionAccount(req: SessionRequest): SessionAccount | null | und
 }
 
 export class SessionStore extends MySQLStore {
-  constructor(schema: { tableName: string; columnNames: { session_id: string; expires: string; data: string } }) {
+  /** This process's copies of the sessions it read (one cache per store). */
+  readonly cache: SessionCache;
+
+  constructor(
+    schema: { tableName: string; columnNames: { session_id: string; expires: string; data: string } },
+    cacheMs = config.SESSION_CACHE_MS,
+  ) {
     // The store's own clean-up timer keeps finished processes alive; the caller runs its own.
     super({ createDatabaseTable: false, clearExpired: false, schema }, pool as never);
+    this.cache = new SessionCache(cacheMs);
   }
 
   override get(sid: string): Promise<session.SessionData | null>;
@@ -51,23 +61,36 @@ export class SessionStore extends MySQLStore {
     sid: string,
     callback?: (err: unknown, session?: session.SessionData | null) => void,
   ): Promise<session.SessionData | null> | void {
-    const read = this.read(sid);
-    if (!callback) return read;
-    read.then(
-      (data) => callback(null, data),
-      (err: unknown) => callback(err),
+    return settle(this.read(sid), callback);
+  }
+
+  /** Saved (sign-in): copies of the old contents are forgotten before and after the write. */
+  override set(sid: string, data: session.SessionData): Promise<void>;
+  override set(sid: string, data: session.SessionData, callback: (err: unknown) => void): void;
+  override set(sid: string, data: session.SessionData, callback?: (err: unknown) => void): Promise<void> | void {
+    this.cache.forget(sid);
+    return settle(
+      super.set(sid, data).finally(() => this.cache.forget(sid)),
+      callback,
+    );
+  }
+
+  /** Destroyed (sign-out, lifetime over, account gone): no copy outlives the delete. */
+  override destroy(sid: string): Promise<void>;
+  override destroy(sid: string, callback: (err: unknown) => void): void;
+  override destroy(sid: string, callback?: (err: unknown) => void): Promise<void> | void {
+    this.cache.forget(sid);
+    return settle(
+      super.destroy(sid).finally(() => this.cache.forget(sid)),
+      callback,
     );
   }
 
   private async read(sid: string): Promise<session.SessionData | null> {
-    const [rows] = await pool.query<Row[]>(READ, [sid]);
-    const row = rows[0];
-    if (!row || row.data === null || row.expires < Math.round(Date.now() / 1000)) return null;
+    const row = await this.cache.read(sid, () => load(sid));
+    if (!row || row.expires < Math.round(Date.now() / 1000)) return null;
     const data = JSON.parse(row.data) as session.SessionData;
-    readWith.set(
-      data,
-      row.id === null ? null : { id: Number(row.id), email: row.email, name: row.name, role: row.role, status: row.status },
-    );
+    readWith.set(data, row.account);
     return data;
   }
 
@@ -76,4 +99,22 @@ export class SessionStore extends MySQLStore {
     if (account !== undefined) accountOf.set(req, account);
     return super.createSession(req, data);
   }
+}
+
+async function load(sid: string): Promise<CachedSession | null> {
+  const [rows] = await pool.query<Row[]>(READ, [sid]);
+  const row = rows[0];
+  if (!row || row.data === null) return null;
+  const account =
+    row.id === null ? null : Object.freeze({ id: Number(row.id), email: row.email, name: row.name, role: row.role, status: row.status });
+  return { data: row.data, expires: Number(row.expires), account };
+}
+
+/** A promise handed back, or to express-session's callback when it gave one. */
+function settle<T>(work: Promise<T>, callback?: (err: unknown, value?: T) => void): Promise<T> | void {
+  if (!callback) return work;
+  work.then(
+    (value) => callback(null, value),
+    (err: unknown) => callback(err),
+  );
 }

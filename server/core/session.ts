@@ -2,6 +2,7 @@ import session from 'express-session';
 import type { NextFunction, Request, Response } from 'express';
 import { config } from '../config';
 import { pool } from '../db';
+import { forgetCachedAccount } from './session-cache';
 import { SessionStore } from './session-store';
 
 export { sessionAccount, type SessionAccount } from './session-store';
@@ -56,9 +57,12 @@ export function absoluteLifetime(req: Request, _res: Response, next: NextFunctio
 
 /** Removes every stored session of one account (deactivation, password reset), but `keep` if given. */
 export async function endSessionsOf(userId: number, keep?: string): Promise<number> {
+  forgetCachedAccount(userId);
   const [result] = await pool.query("DELETE FROM sessions WHERE JSON_VALUE(data, '$.userId') = ? AND session_id <> ?", [
     String(userId),
     keep ?? '',
   ]);
+  // Again once the rows are gone: a read in flight during the delete is not kept either.
+  forgetCachedAccount(userId);
   return (result as { affectedRows?: number }).affectedRows ?? 0;
 }

@@ -8,7 +8,15 @@ import { db, pool } from '../../server/db';
 import { hashPassword, verifyPassword } from '../../server/auth/passwords';
 import { createApp } from '../../server/app';
 import { TestClient } from '../support/http-client';
-import { createAccount, signedInClient, startTestServer, type TestServer } from '../support/test-server';
+import { config } from '../../server/config';
+import {
+  createAccount,
+  msUntilStatus,
+  SESSION_BOUND_SLACK_MS,
+  signedInClient,
+  startTestServer,
+  type TestServer,
+} from '../support/test-server';
 
 describe('sign-in, sessions, CSRF and request checks', () => {
   let server: TestServer;
@@ -65,33 +73,60 @@ describe('sign-in, sessions, CSRF and request checks', () => {
     assert.equal((await replay.post('/api/auth/password', { currentPassword: 'x', newPassword: 'y'.repeat(12) })).status, 401);
   });
 
-  it('two web processes read every session afresh: sign-out, deactivation and a role change count at once in both', async () => {
-    // A second app on the same database stands for another web process (its own session store).
+  it('two web processes: a change counts at once in the process that makes it, and within SESSION_CACHE_MS in the other', async () => {
     const other = createServer(createApp());
     await new Promise<void>((resolve) => other.listen(0, '127.0.0.1', () => resolve()));
     try {
       const otherUrl = `http://127.0.0.1:${(other.address() as AddressInfo).port}`;
-      const onBoth = async (cookies: Map<string, string>, path: string) =>
-        Promise.all(
-          [server.url, otherUrl].map(async (url) => {
-            const c = new TestClient(url);
-            for (const [k, v] of cookies) c.cookies.set(k, v);
-            return (await c.get(path)).status;
-          }),
-        );
+      const statusAt = async (url: string, cookies: Map<string, string>, path: string) => {
+        const c = new TestClient(url);
+        for (const [k, v] of cookies) c.cookies.set(k, v);
+        return (await c.get(path)).status;
+      };
+      const onBoth = (cookies: Map<string, string>, path: string) =>
+        Promise.all([server.url, otherUrl].map((url) => statusAt(url, cookies, path)));
+      const bound = config.SESSION_CACHE_MS + SESSION_BOUND_SLACK_MS;
+      /** How long each process took to give `want` for `path` (both asked in parallel). */
+      const untilBoth = (cookies: Map<string, string>, path: string, want: number) =>
+        Promise.all([server.url, otherUrl].map((url) => msUntilStatus(() => statusAt(url, cookies, path), want)));
+      assert.ok(config.SESSION_CACHE_MS > 0 && config.SESSION_CACHE_MS <= 2000, 'the copies live at most 2 s');
+
+      // Straight in the database (as an operator, or a process this one never hears from, would):
+      // both processes see it within the bound.
       const { client, account } = await signedInClient(server);
       assert.deepEqual(await onBoth(client.cookies, '/api/rooms'), [200, 200]);
       await db.update(users).set({ role: 'admin' }).where(eq(users.id, account.id));
-      assert.deepEqual(await onBoth(client.cookies, '/api/admin/accounts'), [200, 200]);
+      for (const ms of await untilBoth(client.cookies, '/api/admin/accounts', 200))
+        assert.ok(ms <= bound, `role change seen after ${ms} ms`);
       await db.update(users).set({ status: 'deactivated' }).where(eq(users.id, account.id));
-      assert.deepEqual(await onBoth(client.cookies, '/api/rooms'), [401, 401]);
+      for (const ms of await untilBoth(client.cookies, '/api/rooms', 401)) assert.ok(ms <= bound, `deactivation seen after ${ms} ms`);
 
+      // Sign-out in one process: refused there at once, in the other (which read the session just
+      // before) within the bound.
       const second = await signedInClient(server);
       assert.deepEqual(await onBoth(second.client.cookies, '/api/rooms'), [200, 200]);
       const elsewhere = new TestClient(otherUrl);
       for (const [k, v] of second.client.cookies) elsewhere.cookies.set(k, v);
       assert.equal((await elsewhere.post('/api/auth/sign-out')).status, 204);
-      assert.deepEqual(await onBoth(second.client.cookies, '/api/rooms'), [401, 401]);
+      assert.equal(await statusAt(otherUrl, second.client.cookies, '/api/rooms'), 401, 'at once where it signed out');
+      const signedOut = await msUntilStatus(() => statusAt(server.url, second.client.cookies, '/api/rooms'), 401);
+      assert.ok(signedOut <= bound, `sign-out seen by the other process after ${signedOut} ms`);
+
+      // A password change in one process ends the account's other sessions: in that process at
+      // once, in the other within the bound.
+      const third = await signedInClient(server);
+      const phone = server.client();
+      await phone.signIn(third.account.email, third.account.password);
+      assert.deepEqual(await onBoth(phone.cookies, '/api/rooms'), [200, 200]);
+      const changed = await third.client.post('/api/auth/password', {
+        currentPassword: third.account.password,
+        newPassword: 'a-new-long-password-2',
+      });
+      assert.equal(changed.status, 204);
+      assert.equal(await statusAt(server.url, phone.cookies, '/api/rooms'), 401, 'at once in the process that changed it');
+      const ended = await msUntilStatus(() => statusAt(otherUrl, phone.cookies, '/api/rooms'), 401);
+      assert.ok(ended <= bound, `the other session ended in the other process after ${ended} ms`);
+      assert.deepEqual(await onBoth(third.client.cookies, '/api/rooms'), [200, 200], 'the session that changed it stays');
     } finally {
       other.closeAllConnections();
       await new Promise<void>((resolve) => other.close(() => resolve()));

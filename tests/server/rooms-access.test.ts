@@ -1,6 +1,14 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
-import { createAccount, startTestServer, signedInClient, type TestServer } from '../support/test-server';
+import {
+  createAccount,
+  msUntilStatus,
+  SESSION_BOUND_SLACK_MS,
+  startTestServer,
+  signedInClient,
+  type TestServer,
+} from '../support/test-server';
+import { config } from '../../server/config';
 import type { Reply, TestClient } from '../support/http-client';
 import { pool } from '../../server/db';
 import { createPathRoom, personOf, tieOf, type SmallRoom, upload } from './rooms-helpers';
@@ -119,12 +127,13 @@ describe('rooms: who may do what', () => {
     assert.equal(Number(row.n), 0);
   });
 
-  it('a deactivated collaborator loses access at once', async () => {
+  it('a deactivated collaborator loses access within SESSION_CACHE_MS, even when the change bypasses the app', async () => {
     const gone = await signedInClient(server);
     const r = await createPathRoom(clients.owner, 2, 'Deactivation');
     await clients.owner.post(`/api/rooms/${r.id}/shares`, { email: gone.account.email, role: 'editor' });
     assert.equal((await gone.client.get(`/api/rooms/${r.id}`)).status, 200);
     await pool.query("UPDATE users SET status = 'deactivated' WHERE id = ?", [gone.account.id]);
-    assert.equal((await gone.client.get(`/api/rooms/${r.id}`)).status, 401);
+    const ms = await msUntilStatus(async () => (await gone.client.get(`/api/rooms/${r.id}`)).status, 401);
+    assert.ok(ms <= config.SESSION_CACHE_MS + SESSION_BOUND_SLACK_MS, `refused after ${ms} ms`);
   });
 });

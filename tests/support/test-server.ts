@@ -108,3 +108,25 @@ export function signedInSuite(): { readonly server: TestServer; readonly client:
     },
   };
 }
+
+/**
+ * A web process may answer from its copy of a session for SESSION_CACHE_MS (server/core/session-cache.ts):
+ * a change made elsewhere must show within that, plus this much for the requests themselves on a
+ * busy machine.
+ */
+export const SESSION_BOUND_SLACK_MS = 1000;
+
+/**
+ * Asks `status()` every 50 ms until it answers `want`, and returns how long that took from the call
+ * (counting the first request). Fails once `giveUpMs` passed without that answer.
+ */
+export async function msUntilStatus(status: () => Promise<number>, want: number, giveUpMs = 8000): Promise<number> {
+  const started = Date.now();
+  let last = 0;
+  while (Date.now() - started < giveUpMs) {
+    last = await status();
+    if (last === want) return Date.now() - started;
+    await new Promise((r) => setTimeout(r, 50));
+  }
+  throw new Error(`still ${last} instead of ${want} after ${giveUpMs} ms`);
+}
