@@ -8,10 +8,11 @@ import helmet from 'helmet';
 import { config } from './config';
 import { apiRouter } from './api';
 import { currentUser } from './auth/current-user';
-import { csrfProtection } from './core/csrf';
+import { csrfCookieForPage, csrfProtection } from './core/csrf';
 import { errorHandler } from './core/error-handler';
 import { requestLogger } from './core/logging';
 import { absoluteLifetime, sessionMiddleware } from './core/session';
+import { firstStateBlock } from './participants/first-page';
 
 const browserDir = config.CLIENT_DIR ?? fileURLToPath(new URL('../dist/ripplehall/browser', import.meta.url));
 
@@ -108,32 +109,52 @@ function noStore(_req: Request, res: Response, next: NextFunction) {
   next();
 }
 
+/** Static imports of a built chunk (`from"./chunk-….js"`, `import"./chunk-….js"`). */
+function staticImports(file: string): string[] {
+  const text = readFileSync(`${browserDir}/${file}`, 'utf8');
+  return [...text.matchAll(/(?:from|import)\s*"\.\/(chunk-[A-Z0-9]+\.js)"/g)].flatMap((m) => (m[1] ? [m[1]] : []));
+}
+
 /**
- * modulepreload links for the participant page's lazy chunk and the chunks it imports, read from
- * the build: the route's `import("./chunk-….js")` in main-*.js, then that chunk's static imports.
- * A phone opening its link then fetches them beside the app's own chunks instead of one round
- * after another. If the build's shape ever differs, no link is added and the page loads as before.
+ * modulepreload links for everything a participant's page runs before it shows: the route's
+ * lazy chunk (its `import("./chunk-….js")` in main-*.js) and every chunk it or main-*.js imports,
+ * however deep, less those index.html already links. A phone opening its link then asks for all
+ * of them at once instead of discovering one level after another. If the build's shape ever
+ * differs, no link is added and the page loads as before.
  */
-function participantPreloads(): string {
+function participantPreloads(indexHtml: string): string {
   try {
     const main = readdirSync(browserDir).find((f) => /^main-[A-Z0-9]+\.js$/.test(f));
     if (!main) return '';
     const route = /path:"p\/:token".{0,300}?import\("\.\/(chunk-[A-Z0-9]+\.js)"\)/.exec(readFileSync(`${browserDir}/${main}`, 'utf8'));
     if (!route?.[1]) return '';
-    const chunk = readFileSync(`${browserDir}/${route[1]}`, 'utf8');
-    const deps = [...chunk.matchAll(/(?:from|import)\s*"\.\/(chunk-[A-Z0-9]+\.js)"/g)].map((m) => m[1]);
-    return [...new Set([route[1], ...deps])].map((f) => `<link rel="modulepreload" href="${f}">`).join('');
+    const seen = new Set<string>();
+    const queue = [main, route[1]];
+    while (queue.length) {
+      const file = queue.shift()!;
+      if (seen.has(file)) continue;
+      seen.add(file);
+      queue.push(...staticImports(file));
+    }
+    seen.delete(main);
+    return [...seen]
+      .filter((f) => !indexHtml.includes(`"${f}"`))
+      .map((f) => `<link rel="modulepreload" href="${f}">`)
+      .join('');
   } catch {
     return '';
   }
 }
+
+/** Build output named by its content hash (chunk-ABCD1234.js, media/font-ABCD1234.woff2). */
+const HASHED_ASSET = /-[A-Z0-9]{8}\.[a-z0-9]+$/;
 
 /** The built Angular app, with the CSP nonce written into index.html on every request. */
 function serveClient(app: Express) {
   const indexFile = `${browserDir}/index.html`;
   // Read again when the build changes it, so a rebuild never serves chunk names that are gone.
   let template: { text: string; participant: string; mtimeMs: number } | undefined;
-  const index = (req: Request, res: Response) => {
+  const index = async (req: Request, res: Response) => {
     const mtimeMs = statSync(indexFile, { throwIfNoEntry: false })?.mtimeMs;
     if (mtimeMs === undefined) {
       res.status(503).type('text').send('The client is not built yet: run `npm start` (or `npx ng build`).');
@@ -141,17 +162,40 @@ function serveClient(app: Express) {
     }
     if (template?.mtimeMs !== mtimeMs) {
       const text = readFileSync(indexFile, 'utf8');
-      template = { text, participant: text.replace('</head>', `${participantPreloads()}</head>`), mtimeMs };
+      template = { text, participant: text.replace('</head>', () => `${participantPreloads(text)}</head>`), mtimeMs };
     }
     const nonce = res.locals['cspNonce'] as string;
-    // A participant's own page (/p/<token>): its chunks are fetched with the app's, not after it.
-    const page = /^\/p\/[A-Za-z0-9_-]{20,}$/.test(req.path) ? template.participant : template.text;
-    res
-      .type('html')
-      .set('Cache-Control', 'no-store')
-      .send(page.replace('<app-root', `<app-root ngCspNonce="${nonce}"`).replaceAll('<style', `<style nonce="${nonce}"`));
+    const stamp = (html: string) =>
+      html.replace('<app-root', `<app-root ngCspNonce="${nonce}"`).replaceAll('<style', `<style nonce="${nonce}"`);
+    res.type('html').set('Cache-Control', 'no-store');
+    const token = /^\/p\/([A-Za-z0-9_-]{20,})$/.exec(req.path)?.[1];
+    if (!token) {
+      res.send(stamp(template.text));
+      return;
+    }
+    // A participant's own page (/p/<token>): its chunks are linked in <head>, so they are fetched
+    // with the app's and not after them, and its first state is written in before </body>. The
+    // page up to there goes out at once: the phone fetches the code while the state is read.
+    // (Module scripts run only once the whole page is in, so the state is there before them.)
+    // The page may consent or answer before any API call has set the form token.
+    csrfCookieForPage(req, res);
+    const page = stamp(template.participant);
+    const end = page.lastIndexOf('</body>');
+    res.write(page.slice(0, end));
+    const block = await firstStateBlock(token);
+    res.end(block + page.slice(end));
   };
   app.get('/', index);
-  app.use(express.static(browserDir, { index: false, maxAge: '1h' }));
+  // Hashed files never change under their name: a phone that opens its link again (for its
+  // results, say) reuses them without asking. Anything else is checked again after an hour.
+  app.use(
+    express.static(browserDir, {
+      index: false,
+      maxAge: '1h',
+      setHeaders: (res, path) => {
+        if (HASHED_ASSET.test(path)) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
+      },
+    }),
+  );
   app.get('/{*splat}', index);
 }

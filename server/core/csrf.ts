@@ -76,3 +76,12 @@ export function csrfProtection(secret: string, secure: boolean) {
 export function rotateCsrf(req: Request, res: Response): void {
   current?.rotate(req, res);
 }
+
+/**
+ * For a page that comes with its first data written in (a participant's page), so it may write
+ * before it has asked the API anything: a browser without a token gets one (bound as the API
+ * would bind it: no session yet). A token the browser already holds is left as it is.
+ */
+export function csrfCookieForPage(req: Request, res: Response): void {
+  if (req.cookies?.[CSRF_COOKIE] === undefined) current?.rotate(req, res);
+}

@@ -7,6 +7,7 @@ import { provideRouter, Router } from '@angular/router';
 import type { ApiError } from './api-error';
 import { Auth } from './auth';
 import { errorInterceptor, HANDLES_ERRORS } from './error-interceptor';
+import { ErrorSnack } from './error-snack';
 
 @Component({ template: '', changeDetection: ChangeDetectionStrategy.OnPush })
 class NextPage {}
@@ -40,7 +41,10 @@ describe('errorInterceptor', () => {
       }),
     );
     backend.expectOne(url).flush(body, { status, statusText: 'Error' });
-    return failed;
+    const e = await failed;
+    // The snackbar's code is fetched on the first message: wait until it is shown.
+    await TestBed.inject(ErrorSnack).settled();
+    return e;
   }
 
   it("shows the server's own message in a snackbar and passes the error on", async () => {
@@ -69,6 +73,7 @@ describe('errorInterceptor', () => {
     expect(navigate).toHaveBeenCalledWith(['/sign-in'], jasmine.objectContaining({ queryParams: jasmine.any(Object) }));
     await navigate.calls.mostRecent().returnValue;
     await Promise.resolve();
+    await TestBed.inject(ErrorSnack).settled();
     expect(snack.calls.mostRecent().args[0]).toContain('session has ended');
   });
 

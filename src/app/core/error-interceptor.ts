@@ -1,6 +1,5 @@
 import type { HttpInterceptorFn } from '@angular/common/http';
 import { inject } from '@angular/core';
-import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router } from '@angular/router';
 import { catchError, throwError } from 'rxjs';
 import { toApiError } from './api-error';
@@ -18,7 +17,6 @@ export const shownByInterceptor = (): void => undefined;
 
 /** Turns server errors into one clear snackbar, and a lost session into the sign-in page. */
 export const errorInterceptor: HttpInterceptorFn = (req, next) => {
-  const snackBar = inject(MatSnackBar);
   const router = inject(Router);
   const auth = inject(Auth);
   const errorSnack = inject(ErrorSnack);
@@ -30,7 +28,7 @@ export const errorInterceptor: HttpInterceptorFn = (req, next) => {
         // Announced on the sign-in page it leads to, after the navigation (not before it).
         void router
           .navigate(['/sign-in'], { queryParams: { next: router.url } })
-          .then(() => snackBar.open('Your session has ended. Please sign in again.', 'OK', { duration: 6000 }));
+          .then(() => errorSnack.announce('Your session has ended. Please sign in again.'));
       } else if (!req.context.get(HANDLES_ERRORS)) {
         errorSnack.show(apiError.message);
       }

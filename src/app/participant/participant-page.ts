@@ -1,12 +1,10 @@
 import { ChangeDetectionStrategy, Component, inject, input, type OnInit, signal } from '@angular/core';
-import { MatButtonModule } from '@angular/material/button';
-import { MatCheckboxModule } from '@angular/material/checkbox';
-import { MatIconModule } from '@angular/material/icon';
 import type { MyDebrief, SurveyState } from '../../../shared/api/workshops';
-import { concatMap, EMPTY, finalize, tap } from 'rxjs';
+import { concatMap, EMPTY, finalize, of, tap } from 'rxjs';
 import { toApiError } from '../core/api-error';
 import { DayPipe } from '../core/date-format';
 import { DebriefView } from './debrief-view';
+import { takeFirstState } from './first-state';
 import { ParticipantApi } from './participant-api';
 import { PrivacyNotice } from './privacy-notice';
 import { SurveyForm } from './survey-form';
@@ -14,7 +12,7 @@ import { SurveyForm } from './survey-form';
 /** A participant's own page, opened from their personal link: notice, survey, later their results. */
 @Component({
   selector: 'app-participant-page',
-  imports: [DayPipe, MatButtonModule, MatCheckboxModule, MatIconModule, SurveyForm, DebriefView, PrivacyNotice],
+  imports: [DayPipe, SurveyForm, DebriefView, PrivacyNotice],
   templateUrl: './participant-page.html',
   styleUrl: './participant-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -32,11 +30,14 @@ export default class ParticipantPage implements OnInit {
     this.open();
   }
 
-  /** Reads the survey's state, and the results too once they are released. */
+  /**
+   * Reads the survey's state (written into the page by the server when it served it cold, else
+   * asked for), and the results too once they are released.
+   */
   private open(): void {
     const token = this.token();
-    this.api
-      .state(token)
+    const first = takeFirstState(token);
+    (first ? of(first) : this.api.state(token))
       .pipe(
         tap((s) => this.state.set(s)),
         concatMap((s) => (s.debriefReady ? this.api.debrief(token) : EMPTY)),

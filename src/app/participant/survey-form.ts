@@ -1,8 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, output, signal } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule, type AbstractControl, type ValidationErrors } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
-import { MatIconModule } from '@angular/material/icon';
 import { SURVEY_LEVELS, type Nomination, type SurveyLevel, type SurveyState } from '../../../shared/api/workshops';
 import { finalize } from 'rxjs';
 import { type ApiError, toApiError } from '../core/api-error';
@@ -22,7 +20,7 @@ export function pickLimit(limit: number) {
 /** "Whom do you usually ask?": tap a name to pick it, then say how often. Phone first. */
 @Component({
   selector: 'app-survey-form',
-  imports: [ReactiveFormsModule, MatButtonModule, MatIconModule],
+  imports: [ReactiveFormsModule],
   templateUrl: './survey-form.html',
   styleUrl: './survey-form.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -1,0 +1,23 @@
+import type { SurveyState } from '../../../shared/api/workshops';
+
+/** The id the server gives the data block (server/participants/first-page.ts). */
+const FIRST_STATE_ID = 'rh-first-state';
+
+/**
+ * The survey state the server wrote into a participant's page when it served it, for `token`.
+ * Taken once: the block is removed, so coming back to the page later asks the server again.
+ * Null when there is none (another page, a link that does not work, an older server).
+ */
+export function takeFirstState(token: string, doc: Document = document, path = doc.location?.pathname): SurveyState | null {
+  const block = doc.getElementById(FIRST_STATE_ID);
+  if (!block) return null;
+  block.remove();
+  // Written for the address the page was served at: only that link's page may use it.
+  if (path !== `/p/${token}`) return null;
+  try {
+    const state = JSON.parse(block.textContent ?? '') as SurveyState | null;
+    return state && typeof state === 'object' && state.me ? state : null;
+  } catch {
+    return null;
+  }
+}
