@@ -189,6 +189,7 @@ function maxDegreeGreedy(g: CoverGraph): Uint8Array {
   return c;
 }
 
+// eslint-disable-next-line max-lines-per-function -- the branch and bound's recursion shares its undo stacks, degrees and best set as closures; split, each step would pass them all around.
 function exactCover(adj: number[][], active: number[], upper: number, nodeLimit: number): { cover: number[] | null; complete: boolean } {
   const n = adj.length;
   const removed = new Uint8Array(n);
