@@ -282,38 +282,44 @@ export function invertSymmetricInPlace(a: Float64Array, n: number): Float64Array
   return a;
 }
 
+/** Gauss-Jordan step k: swaps in the row of largest pivot, scales it, copies it into `row`; returns 1 / pivot. */
+export function gaussJordanPivot(a: Float64Array, row: Float64Array, perm: Int32Array, n: number, k: number): number {
+  const rk = k * n;
+  let p = k;
+  let best = Math.abs(a[rk + k]);
+  for (let i = k + 1; i < n; i++) {
+    const v = Math.abs(a[i * n + k]);
+    if (v > best) {
+      best = v;
+      p = i;
+    }
+  }
+  if (!(best > 0)) throw new EngineError('SOLVER_FAILED', 'The matrix is singular: some people cannot reach any starter.');
+  if (p !== k) {
+    const rp = p * n;
+    for (let j = 0; j < n; j++) {
+      const t = a[rk + j];
+      a[rk + j] = a[rp + j];
+      a[rp + j] = t;
+    }
+    const t = perm[k];
+    perm[k] = perm[p];
+    perm[p] = t;
+  }
+  const inv = 1 / a[rk + k];
+  a[rk + k] = 1;
+  for (let j = 0; j < n; j++) a[rk + j] *= inv;
+  for (let j = 0; j < n; j++) row[j] = a[rk + j];
+  return inv;
+}
+
 /** Inverts a (overwritten) by Gauss-Jordan elimination with partial pivoting. */
 export function invertInPlace(a: Float64Array, n: number): Float64Array {
   const perm = new Int32Array(n);
   const row = new Float64Array(n);
   for (let i = 0; i < n; i++) perm[i] = i;
   for (let k = 0; k < n; k++) {
-    let p = k;
-    let best = Math.abs(a[k * n + k]);
-    for (let i = k + 1; i < n; i++) {
-      const v = Math.abs(a[i * n + k]);
-      if (v > best) {
-        best = v;
-        p = i;
-      }
-    }
-    if (!(best > 0)) throw new EngineError('SOLVER_FAILED', 'The matrix is singular: some people cannot reach any starter.');
-    const rk = k * n;
-    if (p !== k) {
-      const rp = p * n;
-      for (let j = 0; j < n; j++) {
-        const t = a[rk + j];
-        a[rk + j] = a[rp + j];
-        a[rp + j] = t;
-      }
-      const t = perm[k];
-      perm[k] = perm[p];
-      perm[p] = t;
-    }
-    const inv = 1 / a[rk + k];
-    a[rk + k] = 1;
-    for (let j = 0; j < n; j++) a[rk + j] *= inv;
-    for (let j = 0; j < n; j++) row[j] = a[rk + j];
+    gaussJordanPivot(a, row, perm, n, k);
     for (let i = 0; i < n; i++) {
       if (i === k) continue;
       const ri = i * n;

@@ -8,6 +8,7 @@
  */
 import { Worker } from 'node:worker_threads';
 import { EngineError } from '../errors';
+import { gaussJordanPivot } from '../linalg/dense';
 
 const WORKER_SOURCE = `
 const { workerData } = require('node:worker_threads');
@@ -114,37 +115,6 @@ function sweepPivot(a: Float64Array, col: Float64Array, n: number, k: number): n
   for (let j = 0; j < k; j++) col[j] = a[j * n + k];
   for (let j = k; j < n; j++) col[j] = a[rk + j];
   return 1 / d;
-}
-
-/** Gauss-Jordan step k: swaps in the row of largest pivot, scales it, copies it into `col`; returns 1 / pivot. */
-function gaussJordanPivot(a: Float64Array, col: Float64Array, perm: Int32Array, n: number, k: number): number {
-  const rk = k * n;
-  let p = k;
-  let best = Math.abs(a[rk + k]);
-  for (let i = k + 1; i < n; i++) {
-    const v = Math.abs(a[i * n + k]);
-    if (v > best) {
-      best = v;
-      p = i;
-    }
-  }
-  if (!(best > 0)) throw new EngineError('SOLVER_FAILED', 'The matrix is singular: some people cannot reach any starter.');
-  if (p !== k) {
-    const rp = p * n;
-    for (let j = 0; j < n; j++) {
-      const t = a[rk + j];
-      a[rk + j] = a[rp + j];
-      a[rp + j] = t;
-    }
-    const t = perm[k];
-    perm[k] = perm[p];
-    perm[p] = t;
-  }
-  const inv = 1 / a[rk + k];
-  a[rk + k] = 1;
-  for (let j = 0; j < n; j++) a[rk + j] *= inv;
-  for (let j = 0; j < n; j++) col[j] = a[rk + j];
-  return inv;
 }
 
 /** Tells the helper threads to leave and waits until they have. */
