@@ -25,20 +25,26 @@ export interface LuFactors {
   readonly piv: Int32Array;
 }
 
+/** Partial pivoting: the row at or below k with the largest entry in column k; SOLVER_FAILED when that column is all zero. */
+function pivotRow(a: Float64Array, n: number, k: number, what: 'system' | 'matrix'): number {
+  let p = k;
+  let best = Math.abs(a[k * n + k]);
+  for (let i = k + 1; i < n; i++) {
+    const v = Math.abs(a[i * n + k]);
+    if (v > best) {
+      best = v;
+      p = i;
+    }
+  }
+  if (!(best > 0)) throw new EngineError('SOLVER_FAILED', `The ${what} is singular: some people cannot reach any starter.`);
+  return p;
+}
+
 /** Factors a (overwritten) as P A = L U. Throws SOLVER_FAILED on a singular matrix. */
 export function luFactor(a: Float64Array, n: number): LuFactors {
   const piv = new Int32Array(n);
   for (let k = 0; k < n; k++) {
-    let p = k;
-    let best = Math.abs(a[k * n + k]);
-    for (let i = k + 1; i < n; i++) {
-      const v = Math.abs(a[i * n + k]);
-      if (v > best) {
-        best = v;
-        p = i;
-      }
-    }
-    if (!(best > 0)) throw new EngineError('SOLVER_FAILED', 'The system is singular: some people cannot reach any starter.');
+    const p = pivotRow(a, n, k, 'system');
     piv[k] = p;
     if (p !== k) {
       const rk = k * n;
@@ -285,16 +291,7 @@ export function invertSymmetricInPlace(a: Float64Array, n: number): Float64Array
 /** Gauss-Jordan step k: swaps in the row of largest pivot, scales it, copies it into `row`; returns 1 / pivot. */
 export function gaussJordanPivot(a: Float64Array, row: Float64Array, perm: Int32Array, n: number, k: number): number {
   const rk = k * n;
-  let p = k;
-  let best = Math.abs(a[rk + k]);
-  for (let i = k + 1; i < n; i++) {
-    const v = Math.abs(a[i * n + k]);
-    if (v > best) {
-      best = v;
-      p = i;
-    }
-  }
-  if (!(best > 0)) throw new EngineError('SOLVER_FAILED', 'The matrix is singular: some people cannot reach any starter.');
+  const p = pivotRow(a, n, k, 'matrix');
   if (p !== k) {
     const rp = p * n;
     for (let j = 0; j < n; j++) {
