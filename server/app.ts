@@ -182,7 +182,7 @@ function serveClient(app: Express) {
     const page = stamp(template.participant);
     const end = page.lastIndexOf('</body>');
     res.write(page.slice(0, end));
-    const block = await firstStateBlock(token);
+    const block = await firstStateBlock(req, token);
     res.end(block + page.slice(end));
   };
   app.get('/', index);

@@ -24,16 +24,23 @@ const tooManyGuesses = (retryAfter: number) =>
     { retryAfter },
   );
 
-/** Call when a link did not work: the error to answer with (the link's own, or 429 past the limit). */
-export async function refusedLink(req: Request, res: Response, invalid: HttpError): Promise<HttpError> {
+/**
+ * Call when a link did not work: counts it against the address unless the address is already
+ * past the limit, and says whether it is (with the seconds left).
+ */
+export async function countFailedLink(req: Request): Promise<{ blocked: boolean; retryAfter: number }> {
   const key = addressKey(req);
   const state = await counter.check(key);
-  if (state.blocked) {
-    res.set('Retry-After', String(state.retryAfter));
-    return tooManyGuesses(state.retryAfter);
-  }
-  await counter.fail(key);
-  return invalid;
+  if (!state.blocked) await counter.fail(key);
+  return state;
+}
+
+/** Call when a link did not work: the error to answer with (the link's own, or 429 past the limit). */
+export async function refusedLink(req: Request, res: Response, invalid: HttpError): Promise<HttpError> {
+  const state = await countFailedLink(req);
+  if (!state.blocked) return invalid;
+  res.set('Retry-After', String(state.retryAfter));
+  return tooManyGuesses(state.retryAfter);
 }
 
 /**

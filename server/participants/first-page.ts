@@ -1,3 +1,5 @@
+import type { Request } from 'express';
+import { countFailedLink } from '../auth/link-guard';
 import { logger } from '../core/logging';
 import { findLinkHolder } from './links';
 import { surveyState } from './survey';
@@ -8,14 +10,18 @@ export const FIRST_STATE_ID = 'rh-first-state';
 /**
  * A participant's page, cold: the survey state (what GET /api/p/<token> answers) written into the
  * page as a JSON data block, so the phone shows it as soon as the code has run instead of one
- * more request later. Empty for a link that does not work (the page then asks the API, which
- * answers with the link's own message and counts it against the address) and on any failure
- * (the page asks the API as before).
+ * more request later. Empty for a link that does not work, which counts against the address
+ * like any other (else the page would tell a good link from a guess past the guessing limit);
+ * the page then asks the API, which answers with the link's own message. Empty on any failure
+ * too (the page asks the API as before).
  */
-export async function firstStateBlock(token: string): Promise<string> {
+export async function firstStateBlock(req: Request, token: string): Promise<string> {
   try {
     const holder = await findLinkHolder(token);
-    if (!holder) return '';
+    if (!holder) {
+      await countFailedLink(req);
+      return '';
+    }
     const json = JSON.stringify(await surveyState(holder));
     // A data block ends at the first "</script": no <, > or & may appear as they are.
     const safe = json.replace(/[<>&\u2028\u2029]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);

@@ -1,4 +1,5 @@
 import assert from 'node:assert/strict';
+import { randomBytes } from 'node:crypto';
 import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -114,5 +115,18 @@ describe('a participant page served cold', () => {
       assert.equal(res.headers.get('cache-control'), 'public, max-age=31536000, immutable', path);
     }
     assert.equal((await fetch(`${server.url}/favicon.svg`)).headers.get('cache-control'), 'public, max-age=3600');
+  });
+
+  // Last: it uses up this address's allowance of links that do not work.
+  it('a page with a link that does not work counts against the guessing limit, like the API', async () => {
+    const { config } = await import('../../server/config');
+    const token = await linkFor('Guessing check');
+    const guess = () => randomBytes(32).toString('base64url');
+    for (let i = 0; i < config.RATE_LIMIT_LINK_PER_15MIN; i++) {
+      const page = await fetch(`${server.url}/p/${guess()}`);
+      assert.equal(firstState(await page.text()), null, `guess ${i}`);
+    }
+    assert.equal((await server.client().get(`/api/p/${guess()}`)).status, 429, 'the page guesses used up the allowance');
+    assert.ok(firstState(await (await fetch(`${server.url}/p/${token}`)).text()), 'a good link still gets its page');
   });
 });
