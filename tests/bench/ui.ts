@@ -7,7 +7,8 @@
  *
  *   npm start (or any running server), then: BENCH_URL=http://127.0.0.1:4300 npm run bench:ui
  *   env: BENCH_URL (default http://127.0.0.1:$PORT or :4300), BENCH_RUNS (default 9),
- *        BENCH_EMAIL / BENCH_PASSWORD (default the demo facilitator), BENCH_JSON=file to keep figures.
+ *        BENCH_EMAIL / BENCH_PASSWORD (default the demo facilitator), BENCH_JSON=file to keep figures,
+ *        BENCH_ONLY=phone to time only the participant's phone page (more runs in the same time).
  *
  * It creates its own room, workshop and plan (named "Bench …") and deletes them at the end.
  */
@@ -17,6 +18,7 @@ import { chromium, type Browser, type BrowserContext, type Page } from 'playwrig
 
 const BASE = process.env['BENCH_URL'] ?? `http://127.0.0.1:${process.env['PORT'] ?? 4300}`;
 const RUNS = Math.max(3, Number(process.env['BENCH_RUNS'] ?? 9));
+const PHONE_ONLY = process.env['BENCH_ONLY'] === 'phone';
 const WHO = {
   email: process.env['BENCH_EMAIL'] ?? 'facilitator@ripplehall.local',
   password: process.env['BENCH_PASSWORD'] ?? 'facilitate-demo-2026',
@@ -203,13 +205,15 @@ async function main() {
       await first.ctx.close();
     };
     for (let i = 0; i < RUNS; i++) {
-      if (i > 0) await (await signInStep(browser)).ctx.close();
-      await facilitatorRound(first.page, ids, i).catch(async (err: unknown) => {
-        const shot = process.env['BENCH_FAIL_PNG'] ?? 'bench-ui-failure.png';
-        await first.page.screenshot({ path: shot, fullPage: true }).catch(() => undefined);
-        console.error(`Round ${i + 1} failed on ${first.page.url()}; the page is in ${shot}`);
-        throw err;
-      });
+      if (!PHONE_ONLY) {
+        if (i > 0) await (await signInStep(browser)).ctx.close();
+        await facilitatorRound(first.page, ids, i).catch(async (err: unknown) => {
+          const shot = process.env['BENCH_FAIL_PNG'] ?? 'bench-ui-failure.png';
+          await first.page.screenshot({ path: shot, fullPage: true }).catch(() => undefined);
+          console.error(`Round ${i + 1} failed on ${first.page.url()}; the page is in ${shot}`);
+          throw err;
+        });
+      }
       await phoneRound(browser, ids.phonePath);
     }
   } finally {
