@@ -9,6 +9,17 @@ import { ParticipantApi } from './participant-api';
 import { PrivacyNotice } from './privacy-notice';
 import { SurveyForm } from './survey-form';
 
+/**
+ * The survey's code is loaded after the page shows (it sits in an @defer block): while a new
+ * participant reads the notice, it is fetched in the background so "I have read this" shows the
+ * survey at once. The same chunk as the @defer block's, so it is fetched once.
+ */
+function fetchSurveyCodeWhenIdle(): void {
+  const fetchIt = () => void import('./survey-form').catch(() => undefined);
+  if (typeof requestIdleCallback === 'function') requestIdleCallback(fetchIt, { timeout: 2000 });
+  else setTimeout(fetchIt, 200);
+}
+
 /** A participant's own page, opened from their personal link: notice, survey, later their results. */
 @Component({
   selector: 'app-participant-page',
@@ -39,7 +50,10 @@ export default class ParticipantPage implements OnInit {
     const first = takeFirstState(token);
     (first ? of(first) : this.api.state(token))
       .pipe(
-        tap((s) => this.state.set(s)),
+        tap((s) => {
+          this.state.set(s);
+          if (!s.consented && s.open) fetchSurveyCodeWhenIdle();
+        }),
         concatMap((s) => (s.debriefReady ? this.api.debrief(token) : EMPTY)),
       )
       .subscribe({
