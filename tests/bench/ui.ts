@@ -8,7 +8,9 @@
  *   npm start (or any running server), then: BENCH_URL=http://127.0.0.1:4300 npm run bench:ui
  *   env: BENCH_URL (default http://127.0.0.1:$PORT or :4300), BENCH_RUNS (default 9),
  *        BENCH_EMAIL / BENCH_PASSWORD (default the demo facilitator), BENCH_JSON=file to keep figures,
- *        BENCH_ONLY=phone to time only the participant's phone page (more runs in the same time).
+ *        BENCH_ONLY=phone to time only the participant's phone page (more runs in the same time),
+ *        BENCH_URL_B=http://… a second server on the same database (another build, say): each round
+ *        then also opens the phone page there, alternating, and the table has a "[B]" row for it.
  *
  * It creates its own room, workshop and plan (named "Bench …") and deletes them at the end.
  */
@@ -19,6 +21,7 @@ import { chromium, type Browser, type BrowserContext, type Page } from 'playwrig
 const BASE = process.env['BENCH_URL'] ?? `http://127.0.0.1:${process.env['PORT'] ?? 4300}`;
 const RUNS = Math.max(3, Number(process.env['BENCH_RUNS'] ?? 9));
 const PHONE_ONLY = process.env['BENCH_ONLY'] === 'phone';
+const BASE_B = process.env['BENCH_URL_B'];
 const WHO = {
   email: process.env['BENCH_EMAIL'] ?? 'facilitator@ripplehall.local',
   password: process.env['BENCH_PASSWORD'] ?? 'facilitate-demo-2026',
@@ -158,11 +161,11 @@ async function facilitatorRound(page: Page, ids: { room: number; roomName: strin
   );
 }
 
-async function phoneRound(browser: Browser, path: string) {
-  const phone = await browser.newContext({ baseURL: BASE, viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
+async function phoneRound(browser: Browser, path: string, base = BASE, label = '') {
+  const phone = await browser.newContext({ baseURL: base, viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
   const p = await phone.newPage();
   await step(
-    'open phone survey (cold page)',
+    `open phone survey (cold page)${label}`,
     () => p.goto(path),
     () => onScreen(p, () => [...document.querySelectorAll('h1')].some((h) => h.textContent?.trim().startsWith('Hello, '))),
   );
@@ -215,6 +218,7 @@ async function main() {
         });
       }
       await phoneRound(browser, ids.phonePath);
+      if (BASE_B) await phoneRound(browser, ids.phonePath, BASE_B, ' [B]');
     }
   } finally {
     await cleanup?.();
