@@ -1,6 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import { readdirSync, readFileSync, statSync } from 'node:fs';
-import type { IncomingMessage, ServerResponse } from 'node:http';
+import { IncomingMessage, ServerResponse, type ClientRequest } from 'node:http';
+import { Socket } from 'node:net';
 import { fileURLToPath } from 'node:url';
 import express, { type Express, type NextFunction, type Request, type Response } from 'express';
 import cookieParser from 'cookie-parser';
@@ -31,7 +32,7 @@ export function createApp(): Express {
   // Pages get a fresh CSP nonce each (Angular stamps its run-time styles with it); API answers
   // style nothing, so they carry the same policy without a nonce, its header built once.
   const pageHeaders = securityHeaders(secure, (_req, res) => `'nonce-${(res as Response).locals['cspNonce']}'`);
-  const apiHeaders = fixedHeaders(securityHeaders(secure));
+  const apiHeaders = apiSecurityHeaders(secure);
   app.use((req, res, next) => {
     if (req.path.startsWith('/api/')) return apiHeaders(req, res, next);
     res.locals['cspNonce'] = randomBytes(16).toString('base64');
@@ -51,7 +52,8 @@ export function createApp(): Express {
 
 type NonceDirective = (req: IncomingMessage, res: ServerResponse) => string;
 
-function securityHeaders(secure: boolean, styleNonce?: NonceDirective) {
+/** Helmet with the app's policy; pages pass a nonce for their styles (tests compare the API's copy with it). */
+export function securityHeaders(secure: boolean, styleNonce?: NonceDirective) {
   return helmet({
     contentSecurityPolicy: {
       useDefaults: true,
@@ -73,33 +75,26 @@ function securityHeaders(secure: boolean, styleNonce?: NonceDirective) {
 }
 
 /**
- * The headers a middleware sets when they never depend on the request (helmet without a nonce),
- * recorded once and then set in one step; the middleware itself runs per request if it did
- * anything else while being recorded.
+ * API answers' security headers. Without a nonce helmet's headers never depend on the request,
+ * so helmet runs once, at start-up, on a response that is never sent, and each API answer gets a
+ * copy of what it set (names as helmet spelled them). Helmet's one removal, X-Powered-By, has
+ * nothing to remove: the app never sets it. Should helmet ever not finish at once, it runs on
+ * every answer instead.
  */
-function fixedHeaders(middleware: (req: IncomingMessage, res: ServerResponse, next: (err?: unknown) => void) => void) {
-  const headers: [string, string][] = [];
-  const removed: string[] = [];
-  let plain = true;
-  let nexted = false;
-  const recorder = {
-    setHeader: (name: string, value: unknown) => {
-      if (typeof value !== 'string') plain = false;
-      headers.push([name, String(value)]);
-    },
-    removeHeader: (name: string) => removed.push(name),
-  };
-  try {
-    middleware({ method: 'GET', url: '/api/', headers: {} } as IncomingMessage, recorder as unknown as ServerResponse, (err) => {
-      nexted = err === undefined;
-    });
-  } catch {
-    plain = false;
-  }
-  if (!plain || !nexted) return middleware;
-  return (_req: IncomingMessage, res: ServerResponse, next: () => void) => {
-    for (const name of removed) res.removeHeader(name);
-    for (const [name, value] of headers) res.setHeader(name, value);
+export function apiSecurityHeaders(secure: boolean) {
+  const helmetOnce = securityHeaders(secure);
+  const req = new IncomingMessage(new Socket());
+  const res = new ServerResponse(req);
+  let finished = false;
+  helmetOnce(req, res, (err?: unknown) => {
+    finished = err === undefined;
+  });
+  if (!finished) return helmetOnce;
+  // Every outgoing message has had getRawHeaderNames since Node 15.13; its types list it on requests only.
+  const names = (res as ServerResponse & Pick<ClientRequest, 'getRawHeaderNames'>).getRawHeaderNames();
+  const headers = names.map((name) => [name, res.getHeader(name)!] as const);
+  return (_req: IncomingMessage, answer: ServerResponse, next: () => void) => {
+    for (const [name, value] of headers) answer.setHeader(name, value);
     next();
   };
 }

@@ -15,7 +15,7 @@ import {
 import { users } from './accounts';
 import { createdAt, idColumn, refColumn, updatedAt } from './columns';
 import { JOB_KINDS, JOB_STATUSES } from '../../shared/api/jobs';
-import { PLAN_STATUSES } from '../../shared/api/plans';
+import { PLAN_STATUSES, type PlanWarning } from '../../shared/api/plans';
 import { rooms } from './rooms';
 
 export interface StoredStarter {
@@ -31,6 +31,12 @@ export interface StoredAbsence {
   worstAbsence: { personId: number; name: string; total: number } | null;
   standIns: { personId: number; name: string; standInId: number | null; standInName: string | null; total: number | null }[];
 }
+
+/**
+ * A stored plan warning: { code, text } since warnings have codes; plans saved before hold the
+ * text alone (server/plans/warnings.ts reads both).
+ */
+export type StoredPlanWarning = PlanWarning | string;
 
 export interface StoredPlanExtras {
   bestSingle: { personId: number; name: string; total: number } | null;
@@ -120,7 +126,7 @@ export const plans = mysqlTable(
     /** JSON of the per-person expected hops and the reach curve (computed once with the plan). */
     results: longtext('results'),
     notes: json('notes').$type<string[]>().notNull(),
-    warnings: json('warnings').$type<string[]>().notNull(),
+    warnings: json('warnings').$type<StoredPlanWarning[]>().notNull(),
     chosen: boolean('chosen').notNull().default(false),
     jobId: refColumn('job_id'),
     error: text('error'),

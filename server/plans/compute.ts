@@ -19,8 +19,9 @@ import {
 } from '../../shared/engine/index';
 import { planWithWorkers } from '../../shared/engine/parallel/index';
 import type { ErrorCode } from '../../shared/api/errors';
-import type { PlanMethodChoice, PlanSearchProgress, PlanSettingsSnapshot, ReachQuantileDto } from '../../shared/api/plans';
+import type { PlanMethodChoice, PlanSearchProgress, PlanSettingsSnapshot, PlanWarning, ReachQuantileDto } from '../../shared/api/plans';
 import { engineCode } from './engine-code';
+import { apiWarnings } from './warnings';
 
 export interface RoomSnapshot {
   graph: RoomGraph;
@@ -80,7 +81,7 @@ export interface PlanComputation {
   coverSize: number;
   elapsedMs: number;
   notes: string[];
-  warnings: string[];
+  warnings: PlanWarning[];
   /** Expected hops to hear per person (engine order). */
   h: number[];
   curve: StoredCurve;
@@ -241,7 +242,7 @@ export async function runPlanner(
     coverSize: r.coverSize,
     elapsedMs: performance.now() - started,
     notes: r.notes,
-    warnings: r.warnings,
+    warnings: apiWarnings(r.warnings),
     h: Array.from(reach.h),
     curve: curveFor(room, r.starters, task.snapshot.settings.minutesPerHop),
     ...extrasOf(r),
@@ -296,7 +297,7 @@ export function scoreHandMade(task: HandMadeTask): ComputeOutcome<PlanComputatio
       coverSize: fixed.coverSize,
       elapsedMs: performance.now() - started,
       notes: [],
-      warnings: fixed.warnings,
+      warnings: apiWarnings(fixed.warnings),
       h: Array.from(reach.h),
       curve: curveFor(room, task.starters, task.snapshot.settings.minutesPerHop),
       extras: { ...extrasOf(free).extras, gainShare: null, nodes: null, searchLeft: null, stopped: false },

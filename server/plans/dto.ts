@@ -4,6 +4,7 @@ import type { RoomSnapshot, StoredCurve } from './compute';
 import { sharedScores } from './bounds';
 import type { BoundRow, PlanListRow, PlanRow } from './store';
 import { personAt } from './snapshot';
+import { storedWarnings } from './warnings';
 
 export interface StoredPlanResults {
   /** Expected hops per person, engine order (null: cannot be reached). */
@@ -49,7 +50,7 @@ export function planSummary(row: PlanListRow, currentRoomVersion: number, bound?
     settings: row.settings,
     chosen: row.chosen,
     notes: row.notes,
-    warnings: row.warnings,
+    warnings: storedWarnings(row.warnings),
     jobId: row.jobId,
     error: row.error,
     createdBy: row.createdByName,

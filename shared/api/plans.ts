@@ -64,6 +64,34 @@ export type PlanMethodChoice = (typeof PLAN_METHOD_CHOICES)[number];
 /** What was actually run ('auto' resolves to one of the engine's methods). */
 export type PlanMethodUsed = 'greedy' | 'widened' | 'swap' | 'exhaustive' | 'lazy-greedy' | 'screen' | 'hand-made';
 
+/**
+ * What a plan warning is about: one code per kind, so the client acts on the code and shows the
+ * text. The engine's codes (shared/engine/plan-types.ts, the same list without 'note'):
+ * search-stopped / search-time-limit (the branch and bound was stopped, or reached its time
+ * limit, with part of the search space open), widening-time-limit (widened greedy did not extend
+ * every seed), swap-time-limit (swap polish stopped at the time limit), over-dense-limit (a room
+ * above the dense limit got a greedy instead of the method asked for), no-show-not-exhaustive
+ * (too many plans to score each on the expected total). 'note': any other text, for example a
+ * warning of a plan saved before the codes whose words are not recognised.
+ */
+export const PLAN_WARNING_CODES = [
+  'search-stopped',
+  'search-time-limit',
+  'widening-time-limit',
+  'swap-time-limit',
+  'over-dense-limit',
+  'no-show-not-exhaustive',
+  'note',
+] as const;
+
+export type PlanWarningCode = (typeof PLAN_WARNING_CODES)[number];
+
+/** One warning of a plan, as answered and as stored with new plans (older plans stored the text alone). */
+export interface PlanWarning {
+  code: PlanWarningCode;
+  text: string;
+}
+
 export const PLAN_LIMITS = {
   nameMax: 120,
   /** Exhaustive search is offered up to this many people (above: a 400 suggesting auto). */
@@ -212,7 +240,7 @@ export interface PlanSummary {
   settings: PlanSettingsSnapshot;
   chosen: boolean;
   notes: string[];
-  warnings: string[];
+  warnings: PlanWarning[];
   /** The background job computing it (null for plans computed at once). */
   jobId: number | null;
   error: string | null;

@@ -12,7 +12,8 @@
  *        mustInclude, exclude, laziness, mixing, onProgress, signal, shouldStop, noShow, boundMs })
  *        -> { method, k, starters (order chosen), total, average, rank, lowerBound, certified, gap, relativeGap,
  *             elapsedMs, coverSize, rankScale, gainShare, bestSingle, fewestForOneHop, fewestToReachAll,
- *             stopped?, nodes?, searchLeft?, noShow?, notes, warnings }   (bounds: docs/bounds.md)
+ *             stopped?, nodes?, searchLeft?, noShow?, notes, warnings: [{ code, text }] }   (bounds: docs/bounds.md;
+ *        warning codes: PLAN_WARNING_CODES in plan-types.ts)
  *   vertexCover(room)                                   -> { size, cover, exact }
  *   reachCurve(room, starters, { maxHops, quantiles, minutesPerHop, people }) -> reach-time distribution
  *   classStructure(room) / unreachablePeople(room, A)   -> closed classes, unreachable people with reasons

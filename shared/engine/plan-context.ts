@@ -7,7 +7,7 @@ import { vertexCover, type CoverResult } from './cover';
 import { AbsorbingState, beats, tieTolerance } from './dense-state';
 import { EngineError } from './errors';
 import { ergodicFromWalk, ergodicSymmetric, isReversibleErgodic, type ErgodicData } from './ergodic';
-import type { PlanMethod, PlanOptions, PlanResult } from './plan-types';
+import type { PlanMethod, PlanOptions, PlanResult, PlanWarning } from './plan-types';
 import { classStructure, type ClassStructure } from './reachability';
 import { DEFAULT_DENSE_LIMIT, exactReach } from './reach';
 import { checkPeople, prepareRoom, type PreparedRoom, type RoomInput } from './room';
@@ -25,7 +25,7 @@ export interface PlanContext {
   readonly started: number;
   readonly options: PlanOptions;
   readonly notes: string[];
-  readonly warnings: string[];
+  readonly warnings: PlanWarning[];
   cover(): CoverResult;
   p1(): Float64Array;
   /** Ergodic data, or null when the room has several closed classes. */

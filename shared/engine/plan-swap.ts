@@ -42,7 +42,10 @@ export function swapPolish(ctx: PlanContext, start: AbsorbingState, maxPasses = 
     }
     if (!improved) break;
     if (performance.now() > ctx.deadline) {
-      ctx.warnings.push(`Swap polish stopped at the time limit after ${pass + 1} passes.`);
+      ctx.warnings.push({
+        code: 'swap-time-limit',
+        text: `Swap polish stopped at the time limit after ${pass + 1} ${pass === 0 ? 'pass' : 'passes'}.`,
+      });
       break;
     }
     // Re-factor once per improving pass (small rooms) so rounding from many updates cannot build up.

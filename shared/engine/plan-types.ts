@@ -79,6 +79,34 @@ export interface PlanOptions extends WalkOptions {
   readonly maxNodes?: number;
 }
 
+/**
+ * The kinds of plan warning, one code each; the text of a warning says it in words with its
+ * numbers. The API's list (shared/api/plans.ts) is the same plus 'note' for a stored text it
+ * cannot place; server/plans/warnings.ts fails the type check when the two lists differ.
+ */
+export const PLAN_WARNING_CODES = [
+  /** The branch and bound was stopped (cancel) with part of the search space still open. */
+  'search-stopped',
+  /** The branch and bound reached its time limit (or node limit) with part of the search space still open. */
+  'search-time-limit',
+  /** Widened greedy reached the time limit before it had extended every seed. */
+  'widening-time-limit',
+  /** Swap polish reached the time limit before a pass without improvement. */
+  'swap-time-limit',
+  /** The room is above the dense limit: a greedy ran instead of the method asked for. */
+  'over-dense-limit',
+  /** With a no-show chance, too many plans to score each: greedy and swap polish instead of every plan. */
+  'no-show-not-exhaustive',
+] as const;
+
+export type PlanWarningCode = (typeof PLAN_WARNING_CODES)[number];
+
+/** One warning of a plan: what kind (a stable code to act on) and the sentence to show. */
+export interface PlanWarning {
+  readonly code: PlanWarningCode;
+  readonly text: string;
+}
+
 export interface PlanResult {
   /** The method actually used (auto resolves to one of these). */
   readonly method: PlanMethod;
@@ -131,7 +159,7 @@ export interface PlanResult {
   /** Set when a no-show chance was given. */
   readonly noShow?: NoShowReport;
   readonly notes: string[];
-  readonly warnings: string[];
+  readonly warnings: PlanWarning[];
   /** Which linear algebra ran: dense matrices, a sparse LDL^T factor, or an iterative solver (estimates stated in notes). */
   readonly solverPath?: 'dense' | 'sparse-factor' | 'iterative';
   /** Nonzeros of the sparse factor when solverPath is 'sparse-factor'. */

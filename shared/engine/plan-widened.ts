@@ -58,9 +58,11 @@ export function widenedState(ctx: PlanContext, greedy: AbsorbingState): Absorbin
     for (const x of seed.set.slice(1)) s.add(x);
     const ext = extendGreedy(ctx, s, ctx.k, false, best.rawTotal);
     if (ext && ext.rawTotal < best.rawTotal - 1e-12 * best.rawTotal) best = ext;
-    ctx.options.onProgress?.({ stage: 'widened', done: ++done, of: seeds.length });
+    // Counted apart from the report: an absent onProgress would skip evaluating its argument.
+    done++;
+    ctx.options.onProgress?.({ stage: 'widened', done, of: seeds.length });
     if (performance.now() > ctx.deadline) {
-      ctx.warnings.push(`Time limit reached after ${done} of ${seeds.length} seeds.`);
+      ctx.warnings.push({ code: 'widening-time-limit', text: `Time limit reached after ${done} of ${seeds.length} seeds.` });
       break;
     }
   }
@@ -93,7 +95,7 @@ function widenFromBase(ctx: PlanContext, greedy: AbsorbingState, nu: number, max
     const ext = extendGreedy(ctx, s, ctx.k, false, best.rawTotal);
     if (ext && ext.rawTotal < best.rawTotal - 1e-12 * best.rawTotal) best = ext;
     if (performance.now() > ctx.deadline) {
-      ctx.warnings.push('Time limit reached while widening.');
+      ctx.warnings.push({ code: 'widening-time-limit', text: 'Time limit reached while widening.' });
       break;
     }
   }

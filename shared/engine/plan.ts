@@ -160,15 +160,19 @@ function largeRoom(ctx: PlanContext, method: string, limit: number): PlanResult 
     const sparse = sparseGreedyPlan(ctx, ctx.options.maxFill);
     if (sparse) {
       if (method !== 'auto' && method !== 'greedy')
-        sparse.warnings.push(
-          `The room has ${ctx.n} people, above the dense limit of ${limit}: exact greedy was used instead of ${method}.`,
-        );
+        sparse.warnings.push({
+          code: 'over-dense-limit',
+          text: `The room has ${ctx.n} people, above the dense limit of ${limit}: exact greedy was used instead of ${method}.`,
+        });
       return sparse;
     }
     ctx.notes.push('The sparse factor of this room would be too large (fill estimate before factoring): iterative solves were used.');
   }
   if (method !== 'auto' && method !== 'greedy')
-    ctx.warnings.push(`The room has ${ctx.n} people, above the dense limit of ${limit}: lazy greedy was used instead of ${method}.`);
+    ctx.warnings.push({
+      code: 'over-dense-limit',
+      text: `The room has ${ctx.n} people, above the dense limit of ${limit}: lazy greedy was used instead of ${method}.`,
+    });
   return { ...lazyGreedyPlan(ctx), solverPath: 'iterative' };
 }
 
@@ -190,13 +194,15 @@ export function planFinish(pending: PendingSearch, out: ExhaustiveOutcome): Plan
       `The search continued where an earlier one of the same problem stopped (${out.resume.nodes - out.nodes} steps before, ${out.resume.runs - 1} earlier ${out.resume.runs === 2 ? 'run' : 'runs'}).`,
     );
   if (out.stopped)
-    ctx.warnings.push(
-      `The search was stopped after ${out.nodes} steps with ${left} still open: the best plan found is returned with its proven gap.`,
-    );
+    ctx.warnings.push({
+      code: 'search-stopped',
+      text: `The search was stopped after ${out.nodes} steps with ${left} still open: the best plan found is returned with its proven gap.`,
+    });
   else if (!out.complete)
-    ctx.warnings.push(
-      `Time limit reached after ${out.nodes} search steps with ${left} still open: the best plan found is returned with its proven gap.`,
-    );
+    ctx.warnings.push({
+      code: 'search-time-limit',
+      text: `Time limit reached after ${out.nodes} search steps with ${left} still open: the best plan found is returned with its proven gap.`,
+    });
   else ctx.notes.push(`Branch and bound checked every plan of this size (${out.nodes} search steps): proven best.`);
   const total = finalTotal(ctx, out.state.starters, out.state.total);
   const result = finishPlan(ctx, name, out.state.starters, total, {
@@ -259,7 +265,10 @@ function noShowPlan(ctx: PlanContext, method: string, p: number): PlanResult {
           ctx.notes.push('Every plan of this size was scored on the expected total: proven best for this no-show chance.');
         } else {
           used = 'swap';
-          ctx.warnings.push('Too many plans of this size to score each on the expected total: greedy and swap polish were used.');
+          ctx.warnings.push({
+            code: 'no-show-not-exhaustive',
+            text: 'Too many plans of this size to score each on the expected total: greedy and swap polish were used.',
+          });
         }
       }
     }

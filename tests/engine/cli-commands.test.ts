@@ -3,6 +3,7 @@ import assert from 'node:assert/strict';
 import { execFile } from 'node:child_process';
 import { describe, it } from 'node:test';
 import { writeGraphml, writeNodeLink, writeRoomCsv } from '../../shared/engine/io/index';
+import { PLAN_WARNING_CODES } from '../../shared/engine/plan-types';
 import { cli, fixtures, ROOT } from './cli-helpers';
 import { lesMiserables, path } from './simulate-fixtures';
 
@@ -99,6 +100,24 @@ describe('command line: results', { concurrency: 2 }, () => {
     assert.equal(out['method'], 'exhaustive');
     assert.equal(out['certified'], true);
     assert.ok((out['starters'] as string[]).every((s) => typeof s === 'string'));
+  });
+
+  it('plan prints its warnings as {code, text}, and its help names every code', async () => {
+    // A time limit (1 ms) that has passed before the first seed is extended: the warnings say so.
+    const r = await cli(['plan', '--graph', f['mis.json'], '--k', '6', '--method', 'exhaustive', '--time-limit', '0.001']);
+    assert.equal(r.code, 0, r.stderr);
+    const warnings = json(r.stdout)['warnings'] as { code: string; text: string }[];
+    assert.ok(
+      warnings.some((w) => w.code === 'search-time-limit'),
+      JSON.stringify(warnings),
+    );
+    for (const w of warnings) {
+      assert.deepEqual(Object.keys(w), ['code', 'text']);
+      assert.ok((PLAN_WARNING_CODES as readonly string[]).includes(w.code), w.code);
+      assert.match(w.text, /^[A-Z].*\.$/);
+    }
+    const help = (await cli(['plan', '--help'])).stdout;
+    for (const code of PLAN_WARNING_CODES) assert.ok(help.includes(code), code);
   });
 
   it('simulate: contract fields, same seed same numbers, 1 or 2 workers identical', async () => {

@@ -221,11 +221,39 @@ describe('planner behaviour', () => {
     const g = randomRoom(70, 160, false, 21);
     const r = plan(g, { k: 8, method: 'exhaustive', timeLimitMs: 30 });
     assert.equal(r.method, 'exhaustive');
-    assert.ok(r.warnings.some((w) => /Time limit/.test(w)) || r.certified);
+    assert.ok(r.warnings.some((w) => w.code === 'search-time-limit' && /^Time limit/.test(w.text)) || r.certified);
     assert.ok(r.lowerBound <= r.total);
     assert.ok(relClose(r.gap, r.certified ? 0 : r.total - r.lowerBound, 1e-12));
     const greedy = plan(g, { k: 8, method: 'greedy' });
     assert.ok(r.total <= greedy.total * (1 + 1e-12));
+  });
+
+  it('each kind of warning carries its code, with the numbers in its text', () => {
+    const codes = (r: { warnings: readonly { code: string }[] }) => r.warnings.map((w) => w.code);
+    // A deadline that has passed before the first seed is extended: widening, the search and
+    // (when a pass improved) swap polish all stop at their first check.
+    const cut = plan(miserables(), { k: 6, method: 'exhaustive', timeLimitMs: 0.001 });
+    assert.equal(cut.certified, false);
+    assert.ok(codes(cut).includes('widening-time-limit'), JSON.stringify(cut.warnings));
+    assert.ok(codes(cut).includes('search-time-limit'), JSON.stringify(cut.warnings));
+    for (const w of cut.warnings) assert.ok(['widening-time-limit', 'swap-time-limit', 'search-time-limit'].includes(w.code), w.code);
+    // The count is of the seeds extended, at least the one after which the clock was read.
+    const seeds = cut.warnings.find((w) => w.code === 'widening-time-limit')!.text;
+    assert.match(seeds, /^Time limit reached after [1-9]\d* of \d+ seeds\.$/);
+    const fromBase = plan(miserables(), { k: 4, method: 'widened', mustInclude: [0], timeLimitMs: 0.001 });
+    assert.deepEqual(fromBase.warnings, [{ code: 'widening-time-limit', text: 'Time limit reached while widening.' }]);
+
+    const sparse = plan(miserables(), { k: 3, method: 'swap', denseLimit: 50 });
+    assert.deepEqual(codes(sparse), ['over-dense-limit']);
+    assert.match(sparse.warnings[0].text, /77 people, above the dense limit of 50: exact greedy was used instead of swap/);
+    const lazy = plan(randomRoom(70, 200, true, 5), { k: 3, method: 'swap', denseLimit: 50 });
+    assert.deepEqual(codes(lazy), ['over-dense-limit']);
+    assert.match(lazy.warnings[0].text, /lazy greedy was used instead of swap/);
+
+    // 34 choose 4 = 46 376 plans, above the 20 000 the no-show exhaustive scores one by one.
+    const noShow = plan(karateClub(), { k: 4, method: 'exhaustive', noShow: 0.1 });
+    assert.deepEqual(codes(noShow), ['no-show-not-exhaustive']);
+    assert.deepEqual(plan(karateClub(), { k: 2, method: 'greedy' }).warnings, []);
   });
 
   it('plans with mixing and laziness scale consistently', () => {

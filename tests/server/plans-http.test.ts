@@ -226,8 +226,8 @@ describe('plans API', () => {
     assert.equal(plan.certified, false);
     assert.equal(plan.extras?.stopped, true);
     assert.ok(
-      plan.warnings.some((w) => /stopped after \d+ steps/.test(w)),
-      plan.warnings.join(' | '),
+      plan.warnings.some((w) => w.code === 'search-stopped' && /stopped after \d+ steps/.test(w.text)),
+      JSON.stringify(plan.warnings),
     );
     assert.ok(plan.lowerBound! <= plan.total! && plan.gap! > 0);
   });

@@ -37,6 +37,10 @@ cover bound), "lowerBound" a proven lower bound on the best total of any plan of
 ruled out when it stopped (0 when certified), "nodes" the search steps, "bestSingle" the best
 single starter {"person", "total"}, "fewestForOneHop" the fewest starters after whom everyone
 hears in one hop, "fewestToReachAll" the fewest starters with whom everyone can hear at all.
+"notes" say how the plan was made; "warnings" what limited it, each {"code", "text"}: the
+code one of search-stopped, search-time-limit (the branch and bound was stopped or reached its
+time limit), widening-time-limit, swap-time-limit, over-dense-limit (a greedy ran instead of
+the method asked for), no-show-not-exhaustive; the text says it in words with its numbers.
 With --no-show P: "noShow": P, "expectedTotal" (expected total given at least one starter
 shows; absent starters must hear too), "nobodyChance" P^k, "worstAbsence" {"person", "total"}
 (the starter whose absence costs most; total null when k = 1), "standIns" [{"starter",

@@ -14,6 +14,7 @@ import type { JobDto, PlanDetail, PlanStarted, PlanSummary } from '../../../shar
 import type { RoomDto } from '../../../shared/api/rooms';
 import { FakeEventSource, lastSource, useFakeEventSource } from './fake-event-source.spec';
 import PlanPage from './plan-page';
+import { CUT_SHORT_SINCE_PROVEN } from './score-words';
 
 const ROOM: RoomDto = {
   id: 5,
@@ -278,6 +279,26 @@ describe('PlanPage', () => {
     expect(await (await loader.getHarness(MatButtonHarness.with({ text: /Mark as chosen/ }))).isDisabled()).toBeTrue();
     expect(await loader.getAllHarnesses(MatButtonHarness.with({ text: /Prove or improve/ }))).toEqual([]);
   });
+  describe('a widened plan cut short by its time limit', () => {
+    const cut = { code: 'widening-time-limit', text: 'Time limit reached after 3 of 10 seeds.' } as const;
+    const note = { code: 'note', text: 'A warning of an older plan.' } as const;
+    const widened = (certified: boolean) => plan(7, { methodUsed: 'widened', certified, warnings: [cut, note] });
+
+    it('shows the time-limit warning while the plan is not proven best', async () => {
+      await open('/rooms/5/plans?plan=7', ROOM, [widened(false)]);
+      expect(text()).toContain(cut.text);
+      expect(text()).toContain(note.text);
+      expect(text()).not.toContain(CUT_SHORT_SINCE_PROVEN);
+    });
+
+    it('once a later search proved it best, says the stop no longer matters instead, and keeps the other warning', async () => {
+      await open('/rooms/5/plans?plan=7', ROOM, [widened(true)]);
+      expect(text()).not.toContain(cut.text);
+      expect(text()).toContain(note.text);
+      expect(text()).toContain(CUT_SHORT_SINCE_PROVEN);
+    });
+  });
+
   describe('proving in the background', () => {
     const proving = (over: Partial<PlanDetail> = {}) =>
       plan(7, {

@@ -1,4 +1,4 @@
-import type { BoundSource, PlanSummary } from '../../../shared/api/plans';
+import type { BoundSource, PlanSummary, PlanWarningCode } from '../../../shared/api/plans';
 
 /** Plain words for what proved a lower bound, with the technical term for the tooltip. */
 export const BOUND_WORDS: Record<BoundSource, { plain: string; term: string }> = {
@@ -55,21 +55,32 @@ export function methodLine(p: PlanSummary): string {
   return parts.join(' · ') + '.';
 }
 
-/** A stopped search's warning, stored with the plan when it was made. */
-const STOPPED_SEARCH = /^(Time limit reached after \d+ search steps|The search was stopped after \d+ steps)/;
+/**
+ * Warnings that the run making the plan was cut short (its search stopped or reached the time
+ * limit, or widening or swap polish did): history once the plan is proven best.
+ */
+const CUT_SHORT: ReadonlySet<PlanWarningCode> = new Set<PlanWarningCode>([
+  'search-stopped',
+  'search-time-limit',
+  'widening-time-limit',
+  'swap-time-limit',
+]);
+
+/** Said instead of the cut-short warnings of a plan proven best since. */
+export const CUT_SHORT_SINCE_PROVEN =
+  'This plan was made by a run that stopped before it finished; it has since been proven best, so the stop no longer matters.';
 
 /**
- * The plan's warnings as they read now: once the plan is proven best (by a later search of the
- * same problem), its own search's "stopped with the space still open" is history, said as such.
+ * The plan's warnings as they read now (their texts). Once the plan is proven best (by a later
+ * search of the same problem, or a bound), a warning that its own run was cut short is history,
+ * said as such; the other warnings stay. Decided by the warnings' codes, never their words.
  */
 export function currentWarnings(p: PlanSummary): string[] {
-  if (!p.certified) return p.warnings;
-  const rest = p.warnings.filter((w) => !STOPPED_SEARCH.test(w));
-  if (rest.length === p.warnings.length) return p.warnings;
-  return [
-    ...rest,
-    'This plan was made by a search that stopped before it finished; a later search of the same problem has since proven it best.',
-  ];
+  const texts = p.warnings.map((w) => w.text);
+  if (!p.certified) return texts;
+  const rest = p.warnings.filter((w) => !CUT_SHORT.has(w.code));
+  if (rest.length === p.warnings.length) return texts;
+  return [...rest.map((w) => w.text), CUT_SHORT_SINCE_PROVEN];
 }
 
 export function formatDuration(ms: number): string {
