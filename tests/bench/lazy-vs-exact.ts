@@ -1,7 +1,7 @@
 /**
  * Does the iterative path (lazy greedy on CG) give the exact greedy's picks? Runs both on the
- * same small-world room (`tsx tests/bench/lazy-vs-exact.ts N K [CHECKS]`) and prints the first
- * differing pick, both totals and the times.
+ * same small-world room (`tsx tests/bench/lazy-vs-exact.ts N K [CHECKS]`, CHECKS = lazyChecks,
+ * default 3) and prints the first differing pick, the starters both share, both totals and the times.
  */
 import { plan } from '../../shared/engine/index';
 import { roomFromEdges, smallWorldEdges } from './large-rooms';
