@@ -10,7 +10,7 @@
 import type { Csr } from './graph';
 import type { FillOrderChoice } from './plan-types';
 import { amdOrderWithin } from './linalg/amd';
-import { nestedDissectionOrder } from './linalg/nested-dissection';
+import { LEAF, nestedDissectionOrder } from './linalg/nested-dissection';
 import { analyse, analyseWithin, factor, ldlSolve, type LdlFactor, type SpdMatrix, type Symbolic } from './linalg/sparse-ldl';
 import { refine, type Refined } from './linalg/refine';
 import { inverseDiagonal } from './linalg/selected-inverse';
@@ -66,10 +66,13 @@ function forcedOrder(csr: Csr, method: RoomOrder['method'], maxFill: number, max
 
 function chooseOrder(csr: Csr, maxFill: number, maxWork: number): RoomOrder | null {
   const g = { n: csr.n, rowStart: csr.rowStart, col: csr.col };
-  // The whole room's factor has at most n - 1 more nonzeros per grounded person than a grounded
-  // one (and 2 nnz more work), so these limits never refuse an order whose grounded factor fits.
+  // The order is judged on the whole room; grounding a person removes at most n - 1 nonzeros
+  // (and 2 nnz of work), so with one grounded person's slack these limits refuse no room whose
+  // factor grounded at one person fits (with several grounded, a room within a few rows of the limit).
   const fillLimit = maxFill + csr.n;
   const workLimit = maxWork + 2 * fillLimit;
+  // Up to one leaf, nested dissection is the minimum-degree order itself.
+  if (csr.n <= LEAF) return forcedOrder(csr, 'amd', maxFill, maxWork);
   const ndOrder = nestedDissectionOrder(g);
   const ndSym = analyseWithin(g, ndOrder, fillLimit, workLimit);
   const nd: RoomOrder | null = ndSym ? { order: ndOrder, method: 'nested-dissection', nnz: ndSym.nnz, work: ndSym.flops } : null;

@@ -15,7 +15,7 @@
 import { amdOrder, type SymmetricPattern } from './amd';
 
 /** Parts at most this large are ordered by minimum degree. */
-const LEAF = 256;
+export const LEAF = 256;
 
 interface Work {
   readonly g: SymmetricPattern;
