@@ -8,8 +8,10 @@
  * (linalg/refine.ts), which recovers digits lost to ill-conditioning.
  */
 import type { Csr } from './graph';
-import { amdOrder } from './linalg/amd';
-import { analyse, factor, ldlSolve, type LdlFactor, type SpdMatrix, type Symbolic } from './linalg/sparse-ldl';
+import type { FillOrderChoice } from './plan-types';
+import { amdOrderWithin } from './linalg/amd';
+import { LEAF, nestedDissectionOrder } from './linalg/nested-dissection';
+import { analyse, analyseWithin, factor, ldlSolve, type LdlFactor, type SpdMatrix, type Symbolic } from './linalg/sparse-ldl';
 import { refine, type Refined } from './linalg/refine';
 import { inverseDiagonal } from './linalg/selected-inverse';
 
@@ -21,17 +23,66 @@ export function factorFits(sym: { nnz: number; flops: number }, maxFill: number,
   return sym.nnz <= maxFill && sym.flops <= maxWork;
 }
 
-/** Orders per CSR: the ties of a prepared room never change, so repeated plans of a room (a k-sweep, a re-plan) order it once. */
-const orders = new WeakMap<Csr, Int32Array>();
+/** The fill-reducing order chosen for a room, with the symbolic estimate (whole room, nothing grounded) that chose it. */
+export interface RoomOrder {
+  readonly order: Int32Array;
+  readonly method: 'amd' | 'nested-dissection';
+  readonly nnz: number;
+  readonly work: number;
+}
 
-/** The room's fill-reducing order (read only: it is shared between calls). */
-export function fillReducingOrder(csr: Csr): Int32Array {
-  let order = orders.get(csr);
-  if (!order) {
-    order = amdOrder({ n: csr.n, rowStart: csr.rowStart, col: csr.col });
-    orders.set(csr, order);
-  }
-  return order;
+/**
+ * Orders per CSR: the ties of a prepared room never change, so repeated plans of a room (a
+ * k-sweep, a re-plan) order it once. A refusal is kept with the limits it was made under.
+ */
+const orders = new WeakMap<Csr, { readonly chosen: RoomOrder | null; readonly maxFill: number; readonly maxWork: number }>();
+
+/**
+ * The room's fill-reducing order (read only: it is shared between calls): nested dissection or
+ * approximate minimum degree, whichever the symbolic step finds cheaper (less work, then fewer
+ * nonzeros; docs/sparse-greedy.md section 3). Null when neither can fit `maxFill` / `maxWork`.
+ */
+export function fillReducingOrder(
+  csr: Csr,
+  maxFill = Infinity,
+  maxWork = MAX_FACTOR_WORK,
+  method: FillOrderChoice = 'auto',
+): RoomOrder | null {
+  if (method !== 'auto') return forcedOrder(csr, method, maxFill, maxWork);
+  const cached = orders.get(csr);
+  if (cached && (cached.chosen || (maxFill <= cached.maxFill && maxWork <= cached.maxWork))) return cached.chosen;
+  const chosen = chooseOrder(csr, maxFill, maxWork);
+  orders.set(csr, { chosen, maxFill, maxWork });
+  return chosen;
+}
+
+/** One order forced (tests, benchmarks), not cached; null when its factor cannot fit. */
+function forcedOrder(csr: Csr, method: RoomOrder['method'], maxFill: number, maxWork: number): RoomOrder | null {
+  const g = { n: csr.n, rowStart: csr.rowStart, col: csr.col };
+  const order = method === 'amd' ? amdOrderWithin(g, { nnz: maxFill + csr.n, work: Infinity }) : nestedDissectionOrder(g);
+  const sym = order ? analyseWithin(g, order, maxFill + csr.n, maxWork + 2 * (maxFill + csr.n)) : null;
+  return order && sym ? { order, method, nnz: sym.nnz, work: sym.flops } : null;
+}
+
+function chooseOrder(csr: Csr, maxFill: number, maxWork: number): RoomOrder | null {
+  const g = { n: csr.n, rowStart: csr.rowStart, col: csr.col };
+  // The order is judged on the whole room; grounding a person removes at most n - 1 nonzeros
+  // (and 2 nnz of work), so with one grounded person's slack these limits refuse no room whose
+  // factor grounded at one person fits (with several grounded, a room within a few rows of the limit).
+  const fillLimit = maxFill + csr.n;
+  const workLimit = maxWork + 2 * fillLimit;
+  // Up to one leaf, nested dissection is the minimum-degree order itself.
+  if (csr.n <= LEAF) return forcedOrder(csr, 'amd', maxFill, maxWork);
+  const ndOrder = nestedDissectionOrder(g);
+  const ndSym = analyseWithin(g, ndOrder, fillLimit, workLimit);
+  const nd: RoomOrder | null = ndSym ? { order: ndOrder, method: 'nested-dissection', nnz: ndSym.nnz, work: ndSym.flops } : null;
+  // Minimum degree stops once it is known to need more work than nested dissection.
+  const amdOrd = amdOrderWithin(g, { nnz: fillLimit, work: nd ? nd.work : workLimit });
+  const amdSym = amdOrd ? analyseWithin(g, amdOrd, fillLimit, workLimit) : null;
+  const amd: RoomOrder | null = amdOrd && amdSym ? { order: amdOrd, method: 'amd', nnz: amdSym.nnz, work: amdSym.flops } : null;
+  if (!amd) return nd;
+  if (!nd) return amd;
+  return nd.work < amd.work || (nd.work === amd.work && nd.nnz < amd.nnz) ? nd : amd;
 }
 
 export function groundedMatrix(csr: Csr, grounded: Uint8Array, gamma: number): SpdMatrix {

@@ -12,7 +12,7 @@
  * Cost: two or three factorisations, then per pick O(fill + n k).
  */
 import { beats, tieTolerance } from './dense-state';
-import { GroundedFactor, factorFits, fillReducingOrder, MAX_FACTOR_WORK } from './grounded-factor';
+import { GroundedFactor, factorFits, fillReducingOrder, MAX_FACTOR_WORK, type RoomOrder } from './grounded-factor';
 import { oneHopBoundSparse } from './plan-bounds';
 import { finishPlan, type PlanContext } from './plan-context';
 import type { PlanResult } from './plan-types';
@@ -73,15 +73,17 @@ export function sparseGreedyPlan(ctx: PlanContext, maxFill = DEFAULT_MAX_FILL, m
   const beta = room.mixing / n;
   const gamma = 1 - room.mixing;
   const scale = 1 / (1 - room.laziness);
-  const order = fillReducingOrder(room.csr);
+  const chosen = fillReducingOrder(room.csr, maxFill, maxWork, ctx.options.fillOrder);
   progress?.({ stage: 'ordering', done: 1, of: 1 });
+  if (!chosen) return null;
+  const order = chosen.order;
   const first = firstStarters(ctx, order, maxFill, maxWork);
   if (!first) return null;
   const scaled = wellScaled(room.csr.weight);
   const s = scaled && first.scoredAll && first.grounded ? regroundedState(n, first.set[0], first.grounded, room.csr.outStrength) : null;
   const state = s ?? freshState(ctx, first.set, order, gamma, maxFill, maxWork);
   if (!state) return null;
-  return greedyFromState(ctx, state, first, { order, gamma, beta, scale, scaled });
+  return greedyFromState(ctx, state, first, { order, orderMethod: chosen.method, gamma, beta, scale, scaled });
 }
 
 /** The state on a new factor grounded at the starting set (G = K_TT^-1 by selected inversion). */
@@ -175,6 +177,7 @@ function setSums(s: GreedyState, d: Float64Array): void {
 
 interface Setup {
   readonly order: Int32Array;
+  readonly orderMethod: RoomOrder['method'];
   readonly gamma: number;
   readonly beta: number;
   readonly scale: number;
@@ -184,7 +187,7 @@ interface Setup {
 function greedyFromState(ctx: PlanContext, s: GreedyState, first: FirstStarters, setup: Setup): PlanResult {
   const { room, k } = ctx;
   const progress = ctx.options.onProgress;
-  const { order, gamma, beta, scale } = setup;
+  const { order, gamma, beta, scale, orderMethod } = setup;
   const f = s.f;
   const d = room.csr.outStrength;
   const starters = [...first.set];
@@ -223,7 +226,7 @@ function greedyFromState(ctx: PlanContext, s: GreedyState, first: FirstStarters,
   const sigma = sumOn(sol.x, s.inT);
   const total = totalOf(sigma) * scale;
   ctx.notes.push(
-    `Exact greedy on a sparse LDL^T factor (${f.sym.nnz} nonzeros; first starter ${first.scoredAll ? 'from the pseudo-inverse diagonal' : 'per closed group'}); ` +
+    `Exact greedy on a sparse LDL^T factor (${f.sym.nnz} nonzeros, ${orderMethod === 'amd' ? 'minimum-degree' : 'nested-dissection'} order; first starter ${first.scoredAll ? 'from the pseudo-inverse diagonal' : 'per closed group'}); ` +
       `final total from a refined solve (last correction ${sol.lastCorrection.toExponential(1)} relative).`,
   );
   return { ...finishPlan(ctx, 'greedy', starters, total), solverPath: 'sparse-factor', fill: f.sym.nnz };

@@ -24,6 +24,10 @@ export interface PlanProgress {
   readonly nodes?: number;
 }
 
+/** Fill-reducing orders of the sparse exact greedy (docs/sparse-greedy.md section 3). */
+export const FILL_ORDERS = ['auto', 'amd', 'nested-dissection'] as const;
+export type FillOrderChoice = (typeof FILL_ORDERS)[number];
+
 export interface PlanOptions extends WalkOptions {
   /** Number of starters to brief (1 <= k < n). */
   readonly k: number;
@@ -48,6 +52,8 @@ export interface PlanOptions extends WalkOptions {
   readonly sparseFrom?: number;
   /** Largest sparse factor (nonzeros) before the iterative path is used (default 4e7). */
   readonly maxFill?: number;
+  /** Fill-reducing order of the sparse factor: the cheaper of the two by the symbolic step (auto, the default), or one forced. */
+  readonly fillOrder?: FillOrderChoice;
   /** Bottleneck screen: candidate sets evaluated exactly at most (default 200); its time budget is timeLimitMs (default 8 min). */
   readonly screenKeep?: number;
   /** Lazy greedy: people checked exactly per choice (default 3). */

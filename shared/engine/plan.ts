@@ -19,7 +19,7 @@ import { lazyGreedyPlan } from './plan-lazy';
 import { screenPlan } from './plan-screen';
 import { sparseGreedyEligible, sparseGreedyPlan } from './plan-sparse-greedy';
 import { swapPolish } from './plan-swap';
-import type { PlanMethod, PlanOptions, PlanResult } from './plan-types';
+import { FILL_ORDERS, type PlanMethod, type PlanOptions, type PlanResult } from './plan-types';
 import { widenedState } from './plan-widened';
 import { addQuickBounds } from './plan-bounds';
 import { NO_SHOW_EXACT_LIMIT, noShowExhaustive, noShowGreedy, noShowReport, noShowSwap, requireNoShowRoom } from './plan-noshow';
@@ -99,6 +99,9 @@ export function planStart(input: RoomInput, options: PlanOptions): { result: Pla
   const method = options.method ?? 'auto';
   if (!(PLAN_METHODS as readonly string[]).includes(method)) {
     throw new EngineError('INVALID_OPTION', `Unknown method "${String(method)}": use one of ${PLAN_METHODS.join(', ')}.`);
+  }
+  if (options.fillOrder !== undefined && !(FILL_ORDERS as readonly string[]).includes(options.fillOrder)) {
+    throw new EngineError('INVALID_OPTION', `Unknown fill order "${String(options.fillOrder)}": use one of ${FILL_ORDERS.join(', ')}.`);
   }
   if (options.nu !== undefined && !(options.nu >= 0 && options.nu <= 1)) {
     throw new EngineError('INVALID_OPTION', `nu must be between 0 and 1 (got ${options.nu}).`);

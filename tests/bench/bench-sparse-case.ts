@@ -1,7 +1,7 @@
 /**
  * One case of the sparse benchmark in a fresh process, so its peak memory is its own:
  * `tsx tests/bench/bench-sparse-case.ts KIND N K [EDGEFILE]` with KIND grid | small-world | screen-*.
- * Prints one JSON line: wall ms, process CPU ms, peak resident MB, path, fill, total, starters.
+ * Prints one JSON line: wall ms, process CPU ms, peak resident MB, path, fill-reducing order, fill, total, starters.
  * With EDGEFILE the room is also written there for the Python peers.
  */
 import { writeFileSync } from 'node:fs';
@@ -47,6 +47,7 @@ function main(): void {
     lowerBound: result.lowerBound,
     starters: result.starters,
     m: edges.src.length,
+    order: result.notes.map((t) => /(minimum-degree|nested-dissection) order/.exec(t)?.[1]).find(Boolean) ?? null,
     evaluated: result.notes.map((t) => /(\d+) evaluated/.exec(t)?.[1]).find(Boolean) ?? null,
   };
   process.stdout.write(JSON.stringify(out) + '\n');

@@ -18,6 +18,7 @@ interface CaseOut {
   cpuMs: number;
   maxRssMb: number;
   path: string;
+  order?: string | null;
   fill: number | null;
   total: number;
   starters: number[];
@@ -134,6 +135,7 @@ function scaling(): void {
         fmt(r.cpuMs),
         `${r.maxRssMb.toFixed(0)} MB`,
         r.path,
+        r.order ?? '',
         r.fill === null ? '' : String(r.fill),
         exp,
       ]);
@@ -142,7 +144,7 @@ function scaling(): void {
   }
   table(
     `Exact greedy, k = 50: scaling (${process.env.RH_BENCH_LARGE === '1' ? 'with' : 'without'} the large sizes; RH_BENCH_LARGE=1 adds 3e4 and 1e5)`,
-    ['room', 'n', 'ties', 'time', 'cpu', 'peak memory', 'path', 'fill (nonzeros)', 'growth exponent'],
+    ['room', 'n', 'ties', 'time', 'cpu', 'peak memory', 'path', 'order', 'fill (nonzeros)', 'growth exponent'],
     body,
   );
 }

@@ -6,8 +6,9 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import { CholeskyDecomposition, inverse, Matrix } from 'ml-matrix';
-import { amdOrder } from '../../shared/engine/linalg/amd';
-import { analyse, factor, ldlSolve, type SpdMatrix } from '../../shared/engine/linalg/sparse-ldl';
+import { amdOrder, amdOrderWithin } from '../../shared/engine/linalg/amd';
+import { nestedDissectionOrder } from '../../shared/engine/linalg/nested-dissection';
+import { analyse, analyseWithin, factor, ldlSolve, type SpdMatrix } from '../../shared/engine/linalg/sparse-ldl';
 import { inverseDiagonal } from '../../shared/engine/linalg/selected-inverse';
 import { rng } from '../bench/bench-rooms';
 import { gridEdges, roomFromEdges } from '../bench/large-rooms';
@@ -116,5 +117,95 @@ describe('sparse LDL^T and selected inversion', () => {
       diag: Float64Array.from([1, 1]),
     };
     assert.throws(() => factor(a, analyse(a, Int32Array.from([0, 1]))), /not positive definite/);
+  });
+});
+
+/** The grid room of side s as an SPD matrix (Laplacian plus unit diagonal). */
+function gridSpd(side: number): SpdMatrix {
+  const room = roomFromEdges(gridEdges(side, 1));
+  return {
+    n: room.n,
+    rowStart: room.csr.rowStart,
+    col: room.csr.col,
+    val: room.csr.weight.map((w) => -w),
+    diag: room.csr.outStrength.map((d) => d + 1),
+  };
+}
+
+/** Nonzeros below the diagonal of the dense Cholesky factor (ml-matrix) of the matrix in this order. */
+function denseFill(a: SpdMatrix, order: Int32Array): number {
+  const l = new CholeskyDecomposition(dense(a, order)).lowerTriangularMatrix;
+  let nz = 0;
+  for (let i = 0; i < a.n; i++) for (let j = 0; j < i; j++) if (l.get(i, j) !== 0) nz++;
+  return nz;
+}
+
+describe('nested dissection order', () => {
+  it('is a permutation: random patterns, several parts, isolated people, grids, every leaf size', () => {
+    for (let t = 0; t < 30; t++) {
+      const n = 5 + t * 13;
+      // Few edges: several parts and isolated people.
+      const a = randomSpd(n, Math.floor(n * (t % 3 === 0 ? 0.6 : 2)), 900 + t);
+      for (const leaf of [1, 4, 32, 256]) assert.ok(isPermutation(nestedDissectionOrder(a, leaf)), `case ${t} leaf ${leaf}`);
+    }
+    assert.ok(isPermutation(nestedDissectionOrder(gridSpd(45))));
+  });
+
+  it('its fill estimate (symbolic step) equals the nonzeros of the dense Cholesky factor in that order', () => {
+    for (let t = 0; t < 20; t++) {
+      const n = 20 + t * 9;
+      const a = randomSpd(n, 2 * n, 700 + t);
+      const order = nestedDissectionOrder(a, 8);
+      assert.equal(analyse(a, order).nnz, denseFill(a, order), `case ${t}`);
+    }
+    const g = gridSpd(18);
+    const order = nestedDissectionOrder(g, 8);
+    const sym = analyse(g, order);
+    assert.equal(sym.nnz, denseFill(g, order), 'grid 18 x 18');
+    assert.equal(factor(g, sym).rowIdx.length, sym.nnz);
+  });
+
+  it('solves and selected inversion in nested-dissection order agree with the dense inverse (ml-matrix)', () => {
+    for (let t = 0; t < 6; t++) {
+      const a = t < 5 ? randomSpd(60 + 20 * t, 150 + 40 * t, 1300 + t) : gridSpd(12);
+      const f = factor(a, analyse(a, nestedDissectionOrder(a, 6)));
+      const inv = inverse(dense(a));
+      const diag = inverseDiagonal(f);
+      const b = Float64Array.from({ length: a.n }, (_, i) => Math.sin(i + 1));
+      const x = ldlSolve(f, b);
+      for (let i = 0; i < a.n; i++) {
+        let want = 0;
+        for (let j = 0; j < a.n; j++) want += inv.get(i, j) * b[j];
+        assert.ok(Math.abs(x[i] - want) <= 1e-10 * (1 + Math.abs(want)), `case ${t} solve ${i}`);
+        assert.ok(Math.abs(diag[i] - inv.get(i, i)) <= 1e-10 * inv.get(i, i), `case ${t} diag ${i}`);
+      }
+    }
+  });
+
+  it('grid work grows like n^1.5 and stays below minimum degree on large grids', () => {
+    // George (SIAM J. Numer. Anal. 1973): nested dissection of a side-s grid has O(s^2 log s) fill
+    // and O(s^3) = O(n^1.5) work; the natural (banded) order needs O(s^4).
+    const work = (side: number) => analyse(gridSpd(side), nestedDissectionOrder(gridSpd(side))).flops;
+    const w40 = work(40);
+    const w80 = work(80);
+    const w160 = work(160);
+    // Doubling the side multiplies n by 4: work by about 8 (exponent 1.5 in n); banded would be 16.
+    assert.ok(w80 / w40 < 11 && w160 / w80 < 11, `work ${w40} ${w80} ${w160}`);
+    const g = gridSpd(160);
+    assert.ok(w160 < analyse(g, amdOrder(g)).flops, 'nested dissection needs less work than minimum degree on a 160 x 160 grid');
+  });
+
+  it('budgeted minimum degree and symbolic step stop exactly when the factor passes the budget', () => {
+    for (let t = 0; t < 10; t++) {
+      const a = randomSpd(80 + 10 * t, 300, 1700 + t);
+      const order = amdOrder(a);
+      const sym = analyse(a, order);
+      assert.deepEqual(amdOrderWithin(a, { nnz: sym.nnz, work: sym.flops }), order, `case ${t}: within the budget`);
+      assert.equal(amdOrderWithin(a, { nnz: sym.nnz - 1, work: Infinity }), null, `case ${t}: one nonzero over`);
+      assert.equal(amdOrderWithin(a, { nnz: Infinity, work: sym.flops - 1 }), null, `case ${t}: work over`);
+      assert.equal(analyseWithin(a, order, sym.nnz, sym.flops)?.nnz, sym.nnz);
+      assert.equal(analyseWithin(a, order, sym.nnz - 1, Infinity), null);
+      assert.equal(analyseWithin(a, order, Infinity, sym.flops - 1), null);
+    }
   });
 });

@@ -7,6 +7,11 @@
  * detected (simpler, slightly slower orderings). People with very many ties (degree above
  * 10 sqrt(n), as AMD does) are ordered last. Deterministic: ties by degree bucket order.
  * Returns order[k] = the person eliminated k-th.
+ *
+ * Each pivot's list L_p is exactly its column of the factor (people of dense rows aside), so
+ * the running sums of |L_p| and |L_p|^2 are lower bounds on the factor's nonzeros and work:
+ * `amdOrderWithin` stops as soon as they pass a budget (a room whose factor cannot fit is
+ * refused after a fraction of the ordering's time).
  */
 export interface SymmetricPattern {
   readonly n: number;
@@ -15,8 +20,20 @@ export interface SymmetricPattern {
   readonly col: Int32Array;
 }
 
-// eslint-disable-next-line max-lines-per-function -- the minimum-degree elimination is one loop over shared arrays (degrees, element lists, marks); split into functions it would pass a dozen arrays around on every pivot.
+export interface FactorBudget {
+  /** Nonzeros below the diagonal. */
+  readonly nnz: number;
+  /** Sum of squared column counts. */
+  readonly work: number;
+}
+
 export function amdOrder(g: SymmetricPattern): Int32Array {
+  return amdOrderWithin(g, { nnz: Infinity, work: Infinity })!;
+}
+
+/** The AMD order, or null once the factor in that order is known to exceed the budget. */
+// eslint-disable-next-line max-lines-per-function -- the minimum-degree elimination is one loop over shared arrays (degrees, element lists, marks); split into functions it would pass a dozen arrays around on every pivot.
+export function amdOrderWithin(g: SymmetricPattern, budget: FactorBudget): Int32Array | null {
   const n = g.n;
   const dense = Math.max(16, Math.floor(10 * Math.sqrt(n)));
   const out = new Int32Array(n);
@@ -68,6 +85,8 @@ export function amdOrder(g: SymmetricPattern): Int32Array {
   let stamp = 0;
   let minDeg = 0;
   const lp: number[] = [];
+  let nnz = 0;
+  let work = 0;
   for (; live > 0; live--) {
     while (head[minDeg] < 0) minDeg++;
     const p = head[minDeg];
@@ -95,6 +114,9 @@ export function amdOrder(g: SymmetricPattern): Int32Array {
       absorbed[e] = 1;
       members[e] = null;
     }
+    nnz += lp.length;
+    work += lp.length * lp.length;
+    if (nnz > budget.nnz || work > budget.work) return null;
     members[p] = Int32Array.from(lp);
     varLen[p] = 0;
     elts[p] = [];

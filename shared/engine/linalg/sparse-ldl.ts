@@ -42,7 +42,22 @@ export interface LdlFactor {
 }
 
 export function analyse(a: SpdMatrix, perm: Int32Array): Symbolic {
+  return analyseWithin(a, perm, Infinity, Infinity)!;
+}
+
+/**
+ * The symbolic step on the pattern alone; null as soon as the factor is known to have more than
+ * `maxNnz` nonzeros or more work (sum of squared column counts, counted as they grow) than `maxWork`.
+ */
+export function analyseWithin(
+  a: Pick<SpdMatrix, 'n' | 'rowStart' | 'col'>,
+  perm: Int32Array,
+  maxNnz: number,
+  maxWork: number,
+): Symbolic | null {
   const n = a.n;
+  let seen = 0;
+  let work = 0;
   const pinv = new Int32Array(n);
   for (let k = 0; k < n; k++) pinv[perm[k]] = k;
   const parent = new Int32Array(n).fill(-1);
@@ -56,10 +71,13 @@ export function analyse(a: SpdMatrix, perm: Int32Array): Symbolic {
       if (i >= k) continue;
       for (; flag[i] !== k; i = parent[i]) {
         if (parent[i] === -1) parent[i] = k;
+        work += 2 * count[i] + 1;
         count[i]++;
         flag[i] = k;
+        seen++;
       }
     }
+    if (seen > maxNnz || work > maxWork) return null;
   }
   const colStart = new Int32Array(n + 1);
   let flops = 0;
