@@ -17,22 +17,30 @@
 import type { LdlFactor } from './sparse-ldl';
 
 /** A dense trailing block's inverse: columns b0..b0 + s - 1, z row-major s x s. */
-interface DenseInverse {
-  readonly b0: number;
-  readonly s: number;
-  readonly z: Float64Array;
+class DenseInverse {
+  constructor(
+    readonly b0: number,
+    readonly s: number,
+    readonly z: Float64Array,
+  ) {}
 }
 
 /** The entries of Z computed so far: zx on the pattern of L, zd the diagonal, and the inverted blocks. */
-interface Inversion {
-  readonly f: LdlFactor;
+class Inversion {
   readonly zx: Float64Array;
   readonly zd: Float64Array;
   /** Position in zx of row i of the current column (-1 when i is not in it). */
   readonly pos: Int32Array;
   /** For people inside an inverted block: its index in `blocks`. */
   readonly blockOf: Int32Array;
-  readonly blocks: DenseInverse[];
+  readonly blocks: DenseInverse[] = [];
+  constructor(readonly f: LdlFactor) {
+    const n = f.sym.n;
+    this.zx = new Float64Array(f.lx.length);
+    this.zd = new Float64Array(n);
+    this.pos = new Int32Array(n).fill(-1);
+    this.blockOf = new Int32Array(n).fill(-1);
+  }
 }
 
 /*
@@ -42,14 +50,7 @@ interface Inversion {
  */
 export function inverseDiagonal(f: LdlFactor): Float64Array {
   const { n, perm } = f.sym;
-  const w: Inversion = {
-    f,
-    zx: new Float64Array(f.lx.length),
-    zd: new Float64Array(n),
-    pos: new Int32Array(n).fill(-1),
-    blockOf: new Int32Array(n).fill(-1),
-    blocks: [],
-  };
+  const w = new Inversion(f);
   const r = f.blockRanges;
   let j1 = n;
   for (let q = r.length - 2; q >= 0; q -= 2) {
@@ -122,7 +123,7 @@ function invertDense(w: Inversion, b0: number, b1: number): void {
   const s = b1 - b0;
   const z = new Float64Array(s * s);
   for (let jj = s - 1; jj >= 0; jj--) invertBlockColumn(w, z, b0, s, jj);
-  w.blocks.push({ b0, s, z });
+  w.blocks.push(new DenseInverse(b0, s, z));
   w.blockOf.fill(w.blocks.length - 1, b0, b1);
 }
 

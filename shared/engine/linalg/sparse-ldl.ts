@@ -9,48 +9,71 @@
  * fill would be too large. `factor` computes L (unit lower, stored by columns with sorted row
  * indices) and D. Work happens in the permuted numbering k = pinv[i].
  */
-export interface SpdMatrix {
-  readonly n: number;
-  /** Off-diagonal entries as symmetric CSR rows (row i lists j != i with value a_ij). */
-  readonly rowStart: Int32Array;
-  readonly col: Int32Array;
-  readonly val: Float64Array;
-  readonly diag: Float64Array;
+/*
+ * The records below are classes rather than object literals: the JavaScript engine (V8) retypes
+ * the fields of an object literal when the literal is evaluated a second time, which throws away
+ * the compiled code of every loop that reads them, so the second plan of a session would run
+ * slowly again. Class instances keep their field types.
+ */
+export class SpdMatrix {
+  constructor(
+    readonly n: number,
+    /** Off-diagonal entries as symmetric CSR rows (row i lists j != i with value a_ij). */
+    readonly rowStart: Int32Array,
+    readonly col: Int32Array,
+    readonly val: Float64Array,
+    readonly diag: Float64Array,
+  ) {}
 }
 
-export interface Symbolic {
-  readonly n: number;
-  readonly perm: Int32Array;
-  readonly pinv: Int32Array;
-  readonly parent: Int32Array;
-  /** Nonzeros below the diagonal per column of L. */
-  readonly colCount: Int32Array;
-  /** Column starts of L (length n + 1). */
-  readonly colStart: Int32Array;
-  /** Nonzeros of L below the diagonal (the fill estimate), and sum of squared column counts (work). */
-  readonly nnz: number;
-  readonly flops: number;
+export class Symbolic {
+  constructor(
+    readonly n: number,
+    readonly perm: Int32Array,
+    readonly pinv: Int32Array,
+    readonly parent: Int32Array,
+    /** Nonzeros below the diagonal per column of L. */
+    readonly colCount: Int32Array,
+    /** Column starts of L (length n + 1). */
+    readonly colStart: Int32Array,
+    /** Nonzeros of L below the diagonal (the fill estimate), and sum of squared column counts (work). */
+    readonly nnz: number,
+    readonly flops: number,
+  ) {}
 }
 
-export interface LdlFactor {
-  readonly sym: Symbolic;
-  readonly rowIdx: Int32Array;
-  readonly lx: Float64Array;
-  readonly d: Float64Array;
-  /** 1 for the columns of dense trailing blocks (rows of column j: j + 1 up to the block's last). */
-  readonly inBlock: Uint8Array;
-  /** The dense trailing blocks as column ranges, ascending: [b0, b1 + 1, b0', b1' + 1, ...]. */
-  readonly blockRanges: Int32Array;
+export class LdlFactor {
+  constructor(
+    readonly sym: Symbolic,
+    readonly rowIdx: Int32Array,
+    readonly lx: Float64Array,
+    readonly d: Float64Array,
+    /** 1 for the columns of dense trailing blocks (rows of column j: j + 1 up to the block's last). */
+    readonly inBlock: Uint8Array,
+    /** The dense trailing blocks as column ranges, ascending: [b0, b1 + 1, b0', b1' + 1, ...]. */
+    readonly blockRanges: Int32Array,
+  ) {}
 }
 
 export function analyse(a: SpdMatrix, perm: Int32Array): Symbolic {
   const n = a.n;
   const pinv = new Int32Array(n);
-  for (let k = 0; k < n; k++) pinv[perm[k]] = k;
+  invertPermutation(perm, pinv);
   const parent = new Int32Array(n).fill(-1);
-  const flag = new Int32Array(n);
   const count = new Int32Array(n);
-  for (let k = 0; k < n; k++) {
+  eliminationTree(a, perm, pinv, parent, count, new Int32Array(n));
+  const colStart = new Int32Array(n + 1);
+  const flops = columnStarts(count, colStart);
+  return new Symbolic(n, perm, pinv, parent, count, colStart, colStart[n], flops);
+}
+
+function invertPermutation(perm: Int32Array, pinv: Int32Array): void {
+  for (let k = 0; k < perm.length; k++) pinv[perm[k]] = k;
+}
+
+/** The elimination tree (parent) and the count of every column of L below the diagonal, by walking the row subtrees. */
+function eliminationTree(a: SpdMatrix, perm: Int32Array, pinv: Int32Array, parent: Int32Array, count: Int32Array, flag: Int32Array): void {
+  for (let k = 0; k < a.n; k++) {
     flag[k] = k;
     const kk = perm[k];
     for (let p = a.rowStart[kk]; p < a.rowStart[kk + 1]; p++) {
@@ -63,13 +86,16 @@ export function analyse(a: SpdMatrix, perm: Int32Array): Symbolic {
       }
     }
   }
-  const colStart = new Int32Array(n + 1);
+}
+
+/** colStart from the column counts; returns the sum of their squares (the work). */
+function columnStarts(count: Int32Array, colStart: Int32Array): number {
   let flops = 0;
-  for (let k = 0; k < n; k++) {
+  for (let k = 0; k < count.length; k++) {
     colStart[k + 1] = colStart[k] + count[k];
     flops += count[k] * count[k];
   }
-  return { n, perm, pinv, parent, colCount: count, colStart, nnz: colStart[n], flops };
+  return flops;
 }
 
 /** Smallest and largest dense trailing block given dense treatment (the selected inversion keeps s^2 doubles). */
@@ -115,26 +141,25 @@ export function factor(a: SpdMatrix, sym: Symbolic): LdlFactor {
   const ranges = blockRanges(sym);
   const inBlock = new Uint8Array(n);
   for (let q = 0; q < ranges.length; q += 2) inBlock.fill(1, ranges[q], ranges[q + 1]);
-  const f: LdlFactor = {
-    sym,
-    rowIdx: new Int32Array(sym.nnz),
-    lx: new Float64Array(sym.nnz),
-    d: new Float64Array(n),
-    inBlock,
-    blockRanges: ranges,
-  };
-  const w: RowWork = { y: new Float64Array(n), pattern: new Int32Array(n), flag: new Int32Array(n), fillAt: new Int32Array(n) };
+  const f = new LdlFactor(sym, new Int32Array(sym.nnz), new Float64Array(sym.nnz), new Float64Array(n), inBlock, ranges);
+  const w = new RowWork(n);
   for (let k = 0; k < n; k++) factorRow(a, f, w, k);
   return f;
 }
 
 /** Work arrays of the up-looking factorisation (y all zero between rows). */
-interface RowWork {
+class RowWork {
   readonly y: Float64Array;
   readonly pattern: Int32Array;
   readonly flag: Int32Array;
   /** Entries of each column of L computed so far. */
   readonly fillAt: Int32Array;
+  constructor(n: number) {
+    this.y = new Float64Array(n);
+    this.pattern = new Int32Array(n);
+    this.flag = new Int32Array(n);
+    this.fillAt = new Int32Array(n);
+  }
 }
 
 /** Row k of L and d_k: scatter row k of A, find its pattern (row subtree), eliminate along it. */
