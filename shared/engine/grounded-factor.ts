@@ -11,7 +11,7 @@ import type { Csr } from './graph';
 import type { FillOrderChoice } from './plan-types';
 import { amdOrderWithin } from './linalg/amd';
 import { LEAF, nestedDissectionOrder } from './linalg/nested-dissection';
-import { analyse, analyseWithin, factor, ldlSolve, type LdlFactor, type SpdMatrix, type Symbolic } from './linalg/sparse-ldl';
+import { analyse, analyseWithin, factor, ldlSolve, SpdMatrix, type LdlFactor, type Symbolic } from './linalg/sparse-ldl';
 import { refine, type Refined } from './linalg/refine';
 import { inverseDiagonal } from './linalg/selected-inverse';
 
@@ -86,22 +86,34 @@ function chooseOrder(csr: Csr, maxFill: number, maxWork: number): RoomOrder | nu
 }
 
 export function groundedMatrix(csr: Csr, grounded: Uint8Array, gamma: number): SpdMatrix {
-  const { n, rowStart, col, weight, outStrength } = csr;
+  const n = csr.n;
   const start = new Int32Array(n + 1);
+  countTies(csr, grounded, start);
+  const m = new SpdMatrix(n, start, new Int32Array(start[n]), new Float64Array(start[n]), new Float64Array(n));
+  fillTies(csr, grounded, gamma, m);
+  return m;
+}
+
+/** start[i + 1] - start[i] = ties of i to people not grounded (none for grounded people). */
+function countTies(csr: Csr, grounded: Uint8Array, start: Int32Array): void {
+  const { n, rowStart, col } = csr;
   for (let i = 0; i < n; i++) {
     let c = 0;
     if (!grounded[i]) for (let e = rowStart[i]; e < rowStart[i + 1]; e++) if (col[e] !== i && !grounded[col[e]]) c++;
     start[i + 1] = start[i] + c;
   }
-  const cols = new Int32Array(start[n]);
-  const val = new Float64Array(start[n]);
-  const diag = new Float64Array(n);
+}
+
+/** The entries of K: -gamma w_ij off the diagonal, d_i - gamma w_ii on it, 1 for grounded people. */
+function fillTies(csr: Csr, grounded: Uint8Array, gamma: number, m: SpdMatrix): void {
+  const { n, rowStart, col, weight, outStrength } = csr;
+  const { col: cols, val, diag } = m;
   for (let i = 0; i < n; i++) {
     if (grounded[i]) {
       diag[i] = 1;
       continue;
     }
-    let q = start[i];
+    let q = m.rowStart[i];
     let self = 0;
     for (let e = rowStart[i]; e < rowStart[i + 1]; e++) {
       const j = col[e];
@@ -113,7 +125,6 @@ export function groundedMatrix(csr: Csr, grounded: Uint8Array, gamma: number): S
     }
     diag[i] = outStrength[i] - gamma * self;
   }
-  return { n, rowStart: start, col: cols, val, diag };
 }
 
 export class GroundedFactor {

@@ -15,6 +15,7 @@
  * Bounds are in raw hops (laziness 0) and scaled by 1 / (1 - laziness) when recorded.
  */
 import { allPairsTotals } from './pairs';
+import type { Csr } from './graph';
 import type { PlanContext } from './plan-context';
 
 /** Rooms up to this size get bound 2 after a heuristic plan (it needs all pair totals). */
@@ -85,7 +86,14 @@ export function oneHopBound(ctx: PlanContext): number {
  */
 export function oneHopBoundSparse(ctx: PlanContext): number {
   const { n, k, room } = ctx;
-  const { csr, mixing: b } = room;
+  const col = offDiagonalColumnSums(room.csr, room.mixing);
+  col.sort();
+  return 2 * (n - k) - largestSum(col, k);
+}
+
+/** Off-diagonal column sums of P (one loop per function: see linalg/sparse-ldl.ts on compiled code). */
+function offDiagonalColumnSums(csr: Csr, b: number): Float64Array {
+  const n = csr.n;
   const col = new Float64Array(n).fill(((n - 1) * b) / n);
   for (let i = 0; i < n; i++) {
     const s = csr.outStrength[i];
@@ -93,10 +101,14 @@ export function oneHopBoundSparse(ctx: PlanContext): number {
     const f = (1 - b) / s;
     for (let e = csr.rowStart[i]; e < csr.rowStart[i + 1]; e++) if (csr.col[e] !== i) col[csr.col[e]] += f * csr.weight[e];
   }
-  col.sort();
+  return col;
+}
+
+/** Sum of the k last entries of a sorted array, largest first. */
+function largestSum(sorted: Float64Array, k: number): number {
   let top = 0;
-  for (let q = 0; q < k; q++) top += col[n - 1 - q];
-  return 2 * (n - k) - top;
+  for (let q = 0; q < k; q++) top += sorted[sorted.length - 1 - q];
+  return top;
 }
 
 /** Adds bounds 2 and 3 (scaled) to the context's bounds; dense rooms up to PAIR_BOUND_LIMIT people. */

@@ -32,7 +32,6 @@ function successors(room: PreparedRoom): { start: Int32Array; adj: Int32Array } 
 }
 
 /** Strongly connected components and closed classes of the walk (ties only; mixing joins everything). */
-// eslint-disable-next-line max-lines-per-function -- an iterative Tarjan search (explicit stack, no recursion for rooms of a million people) whose index, low-link and stack arrays are shared by every step.
 export function classStructure(room: PreparedRoom): ClassStructure {
   const n = room.n;
   if (room.mixing > 0) {
@@ -40,12 +39,25 @@ export function classStructure(room: PreparedRoom): ClassStructure {
     return { component: new Int32Array(n), componentCount: 1, closedClasses: [all], closedOf: new Int32Array(n) };
   }
   const { start, adj } = successors(room);
+  const component = new Int32Array(n).fill(-1);
+  // One loop per function (see linalg/sparse-ldl.ts on compiled code).
+  const count = strongComponents(start, adj, component);
+  const leaves = new Uint8Array(count);
+  markLeaving(start, adj, component, leaves);
+  const closedOf = new Int32Array(n).fill(-1);
+  const closedClasses = closedMembers(component, leaves, closedOf);
+  return { component, componentCount: count, closedClasses, closedOf };
+}
+
+/** Tarjan's components (component[i] set for everyone); returns their number. */
+// Iterative (explicit stack): no recursion for rooms of a million people.
+function strongComponents(start: Int32Array, adj: Int32Array, component: Int32Array): number {
+  const n = component.length;
   const index = new Int32Array(n).fill(-1);
   const low = new Int32Array(n);
   const onStack = new Uint8Array(n);
   const stack = new Int32Array(n);
   let sp = 0;
-  const component = new Int32Array(n).fill(-1);
   let count = 0;
   let counter = 0;
   const callNode = new Int32Array(n);
@@ -88,13 +100,20 @@ export function classStructure(room: PreparedRoom): ClassStructure {
       }
     }
   }
-  const leaves = new Uint8Array(count);
-  for (let i = 0; i < n; i++)
+  return count;
+}
+
+/** leaves[c] = 1 for every component with a tie out of it. */
+function markLeaving(start: Int32Array, adj: Int32Array, component: Int32Array, leaves: Uint8Array): void {
+  for (let i = 0; i < component.length; i++)
     for (let e = start[i]; e < start[i + 1]; e++) if (component[adj[e]] !== component[i]) leaves[component[i]] = 1;
-  const classOfComp = new Int32Array(count).fill(-1);
+}
+
+/** Members of the closed components (input order), numbered by their first member; closedOf set for them. */
+function closedMembers(component: Int32Array, leaves: Uint8Array, closedOf: Int32Array): number[][] {
+  const classOfComp = new Int32Array(leaves.length).fill(-1);
   const closedClasses: number[][] = [];
-  const closedOf = new Int32Array(n).fill(-1);
-  for (let i = 0; i < n; i++) {
+  for (let i = 0; i < component.length; i++) {
     const c = component[i];
     if (leaves[c]) continue;
     if (classOfComp[c] < 0) {
@@ -104,7 +123,7 @@ export function classStructure(room: PreparedRoom): ClassStructure {
     closedClasses[classOfComp[c]].push(i);
     closedOf[i] = classOfComp[c];
   }
-  return { component, componentCount: count, closedClasses, closedOf };
+  return closedClasses;
 }
 
 function predecessors(room: PreparedRoom): { start: Int32Array; adj: Int32Array } {

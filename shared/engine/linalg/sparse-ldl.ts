@@ -9,36 +9,50 @@
  * fill would be too large. `factor` computes L (unit lower, stored by columns with sorted row
  * indices) and D. Work happens in the permuted numbering k = pinv[i].
  */
-export interface SpdMatrix {
-  readonly n: number;
-  /** Off-diagonal entries as symmetric CSR rows (row i lists j != i with value a_ij). */
-  readonly rowStart: Int32Array;
-  readonly col: Int32Array;
-  readonly val: Float64Array;
-  readonly diag: Float64Array;
+/*
+ * The records below are classes rather than object literals: the JavaScript engine (V8) retypes
+ * the fields of an object literal when the literal is evaluated a second time, which throws away
+ * the compiled code of every loop that reads them, so the second plan of a session would run
+ * slowly again. Class instances keep their field types.
+ */
+export class SpdMatrix {
+  constructor(
+    readonly n: number,
+    /** Off-diagonal entries as symmetric CSR rows (row i lists j != i with value a_ij). */
+    readonly rowStart: Int32Array,
+    readonly col: Int32Array,
+    readonly val: Float64Array,
+    readonly diag: Float64Array,
+  ) {}
 }
 
-export interface Symbolic {
-  readonly n: number;
-  readonly perm: Int32Array;
-  readonly pinv: Int32Array;
-  readonly parent: Int32Array;
-  /** Nonzeros below the diagonal per column of L. */
-  readonly colCount: Int32Array;
-  /** Column starts of L (length n + 1). */
-  readonly colStart: Int32Array;
-  /** Nonzeros of L below the diagonal (the fill estimate), and sum of squared column counts (work). */
-  readonly nnz: number;
-  readonly flops: number;
+export class Symbolic {
+  constructor(
+    readonly n: number,
+    readonly perm: Int32Array,
+    readonly pinv: Int32Array,
+    readonly parent: Int32Array,
+    /** Nonzeros below the diagonal per column of L. */
+    readonly colCount: Int32Array,
+    /** Column starts of L (length n + 1). */
+    readonly colStart: Int32Array,
+    /** Nonzeros of L below the diagonal (the fill estimate), and sum of squared column counts (work). */
+    readonly nnz: number,
+    readonly flops: number,
+  ) {}
 }
 
-export interface LdlFactor {
-  readonly sym: Symbolic;
-  readonly rowIdx: Int32Array;
-  readonly lx: Float64Array;
-  readonly d: Float64Array;
-  /** 1 for the columns of dense trailing blocks (rows of column j: j + 1 up to the block's last). */
-  readonly inBlock: Uint8Array;
+export class LdlFactor {
+  constructor(
+    readonly sym: Symbolic,
+    readonly rowIdx: Int32Array,
+    readonly lx: Float64Array,
+    readonly d: Float64Array,
+    /** 1 for the columns of dense trailing blocks (rows of column j: j + 1 up to the block's last). */
+    readonly inBlock: Uint8Array,
+    /** The dense trailing blocks as column ranges, ascending: [b0, b1 + 1, b0', b1' + 1, ...]. */
+    readonly blockRanges: Int32Array,
+  ) {}
 }
 
 export function analyse(a: SpdMatrix, perm: Int32Array): Symbolic {
@@ -56,14 +70,38 @@ export function analyseWithin(
   maxWork: number,
 ): Symbolic | null {
   const n = a.n;
+  const pinv = new Int32Array(n);
+  invertPermutation(perm, pinv);
+  const parent = new Int32Array(n).fill(-1);
+  const count = new Int32Array(n);
+  if (!eliminationTree(a, perm, pinv, parent, count, new Int32Array(n), maxNnz, maxWork)) return null;
+  const colStart = new Int32Array(n + 1);
+  const flops = columnStarts(count, colStart);
+  return new Symbolic(n, perm, pinv, parent, count, colStart, colStart[n], flops);
+}
+
+function invertPermutation(perm: Int32Array, pinv: Int32Array): void {
+  for (let k = 0; k < perm.length; k++) pinv[perm[k]] = k;
+}
+
+/**
+ * The elimination tree (parent) and the count of every column of L below the diagonal, by walking
+ * the row subtrees; false as soon as the nonzeros so far pass `maxNnz` or the work (sum of squared
+ * column counts, counted as they grow) passes `maxWork`.
+ */
+function eliminationTree(
+  a: Pick<SpdMatrix, 'n' | 'rowStart' | 'col'>,
+  perm: Int32Array,
+  pinv: Int32Array,
+  parent: Int32Array,
+  count: Int32Array,
+  flag: Int32Array,
+  maxNnz: number,
+  maxWork: number,
+): boolean {
   let seen = 0;
   let work = 0;
-  const pinv = new Int32Array(n);
-  for (let k = 0; k < n; k++) pinv[perm[k]] = k;
-  const parent = new Int32Array(n).fill(-1);
-  const flag = new Int32Array(n);
-  const count = new Int32Array(n);
-  for (let k = 0; k < n; k++) {
+  for (let k = 0; k < a.n; k++) {
     flag[k] = k;
     const kk = perm[k];
     for (let p = a.rowStart[kk]; p < a.rowStart[kk + 1]; p++) {
@@ -77,15 +115,19 @@ export function analyseWithin(
         seen++;
       }
     }
-    if (seen > maxNnz || work > maxWork) return null;
+    if (seen > maxNnz || work > maxWork) return false;
   }
-  const colStart = new Int32Array(n + 1);
+  return true;
+}
+
+/** colStart from the column counts; returns the sum of their squares (the work). */
+function columnStarts(count: Int32Array, colStart: Int32Array): number {
   let flops = 0;
-  for (let k = 0; k < n; k++) {
+  for (let k = 0; k < count.length; k++) {
     colStart[k + 1] = colStart[k] + count[k];
     flops += count[k] * count[k];
   }
-  return { n, perm, pinv, parent, colCount: count, colStart, nnz: colStart[n], flops };
+  return flops;
 }
 
 /** Smallest and largest dense trailing block given dense treatment (the selected inversion keeps s^2 doubles). */
@@ -109,87 +151,206 @@ export function trailingBlocks(sym: Symbolic): Int32Array {
   return start;
 }
 
+/** The dense trailing blocks of `trailingBlocks` as ascending column ranges [b0, b1 + 1, ...]. */
+export function blockRanges(sym: Symbolic): Int32Array {
+  const start = trailingBlocks(sym);
+  const out: number[] = [];
+  for (let b1 = 0; b1 < sym.n; b1++) if (start[b1] >= 0) out.push(start[b1], b1 + 1);
+  return Int32Array.from(out);
+}
+
+/*
+ * The loops below are written as small functions of one loop each, called once per row, column or
+ * block: the JavaScript engine then compiles each with complete type information within the first
+ * factorisation (a long function with several loops is compiled while it runs, before its later
+ * loops have run, and falls back to slow code at every call). The arithmetic and its order are
+ * those of the plain loops.
+ */
+
 /** Numeric LDL^T; throws when a pivot is not positive (the matrix is not positive definite). */
 export function factor(a: SpdMatrix, sym: Symbolic): LdlFactor {
-  const { n, perm, pinv, parent, colStart } = sym;
-  const rowIdx = new Int32Array(sym.nnz);
-  const lx = new Float64Array(sym.nnz);
-  const d = new Float64Array(n);
-  const y = new Float64Array(n);
-  const pattern = new Int32Array(n);
-  const flag = new Int32Array(n);
-  const fillAt = new Int32Array(n);
+  const n = sym.n;
+  const ranges = blockRanges(sym);
   const inBlock = new Uint8Array(n);
-  const blockStart = trailingBlocks(sym);
-  for (let b1 = 0; b1 < n; b1++) if (blockStart[b1] >= 0) inBlock.fill(1, blockStart[b1], b1 + 1);
-  for (let k = 0; k < n; k++) {
-    let top = n;
-    flag[k] = k;
-    const kk = perm[k];
-    y[k] = a.diag[kk];
-    for (let p = a.rowStart[kk]; p < a.rowStart[kk + 1]; p++) {
-      let i = pinv[a.col[p]];
-      if (i > k) continue;
-      y[i] += a.val[p];
-      let len = 0;
-      for (; flag[i] !== k; i = parent[i]) {
-        pattern[len++] = i;
-        flag[i] = k;
-      }
-      while (len > 0) pattern[--top] = pattern[--len];
-    }
-    let dk = y[k];
-    y[k] = 0;
-    for (; top < n; top++) {
-      const i = pattern[top];
-      const yi = y[i];
-      y[i] = 0;
-      const p2 = colStart[i] + fillAt[i];
-      if (inBlock[i]) {
-        // Column i of a dense trailing block: its rows so far are i + 1, ..., k - 1.
-        const shift = i + 1 - colStart[i];
-        for (let p = colStart[i]; p < p2; p++) y[p + shift] -= lx[p] * yi;
-      } else for (let p = colStart[i]; p < p2; p++) y[rowIdx[p]] -= lx[p] * yi;
-      const lki = yi / d[i];
-      dk -= lki * yi;
-      rowIdx[p2] = k;
-      lx[p2] = lki;
-      fillAt[i]++;
-    }
-    if (!(dk > 0)) throw new Error(`The matrix is not positive definite (pivot ${dk} at step ${k}).`);
-    d[k] = dk;
+  for (let q = 0; q < ranges.length; q += 2) inBlock.fill(1, ranges[q], ranges[q + 1]);
+  const f = new LdlFactor(sym, new Int32Array(sym.nnz), new Float64Array(sym.nnz), new Float64Array(n), inBlock, ranges);
+  const w = new RowWork(n);
+  for (let k = 0; k < n; k++) factorRow(a, f, w, k);
+  return f;
+}
+
+/** Work arrays of the up-looking factorisation (y all zero between rows). */
+class RowWork {
+  readonly y: Float64Array;
+  readonly pattern: Int32Array;
+  readonly flag: Int32Array;
+  /** Entries of each column of L computed so far. */
+  readonly fillAt: Int32Array;
+  constructor(n: number) {
+    this.y = new Float64Array(n);
+    this.pattern = new Int32Array(n);
+    this.flag = new Int32Array(n);
+    this.fillAt = new Int32Array(n);
   }
-  return { sym, rowIdx, lx, d, inBlock };
+}
+
+/** Row k of L and d_k: scatter row k of A, find its pattern (row subtree), eliminate along it. */
+function factorRow(a: SpdMatrix, f: LdlFactor, w: RowWork, k: number): void {
+  const top = scatterRow(a, f.sym, w, k);
+  const dk = eliminateRow(f, w, k, top);
+  if (!(dk > 0)) throw new Error(`The matrix is not positive definite (pivot ${dk} at step ${k}).`);
+  f.d[k] = dk;
+}
+
+/** y = row k of A (columns up to k); the nonzero pattern of row k of L in pattern[top..n), topologically ordered. Returns top. */
+function scatterRow(a: SpdMatrix, sym: Symbolic, w: RowWork, k: number): number {
+  const { n, perm, pinv, parent } = sym;
+  const { y, pattern, flag } = w;
+  let top = n;
+  flag[k] = k;
+  const kk = perm[k];
+  y[k] = a.diag[kk];
+  for (let p = a.rowStart[kk]; p < a.rowStart[kk + 1]; p++) {
+    let i = pinv[a.col[p]];
+    if (i > k) continue;
+    y[i] += a.val[p];
+    let len = 0;
+    for (; flag[i] !== k; i = parent[i]) {
+      pattern[len++] = i;
+      flag[i] = k;
+    }
+    while (len > 0) pattern[--top] = pattern[--len];
+  }
+  return top;
+}
+
+/** The up-looking step for row k along pattern[top..n): appends L_ki to each column i; returns d_k. */
+function eliminateRow(f: LdlFactor, w: RowWork, k: number, top: number): number {
+  const { rowIdx, lx, d, inBlock } = f;
+  const { colStart } = f.sym;
+  const { y, pattern, fillAt } = w;
+  const n = pattern.length;
+  let dk = y[k];
+  y[k] = 0;
+  for (; top < n; top++) {
+    const i = pattern[top];
+    const yi = y[i];
+    y[i] = 0;
+    const p0 = colStart[i];
+    const p2 = p0 + fillAt[i];
+    // Column i of a dense trailing block: its rows so far are i + 1, ..., k - 1.
+    if (inBlock[i]) subtractShifted(y, lx, p0, p2, i + 1 - p0, yi);
+    else subtractScattered(y, rowIdx, lx, p0, p2, yi);
+    const lki = yi / d[i];
+    dk -= lki * yi;
+    rowIdx[p2] = k;
+    lx[p2] = lki;
+    fillAt[i]++;
+  }
+  return dk;
+}
+
+/** y[rowIdx[p]] -= lx[p] t for p in [p0, p1). */
+function subtractScattered(y: Float64Array, rowIdx: Int32Array, lx: Float64Array, p0: number, p1: number, t: number): void {
+  for (let p = p0; p < p1; p++) y[rowIdx[p]] -= lx[p] * t;
+}
+
+/** y[p + shift] -= lx[p] t for p in [p0, p1) (a column of a dense block). */
+function subtractShifted(y: Float64Array, lx: Float64Array, p0: number, p1: number, shift: number, t: number): void {
+  for (let p = p0; p < p1; p++) y[p + shift] -= lx[p] * t;
+}
+
+/** s - sum of lx[p] y[rowIdx[p]] for p in [p0, p1), subtracted in order. */
+function gatherScattered(s: number, y: Float64Array, rowIdx: Int32Array, lx: Float64Array, p0: number, p1: number): number {
+  for (let p = p0; p < p1; p++) s -= lx[p] * y[rowIdx[p]];
+  return s;
+}
+
+/** s - sum of lx[p] y[p + shift] for p in [p0, p1), subtracted in order. */
+function gatherShifted(s: number, y: Float64Array, lx: Float64Array, p0: number, p1: number, shift: number): number {
+  for (let p = p0; p < p1; p++) s -= lx[p] * y[p + shift];
+  return s;
 }
 
 /** x = A^-1 b (original numbering); `work` (length n) may be passed to avoid allocation. */
 export function ldlSolve(f: LdlFactor, b: Float64Array, out?: Float64Array, work?: Float64Array): Float64Array {
-  const { n, perm, colStart } = f.sym;
-  const { rowIdx, lx, d, inBlock } = f;
+  const { n, perm } = f.sym;
   const y = work ?? new Float64Array(n);
-  for (let k = 0; k < n; k++) y[k] = b[perm[k]];
-  for (let j = 0; j < n; j++) {
-    const yj = y[j];
-    if (yj === 0) continue;
-    const p1 = colStart[j + 1];
-    if (inBlock[j]) {
-      const shift = j + 1 - colStart[j];
-      for (let p = colStart[j]; p < p1; p++) y[p + shift] -= lx[p] * yj;
-    } else for (let p = colStart[j]; p < p1; p++) y[rowIdx[p]] -= lx[p] * yj;
-  }
-  for (let j = 0; j < n; j++) y[j] /= d[j];
-  for (let j = n - 1; j >= 0; j--) {
-    let s = y[j];
-    const p1 = colStart[j + 1];
-    if (inBlock[j]) {
-      const shift = j + 1 - colStart[j];
-      for (let p = colStart[j]; p < p1; p++) s -= lx[p] * y[p + shift];
-    } else for (let p = colStart[j]; p < p1; p++) s -= lx[p] * y[rowIdx[p]];
-    y[j] = s;
-  }
   const x = out ?? new Float64Array(n);
-  for (let k = 0; k < n; k++) x[perm[k]] = y[k];
+  gather(y, b, perm);
+  forwardSolve(f, y);
+  divide(y, f.d);
+  backSolve(f, y);
+  scatter(x, y, perm);
   return x;
+}
+
+/** y[k] = b[perm[k]]. */
+function gather(y: Float64Array, b: Float64Array, perm: Int32Array): void {
+  for (let k = 0; k < perm.length; k++) y[k] = b[perm[k]];
+}
+
+/** x[perm[k]] = y[k]. */
+function scatter(x: Float64Array, y: Float64Array, perm: Int32Array): void {
+  for (let k = 0; k < perm.length; k++) x[perm[k]] = y[k];
+}
+
+function divide(y: Float64Array, d: Float64Array): void {
+  for (let j = 0; j < d.length; j++) y[j] /= d[j];
+}
+
+/** y = L^-1 y, by runs of sparse columns and dense blocks. */
+function forwardSolve(f: LdlFactor, y: Float64Array): void {
+  const r = f.blockRanges;
+  let j = 0;
+  for (let q = 0; q < r.length; q += 2) {
+    forwardSparse(f, y, j, r[q]);
+    forwardDense(f, y, r[q], r[q + 1]);
+    j = r[q + 1];
+  }
+  forwardSparse(f, y, j, f.sym.n);
+}
+
+function forwardSparse(f: LdlFactor, y: Float64Array, j0: number, j1: number): void {
+  const { rowIdx, lx } = f;
+  const { colStart } = f.sym;
+  for (let j = j0; j < j1; j++) {
+    const yj = y[j];
+    if (yj !== 0) subtractScattered(y, rowIdx, lx, colStart[j], colStart[j + 1], yj);
+  }
+}
+
+function forwardDense(f: LdlFactor, y: Float64Array, j0: number, j1: number): void {
+  const { lx } = f;
+  const { colStart } = f.sym;
+  for (let j = j0; j < j1; j++) {
+    const yj = y[j];
+    if (yj !== 0) subtractShifted(y, lx, colStart[j], colStart[j + 1], j + 1 - colStart[j], yj);
+  }
+}
+
+/** y = L^-T y, from the last column back. */
+function backSolve(f: LdlFactor, y: Float64Array): void {
+  const r = f.blockRanges;
+  let j = f.sym.n;
+  for (let q = r.length - 2; q >= 0; q -= 2) {
+    backSparse(f, y, r[q + 1], j);
+    backDense(f, y, r[q], r[q + 1]);
+    j = r[q];
+  }
+  backSparse(f, y, 0, j);
+}
+
+function backSparse(f: LdlFactor, y: Float64Array, j0: number, j1: number): void {
+  const { rowIdx, lx } = f;
+  const { colStart } = f.sym;
+  for (let j = j1 - 1; j >= j0; j--) y[j] = gatherScattered(y[j], y, rowIdx, lx, colStart[j], colStart[j + 1]);
+}
+
+function backDense(f: LdlFactor, y: Float64Array, j0: number, j1: number): void {
+  const { lx } = f;
+  const { colStart } = f.sym;
+  for (let j = j1 - 1; j >= j0; j--) y[j] = gatherShifted(y[j], y, lx, colStart[j], colStart[j + 1], j + 1 - colStart[j]);
 }
 
 /** y = A x. */
