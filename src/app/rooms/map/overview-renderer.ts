@@ -188,6 +188,7 @@ export class OverviewRenderer {
     const k = view.k;
     drawTies(ctx, this.batches, box, k);
     if (this.directed && k >= DETAIL_ZOOM) drawArrows(ctx, this.batches, box);
+    this.paintSelectedTies(ctx, marks, k);
     const s = personScale(k);
     for (const g of this.groups) drawGroup(ctx, g, box, s, k);
     if (k >= DETAIL_ZOOM) {
@@ -197,14 +198,20 @@ export class OverviewRenderer {
     this.paintSelected(ctx, marks, s, k);
   }
 
-  /** The selection on top of everything: its ties and outlines in clay, then the find and focus rings. */
-  private paintSelected(ctx: CanvasRenderingContext2D, marks: Marks, s: number, k: number): void {
+  /** The selected tie and the selected people's ties in clay, above the other ties and below everyone. */
+  private paintSelectedTies(ctx: CanvasRenderingContext2D, marks: Marks, k: number): void {
     const graph = this.graph;
-    if (!graph) return;
+    if (!graph || (!marks.tie && !marks.selected.size)) return;
     const max = graph.maxStrength();
     const ties = new Set(marks.tie ? graph.links.filter((l) => l.lid === marks.tie) : []);
     for (const lid of marks.selected) for (const l of graph.tiesOf(lid)) ties.add(l);
     for (const l of ties) strokeSegments(ctx, [l], CLAY, tieWidth(l.strength, max) + 2, k);
+  }
+
+  /** The selected people's outlines in clay on top of everyone, then the find and focus rings. */
+  private paintSelected(ctx: CanvasRenderingContext2D, marks: Marks, s: number, k: number): void {
+    const graph = this.graph;
+    if (!graph) return;
     for (const g of this.groups) {
       const chosen = g.nodes.filter((n) => marks.selected.has(n.lid));
       if (!chosen.length) continue;
@@ -359,7 +366,7 @@ function tieInBox(l: MapLink, b: Box): boolean {
 
 function drawTies(ctx: CanvasRenderingContext2D, batches: readonly TieBatch[], box: Box, k: number): void {
   // Zoomed far out, thousands of ties would merge into one grey cloud: lighter lines keep the people readable.
-  ctx.globalAlpha = k < 0.35 ? 0.45 : 0.85;
+  ctx.globalAlpha = k < 0.35 ? 0.35 : 0.55;
   for (const b of batches)
     strokeSegments(
       ctx,

@@ -40,6 +40,14 @@ interface Drawing {
 
 const count = new Intl.NumberFormat('en-GB');
 
+/** The overview canvas's accessible name: what it shows and how to reach a person without it. */
+function overviewLabel(people: number, ties: number): string {
+  return (
+    `Overview map of this room: ${count.format(people)} people and ${count.format(ties)} ${ties === 1 ? 'tie' : 'ties'}. ` +
+    'Click a person to select them, or reach anyone by name with the search box above the map.'
+  );
+}
+
 /**
  * The communication map: d3-force layout (map-layout.ts), drawn in SVG by MapRenderer, panned and
  * zoomed by MapZoom, driven by MapGestures. Per frame it touches only what moved: a drag updates
@@ -54,7 +62,7 @@ const count = new Intl.NumberFormat('en-GB');
   changeDetection: ChangeDetectionStrategy.OnPush,
   // The drawing is built with DOM calls, so its styles cannot be scoped by Angular.
   encapsulation: ViewEncapsulation.None,
-  host: { class: 'rh-room-map' },
+  host: { class: 'rh-room-map', '[class.rh-overview]': 'overview()' },
 })
 export class RoomMap implements OnDestroy {
   private readonly editor = inject(RoomEditor);
@@ -139,8 +147,8 @@ export class RoomMap implements OnDestroy {
     if (overview === this.overview() && (overview ? this.overviewDrawing : this.drawing)) return;
     const before = this.zoom?.transform;
     this.overview.set(overview);
-    this.svgRef().nativeElement.style.display = overview ? 'none' : '';
-    this.canvasRef().nativeElement.style.display = overview ? '' : 'none';
+    this.svgRef().nativeElement.classList.toggle('rh-map-off', overview);
+    this.canvasRef().nativeElement.classList.toggle('rh-map-off', !overview);
     if (overview) {
       this.drawing?.renderer.clear();
       this.overviewDrawing ??= this.setupOverview();
@@ -157,24 +165,17 @@ export class RoomMap implements OnDestroy {
     this.chooseSurface(usesOverview(people.length));
     const { newcomers } = this.graph.update(people, ties, this.held);
     const signature = structureOf(people, ties, room.settings.directed);
-    if (this.overviewDrawing && this.overview()) {
-      this.overviewLabel.set(
-        `Overview map of this room: ${count.format(people.length)} people and ${count.format(ties.length)} ties. ` +
-          'Click a person to select them, or reach anyone by name with "Find a person".',
-      );
-      if (signature === this.signature && !newcomers) {
-        this.overviewDrawing.renderer.setPins(people);
-        this.overviewDrawing.renderer.placesChanged();
+    const placesOnly = signature === this.signature && !newcomers;
+    if (this.overview()) {
+      this.overviewLabel.set(overviewLabel(people.length, ties.length));
+      if (placesOnly) {
+        this.overviewDrawing?.renderer.setPins(people);
+        this.overviewDrawing?.renderer.placesChanged();
         return;
       }
-      this.signature = signature;
-      this.redraw(room.settings.directed, newcomers);
-      return;
-    }
-    if (!this.drawing) return;
-    const { renderer } = this.drawing;
-    if (signature === this.signature && !newcomers) {
+    } else if (placesOnly && this.drawing) {
       // Only places changed (a move, an undo of a move): update positions, keep the elements.
+      const { renderer } = this.drawing;
       renderer.reattach(this.graph);
       renderer.placeAll(this.graph);
       renderer.paintPins(this.graph, people);
