@@ -1,7 +1,7 @@
 import type { RoomEditor } from '../editor/room-editor';
 import { keyDelta, nudgeSelection } from './map-gestures';
 import type { MapGraph } from './map-graph';
-import { MapZoom } from './map-zoom';
+import { bounds, MapZoom } from './map-zoom';
 import { OverviewRenderer } from './overview-renderer';
 
 /** How near (in screen pixels) a click must come to a tie to select it. */
@@ -58,12 +58,11 @@ export class MapOverview {
   picture(points: readonly { x: number; y: number }[]): HTMLCanvasElement | null {
     if (!points.length) return null;
     const pad = PICTURE_PADDING;
-    const xs = points.map((p) => p.x);
-    const ys = points.map((p) => p.y);
-    const x0 = Math.min(...xs) - pad;
-    const y0 = Math.min(...ys) - pad;
-    const width = Math.max(...xs) - x0 + pad;
-    const height = Math.max(...ys) - y0 + pad;
+    const [minX, maxX, minY, maxY] = bounds(points);
+    const x0 = minX - pad;
+    const y0 = minY - pad;
+    const width = maxX - x0 + pad;
+    const height = maxY - y0 + pad;
     const scale = Math.min(2, PICTURE_MAX_SIDE / Math.max(width, height));
     const canvas = document.createElement('canvas');
     canvas.width = Math.round(width * scale);

@@ -117,12 +117,22 @@ export class MapZoom {
 /** The transform that shows every point inside a width x height view, centred, at most FIT_MAX_SCALE. */
 export function fitTransform(points: readonly { x: number; y: number }[], width: number, height: number): ZoomTransform | null {
   if (!points.length || !width) return null;
-  const xs = points.map((p) => p.x);
-  const ys = points.map((p) => p.y);
-  const [x0, x1, y0, y1] = [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
+  const [x0, x1, y0, y1] = bounds(points);
   const k = Math.min(FIT_MAX_SCALE, (width - FIT_PADDING * 2) / Math.max(x1 - x0, 1), (height - FIT_PADDING * 2) / Math.max(y1 - y0, 1));
   return zoomIdentity
     .translate(width / 2, height / 2)
     .scale(k)
     .translate(-(x0 + x1) / 2, -(y0 + y1) / 2);
+}
+
+/** The smallest and largest x and y of some points (a loop: a spread of 100,000 arguments overflows the stack). */
+export function bounds(points: readonly { x: number; y: number }[]): [x0: number, x1: number, y0: number, y1: number] {
+  let [x0, x1, y0, y1] = [Infinity, -Infinity, Infinity, -Infinity];
+  for (const p of points) {
+    x0 = Math.min(x0, p.x);
+    x1 = Math.max(x1, p.x);
+    y0 = Math.min(y0, p.y);
+    y1 = Math.max(y1, p.y);
+  }
+  return [x0, x1, y0, y1];
 }

@@ -6,7 +6,23 @@ import { type GroupStyle, NO_GROUP_STYLE, tieWidth } from './group-style';
 import { LABEL_FONT, labelWidth } from './label-font';
 import { type MapGraph, PERSON_RADIUS as R } from './map-graph';
 import type { MapLink, MapNode } from './map-layout';
-import { CLAY, INK, TIE } from './map-renderer';
+import { CLAY, INK } from './map-renderer';
+import {
+  drawArrows,
+  drawGroup,
+  drawHollows,
+  drawPins,
+  drawTies,
+  fitCanvas,
+  ring,
+  strokeSegments,
+  type StyledGroup,
+  type TieBatch,
+  type View,
+  visibleBox,
+} from './overview-paint';
+
+export type { View } from './overview-paint';
 
 /**
  * From this many people the map is one picture on a canvas (the overview) instead of one SVG
@@ -33,33 +49,12 @@ const PICK_SLOP = 4;
 const DETAIL_ZOOM = 0.6;
 const PAPER = '#fffdf9';
 
-/** The pan and zoom (as d3-zoom gives it) and the canvas size in CSS pixels. */
-export interface View {
-  k: number;
-  x: number;
-  y: number;
-  width: number;
-  height: number;
-}
-
 /** A name to write: its person and the box it takes on screen. */
 export interface Label {
   node: MapNode;
   x: number;
   y: number;
   width: number;
-}
-
-interface StyledGroup {
-  style: GroupStyle;
-  corners: number[] | null;
-  nodes: MapNode[];
-}
-
-/** Ties of one drawn width, stroked as one path. */
-interface TieBatch {
-  width: number;
-  links: MapLink[];
 }
 
 /**
@@ -260,25 +255,6 @@ interface Marks {
 
 const NO_MARKS: Marks = { selected: new Set(), tie: null, ringed: null, hovered: null, focused: false };
 
-/** The drawing-space box a view shows, with a margin of one person. */
-interface Box {
-  x0: number;
-  y0: number;
-  x1: number;
-  y1: number;
-}
-
-function visibleBox(view: View): Box {
-  const m = R * 2;
-  return {
-    x0: -view.x / view.k - m,
-    y0: -view.y / view.k - m,
-    x1: (view.width - view.x) / view.k + m,
-    y1: (view.height - view.y) / view.k + m,
-  };
-}
-
-const inBox = (b: Box, x: number, y: number) => x >= b.x0 && x <= b.x1 && y >= b.y0 && y <= b.y1;
 const nodeX = (n: MapNode) => n.x ?? 0;
 const nodeY = (n: MapNode) => n.y ?? 0;
 
@@ -353,134 +329,4 @@ function batchTies(graph: MapGraph): TieBatch[] {
     byWidth.set(w, list);
   }
   return [...byWidth.entries()].sort((a, b) => a[0] - b[0]).map(([width, links]) => ({ width, links }));
-}
-
-/** Ties touching the box (a tie across the view with both ends outside is drawn too). */
-function tieInBox(l: MapLink, b: Box): boolean {
-  const x1 = l.source.x ?? 0;
-  const y1 = l.source.y ?? 0;
-  const x2 = l.target.x ?? 0;
-  const y2 = l.target.y ?? 0;
-  return Math.max(x1, x2) >= b.x0 && Math.min(x1, x2) <= b.x1 && Math.max(y1, y2) >= b.y0 && Math.min(y1, y2) <= b.y1;
-}
-
-function drawTies(ctx: CanvasRenderingContext2D, batches: readonly TieBatch[], box: Box, k: number): void {
-  // Zoomed far out, thousands of ties would merge into one grey cloud: lighter lines keep the people readable.
-  ctx.globalAlpha = k < 0.35 ? 0.35 : 0.55;
-  for (const b of batches)
-    strokeSegments(
-      ctx,
-      b.links.filter((l) => tieInBox(l, box)),
-      TIE,
-      b.width,
-      k,
-    );
-  ctx.globalAlpha = 1;
-}
-
-function strokeSegments(ctx: CanvasRenderingContext2D, links: readonly MapLink[], colour: string, width: number, k: number): void {
-  if (!links.length) return;
-  ctx.beginPath();
-  for (const l of links) {
-    ctx.moveTo(l.source.x ?? 0, l.source.y ?? 0);
-    ctx.lineTo(l.target.x ?? 0, l.target.y ?? 0);
-  }
-  ctx.strokeStyle = colour;
-  ctx.lineCap = 'round';
-  // Never thinner than half a screen pixel.
-  ctx.lineWidth = Math.max(width, 0.5 / k);
-  ctx.stroke();
-}
-
-/** Arrow heads at the target's edge ("source asks target"), all in one path. */
-function drawArrows(ctx: CanvasRenderingContext2D, batches: readonly TieBatch[], box: Box): void {
-  ctx.beginPath();
-  for (const b of batches)
-    for (const l of b.links) {
-      const tx = l.target.x ?? 0;
-      const ty = l.target.y ?? 0;
-      if (!inBox(box, tx, ty)) continue;
-      const dx = tx - (l.source.x ?? 0);
-      const dy = ty - (l.source.y ?? 0);
-      const len = Math.hypot(dx, dy) || 1;
-      const [ux, uy] = [dx / len, dy / len];
-      const [px, py] = [tx - ux * (R + 2), ty - uy * (R + 2)];
-      ctx.moveTo(px, py);
-      ctx.lineTo(px - ux * 7 - uy * 3.5, py - uy * 7 + ux * 3.5);
-      ctx.lineTo(px - ux * 7 + uy * 3.5, py - uy * 7 - ux * 3.5);
-      ctx.closePath();
-    }
-  ctx.fillStyle = TIE;
-  ctx.fill();
-}
-
-function drawGroup(ctx: CanvasRenderingContext2D, g: StyledGroup, box: Box, s: number, k: number): void {
-  ctx.beginPath();
-  let any = false;
-  for (const n of g.nodes) {
-    const x = n.x ?? 0;
-    const y = n.y ?? 0;
-    if (!inBox(box, x, y)) continue;
-    traceShape(ctx, g.corners, R, x, y, s);
-    any = true;
-  }
-  if (!any) return;
-  ctx.fillStyle = g.style.fill;
-  ctx.fill();
-  ctx.strokeStyle = INK;
-  // The outline thins with the zoom but stays a visible hairline.
-  ctx.lineWidth = Math.max(1.4, 0.6 / k);
-  ctx.lineJoin = 'round';
-  ctx.stroke();
-}
-
-function drawHollows(ctx: CanvasRenderingContext2D, groups: readonly StyledGroup[], box: Box): void {
-  ctx.beginPath();
-  for (const g of groups) {
-    if (!g.style.hollow) continue;
-    for (const n of g.nodes) {
-      if (!inBox(box, n.x ?? 0, n.y ?? 0)) continue;
-      ctx.moveTo((n.x ?? 0) + R * 0.38, n.y ?? 0);
-      ctx.arc(n.x ?? 0, n.y ?? 0, R * 0.38, 0, 2 * Math.PI);
-    }
-  }
-  ctx.fillStyle = '#ffffff';
-  ctx.fill();
-  ctx.strokeStyle = INK;
-  ctx.lineWidth = 1;
-  ctx.stroke();
-}
-
-/** The pin flag of the small map (a small ink pennant above the shape's right shoulder). */
-function drawPins(ctx: CanvasRenderingContext2D, nodes: Iterable<MapNode>, pinned: ReadonlySet<string>, box: Box): void {
-  if (!pinned.size) return;
-  ctx.beginPath();
-  for (const n of nodes) {
-    if (!pinned.has(n.lid) || !inBox(box, n.x ?? 0, n.y ?? 0)) continue;
-    const [x, y] = [n.x ?? 0, n.y ?? 0];
-    ctx.moveTo(x + 5, y - 17);
-    ctx.lineTo(x + 12, y - 17);
-    ctx.lineTo(x + 8.5, y - 11);
-    ctx.closePath();
-  }
-  ctx.fillStyle = INK;
-  ctx.fill();
-}
-
-function ring(ctx: CanvasRenderingContext2D, n: MapNode, r: number, colour: string, width: number, dash: number[]): void {
-  ctx.beginPath();
-  ctx.arc(n.x ?? 0, n.y ?? 0, r, 0, 2 * Math.PI);
-  ctx.setLineDash(dash);
-  ctx.strokeStyle = colour;
-  ctx.lineWidth = width;
-  ctx.stroke();
-  ctx.setLineDash([]);
-}
-
-/** Gives the canvas as many device pixels as it shows CSS pixels times the pixel ratio. */
-function fitCanvas(canvas: HTMLCanvasElement, view: View, dpr: number): void {
-  const w = Math.round(view.width * dpr);
-  const h = Math.round(view.height * dpr);
-  if (canvas.width !== w) canvas.width = w;
-  if (canvas.height !== h) canvas.height = h;
 }
