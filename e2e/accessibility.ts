@@ -19,6 +19,20 @@ const WCAG_AA = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'];
 const QUIET_MS = 300;
 const SETTLE_LIMIT_MS = 5000;
 
+/** axe's serious and critical findings on the page as it is now, one line (and up to four places) each. */
+export async function blockingViolations(page: Page): Promise<string[]> {
+  const result = await new AxeBuilder({ page }).withTags(WCAG_AA).options({ iframes: false }).exclude('iframe').analyze();
+  return result.violations
+    .filter((x) => BLOCKING.has(x.impact ?? ''))
+    .map((v) => {
+      const where = v.nodes
+        .slice(0, 4)
+        .map((n) => `      ${n.target.join(' ')}: ${n.failureSummary?.split('\n').slice(1, 2).join('').trim() ?? ''}`)
+        .join('\n');
+      return `[${v.impact}] ${v.id}: ${v.help} (${v.nodes.length} places)\n${where}`;
+    });
+}
+
 export const pageKey = (url: string, width: number) => {
   const path = new URL(url).pathname.replace(/\/[A-Za-z0-9_-]{43}(?=\/|$)/g, '/:token').replace(/\/\d+(?=\/|$)/g, '/:id');
   return `${path} @${width <= 600 ? 'phone' : 'desktop'}`;
@@ -80,14 +94,7 @@ export class AxeWatch {
     try {
       // Frames are left out: the outbox's sandboxed mail preview runs no script, so axe could
       // never answer from inside it (the message itself is generated mail, not one of our pages).
-      const result = await new AxeBuilder({ page }).withTags(WCAG_AA).options({ iframes: false }).exclude('iframe').analyze();
-      for (const v of result.violations.filter((x) => BLOCKING.has(x.impact ?? ''))) {
-        const where = v.nodes
-          .slice(0, 4)
-          .map((n) => `      ${n.target.join(' ')}: ${n.failureSummary?.split('\n').slice(1, 2).join('').trim() ?? ''}`)
-          .join('\n');
-        this.violations.push(`${key}: [${v.impact}] ${v.id}: ${v.help} (${v.nodes.length} places)\n${where}`);
-      }
+      this.violations.push(...(await blockingViolations(page)).map((v) => `${key}: ${v}`));
     } finally {
       this.spent(Date.now() - started);
     }

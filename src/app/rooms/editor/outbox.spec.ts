@@ -1,4 +1,4 @@
-import { Outbox } from './outbox';
+import { MOVES_PER_BATCH, Outbox } from './outbox';
 import type { PersonFields } from './room-model';
 
 const f = (name: string): PersonFields => ({ key: name, name, group: null, email: null, x: 1, y: 2, pinned: false });
@@ -87,5 +87,31 @@ describe('autosave outbox', () => {
       ['p9', 9],
     ]);
     expect([...box.tieIds]).toEqual([['t2', 2]]);
+  });
+
+  it('sends the layout of a very large room in ops the server takes (3,000 moves each) and bodies of at most MOVES_PER_BATCH moves', () => {
+    const box = new Outbox();
+    const n = 20_000;
+    for (let i = 0; i < n; i++) box.personIds.set(`p${i}`, i + 1);
+    box.push([{ op: 'move', moves: Array.from({ length: n }, (_, i) => ({ lid: `p${i}`, x: i, y: -i, pinned: false })) }]);
+    const sent: number[] = [];
+    let batches = 0;
+    for (let batch = box.next(); batch; batch = box.next()) {
+      batches++;
+      expect(batch.layoutOnly).toBeTrue();
+      let inBatch = 0;
+      for (const op of batch.ops) {
+        if (op.op !== 'movePeople') throw new Error('only moves were queued');
+        expect(op.moves.length).toBeLessThanOrEqual(3000);
+        inBatch += op.moves.length;
+        sent.push(...op.moves.map((m) => Number(m.id)));
+      }
+      expect(inBatch).toBeLessThanOrEqual(MOVES_PER_BATCH);
+      box.acknowledge(batch.count, { people: {}, ties: {} });
+    }
+    expect(batches).toBe(Math.ceil(n / MOVES_PER_BATCH));
+    // Everyone's place goes out exactly once.
+    expect(new Set(sent).size).toBe(n);
+    expect(sent.length).toBe(n);
   });
 });

@@ -1,5 +1,10 @@
-import type { RoomEditOp } from '../../../../shared/api/rooms';
+import { ROOM_LIMITS, type RoomEditOp } from '../../../../shared/api/rooms';
 import type { EditorOp, Move } from './room-model';
+
+/** Moves in one movePeople op at most (the server's limit). */
+const MOVES_PER_OP = ROOM_LIMITS.maxPeople;
+/** Moves in one batch at most, so the layout of a very large room goes out in bodies well under the 2 MB limit. */
+export const MOVES_PER_BATCH = 5 * MOVES_PER_OP;
 
 /**
  * Changes waiting to be saved, and the translation of local ids into the server's. A person
@@ -17,8 +22,15 @@ export class Outbox {
     return this.queue.length;
   }
 
+  /** Queues ops; a move of more people than one op may carry is queued as several. */
   push(ops: readonly EditorOp[]): void {
-    this.queue.push(...ops);
+    for (const op of ops) {
+      if (op.op !== 'move' || op.moves.length <= MOVES_PER_OP) {
+        this.queue.push(op);
+        continue;
+      }
+      for (let i = 0; i < op.moves.length; i += MOVES_PER_OP) this.queue.push({ op: 'move', moves: op.moves.slice(i, i + MOVES_PER_OP) });
+    }
   }
 
   /** Forgets unsaved changes (after the user chose to reload). */
@@ -47,16 +59,16 @@ export class Outbox {
       if (addedPeople.has(lid)) return allowTemp ? lid : undefined;
       return this.personIds.get(lid);
     };
+    let batchMoves = 0;
     const flushMoves = () => {
-      if (moves?.size)
-        ops.push({
-          op: 'movePeople',
-          moves: [...moves.values()].map((m) => ({ id: personRef(m.lid, true)!, x: m.x, y: m.y, pinned: m.pinned })),
-        });
+      const all = [...(moves?.values() ?? [])].map((m) => ({ id: personRef(m.lid, true)!, x: m.x, y: m.y, pinned: m.pinned }));
+      for (let i = 0; i < all.length; i += MOVES_PER_OP) ops.push({ op: 'movePeople', moves: all.slice(i, i + MOVES_PER_OP) });
       moves = null;
     };
     for (const op of this.queue) {
       if (op.op === 'move') {
+        if (count && batchMoves + op.moves.length > MOVES_PER_BATCH) break;
+        batchMoves += op.moves.length;
         moves ??= new Map();
         // A person that never reached the server (added and deleted before a save) has nothing to move.
         for (const m of op.moves) if (personRef(m.lid, true) !== undefined) moves.set(m.lid, m);

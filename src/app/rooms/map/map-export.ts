@@ -66,19 +66,24 @@ export async function downloadMapPng(doc: MapDocument, fileName: string): Promis
     const ctx = canvas.getContext('2d')!;
     ctx.scale(scale, scale);
     ctx.drawImage(img, 0, 0, doc.width, doc.height);
-    const png = await new Promise<Blob>((resolve, reject) =>
-      canvas.toBlob((b) => (b ? resolve(b) : reject(new Error('No PNG'))), 'image/png'),
-    );
-    const a = document.createElement('a');
-    a.href = URL.createObjectURL(png);
-    a.download = fileName.replace(/[\\/:*?"<>|]/g, '_');
-    document.body.append(a);
-    a.click();
-    a.remove();
-    setTimeout(() => URL.revokeObjectURL(a.href), 10_000);
+    await downloadCanvasPng(canvas, fileName);
   } finally {
     URL.revokeObjectURL(url);
   }
+}
+
+/** Saves a canvas as a PNG file through the browser's download. */
+export async function downloadCanvasPng(canvas: HTMLCanvasElement, fileName: string): Promise<void> {
+  const png = await new Promise<Blob>((resolve, reject) =>
+    canvas.toBlob((b) => (b ? resolve(b) : reject(new Error('No PNG'))), 'image/png'),
+  );
+  const a = document.createElement('a');
+  a.href = URL.createObjectURL(png);
+  a.download = fileName.replace(/[\\/:*?"<>|]/g, '_');
+  document.body.append(a);
+  a.click();
+  a.remove();
+  setTimeout(() => URL.revokeObjectURL(a.href), 10_000);
 }
 
 const FAMILY = 'Source Sans 3';

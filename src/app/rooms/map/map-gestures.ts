@@ -174,22 +174,7 @@ export class MapGestures {
       s.only(lid);
       editor.selectionChanged();
     }
-    const moves = s.ids().flatMap((id): Move[] => {
-      const n = graph.node(id);
-      return n ? [{ lid: n.lid, x: Math.round((n.x ?? 0) + d[0]), y: Math.round((n.y ?? 0) + d[1]), pinned: n.pinned }] : [];
-    });
-    this.host.haltLayout();
-    // The nodes take their new places now: a second key pressed before the redraw moves on from
-    // here, not from where the person was before the first key.
-    for (const m of moves) {
-      const n = graph.node(m.lid);
-      if (!n) continue;
-      n.x = m.x;
-      n.y = m.y;
-      if (n.fx != null) n.fx = m.x;
-      if (n.fy != null) n.fy = m.y;
-    }
-    editor.movePeople(moves);
+    nudgeSelection(this.host, d);
   }
 
   /** A click beside everyone selects the tie under it, or clears the selection. */
@@ -229,6 +214,28 @@ export class MapGestures {
     svg.addEventListener('pointermove', move);
     svg.addEventListener('pointerup', up);
   }
+}
+
+/** Moves everyone selected by d (an arrow key), halting a running layout. */
+export function nudgeSelection(host: Pick<MapGestureHost, 'editor' | 'graph' | 'haltLayout'>, d: [number, number]): void {
+  const { editor, graph } = host;
+  const moves = editor.selection.ids().flatMap((id): Move[] => {
+    const n = graph.node(id);
+    return n ? [{ lid: n.lid, x: Math.round((n.x ?? 0) + d[0]), y: Math.round((n.y ?? 0) + d[1]), pinned: n.pinned }] : [];
+  });
+  if (!moves.length) return;
+  host.haltLayout();
+  // The nodes take their new places now: a second key pressed before the redraw moves on from
+  // here, not from where the person was before the first key.
+  for (const m of moves) {
+    const n = graph.node(m.lid);
+    if (!n) continue;
+    n.x = m.x;
+    n.y = m.y;
+    if (n.fx != null) n.fx = m.x;
+    if (n.fy != null) n.fy = m.y;
+  }
+  editor.movePeople(moves);
 }
 
 /** How far an arrow key moves the selection ([dx, dy]), or null for any other key. */

@@ -45,7 +45,8 @@ export function layoutMode(people: number): LayoutMode {
 export function placeUnplaced(nodes: MapNode[]): boolean {
   const unplaced = nodes.filter((n) => n.x === undefined || n.y === undefined || Number.isNaN(n.x));
   if (!unplaced.length) return false;
-  const placed = nodes.filter((n) => !unplaced.includes(n));
+  const unplacedSet = new Set(unplaced);
+  const placed = nodes.filter((n) => !unplacedSet.has(n));
   const byGroup = new Map<string, MapNode[]>();
   for (const n of unplaced) {
     const list = byGroup.get(n.group) ?? [];

@@ -70,6 +70,16 @@ export class MapRenderer {
     this.allLabels = graph.size <= LABELS_ALWAYS_MAX;
   }
 
+  /** Removes every person and tie drawn (the room is now shown as the overview). */
+  clear(): void {
+    this.tieLayer.replaceChildren();
+    this.peopleLayer.replaceChildren();
+    this.personEls = new Map();
+    this.tieEls = new Map();
+    this.ring.setAttribute('visibility', 'hidden');
+    this.ringed = null;
+  }
+
   /** Gives the graph's nodes and ties the elements drawn for them before (only places changed). */
   reattach(graph: MapGraph): void {
     for (const n of graph.nodes.values()) n.el = this.personEls.get(n.lid);

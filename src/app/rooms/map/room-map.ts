@@ -15,12 +15,15 @@ import type { ForceLink, Simulation } from 'd3-force';
 import { RoomEditor } from '../editor/room-editor';
 import type { Move } from '../editor/room-model';
 import { groupStyles } from './group-style';
-import { type MapDocument, mapSvgDocument } from './map-export';
+import { mapSvgDocument } from './map-export';
 import { type Band, MapGestures, type MapTool } from './map-gestures';
 import { MapGraph, structureOf } from './map-graph';
 import { createSimulation, layoutMode, type LayoutMode, type MapLink, type MapNode, placeUnplaced } from './map-layout';
+import { downloadCanvasPng, downloadMapPng } from './map-export';
+import { MapOverview } from './map-overview';
 import { MapRenderer } from './map-renderer';
 import { MapZoom } from './map-zoom';
+import { OVERVIEW_FROM, usesOverview } from './overview-renderer';
 
 export type { MapTool } from './map-gestures';
 
@@ -35,10 +38,22 @@ interface Drawing {
   gestures: MapGestures;
 }
 
+const count = new Intl.NumberFormat('en-GB');
+
+/** The overview canvas's accessible name: what it shows and how to reach a person without it. */
+function overviewLabel(people: number, ties: number): string {
+  return (
+    `Overview map of this room: ${count.format(people)} people and ${count.format(ties)} ${ties === 1 ? 'tie' : 'ties'}. ` +
+    'Click a person to select them, or reach anyone by name with the search box above the map.'
+  );
+}
+
 /**
  * The communication map: d3-force layout (map-layout.ts), drawn in SVG by MapRenderer, panned and
  * zoomed by MapZoom, driven by MapGestures. Per frame it touches only what moved: a drag updates
  * the dragged people and their own ties; a layout tick updates positions and nothing else.
+ * From OVERVIEW_FROM people the map is the overview instead (map-overview.ts): one canvas,
+ * redrawn per frame, where a click selects and the side panel edits.
  */
 @Component({
   selector: 'app-room-map',
@@ -47,15 +62,22 @@ interface Drawing {
   changeDetection: ChangeDetectionStrategy.OnPush,
   // The drawing is built with DOM calls, so its styles cannot be scoped by Angular.
   encapsulation: ViewEncapsulation.None,
-  host: { class: 'rh-room-map' },
+  host: { class: 'rh-room-map', '[class.rh-overview]': 'overview()' },
 })
 export class RoomMap implements OnDestroy {
   private readonly editor = inject(RoomEditor);
   readonly tool = input<MapTool>('select');
   private readonly svgRef = viewChild.required<ElementRef<SVGSVGElement>>('svg');
   private readonly overlayRef = viewChild.required<ElementRef<SVGSVGElement>>('overlay');
+  private readonly canvasRef = viewChild.required<ElementRef<HTMLCanvasElement>>('canvas');
 
   readonly mode = signal<LayoutMode>('full');
+  /** The room is drawn as the overview (a canvas) rather than the SVG map. */
+  readonly overview = signal(false);
+  protected readonly overviewFrom = count.format(OVERVIEW_FROM);
+  protected readonly overviewLabel = signal('');
+  /** What the live region says about the selection on the overview. */
+  protected readonly announcement = signal('');
   protected readonly band = signal<Band | null>(null);
   protected readonly layoutRunning = signal(false);
 
@@ -63,6 +85,7 @@ export class RoomMap implements OnDestroy {
   /** People the running layout must not move (it only places newcomers). */
   private readonly held = new Set<string>();
   private drawing: Drawing | null = null;
+  private overviewDrawing: MapOverview | null = null;
   private sim: Simulation<MapNode, MapLink> | null = null;
   /** The structure last drawn (structureOf); a change redraws, a move only re-places. */
   private signature = '';
@@ -82,6 +105,12 @@ export class RoomMap implements OnDestroy {
 
   ngOnDestroy(): void {
     this.sim?.stop();
+    this.overviewDrawing?.destroy();
+  }
+
+  /** The pan and zoom of whichever surface shows the room. */
+  private get zoom(): MapZoom | null {
+    return (this.overview() ? this.overviewDrawing?.zoom : this.drawing?.zoom) ?? null;
   }
 
   private setup(): Drawing {
@@ -103,17 +132,50 @@ export class RoomMap implements OnDestroy {
     return { svg, renderer, zoom, gestures };
   }
 
+  private setupOverview(): MapOverview {
+    const overview = new MapOverview(this.canvasRef().nativeElement, {
+      editor: this.editor,
+      graph: this.graph,
+      haltLayout: () => this.haltLayout(),
+    });
+    overview.renderer.onDrawn = () => overview.canvas.setAttribute('aria-busy', 'false');
+    return overview;
+  }
+
+  /** Shows the SVG map or the overview (the room crossed OVERVIEW_FROM), keeping the pan and zoom. */
+  private chooseSurface(overview: boolean): void {
+    if (overview === this.overview() && (overview ? this.overviewDrawing : this.drawing)) return;
+    const before = this.zoom?.transform;
+    this.overview.set(overview);
+    this.svgRef().nativeElement.classList.toggle('rh-map-off', overview);
+    this.canvasRef().nativeElement.classList.toggle('rh-map-off', !overview);
+    if (overview) {
+      this.drawing?.renderer.clear();
+      this.overviewDrawing ??= this.setupOverview();
+    } else this.drawing ??= this.setup();
+    this.signature = '';
+    if (before && this.fitted) this.zoom?.adopt(before);
+  }
+
   private sync(): void {
     const room = this.editor.room();
     if (!room) return;
-    this.drawing ??= this.setup();
-    const { renderer } = this.drawing;
     const people = this.editor.people();
     const ties = this.editor.ties();
+    this.chooseSurface(usesOverview(people.length));
     const { newcomers } = this.graph.update(people, ties, this.held);
     const signature = structureOf(people, ties, room.settings.directed);
-    if (signature === this.signature && !newcomers) {
+    const placesOnly = signature === this.signature && !newcomers;
+    if (this.overview()) {
+      this.overviewLabel.set(overviewLabel(people.length, ties.length));
+      if (placesOnly) {
+        this.overviewDrawing?.renderer.setPins(people);
+        this.overviewDrawing?.renderer.placesChanged();
+        return;
+      }
+    } else if (placesOnly && this.drawing) {
       // Only places changed (a move, an undo of a move): update positions, keep the elements.
+      const { renderer } = this.drawing;
       renderer.reattach(this.graph);
       renderer.placeAll(this.graph);
       renderer.paintPins(this.graph, people);
@@ -121,11 +183,11 @@ export class RoomMap implements OnDestroy {
       return;
     }
     this.signature = signature;
-    this.redraw(this.drawing, room.settings.directed, newcomers);
+    this.redraw(room.settings.directed, newcomers);
   }
 
   /** The room's structure changed: place newcomers, draw everything anew, keep the layout going. */
-  private redraw({ renderer, zoom, gestures }: Drawing, directed: boolean, newcomers: boolean): void {
+  private redraw(directed: boolean, newcomers: boolean): void {
     const people = this.editor.people();
     const nodes = this.graph.nodeList();
     const mode = layoutMode(nodes.length);
@@ -135,14 +197,10 @@ export class RoomMap implements OnDestroy {
     if (!noneSaved && this.fitted && mode !== 'static')
       for (const n of nodes) if (n.x === undefined || n.y === undefined) [n.x, n.y] = this.freeSpotInView();
     placeUnplaced(nodes);
-    renderer.draw(this.graph, people, groupStyles(this.editor.groups()), directed, people.length <= KEYBOARD_STOPS_MAX);
-    gestures.bindPeople(
-      renderer.peopleLayer,
-      people.flatMap((p) => this.graph.node(p.lid) ?? []),
-      this.editor.canEdit(),
-    );
-    renderer.showLabels(zoom.transform.k);
-    this.placeNames();
+    if (this.overview()) {
+      this.canvasRef().nativeElement.setAttribute('aria-busy', 'true');
+      this.overviewDrawing?.renderer.setRoom(this.graph, people, groupStyles(this.editor.groups()), directed);
+    } else if (this.drawing) this.drawSvg(this.drawing, directed);
     this.paintSelection();
     if (!this.fitted && nodes.length) {
       this.fit();
@@ -156,41 +214,91 @@ export class RoomMap implements OnDestroy {
     else if (newcomers) this.saveLayout(nodes.filter((n) => !n.pinned));
   }
 
+  private drawSvg({ renderer, zoom, gestures }: Drawing, directed: boolean): void {
+    const people = this.editor.people();
+    renderer.draw(this.graph, people, groupStyles(this.editor.groups()), directed, people.length <= KEYBOARD_STOPS_MAX);
+    gestures.bindPeople(
+      renderer.peopleLayer,
+      people.flatMap((p) => this.graph.node(p.lid) ?? []),
+      this.editor.canEdit(),
+    );
+    renderer.showLabels(zoom.transform.k);
+    this.placeNames();
+  }
+
   private paintSelection(): void {
-    this.drawing?.renderer.paintSelection(this.graph, this.editor.selection);
+    if (!this.overview()) {
+      this.drawing?.renderer.paintSelection(this.graph, this.editor.selection);
+      return;
+    }
+    this.overviewDrawing?.renderer.setSelection(this.editor.selection);
+    this.announcement.set(this.selectionSentence());
+  }
+
+  /** The selection in words, for the overview's live region. */
+  private selectionSentence(): string {
+    const s = this.editor.selection;
+    const m = this.editor.model;
+    if (s.tie) {
+      const t = m.ties.get(s.tie);
+      return t ? `Selected tie: ${m.people.get(t.source)?.name ?? '?'} and ${m.people.get(t.target)?.name ?? '?'}.` : '';
+    }
+    if (s.size > 1) return `${count.format(s.size)} people selected.`;
+    const p = s.size === 1 ? m.people.get(s.ids()[0] ?? '') : undefined;
+    if (!p) return 'Nobody selected.';
+    const ties = m.tiesOf(p.lid).length;
+    return `Selected: ${p.name}${p.group ? `, ${p.group}` : ''}, ${ties} ${ties === 1 ? 'tie' : 'ties'}.`;
   }
 
   private placeNames(): void {
+    if (this.overview()) return;
     this.drawing?.renderer.placeNames(this.graph, (lid) => this.editor.model.people.get(lid)?.name ?? '');
+  }
+
+  /** Puts everyone where the graph has them (a layout step). */
+  private placeAll(): void {
+    if (this.overview()) this.overviewDrawing?.renderer.placesChanged();
+    else this.drawing?.renderer.placeAll(this.graph);
   }
 
   // ---- view commands (toolbar) ----
 
   zoomBy(factor: number): void {
-    this.drawing?.zoom.scaleBy(factor);
+    this.zoom?.scaleBy(factor);
   }
 
   fit(): void {
-    this.drawing?.zoom.fit(this.graph.points());
+    this.zoom?.fit(this.graph.points());
   }
 
   /** Centres the map on a person and rings them. */
   find(lid: string): void {
     const n = this.graph.node(lid);
-    if (!n || !this.drawing) return;
-    this.drawing.zoom.centreOn(n.x ?? 0, n.y ?? 0);
-    this.drawing.renderer.ringPerson(this.graph, lid);
+    const zoom = this.zoom;
+    if (!n || !zoom) return;
+    zoom.centreOn(n.x ?? 0, n.y ?? 0);
+    if (this.overview()) this.overviewDrawing?.renderer.ringPerson(lid);
+    else this.drawing?.renderer.ringPerson(this.graph, lid);
   }
 
   /** A free place near the middle of what the map shows now, for a new person. */
   freeSpotInView(): [number, number] {
-    const [cx, cy] = this.drawing?.zoom.centre() ?? [300, 200];
+    const [cx, cy] = this.zoom?.centre() ?? [300, 200];
     return this.graph.freeSpotNear(cx, cy);
   }
 
-  /** The map as a stand-alone SVG document (for the PNG export), framed around everyone. */
-  svgForExport(): MapDocument | null {
-    return this.drawing ? mapSvgDocument(this.drawing.svg, this.drawing.renderer, this.graph) : null;
+  /** Downloads a PNG of the whole map, framed around everyone; false when there is nothing to draw. */
+  async exportPng(fileName: string): Promise<boolean> {
+    if (this.overview()) {
+      const picture = this.overviewDrawing?.picture(this.graph.points());
+      if (!picture) return false;
+      await downloadCanvasPng(picture, fileName);
+      return true;
+    }
+    const doc = this.drawing ? mapSvgDocument(this.drawing.svg, this.drawing.renderer, this.graph) : null;
+    if (!doc) return false;
+    await downloadMapPng(doc, fileName);
+    return true;
   }
 
   // ---- layout ----
@@ -207,7 +315,7 @@ export class RoomMap implements OnDestroy {
     this.layoutRunning.set(true);
     sim
       .alpha(all ? 1 : 0.5)
-      .on('tick', () => this.drawing?.renderer.placeAll(this.graph))
+      .on('tick', () => this.placeAll())
       .on('end', () => this.layoutEnded(nodes, held, all))
       .restart();
   }
@@ -234,7 +342,7 @@ export class RoomMap implements OnDestroy {
     }
     this.held.clear();
     this.layoutRunning.set(false);
-    this.drawing?.renderer.placeAll(this.graph);
+    this.placeAll();
     this.placeNames();
     const heldSet = new Set(held);
     this.saveLayout(nodes.filter((n) => !n.pinned && !heldSet.has(n)));

@@ -7,6 +7,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { RoomEditor } from '../editor/room-editor';
+import type { EditorPerson } from '../editor/room-model';
 import { groupProblem, personNameProblem, problemValidator, strengthProblem } from '../editor/validation';
 
 /** Edits what is selected on the map: one person, several people, or one tie. */
@@ -55,13 +56,28 @@ export class MapInspector {
     const st = this.state();
     if (st.kind !== 'person') return [];
     const q = this.tieQuery().trim().toLowerCase();
-    const directed = !!this.editor.room()?.settings.directed;
-    return this.editor
-      .people()
-      .filter((p) => p.lid !== st.person.lid && !this.editor.model.findTie(st.person.lid, p.lid, directed))
-      .filter((p) => !q || p.name.toLowerCase().includes(q) || (p.group ?? '').toLowerCase().includes(q))
-      .slice(0, 30);
+    const tied = this.tiedTo(st.person.lid);
+    const out: EditorPerson[] = [];
+    // One pass that stops at 30: a room of 100,000 people answers a keystroke at once.
+    for (const p of this.editor.people()) {
+      if (p.lid === st.person.lid || tied.has(p.lid)) continue;
+      if (q && !p.name.toLowerCase().includes(q) && !(p.group ?? '').toLowerCase().includes(q)) continue;
+      out.push(p);
+      if (out.length === 30) break;
+    }
+    return out;
   });
+
+  /** Everyone a new tie from `lid` would duplicate (either way round in an undirected room). */
+  private tiedTo(lid: string): Set<string> {
+    const directed = !!this.editor.room()?.settings.directed;
+    const tied = new Set<string>();
+    for (const t of this.editor.model.tiesOf(lid)) {
+      if (t.source === lid) tied.add(t.target);
+      else if (!directed) tied.add(t.source);
+    }
+    return tied;
+  }
 
   /**
    * The person and the tie the forms were filled for. A save always goes to these, never to

@@ -15,7 +15,6 @@ import { SettingsPanel } from '../panels/settings-panel';
 import { SummaryPanel } from '../panels/summary-panel';
 import { PeopleTable } from '../tables/people-table';
 import { TiesTable } from '../tables/ties-table';
-import { downloadMapPng } from '../map/map-export';
 import { MapInspector } from './map-inspector';
 import { MapPanel } from './map-panel';
 import { SaveStatus } from './save-status';
@@ -74,12 +73,8 @@ export default class RoomPage {
 
   protected async exportPng(): Promise<void> {
     const panel = this.mapPanel();
-    const doc = panel?.map().svgForExport();
-    if (!doc) {
-      this.snack.open('Open the map tab with at least one person to export a picture.', 'OK', { duration: 5000 });
-      return;
-    }
-    await downloadMapPng(doc, `${this.room()?.name ?? 'room'} map.png`);
+    const done = await panel?.map().exportPng(`${this.room()?.name ?? 'room'} map.png`);
+    if (!done) this.snack.open('Open the map tab with at least one person to export a picture.', 'OK', { duration: 5000 });
   }
 
   protected openImport(): void {
