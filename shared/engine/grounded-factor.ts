@@ -58,31 +58,38 @@ export function fillReducingOrder(
 
 /** One order forced (tests, benchmarks), not cached; null when its factor cannot fit. */
 function forcedOrder(csr: Csr, method: RoomOrder['method'], maxFill: number, maxWork: number): RoomOrder | null {
-  const g = { n: csr.n, rowStart: csr.rowStart, col: csr.col };
-  const order = method === 'amd' ? amdOrderWithin(g, { nnz: maxFill + csr.n, work: Infinity }) : nestedDissectionOrder(g);
-  const sym = order ? analyseWithin(g, order, maxFill + csr.n, maxWork + 2 * (maxFill + csr.n)) : null;
-  return order && sym ? { order, method, nnz: sym.nnz, work: sym.flops } : null;
+  const { fillLimit, workLimit } = roomLimits(csr, maxFill, maxWork);
+  const order = method === 'amd' ? amdOrderWithin(csr, { nnz: fillLimit, work: Infinity }) : nestedDissectionOrder(csr);
+  return judged(csr, order, method, fillLimit, workLimit);
 }
 
 function chooseOrder(csr: Csr, maxFill: number, maxWork: number): RoomOrder | null {
-  const g = { n: csr.n, rowStart: csr.rowStart, col: csr.col };
-  // The order is judged on the whole room; grounding a person removes at most n - 1 nonzeros
-  // (and 2 nnz of work), so with one grounded person's slack these limits refuse no room whose
-  // factor grounded at one person fits (with several grounded, a room within a few rows of the limit).
-  const fillLimit = maxFill + csr.n;
-  const workLimit = maxWork + 2 * fillLimit;
   // Up to one leaf, nested dissection is the minimum-degree order itself.
   if (csr.n <= LEAF) return forcedOrder(csr, 'amd', maxFill, maxWork);
-  const ndOrder = nestedDissectionOrder(g);
-  const ndSym = analyseWithin(g, ndOrder, fillLimit, workLimit);
-  const nd: RoomOrder | null = ndSym ? { order: ndOrder, method: 'nested-dissection', nnz: ndSym.nnz, work: ndSym.flops } : null;
+  const { fillLimit, workLimit } = roomLimits(csr, maxFill, maxWork);
+  const nd = judged(csr, nestedDissectionOrder(csr), 'nested-dissection', fillLimit, workLimit);
   // Minimum degree stops once it is known to need more work than nested dissection.
-  const amdOrd = amdOrderWithin(g, { nnz: fillLimit, work: nd ? nd.work : workLimit });
-  const amdSym = amdOrd ? analyseWithin(g, amdOrd, fillLimit, workLimit) : null;
-  const amd: RoomOrder | null = amdOrd && amdSym ? { order: amdOrd, method: 'amd', nnz: amdSym.nnz, work: amdSym.flops } : null;
+  const amdOrd = amdOrderWithin(csr, { nnz: fillLimit, work: nd ? nd.work : workLimit });
+  const amd = judged(csr, amdOrd, 'amd', fillLimit, workLimit);
   if (!amd) return nd;
   if (!nd) return amd;
   return nd.work < amd.work || (nd.work === amd.work && nd.nnz < amd.nnz) ? nd : amd;
+}
+
+/**
+ * The limits an order is judged by, on the whole room: grounding a person removes at most n - 1
+ * nonzeros (and 2 nnz of work), so with one grounded person's slack these limits refuse no room
+ * whose factor grounded at one person fits (with several grounded, a room within a few rows of the limit).
+ */
+function roomLimits(csr: Csr, maxFill: number, maxWork: number): { fillLimit: number; workLimit: number } {
+  const fillLimit = maxFill + csr.n;
+  return { fillLimit, workLimit: maxWork + 2 * fillLimit };
+}
+
+/** An order with its symbolic estimate; null when there is no order or its factor passes the limits. */
+function judged(csr: Csr, order: Int32Array | null, method: RoomOrder['method'], fillLimit: number, workLimit: number): RoomOrder | null {
+  const sym = order ? analyseWithin(csr, order, fillLimit, workLimit) : null;
+  return order && sym ? { order, method, nnz: sym.nnz, work: sym.flops } : null;
 }
 
 export function groundedMatrix(csr: Csr, grounded: Uint8Array, gamma: number): SpdMatrix {
