@@ -15,6 +15,7 @@ import { finishPlan, planContext, type PlanContext } from './plan-context';
 import { exhaustiveSearch, type ExhaustiveOutcome } from './plan-exhaustive';
 import { extendGreedy, greedyState } from './plan-greedy';
 import { MAX_FACTOR_WORK } from './grounded-factor';
+import { boundedGreedyEligible, boundedGreedyPlan } from './plan-bounded-greedy';
 import { lazyGreedyPlan } from './plan-lazy';
 import { screenPlan } from './plan-screen';
 import { sparseGreedyEligible, sparseGreedyPlan } from './plan-sparse-greedy';
@@ -170,6 +171,14 @@ function largeRoom(ctx: PlanContext, method: string, limit: number): PlanResult 
       return sparse;
     }
     ctx.notes.push('The sparse factor of this room would be too large (fill estimate before factoring): iterative solves were used.');
+    if (boundedGreedyEligible(ctx)) {
+      if (method !== 'auto' && method !== 'greedy')
+        ctx.warnings.push({
+          code: 'over-dense-limit',
+          text: `The room has ${ctx.n} people, above the dense limit of ${limit}: exact greedy was used instead of ${method}.`,
+        });
+      return boundedGreedyPlan(ctx);
+    }
   }
   if (method !== 'auto' && method !== 'greedy')
     ctx.warnings.push({
