@@ -58,6 +58,8 @@ export interface PlanOptions extends WalkOptions {
   readonly screenKeep?: number;
   /** Lazy greedy: people checked exactly per choice (default 3). */
   readonly lazyChecks?: number;
+  /** Exact greedy on CG: exact checks a pick may spend before it takes the best checked person (default 40). */
+  readonly maxChecksPerPick?: number;
   /** Widened greedy: most seed sets extended (default 64). */
   readonly maxSeeds?: number;
   /** Progress reports; searches report at most about ten times a second. */
