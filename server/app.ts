@@ -111,17 +111,21 @@ function staticImports(file: string): string[] {
 }
 
 /**
- * modulepreload links for everything a participant's page runs before it shows: the route's
- * lazy chunk (its `import("./chunk-….js")` in main-*.js) and every chunk it or main-*.js imports,
- * however deep, less those index.html already links. A phone opening its link then asks for all
- * of them at once instead of discovering one level after another. If the build's shape ever
- * differs, no link is added and the page loads as before.
+ * modulepreload links for everything a page that is opened cold runs before it shows (a
+ * participant's page, the projector replay): the route's lazy chunk (its `import("./chunk-….js")`
+ * in main-*.js, found by the route's path) and every chunk it or main-*.js imports, however deep,
+ * less those index.html already links. The browser then asks for all of them at once instead of
+ * discovering one level after another (and, for the replay, before the sign-in check answers).
+ * If the build's shape ever differs, no link is added and the page loads as before.
  */
-function participantPreloads(indexHtml: string): string {
+function routePreloads(indexHtml: string, routePath: string): string {
   try {
     const main = readdirSync(browserDir).find((f) => /^main-[A-Z0-9]+\.js$/.test(f));
     if (!main) return '';
-    const route = /path:"p\/:token".{0,300}?import\("\.\/(chunk-[A-Z0-9]+\.js)"\)/.exec(readFileSync(`${browserDir}/${main}`, 'utf8'));
+    const escaped = routePath.replace(/[.*+?^${}()|[\]\\/]/g, '\\$&');
+    const route = new RegExp(`path:"${escaped}".{0,300}?import\\("\\./(chunk-[A-Z0-9]+\\.js)"\\)`).exec(
+      readFileSync(`${browserDir}/${main}`, 'utf8'),
+    );
     if (!route?.[1]) return '';
     const seen = new Set<string>();
     const queue = [main, route[1]];
@@ -148,7 +152,7 @@ const HASHED_ASSET = /-[A-Z0-9]{8}\.[a-z0-9]+$/;
 function serveClient(app: Express) {
   const indexFile = `${browserDir}/index.html`;
   // Read again when the build changes it, so a rebuild never serves chunk names that are gone.
-  let template: { text: string; participant: string; mtimeMs: number } | undefined;
+  let template: { text: string; participant: string; replay: string; mtimeMs: number } | undefined;
   const index = async (req: Request, res: Response) => {
     const mtimeMs = statSync(indexFile, { throwIfNoEntry: false })?.mtimeMs;
     if (mtimeMs === undefined) {
@@ -157,7 +161,8 @@ function serveClient(app: Express) {
     }
     if (template?.mtimeMs !== mtimeMs) {
       const text = readFileSync(indexFile, 'utf8');
-      template = { text, participant: text.replace('</head>', () => `${participantPreloads(text)}</head>`), mtimeMs };
+      const withPreloads = (routePath: string) => text.replace('</head>', () => `${routePreloads(text, routePath)}</head>`);
+      template = { text, participant: withPreloads('p/:token'), replay: withPreloads('replay/:rehearsalId'), mtimeMs };
     }
     const nonce = res.locals['cspNonce'] as string;
     const stamp = (html: string) =>
@@ -165,7 +170,8 @@ function serveClient(app: Express) {
     res.type('html').set('Cache-Control', 'no-store');
     const token = /^\/p\/([A-Za-z0-9_-]{20,})$/.exec(req.path)?.[1];
     if (!token) {
-      res.send(stamp(template.text));
+      // The projector replay is opened cold (a new tab or window): its code is linked in <head>.
+      res.send(stamp(/^\/replay\/\d+$/.test(req.path) ? template.replay : template.text));
       return;
     }
     // A participant's own page (/p/<token>): its chunks are linked in <head>, so they are fetched

@@ -1,5 +1,5 @@
 /** Sample cascades for the projector replay: the people (with their current map positions) and each stored cascade. */
-import type { ReplayIndex, ReplaySample } from '../../shared/api/plans';
+import type { ReplayBundle, ReplayIndex, ReplaySample } from '../../shared/api/plans';
 import { itemAt } from '../../shared/checked';
 import { notFound } from '../core/http-error';
 import { parseSnapshot } from '../plans/dto';
@@ -19,8 +19,21 @@ function samplesOf(row: LoadedRehearsal): StoredSample[] {
 export async function replayIndex(row: LoadedRehearsal): Promise<ReplayIndex> {
   const samples = samplesOf(row);
   const plan = (await findPlan(row.rehearsal.planId))!;
-  const snap = parseSnapshot(plan);
-  const positions = new Map((await personPositions(plan.roomId)).map((p) => [p.id, p]));
+  return indexOf(row, plan, parseSnapshot(plan), samples, await personPositions(plan.roomId));
+}
+
+type PlanRow = NonNullable<Awaited<ReturnType<typeof findPlan>>>;
+
+type Snapshot = ReturnType<typeof parseSnapshot>;
+
+function indexOf(
+  row: LoadedRehearsal,
+  plan: PlanRow,
+  snap: Snapshot,
+  samples: StoredSample[],
+  at: { id: number; x: number | null; y: number | null }[],
+): ReplayIndex {
+  const positions = new Map(at.map((p) => [p.id, p]));
   const starters = (plan.starters ?? []).map((s) => s.personId);
   const isStarter = new Set(starters);
   return {
@@ -50,7 +63,22 @@ export async function replaySample(row: LoadedRehearsal, rawN: string): Promise<
   const s = samples[n];
   if (!s) throw notFound(`Sample ${rawN}`);
   const plan = (await findPlan(row.rehearsal.planId))!;
+  return sampleOf(row, plan, parseSnapshot(plan), s, n);
+}
+
+/**
+ * The index and every sample in one answer, the plan and positions read once: the replay's first
+ * frame waits for one request instead of the index and then its samples.
+ */
+export async function replayBundle(row: LoadedRehearsal): Promise<ReplayBundle> {
+  const samples = samplesOf(row);
+  const plan = (await findPlan(row.rehearsal.planId))!;
   const snap = parseSnapshot(plan);
+  const index = indexOf(row, plan, snap, samples, await personPositions(plan.roomId));
+  return { index, samples: samples.map((s, n) => sampleOf(row, plan, snap, s, n)) };
+}
+
+function sampleOf(row: LoadedRehearsal, plan: PlanRow, snap: Snapshot, s: StoredSample, n: number): ReplaySample {
   const index = new Map(snap.personIds.map((id, i) => [id, i]));
   const heardAt: (number | null)[] = snap.personIds.map(() => null);
   for (const st of plan.starters ?? []) heardAt[index.get(st.personId)!] = 0;

@@ -9,7 +9,7 @@ import { roomAccess } from '../jobs/access';
 import { streamJob } from '../jobs/sse';
 import { loadPlanFor } from '../plans/service';
 import { roomIdOf } from '../rooms/access';
-import { replayIndex, replaySample } from './replay';
+import { replayBundle, replayIndex, replaySample } from './replay';
 import * as service from './service';
 import { listRehearsals } from './store';
 
@@ -94,6 +94,10 @@ rehearsalsRouter.delete('/:id', signedIn(), async (req, res) => {
 
 rehearsalsRouter.get('/:id/samples', signedIn(), async (req, res) => {
   res.json(await replayIndex(await service.loadRehearsalFor(req.user, req.params['id'], 'view')));
+});
+
+rehearsalsRouter.get('/:id/replay', signedIn(), async (req, res) => {
+  res.json(await replayBundle(await service.loadRehearsalFor(req.user, req.params['id'], 'view')));
 });
 
 rehearsalsRouter.get('/:id/samples/:n', signedIn(), async (req, res) => {

@@ -36,6 +36,8 @@
  *   DELETE /api/rehearsals/:id                                        -> 204
  *   GET    /api/rehearsals/:id/samples                                -> ReplayIndex (starters, people, sample list)
  *   GET    /api/rehearsals/:id/samples/:n                             -> ReplaySample (n = 0 .. count-1)
+ *   GET    /api/rehearsals/:id/replay                                 -> ReplayBundle (the index and every sample:
+ *                                                                         what the projector replay loads, in one answer)
  *
  * Server-sent events (both streams): `event: queued` {position}, `event: started` {},
  * `event: progress` {fraction, done, of}, `event: done` {job}, `event: failed` {job, message},

@@ -1,4 +1,7 @@
-/** Replay data of a rehearsal: stored sample cascades, hop by hop (GET /api/rehearsals/:id/samples). */
+/**
+ * Replay data of a rehearsal: stored sample cascades, hop by hop (GET /api/rehearsals/:id/samples,
+ * /samples/:n, or all of it in one answer: GET /api/rehearsals/:id/replay).
+ */
 
 export interface ReplayPersonDto {
   index: number;
@@ -44,4 +47,10 @@ export interface ReplaySample {
   heardAt: (number | null)[];
   chains: ReplayChain[];
   lastHop: number;
+}
+
+/** Everything the replay shows, in one answer (GET /api/rehearsals/:id/replay): the index and every sample, in order. */
+export interface ReplayBundle {
+  index: ReplayIndex;
+  samples: ReplaySample[];
 }

@@ -23,13 +23,15 @@ writeFileSync(
 );
 writeFileSync(
   join(client, 'main-MAIN1111.js'),
-  'import{a}from"./chunk-SHARED11.js";const r=[{path:"p/:token",loadComponent:()=>import("./chunk-ROUTE111.js")}];',
+  'import{a}from"./chunk-SHARED11.js";const r=[{path:"p/:token",loadComponent:()=>import("./chunk-ROUTE111.js")},' +
+    '{path:"replay/:rehearsalId",canActivate:[g],data:{bare:!0},loadComponent:()=>import("./chunk-REPLAY11.js")}];',
 );
 writeFileSync(join(client, 'chunk-SHARED11.js'), 'import"./chunk-DEEP1111.js";export const a=1;');
 writeFileSync(join(client, 'chunk-ROUTE111.js'), 'import{b}from"./chunk-LEVEL111.js";import{a}from"./chunk-SHARED11.js";');
 writeFileSync(join(client, 'chunk-LEVEL111.js'), 'import"./chunk-LEVEL222.js";export const b=2;');
 writeFileSync(join(client, 'chunk-LEVEL222.js'), 'export const c=3;');
 writeFileSync(join(client, 'chunk-DEEP1111.js'), 'export const d=4;');
+writeFileSync(join(client, 'chunk-REPLAY11.js'), 'import{b}from"./chunk-LEVEL111.js";');
 writeFileSync(join(client, 'chunk-ELSE1111.js'), 'export const e=5;');
 writeFileSync(join(client, 'styles-AAAA1111.css'), 'body{}');
 writeFileSync(join(client, 'media', 'font-BBBB2222.woff2'), 'font');
@@ -106,6 +108,17 @@ describe('a participant page served cold', () => {
     const other = await (await fetch(`${server.url}/rooms`)).text();
     assert.ok(!other.includes('chunk-ROUTE111.js'), 'other pages are served as built');
     assert.equal(firstState(other), null);
+  });
+
+  it('the projector replay, opened cold, announces its own chunks (and carries no survey state)', async () => {
+    const html = await (await fetch(`${server.url}/replay/12`)).text();
+    const head = html.slice(0, html.indexOf('</head>'));
+    const preloaded = [...head.matchAll(/rel="modulepreload" href="([^"]+)"/g)].map((m) => m[1]).sort();
+    // chunk-DEEP1111.js: main-*.js imports it through chunk-SHARED11.js, which index.html links already.
+    assert.deepEqual(preloaded, ['chunk-DEEP1111.js', 'chunk-LEVEL111.js', 'chunk-LEVEL222.js', 'chunk-REPLAY11.js']);
+    assert.equal(firstState(html), null);
+    const elsewhere = await (await fetch(`${server.url}/replay/12/more`)).text();
+    assert.ok(!elsewhere.includes('chunk-REPLAY11.js'), 'only the replay address itself');
   });
 
   it('caches hashed files for good and the rest for an hour', async () => {

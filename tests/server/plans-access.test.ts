@@ -53,8 +53,20 @@ describe('plans and rehearsals: who may do what', () => {
     `/api/rehearsals/${rehearsalId}`,
     `/api/rehearsals/${rehearsalId}/samples`,
     `/api/rehearsals/${rehearsalId}/samples/0`,
+    `/api/rehearsals/${rehearsalId}/replay`,
     `/api/jobs/${jobId}`,
   ];
+
+  it('the replay in one answer is the index and each of its samples, in order', async () => {
+    const bundle = await viewer.get(`/api/rehearsals/${rehearsalId}/replay`);
+    assert.equal(bundle.status, 200, bundle.text);
+    const index = (await viewer.get(`/api/rehearsals/${rehearsalId}/samples`)).body;
+    assert.deepEqual(bundle.body.index, index);
+    assert.ok(index.samples.length > 0, 'the rehearsal kept samples');
+    const samples = [];
+    for (const s of index.samples) samples.push((await viewer.get(`/api/rehearsals/${rehearsalId}/samples/${s.n}`)).body);
+    assert.deepEqual(bundle.body.samples, samples);
+  });
 
   it('owner, editor and viewer can read everything; another facilitator gets 404; signed out gets 401', async () => {
     for (const path of reads()) {

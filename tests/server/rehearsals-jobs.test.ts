@@ -154,6 +154,9 @@ describe('rehearsal jobs', () => {
     const samples = await client.get(`/api/rehearsals/${id}/samples`);
     assert.equal(samples.status, 400);
     assert.equal(samples.body.error.code, 'not_ready');
+    const replay = await client.get(`/api/rehearsals/${id}/replay`);
+    assert.equal(replay.status, 400);
+    assert.equal(replay.body.error.code, 'not_ready');
   });
 
   it('a per-user limit: the third job waits in the queue with its position, and starts when one ends', async () => {

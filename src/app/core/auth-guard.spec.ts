@@ -33,6 +33,14 @@ describe('auth guards', () => {
     expect(url(run(signedInGuard, null))).toBe('/sign-in?next=%2Frooms%2F7');
   });
 
+  it('two checks while the first is in flight share one request', () => {
+    const answers: unknown[] = [];
+    TestBed.runInInjectionContext(() => signedInGuard(route, state) as Observable<boolean | UrlTree>).subscribe((r) => answers.push(r));
+    TestBed.runInInjectionContext(() => signedInGuard(route, state) as Observable<boolean | UrlTree>).subscribe((r) => answers.push(r));
+    http.expectOne('/api/auth/me').flush({ user: facilitator });
+    expect(answers).toEqual([true, true]);
+  });
+
   it('signedInGuard lets a signed-in account through', () => {
     expect(run(signedInGuard, facilitator)).toBeTrue();
   });

@@ -1,6 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { computed, inject, Injectable, signal } from '@angular/core';
-import { defer, map, type Observable, of, tap } from 'rxjs';
+import { defer, finalize, map, type Observable, of, shareReplay, tap } from 'rxjs';
 import type { AccountRole } from '../../../shared/api/accounts';
 import { requestFlags } from './request-flags';
 
@@ -16,6 +16,8 @@ export interface Account {
 export class Auth {
   private readonly http = inject(HttpClient);
   private readonly current = signal<Account | null | undefined>(undefined);
+  /** The first check while it is in flight: the guard and the shell bar share one request. */
+  private asking: Observable<Account | null> | null = null;
 
   /** undefined while the first check is in flight, null when signed out. */
   readonly user = this.current.asReadonly();
@@ -27,10 +29,13 @@ export class Auth {
     return defer(() => {
       const known = this.current();
       if (known !== undefined) return of(known);
-      return this.http.get<{ user: Account | null }>('/api/auth/me').pipe(
+      this.asking ??= this.http.get<{ user: Account | null }>('/api/auth/me').pipe(
         map((res) => res.user),
         tap((user) => this.current.set(user)),
+        finalize(() => (this.asking = null)),
+        shareReplay({ bufferSize: 1, refCount: true }),
       );
+      return this.asking;
     });
   }
 

@@ -136,9 +136,9 @@ describe('ReplayPage', () => {
     fixture.componentRef.setInput('rehearsalId', '9');
     document.body.append(fixture.nativeElement);
     await settle();
-    http.expectOne('/api/rehearsals/9/samples').flush(index);
-    await settle();
-    for (const s of samples) http.expectOne(`/api/rehearsals/9/samples/${s.n}`).flush(s);
+    // One request for everything: the first frame never waits for the index, then its samples.
+    http.expectOne('/api/rehearsals/9/replay').flush({ index, samples });
+    http.verify();
     await settle();
     replay = await TestbedHarnessEnvironment.loader(fixture).getHarness(ReplayHarness);
   }

@@ -1,0 +1,40 @@
+import { of } from 'rxjs';
+import { FacilitatorPreload, REPLAY_PRELOAD_DELAY_MS } from './preload';
+
+describe('FacilitatorPreload', () => {
+  const strategy = new FacilitatorPreload();
+  const at = (path: string) => history.replaceState(null, '', path);
+  let before: string;
+  beforeEach(() => (before = location.pathname + location.search));
+  afterEach(() => at(before));
+
+  it('fetches other pages at once from a facilitator page', () => {
+    at('/rooms');
+    const load = jasmine.createSpy('load').and.returnValue(of(true));
+    strategy.preload({ path: 'workshops' }, load).subscribe();
+    expect(load).toHaveBeenCalledTimes(1);
+  });
+
+  it('waits before fetching on the projector replay, so its first frames have the main thread', () => {
+    at('/replay/4');
+    jasmine.clock().install();
+    try {
+      const load = jasmine.createSpy('load').and.returnValue(of(true));
+      strategy.preload({ path: 'workshops' }, load).subscribe();
+      jasmine.clock().tick(REPLAY_PRELOAD_DELAY_MS - 1);
+      expect(load).not.toHaveBeenCalled();
+      jasmine.clock().tick(1);
+      expect(load).toHaveBeenCalledTimes(1);
+    } finally {
+      jasmine.clock().uninstall();
+    }
+  });
+
+  it('fetches nothing for a participant page', () => {
+    at('/p/abcdefghijklmnopqrstuvwxyz');
+    const load = jasmine.createSpy('load').and.returnValue(of(true));
+    strategy.preload({ path: 'workshops' }, load).subscribe();
+    strategy.preload({ path: 'p/:token' }, load).subscribe();
+    expect(load).not.toHaveBeenCalled();
+  });
+});
