@@ -11,6 +11,7 @@ import { beats, tieTolerance } from './dense-state';
 import { DiagLowerBound } from './diag-lower-bound';
 import { EngineError } from './errors';
 import { GroundedLaplacian } from './linalg/grounded-laplacian';
+import { partSums } from './sparse-first-pick';
 import type { PlanContext } from './plan-context';
 
 export interface First {
@@ -68,17 +69,7 @@ class SingleScorer {
   ): { best: number; worst: number; bestAny?: { person: number; total: number } } {
     const m = cls.length;
     if (m === 1) return { best: cls[0], worst: 0 };
-    const d = this.ctx.room.csr.outStrength;
-    let vol = 0;
-    let s1 = 0;
-    let sd = 0;
-    for (const p of cls) {
-      vol += d[p];
-      s1 += x1[p];
-      sd += xd[p];
-    }
-    const rho = vol / m;
-    const shift = (sd - rho * s1) / m;
+    const { vol, s1, rho, shift } = partSums(cls, this.ctx.room.csr.outStrength, x1, xd);
     const scores = new PartScores(cls, m * vol);
     for (let a = 0; a < m; a++) {
       const j = cls[a];

@@ -78,19 +78,9 @@ function scorePart(
   x1: Float64Array,
   xdv: Float64Array,
 ): { best: number; worst: number; bestAny?: { person: number; total: number } } {
-  const d = ctx.room.csr.outStrength;
   const m = cls.length;
   if (m === 1) return { best: cls[0], worst: 0 };
-  let vol = 0;
-  let s1 = 0;
-  let sd = 0;
-  for (const p of cls) {
-    vol += d[p];
-    s1 += x1[p];
-    sd += xdv[p];
-  }
-  const rho = vol / m;
-  const shift = (sd - rho * s1) / m;
+  const { vol, s1, rho, shift } = partSums(cls, ctx.room.csr.outStrength, x1, xdv);
   const tol = tieTolerance(m);
   let best = -1;
   let bestT = Infinity;
@@ -112,4 +102,23 @@ function scorePart(
     }
   }
   return { best, worst, ...(any >= 0 ? { bestAny: { person: any, total: anyT } } : {}) };
+}
+
+/** A part's volume, 1^T X 1, the mean strength rho and the constant of (L+ d)_j (identity 5). */
+export function partSums(
+  cls: number[],
+  d: Float64Array,
+  x1: Float64Array,
+  xd: Float64Array,
+): { vol: number; s1: number; rho: number; shift: number } {
+  let vol = 0;
+  let s1 = 0;
+  let sd = 0;
+  for (const p of cls) {
+    vol += d[p];
+    s1 += x1[p];
+    sd += xd[p];
+  }
+  const rho = vol / cls.length;
+  return { vol, s1, rho, shift: (sd - rho * s1) / cls.length };
 }

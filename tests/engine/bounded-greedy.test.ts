@@ -8,27 +8,12 @@
  */
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
-import { EngineError, plan, prepareRoom, type PlanOptions, type RoomGraph, type RoomTie } from '../../shared/engine/index';
+import { EngineError, plan, prepareRoom, type PlanOptions, type RoomGraph } from '../../shared/engine/index';
 import { DiagLowerBound, MAX_HOPS } from '../../shared/engine/diag-lower-bound';
 import { GroundedLaplacian } from '../../shared/engine/linalg/grounded-laplacian';
 import { rng } from '../bench/bench-rooms';
+import { randomPartsRoom } from './engine-fixtures';
 import { gridEdges, roomFromEdges, smallWorldEdges } from '../bench/large-rooms';
-
-function randomRoom(n: number, parts: number, density: number, seed: number): RoomGraph {
-  const r = rng(seed);
-  const ties: RoomTie[] = [];
-  const part = (i: number) => Math.floor((i * parts) / n);
-  for (let i = 1; i < n; i++) {
-    const lo = Math.ceil((part(i) * n) / parts);
-    if (i > lo) ties.push({ source: lo + Math.floor(r() * (i - lo)), target: i, strength: 0.1 + r() * (r() < 0.1 ? 50 : 2) });
-  }
-  for (let e = 0; e < Math.floor(n * density); e++) {
-    const i = Math.floor(r() * n);
-    const j = Math.floor(r() * n);
-    if (part(i) === part(j)) ties.push({ source: i, target: j, strength: 0.1 + r() * 2 });
-  }
-  return { ids: Array.from({ length: n }, (_, i) => `p${i}`), directed: false, ties };
-}
 
 function options(n: number, parts: number, seed: number): PlanOptions {
   const r = rng(seed * 7 + 3);
@@ -71,12 +56,12 @@ describe('exact greedy on iterative solves equals the dense greedy', () => {
     for (let t = 0; t < 200; t++) {
       const n = 6 + (t % 60);
       const parts = t % 5 === 0 && n > 12 ? 2 + (t % 3) : 1;
-      compare(randomRoom(n, parts, 0.5 + (t % 4), 5000 + t), options(n, parts, t), `room ${t} (n ${n}, parts ${parts})`);
+      compare(randomPartsRoom(n, parts, 0.5 + (t % 4), 5000 + t), options(n, parts, t), `room ${t} (n ${n}, parts ${parts})`);
     }
   });
 
   it('on larger rooms: random 400 (laziness, one required), small-world 1,200 (k 30)', () => {
-    compare(randomRoom(400, 1, 2, 17), { k: 10, method: 'greedy', laziness: 0.25, mustInclude: [3] }, 'random 400');
+    compare(randomPartsRoom(400, 1, 2, 17), { k: 10, method: 'greedy', laziness: 0.25, mustInclude: [3] }, 'random 400');
     compare(roomFromEdges(smallWorldEdges(1200, 3, 0.1, 9)), { k: 30, method: 'greedy' }, 'small-world 1200');
   });
 
@@ -120,7 +105,7 @@ describe('diagonal lower bounds of the grounded inverse', () => {
   it('never exceed the dense inverse, and reach it when the ball covers the room', () => {
     for (let t = 0; t < 40; t++) {
       const n = 8 + (t % 30);
-      const room = prepareRoom(randomRoom(n, 1, 0.3 + (t % 3), 900 + t));
+      const room = prepareRoom(randomPartsRoom(n, 1, 0.3 + (t % 3), 900 + t));
       const grounded = new Uint8Array(n);
       grounded[t % n] = 1;
       if (t % 2) grounded[(t * 7 + 1) % n] = 1;

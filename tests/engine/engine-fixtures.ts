@@ -2,6 +2,7 @@
 import { createRequire } from 'node:module';
 import Graph, { UndirectedGraph } from 'graphology';
 import type { RoomGraph, RoomTie } from '../../shared/engine/index';
+import { rng as benchRng } from '../bench/bench-rooms';
 
 const require = createRequire(import.meta.url);
 
@@ -123,4 +124,25 @@ export function* kSets(n: number, k: number, from = 0, cur: number[] = []): Gene
     yield* kSets(n, k, i + 1, cur);
     cur.pop();
   }
+}
+
+/**
+ * A seeded undirected room of `parts` connected parts: a random tree inside each part (one in ten
+ * ties strong, up to 50), then about `density` n extra random ties within parts.
+ */
+export function randomPartsRoom(n: number, parts: number, density: number, seed: number): RoomGraph {
+  const r = benchRng(seed);
+  const ties: RoomTie[] = [];
+  const part = (i: number) => Math.floor((i * parts) / n);
+  for (let i = 1; i < n; i++) {
+    const lo = Math.ceil((part(i) * n) / parts);
+    if (i > lo) ties.push({ source: lo + Math.floor(r() * (i - lo)), target: i, strength: 0.1 + r() * (r() < 0.1 ? 50 : 2) });
+  }
+  const extra = Math.floor(n * density);
+  for (let e = 0; e < extra; e++) {
+    const i = Math.floor(r() * n);
+    const j = Math.floor(r() * n);
+    if (part(i) === part(j)) ties.push({ source: i, target: j, strength: 0.1 + r() * 2 });
+  }
+  return { ids: Array.from({ length: n }, (_, i) => `p${i}`), directed: false, ties };
 }

@@ -7,27 +7,10 @@
  */
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
-import { EngineError, plan, type PlanOptions, type RoomGraph, type RoomTie } from '../../shared/engine/index';
+import { EngineError, plan, type PlanOptions, type RoomGraph } from '../../shared/engine/index';
 import { rng } from '../bench/bench-rooms';
+import { randomPartsRoom } from './engine-fixtures';
 import { gridEdges, roomFromEdges, smallWorldEdges } from '../bench/large-rooms';
-
-function randomRoom(n: number, parts: number, density: number, seed: number): RoomGraph {
-  const r = rng(seed);
-  const ties: RoomTie[] = [];
-  const part = (i: number) => Math.floor((i * parts) / n);
-  for (let i = 1; i < n; i++) {
-    // A random tree inside each part keeps every part connected, then extra random ties.
-    const lo = Math.ceil((part(i) * n) / parts);
-    if (i > lo) ties.push({ source: lo + Math.floor(r() * (i - lo)), target: i, strength: 0.1 + r() * (r() < 0.1 ? 50 : 2) });
-  }
-  const extra = Math.floor(n * density);
-  for (let e = 0; e < extra; e++) {
-    const i = Math.floor(r() * n);
-    const j = Math.floor(r() * n);
-    if (part(i) === part(j)) ties.push({ source: i, target: j, strength: 0.1 + r() * 2 });
-  }
-  return { ids: Array.from({ length: n }, (_, i) => `p${i}`), directed: false, ties };
-}
 
 function options(n: number, parts: number, seed: number): PlanOptions {
   const r = rng(seed * 7 + 3);
@@ -71,21 +54,21 @@ describe('sparse exact greedy equals the dense greedy', () => {
     for (let t = 0; t < 240; t++) {
       const n = 6 + (t % 50);
       const parts = t % 5 === 0 && n > 12 ? 2 + (t % 3) : 1;
-      const g = randomRoom(n, parts, 0.5 + (t % 4), 1000 + t);
+      const g = randomPartsRoom(n, parts, 0.5 + (t % 4), 1000 + t);
       compare(g, options(n, parts, t), `room ${t} (n ${n}, parts ${parts})`);
     }
   });
 
   it('on a few larger rooms: random 300 and 700, grid 400, small-world 1500', () => {
-    compare(randomRoom(300, 1, 2, 7), { k: 12, method: 'greedy', laziness: 0.2 }, 'random 300');
-    compare(randomRoom(700, 3, 1.5, 8), { k: 8, method: 'greedy', exclude: [5, 6] }, 'random 700, 3 parts');
+    compare(randomPartsRoom(300, 1, 2, 7), { k: 12, method: 'greedy', laziness: 0.2 }, 'random 300');
+    compare(randomPartsRoom(700, 3, 1.5, 8), { k: 8, method: 'greedy', exclude: [5, 6] }, 'random 700, 3 parts');
     // A grid has many equal totals (symmetry): the tie-break by input order must agree too.
     compare(roomFromEdges(gridEdges(20, 3, true)), { k: 10, method: 'greedy' }, 'unit grid 400');
     compare(roomFromEdges(smallWorldEdges(1500, 3, 0.1, 4)), { k: 6, method: 'greedy', mixing: 0.05 }, 'small-world 1500');
   });
 
   it('above the dense limit no plan builds the dense ergodic data: the best single starter comes from the sparse first pick or is left out', () => {
-    const g = randomRoom(600, 1, 2, 11);
+    const g = randomPartsRoom(600, 1, 2, 11);
     const dense = plan(g, { k: 2, method: 'greedy' });
     const sparse = plan(g, { k: 2, method: 'greedy', denseLimit: 500 });
     assert.equal(sparse.solverPath, 'sparse-factor');
@@ -98,7 +81,7 @@ describe('sparse exact greedy equals the dense greedy', () => {
   });
 
   it('says which path ran and falls back to iterative solves when the factor would be too large', () => {
-    const g = randomRoom(3000, 1, 3, 9);
+    const g = randomPartsRoom(3000, 1, 3, 9);
     const big = plan(g, { k: 3, method: 'auto', denseLimit: 100, maxFill: 10 });
     assert.equal(big.solverPath, 'iterative');
     assert.ok(big.notes.some((s) => /too large/.test(s)));
