@@ -76,6 +76,27 @@ export function roomFromTieArrays(n: number, src: Int32Array, dst: Int32Array, w
       weight[a + q] = w2[q];
     }
   }
-  const csr: Csr = { n, rowStart, col, weight, outStrength };
+  const csr: Csr = mergeRepeats(n, rowStart, col, weight, outStrength);
   return roomFromCsr(csr, directed);
+}
+
+/**
+ * A tie listed twice becomes one tie with the summed strength, as prepareRoom does for files: the
+ * engine's CSR has each column once per row (the fill-reducing orders rely on it).
+ */
+function mergeRepeats(n: number, rowStart: Int32Array, col: Int32Array, weight: Float64Array, outStrength: Float64Array): Csr {
+  const start = new Int32Array(n + 1);
+  let at = 0;
+  for (let i = 0; i < n; i++) {
+    start[i] = at;
+    for (let p = rowStart[i]; p < rowStart[i + 1]; p++) {
+      if (at > start[i] && col[at - 1] === col[p]) weight[at - 1] += weight[p];
+      else {
+        col[at] = col[p];
+        weight[at++] = weight[p];
+      }
+    }
+  }
+  start[n] = at;
+  return { n, rowStart: start, col: col.slice(0, at), weight: weight.slice(0, at), outStrength };
 }
