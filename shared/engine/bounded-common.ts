@@ -1,6 +1,7 @@
 /**
- * What the exact greedy on iterative solves and its first pick share: the solve that refuses
- * to return an unconverged value, the tie-break test against a bound, and small vector helpers.
+ * What the exact greedy on iterative solves and its first pick share (the solve that refuses to
+ * return an unconverged value, the tie-break test against a bound), and the masked-vector helpers
+ * both exact greedy paths use.
  */
 import { EngineError } from './errors';
 import type { GroundedLaplacian } from './linalg/grounded-laplacian';

@@ -56,7 +56,7 @@ export function boundedGreedyPlan(ctx: PlanContext): PlanResult {
   const proof =
     search.unproven === 0
       ? "every pick proven the greedy's by lower bounds on the inverse's diagonal"
-      : `picks proven the greedy's by lower bounds on the inverse's diagonal, except in ${search.unproven} of ${k - first.set.length} rounds, where ${search.checkBudgetText()} did not settle the round and the best checked person was taken (the total may then differ from the exact greedy's)`;
+      : `picks proven the greedy's by lower bounds on the inverse's diagonal, except in ${search.unproven} of ${k - first.set.length} rounds, where ${search.checkBudget} exact checks did not settle the round and the best checked person was taken (the total may then differ from the exact greedy's)`;
   ctx.notes.push(
     `Exact greedy on iterative solves (conjugate gradient, relative residual ${CHECK_TOL}): ${proof}; ` +
       `${first.checks + search.checks} exact checks (${search.reused} from an earlier round's column), ${search.refreshes} bound refreshes, ${first.iterations + search.iterations()} iterations. ` +
@@ -90,7 +90,7 @@ class BoundedGreedy {
   reused = 0;
   /** Rounds that ended on the check budget, not on proof. */
   unproven = 0;
-  private readonly checkBudget: number;
+  readonly checkBudget: number;
   private readonly tol: number;
 
   constructor(
@@ -117,10 +117,6 @@ class BoundedGreedy {
       this.lb[j] = this.bounds.lower(j, CHEAP_HOPS);
       this.ub[j] = (this.u[j] * this.v[j]) / this.lb[j];
     }
-  }
-
-  checkBudgetText(): string {
-    return `${this.checkBudget} exact checks`;
   }
 
   iterations(): number {

@@ -15,6 +15,7 @@ import { GroundedFactor, factorFits, fillReducingOrder, MAX_FACTOR_WORK, type Ro
 import { oneHopBoundSparse } from './plan-bounds';
 import { finishPlan, type PlanContext } from './plan-context';
 import type { PlanResult } from './plan-types';
+import { invert, masked, sumOn } from './bounded-common';
 import { refine } from './linalg/refine';
 import { firstStarters, type FirstStarters } from './sparse-first-pick';
 import { addStarter, applyG, bestCandidate, GreedyState, topGains, totalOf, worstSingle } from './sparse-greedy-state';
@@ -199,22 +200,4 @@ function greedyFromState(ctx: PlanContext, s: GreedyState, first: FirstStarters,
       `final total from a refined solve (last correction ${sol.lastCorrection.toExponential(1)} relative).`,
   );
   return { ...finishPlan(ctx, 'greedy', starters, total), solverPath: 'sparse-factor', fill: f.sym.nnz };
-}
-
-function invert(inT: Uint8Array): Uint8Array {
-  const g = new Uint8Array(inT.length);
-  for (let i = 0; i < inT.length; i++) g[i] = inT[i] ? 0 : 1;
-  return g;
-}
-
-function masked(x: Float64Array, inT: Uint8Array): Float64Array {
-  const b = new Float64Array(x.length);
-  for (let i = 0; i < x.length; i++) if (inT[i]) b[i] = x[i];
-  return b;
-}
-
-function sumOn(x: Float64Array, inT: Uint8Array): number {
-  let t = 0;
-  for (let i = 0; i < x.length; i++) if (inT[i]) t += x[i];
-  return t;
 }
