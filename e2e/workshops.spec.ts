@@ -99,6 +99,8 @@ test('a facilitator runs a workshop from survey links to the debrief', async ({ 
   // Her page's chunks are announced in the HTML (fetched beside the app's own, not after it).
   const preloads = async (path: string) => ((await (await ada.request.get(path)).text()).match(/rel="modulepreload"/g) ?? []).length;
   expect(await preloads(adaPath)).toBeGreaterThan(await preloads('/sign-in'));
+  // It arrives drawn by the server: her greeting is in the HTML itself, before any of the app's code has run.
+  expect(await (await ada.request.get(adaPath)).text()).toMatch(/<h1[^>]*>Hello, Ada Quillon<\/h1>/);
   await ada.goto(adaPath);
   await expect(ada.getByRole('heading', { name: 'Before you answer' })).toBeVisible();
   await expect(ada.getByText('works council')).toBeVisible();

@@ -1,5 +1,6 @@
 import type { Request } from 'express';
 import { countFailedLink } from '../auth/link-guard';
+import type { SurveyState } from '../../shared/api/workshops';
 import { logger } from '../core/logging';
 import { findLinkHolder } from './links';
 import { surveyState } from './survey';
@@ -8,26 +9,31 @@ import { surveyState } from './survey';
 export const FIRST_STATE_ID = 'rh-first-state';
 
 /**
- * A participant's page, cold: the survey state (what GET /api/p/<token> answers) written into the
- * page as a JSON data block, so the phone shows it as soon as the code has run instead of one
- * more request later. Empty for a link that does not work, which counts against the address
- * like any other (else the page would tell a good link from a guess past the guessing limit);
- * the page then asks the API, which answers with the link's own message. Empty on any failure
- * too (the page asks the API as before).
+ * A participant's page, cold: the survey state (what GET /api/p/<token> answers), which the server
+ * draws the page with and writes into it as a JSON data block, so the phone shows it without one
+ * more request. Null for a link that does not work, which counts against the address like any
+ * other (else the page would tell a good link from a guess past the guessing limit); the page
+ * then asks the API, which answers with the link's own message. Null on any failure too (the
+ * page asks the API as before).
  */
-export async function firstStateBlock(req: Request, token: string): Promise<string> {
+export async function firstState(req: Request, token: string): Promise<SurveyState | null> {
   try {
     const holder = await findLinkHolder(token);
     if (!holder) {
       await countFailedLink(req);
-      return '';
+      return null;
     }
-    const json = JSON.stringify(await surveyState(holder));
-    // A data block ends at the first "</script": no <, > or & may appear as they are.
-    const safe = json.replace(/[<>&\u2028\u2029]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
-    return `<script type="application/json" id="${FIRST_STATE_ID}">${safe}</script>`;
+    return await surveyState(holder);
   } catch (err) {
     logger.warn({ err }, 'the participant page is served without its first state');
-    return '';
+    return null;
   }
+}
+
+/** The state as the page's data block; empty for none. */
+export function firstStateBlock(state: SurveyState | null): string {
+  if (!state) return '';
+  // A data block ends at the first "</script": no <, > or & may appear as they are.
+  const safe = JSON.stringify(state).replace(/[<>&\u2028\u2029]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
+  return `<script type="application/json" id="${FIRST_STATE_ID}">${safe}</script>`;
 }

@@ -1,4 +1,5 @@
-import { ChangeDetectionStrategy, Component, computed, inject, type OnInit } from '@angular/core';
+import { isPlatformBrowser } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, inject, type OnInit, PLATFORM_ID } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { ActivatedRoute, NavigationEnd, Router, RouterOutlet } from '@angular/router';
 import { filter, map } from 'rxjs';
@@ -20,6 +21,7 @@ export class App implements OnInit {
   private readonly auth = inject(Auth);
   private readonly router = inject(Router);
   private readonly route = inject(ActivatedRoute);
+  private readonly inBrowser = isPlatformBrowser(inject(PLATFORM_ID));
 
   private readonly navigated = toSignal(
     this.router.events.pipe(
@@ -44,6 +46,8 @@ export class App implements OnInit {
 
   /** Pages without a guard (accept invitation, reset) still learn who is signed in, for the toolbar. */
   private checkSession(): void {
+    // Drawn on the server (a participant's page): there is no one to ask about.
+    if (!this.inBrowser) return;
     // A participant's phone (/p/…) has no account and no toolbar: it does not ask.
     if (/^\/p(\/|$)/.test(globalThis.location?.pathname ?? '')) return;
     // A failed check leaves the toolbar signed out; the next guarded page asks again.

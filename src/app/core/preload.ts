@@ -1,4 +1,5 @@
-import { Injectable } from '@angular/core';
+import { isPlatformServer } from '@angular/common';
+import { inject, Injectable, PLATFORM_ID } from '@angular/core';
 import type { PreloadingStrategy, Route } from '@angular/router';
 import { type Observable, of, switchMap, timer } from 'rxjs';
 
@@ -16,7 +17,10 @@ export const REPLAY_PRELOAD_DELAY_MS = 3000;
  */
 @Injectable({ providedIn: 'root' })
 export class FacilitatorPreload implements PreloadingStrategy {
+  private readonly onServer = isPlatformServer(inject(PLATFORM_ID));
+
   preload(route: Route, load: () => Observable<unknown>): Observable<unknown> {
+    if (this.onServer) return of(null);
     const path = globalThis.location?.pathname ?? '';
     if (route.path === 'p' || route.path?.startsWith('p/') || /^\/p(\/|$)/.test(path)) return of(null);
     if (/^\/replay\//.test(path)) return timer(REPLAY_PRELOAD_DELAY_MS).pipe(switchMap(() => load()));

@@ -1,10 +1,11 @@
-import { ChangeDetectionStrategy, Component, inject, input, type OnInit, signal } from '@angular/core';
+import { DOCUMENT, isPlatformBrowser } from '@angular/common';
+import { ChangeDetectionStrategy, Component, inject, input, type OnInit, PLATFORM_ID, REQUEST_CONTEXT, signal } from '@angular/core';
 import type { MyDebrief, SurveyState } from '../../../shared/api/workshops';
 import { concatMap, EMPTY, finalize, of, tap } from 'rxjs';
 import { toApiError } from '../core/api-error';
 import { DayPipe } from '../core/date-format';
 import { DebriefView } from './debrief-view';
-import { takeFirstState } from './first-state';
+import { renderedState, takeFirstState } from './first-state';
 import { ParticipantApi } from './participant-api';
 import { PrivacyNotice } from './privacy-notice';
 import { SurveyForm } from './survey-form';
@@ -31,6 +32,9 @@ function fetchSurveyCodeWhenIdle(): void {
 export default class ParticipantPage implements OnInit {
   readonly token = input.required<string>();
   private readonly api = inject(ParticipantApi);
+  private readonly doc = inject(DOCUMENT);
+  private readonly inBrowser = isPlatformBrowser(inject(PLATFORM_ID));
+  private readonly renderContext = inject(REQUEST_CONTEXT, { optional: true });
   protected readonly state = signal<SurveyState | null>(null);
   protected readonly debrief = signal<MyDebrief | null>(null);
   protected readonly failure = signal<string | null>(null);
@@ -47,7 +51,13 @@ export default class ParticipantPage implements OnInit {
    */
   private open(): void {
     const token = this.token();
-    const first = takeFirstState(token);
+    if (!this.inBrowser) {
+      // Drawn on the server: the state it was handed, and nothing asked (results, if released,
+      // are fetched by the browser once the app has taken the page over).
+      this.state.set(renderedState(this.renderContext, token));
+      return;
+    }
+    const first = takeFirstState(token, this.doc);
     (first ? of(first) : this.api.state(token))
       .pipe(
         tap((s) => {

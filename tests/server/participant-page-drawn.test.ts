@@ -1,0 +1,109 @@
+import assert from 'node:assert/strict';
+import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { after, before, describe, it } from 'node:test';
+import type { TestServer } from '../support/test-server';
+
+/**
+ * A participant's page drawn on the server: the renderer that `ng build` puts beside the browser
+ * files (dist/…/server/server.mjs) gets the page's address and its first state, and what it draws
+ * is what the phone receives (nonce-stamped, with the state block and the route's code linked).
+ * Whenever it cannot draw (fails, is too slow, declines), the phone gets the page drawn in the
+ * browser, as before, never an error.
+ *
+ * The build here is a stand-in with the real build's layout; its renderer writes the greeting
+ * from the state it is handed and behaves as the workshop's title asks (fail, slow, decline).
+ */
+const build = mkdtempSync(join(tmpdir(), 'rh-build-'));
+const client = join(build, 'browser');
+mkdirSync(client);
+mkdirSync(join(build, 'server'));
+writeFileSync(
+  join(client, 'index.csr.html'),
+  '<!doctype html><html><head><link rel="stylesheet" href="styles-AAAA1111.css"></head><body><app-root></app-root>' +
+    '<script src="main-MAIN1111.js" type="module"></script></body></html>',
+);
+writeFileSync(join(client, 'main-MAIN1111.js'), 'const r=[{path:"p/:token",loadComponent:()=>import("./chunk-ROUTE111.js")}];');
+writeFileSync(join(client, 'chunk-ROUTE111.js'), 'export const b=2;');
+writeFileSync(
+  join(build, 'server', 'server.mjs'),
+  `globalThis.renderCalls = [];
+export async function renderPage(url, context) {
+  globalThis.renderCalls.push({ url, context });
+  const title = context.firstState.workshopTitle;
+  if (title === 'Renderer fails') throw new Error('broken render');
+  if (title === 'Renderer declines') return null;
+  if (title === 'Renderer is slow') await new Promise((r) => setTimeout(r, 4000));
+  return '<!doctype html><html><head><style>h1{}</style></head><body><app-root ng-server-context="ssr"><h1>Hello, ' +
+    context.firstState.me.name + '</h1></app-root><script src="main-MAIN1111.js" type="module"></script></body></html>';
+}
+`,
+);
+process.env['CLIENT_DIR'] = client;
+
+type Call = { url: string; context: { path: string; firstState: { me: { name: string } } } };
+const calls = () => (globalThis as unknown as { renderCalls?: Call[] }).renderCalls ?? [];
+const stateBlock = (html: string) => /<script type="application\/json" id="rh-first-state">([^<]*)<\/script>/.exec(html)?.[1];
+
+describe('a participant page drawn on the server', () => {
+  let server: TestServer;
+  let support: typeof import('./workshops-support');
+  let signedInClient: typeof import('../support/test-server').signedInClient;
+  before(async () => {
+    // Imported only now: the server reads CLIENT_DIR when it loads.
+    const ts = await import('../support/test-server');
+    support = await import('./workshops-support');
+    signedInClient = ts.signedInClient;
+    server = await ts.startTestServer();
+  });
+  after(async () => server.stop());
+
+  async function linkFor(title: string) {
+    const { client: c } = await signedInClient(server);
+    const { id } = await support.newWorkshop(c, [{ name: 'Mira Tollan' }, { name: 'Oskar Bruhn' }], title);
+    await c.post(`/api/workshops/${id}/status`, { to: 'collecting' });
+    return (await support.sheetTokens(c, id)).get('Mira Tollan')!;
+  }
+
+  it('sends what the renderer drew from the link state, stamped with the nonce, with the state block and the route code', async () => {
+    const token = await linkFor('Harbour tour briefing');
+    const page = await fetch(`${server.url}/p/${token}`);
+    assert.equal(page.status, 200);
+    const html = await page.text();
+    assert.match(html, /<h1>Hello, Mira Tollan<\/h1>/);
+    const call = calls().at(-1)!;
+    assert.equal(call.url, `http://localhost/p/${token}`, 'drawn for its own address, never the Host header');
+    const api = await server.client().get(`/api/p/${token}`);
+    assert.deepEqual(call.context, { path: `/p/${token}`, firstState: api.body }, 'drawn from what GET /api/p/<token> answers');
+    assert.deepEqual(JSON.parse(stateBlock(html)!), api.body, 'the app starts from the same state');
+    const nonce = /'nonce-([^']+)'/.exec(page.headers.get('content-security-policy') ?? '')?.[1];
+    assert.ok(nonce);
+    assert.ok(html.includes(`<app-root ngCspNonce="${nonce}" ng-server-context="ssr">`), 'the app root carries the nonce');
+    assert.ok(html.includes(`<style nonce="${nonce}">`), 'the drawn styles carry the nonce');
+    assert.ok(html.includes('<link rel="modulepreload" href="chunk-ROUTE111.js"></head>'), 'the page code is linked in head');
+    assert.ok(page.headers.getSetCookie().some((c) => c.startsWith('XSRF-TOKEN=')), 'the form token is set');
+  });
+
+  for (const title of ['Renderer fails', 'Renderer declines', 'Renderer is slow']) {
+    it(`falls back to the page drawn in the browser when the renderer ${title.split(' ').slice(1).join(' ')}`, async () => {
+      const token = await linkFor(title);
+      const before = calls().length;
+      const page = await fetch(`${server.url}/p/${token}`);
+      assert.equal(page.status, 200);
+      const html = await page.text();
+      assert.equal(calls().length, before + 1, 'the renderer was asked');
+      assert.ok(!html.includes('Hello,'), 'not the drawn page');
+      assert.ok(html.includes('<script src="main-MAIN1111.js" type="module">'), 'the app, drawn in the browser');
+      assert.equal(JSON.parse(stateBlock(html)!).me.name, 'Mira Tollan', 'with its first state');
+    });
+  }
+
+  it('a link that does not work is not drawn (the page asks the API, which explains)', async () => {
+    const before = calls().length;
+    const html = await (await fetch(`${server.url}/p/${'x'.repeat(43)}`)).text();
+    assert.equal(calls().length, before, 'the renderer was not asked');
+    assert.equal(stateBlock(html), undefined);
+    assert.ok(html.includes('<app-root'), 'the plain page');
+  });
+});
