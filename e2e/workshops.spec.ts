@@ -101,11 +101,26 @@ test('a facilitator runs a workshop from survey links to the debrief', async ({ 
   expect(await preloads(adaPath)).toBeGreaterThan(await preloads('/sign-in'));
   // It arrives drawn by the server: her greeting is in the HTML itself, before any of the app's code has run.
   expect(await (await ada.request.get(adaPath)).text()).toMatch(/<h1[^>]*>Hello, Ada Quillon<\/h1>/);
+  // The app takes the drawn page over (hydration) rather than drawing it again: the heading the
+  // HTML brought is still the one on the screen once the page answers clicks, and nothing complains.
+  const adaErrors: string[] = [];
+  ada.on('console', (m) => void (m.type() === 'error' && adaErrors.push(m.text())));
+  await ada.addInitScript(() => {
+    new MutationObserver((_, watch) => {
+      const h = document.querySelector('h1');
+      if (!h) return;
+      (window as unknown as { firstHeading: Element }).firstHeading = h;
+      watch.disconnect();
+    }).observe(document, { childList: true, subtree: true });
+  });
   await ada.goto(adaPath);
   await expect(ada.getByRole('heading', { name: 'Before you answer' })).toBeVisible();
   await expect(ada.getByText('works council')).toBeVisible();
   await keepScreenshot(ada, 'workshop-participant-notice-phone');
   await ada.getByRole('button', { name: 'I have read this and want to answer' }).click();
+  await expect(ada.getByRole('button', { name: 'Bram Osterfeld', exact: true })).toBeVisible();
+  expect(await ada.evaluate(() => (window as unknown as { firstHeading?: Element }).firstHeading?.isConnected)).toBe(true);
+  expect(adaErrors).toEqual([]);
   for (const name of ['Bram Osterfeld', 'Cleo Marwick']) await ada.getByRole('button', { name, exact: true }).click();
   await ada.getByText('Most days').first().click();
   await expect(ada.getByRole('radio', { name: 'Most days' }).first()).toBeChecked();

@@ -62,7 +62,9 @@ authRouter.post('/sign-in', publicAccess, async (req, res) => {
   const body = parse(signInBody, req.body);
   const attempt = await beforeSignIn(req, res, body.email);
   const row = await findUserByEmail(body.email);
+  const hashStarted = performance.now();
   const ok = await verifyPassword(body.password, row?.passwordHash);
+  const hashMs = performance.now() - hashStarted;
   if (!row || !ok || row.status !== 'active') {
     await signInFailed(attempt);
     if (row) await audit(req, { action: 'account.sign_in_failed', targetType: 'user', targetId: row.id });
@@ -81,6 +83,8 @@ authRouter.post('/sign-in', publicAccess, async (req, res) => {
   req.user = { id: row.id, email: row.email, name: row.name, role: row.role };
   rotateCsrf(req, res); // bound to the new session id
   await audit(req, { action: 'account.sign_in', targetType: 'user', targetId: row.id });
+  // How long the deliberate password hash took, so a client-side timing can tell it from the rest.
+  res.set('Server-Timing', `hash;dur=${hashMs.toFixed(1)};desc="password hash"`);
   res.json(signInAnswer(req.user, req.secure));
 });
 

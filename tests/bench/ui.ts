@@ -79,11 +79,16 @@ async function signInStep(browser: Browser): Promise<{ ctx: BrowserContext; page
   await page.waitForLoadState('networkidle');
   await page.getByLabel('E-mail').fill(WHO.email);
   await page.getByLabel('Password').fill(WHO.password);
+  const answered = page.waitForResponse((r) => r.url().endsWith('/api/auth/sign-in'));
   await step(
     'sign in (includes the password hash)',
     () => page.getByRole('button', { name: 'Sign in' }).click(),
     () => onScreen(page, () => [...document.querySelectorAll('h1, h2')].some((h) => h.textContent?.trim() === 'Rooms')),
   );
+  // The same click less the hash the server reports (Server-Timing): what everything else adds.
+  const hash = /hash;dur=([\d.]+)/.exec((await answered).headers()['server-timing'] ?? '')?.[1];
+  const all = times.get('sign in (includes the password hash)')!;
+  if (hash) times.set('sign in, less the password hash', [...(times.get('sign in, less the password hash') ?? []), all.at(-1)! - Number(hash)]);
   return { ctx, page };
 }
 
@@ -156,7 +161,7 @@ async function facilitatorRound(page: Page, ids: { room: number; roomName: strin
   await page.getByRole('heading', { name: 'Whom to brief first' }).waitFor();
   await step(
     'open replay',
-    () => page.goto(`/replay/${ids.rehearsal}`),
+    () => page.goto(`/replay/${ids.rehearsal}`, { waitUntil: 'commit' }),
     () => onScreen(page, () => !!document.querySelector('[data-testid="seed"]')),
   );
 }
@@ -166,7 +171,8 @@ async function phoneRound(browser: Browser, path: string, base = BASE, label = '
   const p = await phone.newPage();
   await step(
     `open phone survey (cold page)${label}`,
-    () => p.goto(path),
+    // Until the greeting is on a frame; the load event (fonts, icons) may come later and is not waited for.
+    () => p.goto(path, { waitUntil: 'commit' }),
     () => onScreen(p, () => [...document.querySelectorAll('h1')].some((h) => h.textContent?.trim().startsWith('Hello, '))),
   );
   await phone.close();
@@ -228,7 +234,7 @@ async function main() {
   console.log(`\nRoutine steps against ${BASE} (${RUNS} runs each; click to result, ms)\n`);
   console.log(`${'step'.padEnd(38)} ${'runs'.padStart(4)} ${'median'.padStart(8)} ${'p95'.padStart(8)}  goal < 500 ms p95`);
   for (const r of rows) {
-    const flag = r.p95 < 500 ? 'ok' : r.name.startsWith('sign in') ? 'hash' : 'SLOW';
+    const flag = r.p95 < 500 ? 'ok' : r.name.includes('includes the password hash') ? 'hash' : 'SLOW';
     console.log(
       `${r.name.padEnd(38)} ${String(r.runs).padStart(4)} ${r.median.toFixed(0).padStart(8)} ${r.p95.toFixed(0).padStart(8)}  ${flag}`,
     );
