@@ -88,7 +88,8 @@ async function signInStep(browser: Browser): Promise<{ ctx: BrowserContext; page
   // The same click less the hash the server reports (Server-Timing): what everything else adds.
   const hash = /hash;dur=([\d.]+)/.exec((await answered).headers()['server-timing'] ?? '')?.[1];
   const all = times.get('sign in (includes the password hash)')!;
-  if (hash) times.set('sign in, less the password hash', [...(times.get('sign in, less the password hash') ?? []), all.at(-1)! - Number(hash)]);
+  if (hash)
+    times.set('sign in, less the password hash', [...(times.get('sign in, less the password hash') ?? []), all.at(-1)! - Number(hash)]);
   return { ctx, page };
 }
 

@@ -82,7 +82,10 @@ describe('a participant page drawn on the server', () => {
     assert.ok(html.includes(`<app-root ngCspNonce="${nonce}" ng-server-context="ssr">`), 'the app root carries the nonce');
     assert.ok(html.includes(`<style nonce="${nonce}">`), 'the drawn styles carry the nonce');
     assert.ok(html.includes('<link rel="modulepreload" href="chunk-ROUTE111.js"></head>'), 'the page code is linked in head');
-    assert.ok(page.headers.getSetCookie().some((c) => c.startsWith('XSRF-TOKEN=')), 'the form token is set');
+    assert.ok(
+      page.headers.getSetCookie().some((c) => c.startsWith('XSRF-TOKEN=')),
+      'the form token is set',
+    );
   });
 
   for (const title of ['Renderer fails', 'Renderer declines', 'Renderer is slow']) {
