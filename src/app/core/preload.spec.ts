@@ -1,8 +1,11 @@
+import { PLATFORM_ID } from '@angular/core';
+import { TestBed } from '@angular/core/testing';
 import { of } from 'rxjs';
 import { FacilitatorPreload, REPLAY_PRELOAD_DELAY_MS } from './preload';
 
 describe('FacilitatorPreload', () => {
-  const strategy = new FacilitatorPreload();
+  let strategy: FacilitatorPreload;
+  beforeEach(() => (strategy = TestBed.inject(FacilitatorPreload)));
   const at = (path: string) => history.replaceState(null, '', path);
   let before: string;
   beforeEach(() => (before = location.pathname + location.search));
@@ -35,6 +38,14 @@ describe('FacilitatorPreload', () => {
     const load = jasmine.createSpy('load').and.returnValue(of(true));
     strategy.preload({ path: 'workshops' }, load).subscribe();
     strategy.preload({ path: 'p/:token' }, load).subscribe();
+    expect(load).not.toHaveBeenCalled();
+  });
+
+  it('preloads nothing while the page is drawn on the server', () => {
+    TestBed.resetTestingModule();
+    TestBed.configureTestingModule({ providers: [{ provide: PLATFORM_ID, useValue: 'server' }] });
+    const load = jasmine.createSpy('load').and.returnValue(of(true));
+    TestBed.inject(FacilitatorPreload).preload({ path: 'workshops' }, load).subscribe();
     expect(load).not.toHaveBeenCalled();
   });
 });
