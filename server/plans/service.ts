@@ -22,6 +22,7 @@ import { prepared, type ComputeOutcome, type PlanComputation, type RoomSnapshot 
 import { hardLimitMs, plannerTask } from './planner-task';
 import { parseResults, parseSnapshot, planDetail, planSummary } from './dto';
 import { resultColumns } from './result-columns';
+import { autoRunsNow, runsInBackground } from './where-it-runs';
 import type { NewPlan, PlanRow } from './store';
 import * as store from './store';
 
@@ -51,42 +52,6 @@ async function snapshotOf(roomId: number): Promise<RoomSnapshot> {
 function unwrap(outcome: ComputeOutcome<PlanComputation>): PlanComputation {
   if ('error' in outcome) throw planError(outcome.error.code, outcome.error.message, outcome.error.detail);
   return outcome.ok;
-}
-
-/**
- * Where a plan runs: awaited in the request (small rooms with a fast method, or an automatic plan
- * whose search is small, see autoRunsNow) or as a background job.
- */
-export function runsInBackground(body: CreatePlanRequest, n: number, mustCount = 0, excludeCount = 0): boolean {
-  if (body.starters) return false;
-  if (body.background) return true;
-  if (autoRunsNow(body, n, mustCount, excludeCount)) return false;
-  const fast = body.method === 'greedy' || body.method === 'swap' || body.method === 'widened';
-  return !fast || n > PLAN_LIMITS.inlineMaxPeople;
-}
-
-/**
- * An automatic plan is computed in the request when its branch and bound has at most
- * PLAN_LIMITS.autoInlineMaxSets starter sets to decide (the sets of k - must people among those
- * neither required nor excluded) in a room of at most exhaustiveMaxPeople, without a no-show
- * chance. Such a search takes milliseconds; a queued job would cost more than the search.
- */
-export function autoRunsNow(body: CreatePlanRequest, n: number, mustCount: number, excludeCount: number): boolean {
-  if (body.starters || body.background || (body.method ?? 'auto') !== 'auto') return false;
-  if ((body.noShow ?? 0) > 0 || n > PLAN_LIMITS.exhaustiveMaxPeople || body.k === undefined) return false;
-  return setsAtMost(n - mustCount - excludeCount, body.k - mustCount, PLAN_LIMITS.autoInlineMaxSets);
-}
-
-/** Whether C(n, k) <= limit, without overflow (stops as soon as the count passes the limit). */
-export function setsAtMost(n: number, k: number, limit: number): boolean {
-  if (k < 0 || n < 0 || k > n) return true;
-  const r = Math.min(k, n - k);
-  let c = 1;
-  for (let i = 1; i <= r; i++) {
-    c = (c * (n - r + i)) / i;
-    if (c > limit) return false;
-  }
-  return true;
 }
 
 /** An automatic plan the caller did not ask to run in the background, of a room awaited inline otherwise. */
@@ -169,7 +134,7 @@ async function searchNow(userId: number, base: NewPlan, snapshot: RoomSnapshot):
   const keyed = { ...base, noShow: base.noShow ?? null, mustBrief: base.mustBrief ?? [], cannotBrief: base.cannotBrief ?? [] };
   const resume = await savedSearchOf(keyed);
   const task = {
-    ...plannerTask(snapshot, { ...keyed, k: base.k!, nu: base.nu ?? null, timeLimitSeconds: base.timeLimitSeconds ?? null }),
+    ...plannerTask(snapshot, { ...keyed, k: base.k, nu: base.nu ?? null, timeLimitSeconds: base.timeLimitSeconds ?? null }),
     ...(resume ? { resume } : {}),
   };
   const computed = await computeNow(task, base.timeLimitSeconds ?? null);

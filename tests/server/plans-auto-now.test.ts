@@ -12,7 +12,7 @@ import { planBounds } from '../../db/schema/plan-bounds';
 import { config } from '../../server/config';
 import { db } from '../../server/db';
 import { closePools } from '../../server/jobs/pools';
-import { autoRunsNow, setsAtMost } from '../../server/plans/service';
+import { autoRunsNow, setsAtMost } from '../../server/plans/where-it-runs';
 import { exactReach, prepareRoom } from '../../shared/engine/index';
 import { PLAN_LIMITS, type PlanDetail, type PlanStarted } from '../../shared/api/plans';
 import type { TestClient } from '../support/http-client';
