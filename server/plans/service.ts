@@ -5,13 +5,14 @@
  */
 import type { CreatePlanRequest, KSweepResult, PlanComparison, PlanDetail, PlanStarted, PlanSummary } from '../../shared/api/plans';
 import { PLAN_LIMITS } from '../../shared/api/plans';
-import { notFound } from '../core/http-error';
+import { HttpError, notFound } from '../core/http-error';
+import { logger } from '../core/logging';
 import { db } from '../db';
 import { roomAccess } from '../jobs/access';
 import { idOf } from '../core/ids';
 import { jobDto } from '../jobs/dto';
 import { onJobEvent } from '../jobs/events';
-import { runInPlanPool } from '../jobs/pools';
+import { runInPlanPool, TimeLimitError } from '../jobs/pools';
 import { checkJobQuota, checkPlanQuota } from '../jobs/quotas';
 import { JobFailure, jobRunner, type JobHandler } from '../jobs/runner';
 import { findJob, insertJob } from '../jobs/service';
@@ -21,6 +22,7 @@ import { prepared, type ComputeOutcome, type PlanComputation, type RoomSnapshot 
 import { hardLimitMs, plannerTask } from './planner-task';
 import { parseResults, parseSnapshot, planDetail, planSummary } from './dto';
 import { resultColumns } from './result-columns';
+import { autoRunsNow, runsInBackground } from './where-it-runs';
 import type { NewPlan, PlanRow } from './store';
 import * as store from './store';
 
@@ -50,14 +52,6 @@ async function snapshotOf(roomId: number): Promise<RoomSnapshot> {
 function unwrap(outcome: ComputeOutcome<PlanComputation>): PlanComputation {
   if ('error' in outcome) throw planError(outcome.error.code, outcome.error.message, outcome.error.detail);
   return outcome.ok;
-}
-
-/** Where a plan runs: awaited in the request (small rooms, fast methods) or as a background job. */
-export function runsInBackground(body: CreatePlanRequest, n: number): boolean {
-  if (body.starters) return false;
-  if (body.background) return true;
-  const fast = body.method === 'greedy' || body.method === 'swap' || body.method === 'widened';
-  return !fast || n > PLAN_LIMITS.inlineMaxPeople;
 }
 
 /** An automatic plan the caller did not ask to run in the background, of a room awaited inline otherwise. */
@@ -92,7 +86,10 @@ export async function createPlan(
   const starters = checkedRequest(room, snapshot, body);
   await checkPlanQuota(user.id);
   const base = newPlanRow(user.id, roomId, snapshot, body, starters);
-  if (runsInBackground(body, room.n)) return startInBackground(user.id, base, body, room.n);
+  const mustCount = base.mustBrief?.length ?? 0;
+  const excludeCount = base.cannotBrief?.length ?? 0;
+  if (runsInBackground(body, room.n, mustCount, excludeCount)) return startInBackground(user.id, base, body, room.n);
+  if (autoRunsNow(body, room.n, mustCount, excludeCount)) return searchNow(user.id, base, snapshot);
   const task =
     starters !== null
       ? { kind: 'hand-made' as const, snapshot, starters }
@@ -105,16 +102,52 @@ export async function createPlan(
           cannotBrief: base.cannotBrief ?? [],
           noShow: base.noShow ?? null,
         });
-  const outcome = (await runInPlanPool(task, {
-    hardLimitMs: hardLimitMs(base.timeLimitSeconds ?? null),
-  })) as ComputeOutcome<PlanComputation>;
-  const computed = unwrap(outcome);
-  const planId = await db.transaction(async (tx) => {
+  const computed = await computeNow(task, base.timeLimitSeconds ?? null);
+  const row = await db.transaction(async (tx) => {
     const id = await store.insertPlan({ ...base, ...resultColumns(snapshot, computed) }, tx);
     await recordComputation({ ...base, noShow: base.noShow ?? null }, computed, snapshot.personIds, tx);
-    return id;
+    return (await store.findPlan(id, tx))!;
   });
-  const row = (await store.findPlan(planId))!;
+  return { status: 201, body: await detailOf(row, snapshot.version) };
+}
+
+/** Runs a task in the plan pool within the request; a failure is a 4xx with the engine's words. */
+async function computeNow(task: Parameters<typeof runInPlanPool>[0], timeLimitSeconds: number | null): Promise<PlanComputation> {
+  try {
+    return unwrap((await runInPlanPool(task, { hardLimitMs: hardLimitMs(timeLimitSeconds) })) as ComputeOutcome<PlanComputation>);
+  } catch (e) {
+    if (e instanceof TimeLimitError)
+      throw new HttpError(503, 'plan_too_slow', `${e.message} Try again, or ask for the plan to run in the background.`);
+    throw e;
+  }
+}
+
+/**
+ * A small automatic plan (autoRunsNow), computed in the request with what its job would do: the
+ * job quota is checked and the user's background proofs step aside, the search continues the
+ * key's saved search, and the plan, its bound, its saved search and (when a gap is left) its
+ * background proof are stored in one transaction, the proof queued once it commits.
+ */
+async function searchNow(userId: number, base: NewPlan, snapshot: RoomSnapshot): Promise<{ status: 201; body: PlanDetail }> {
+  await checkJobQuota(userId);
+  await yieldProofs(userId);
+  const keyed = { ...base, noShow: base.noShow ?? null, mustBrief: base.mustBrief ?? [], cannotBrief: base.cannotBrief ?? [] };
+  const resume = await savedSearchOf(keyed);
+  const task = {
+    ...plannerTask(snapshot, { ...keyed, k: base.k, nu: base.nu ?? null, timeLimitSeconds: base.timeLimitSeconds ?? null }),
+    ...(resume ? { resume } : {}),
+  };
+  const computed = await computeNow(task, base.timeLimitSeconds ?? null);
+  let proof: number | null = null;
+  const row = await db.transaction(async (tx) => {
+    const id = await store.insertPlan({ ...base, ...resultColumns(snapshot, computed) }, tx);
+    const stored = (await store.findPlan(id, tx))!;
+    await recordComputation(stored, computed, snapshot.personIds, tx);
+    await recordSearch(stored, computed, tx);
+    proof = await addProofRow(stored, computed, userId, tx);
+    return stored;
+  });
+  await queueProof(proof).catch((err: unknown) => logger.warn({ err, planId: row.id }, 'queueing the background proof failed'));
   return { status: 201, body: await detailOf(row, snapshot.version) };
 }
 

@@ -63,6 +63,7 @@ export const ERROR_CODES = [
   'not_rerunnable',
   'wrong_room',
   'unknown_sample',
+  'plan_too_slow',
   // ---- job quotas ----
   'quota_jobs',
   'quota_cascades',

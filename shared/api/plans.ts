@@ -101,7 +101,13 @@ export const PLAN_LIMITS = {
   /** Plans above this many people (or exhaustive / auto) run as background jobs. */
   inlineMaxPeople: 400,
   /**
-   * An automatic plan of a room up to inlineMaxPeople is a job too, but its request waits this
+   * An automatic plan (no no-show chance) of a room up to exhaustiveMaxPeople whose search has at
+   * most this many starter sets to decide is computed in the request like greedy (201, no job):
+   * its whole search takes milliseconds. Every other automatic plan is a job.
+   */
+  autoInlineMaxSets: 10_000,
+  /**
+   * An automatic plan of a room up to inlineMaxPeople that is a job still has its request wait this
    * long for it: a plan that is done by then is answered at once (201), the rest as a job (202).
    */
   autoAnswerWithinMs: 1200,

@@ -170,10 +170,13 @@ describe('PlanPage', () => {
     expect(req.request.body).toEqual(jasmine.objectContaining({ k: 2, method: 'auto', mustBrief: [], cannotBrief: [] }));
     req.flush(plan(7));
     await settle();
-    http.expectOne('/api/rooms/5/plans').flush([summary(plan(7))]);
-    await settle();
+    http.expectNone('/api/rooms/5/plans');
     expect((router.routeNativeElement as HTMLElement).querySelector('.result-head h2')?.textContent).toBe('Plan 7');
     expect(text()).toContain('Marek');
+    const listed = [...(router.routeNativeElement as HTMLElement).querySelectorAll('app-saved-plans tbody button.link')];
+    expect(listed.map((b) => b.textContent?.trim()))
+      .withContext('the new plan is listed without asking again')
+      .toEqual(['Plan 7']);
     expect(await (await loader.getHarness(MatButtonHarness.with({ text: /Mark as chosen/ }))).isDisabled()).toBeFalse();
   });
 
@@ -185,8 +188,10 @@ describe('PlanPage', () => {
     const started: PlanStarted = { plan: summary(plan(8, { status: 'computing', jobId: 44, k: 3 })), job: job(44) };
     http.expectOne({ method: 'POST', url: '/api/rooms/5/plans' }).flush(started);
     await settle();
-    http.expectOne('/api/rooms/5/plans').flush([summary(plan(7)), started.plan]);
-    await settle();
+    http.expectNone('/api/rooms/5/plans');
+    const rows = [...(router.routeNativeElement as HTMLElement).querySelectorAll('app-saved-plans tbody tr')];
+    expect(rows.map((r) => r.querySelector('button.link')?.textContent?.trim())).toEqual(['Plan 8', 'Plan 7']);
+    expect(rows[0]?.querySelector('.badge')?.textContent?.trim()).withContext('listed at once, as computing').toBe('computing');
 
     const bar = await loader.getHarness(MatProgressBarHarness);
     expect(await bar.getMode()).toBe('determinate');
@@ -218,8 +223,6 @@ describe('PlanPage', () => {
       .expectOne({ method: 'POST', url: '/api/rooms/5/plans' })
       .flush({ plan: summary(plan(8, { status: 'computing', jobId: 45 })), job: job(45) } satisfies PlanStarted);
     await settle();
-    http.expectOne('/api/rooms/5/plans').flush([summary(plan(7))]);
-    await settle();
 
     await (await loader.getHarness(MatButtonHarness.with({ ancestor: 'app-plan-progress', text: /Cancel/ }))).click();
     const cancel = http.expectOne({ method: 'POST', url: '/api/jobs/45/cancel' });
@@ -243,8 +246,6 @@ describe('PlanPage', () => {
     http
       .expectOne({ method: 'POST', url: '/api/rooms/5/plans' })
       .flush({ plan: summary(plan(8, { status: 'computing', jobId: 46 })), job: job(46) } satisfies PlanStarted);
-    await settle();
-    http.expectOne('/api/rooms/5/plans').flush([summary(plan(7))]);
     await settle();
     lastSource().send({ type: 'done', job: job(46, { status: 'done', progress: 1 }) });
     await settle();

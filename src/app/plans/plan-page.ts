@@ -135,6 +135,15 @@ export default class PlanPage {
     this.api.plans(this.id()).subscribe({ next: (plans) => this.plans.set(plans), error: shownByInterceptor });
   }
 
+  /**
+   * Puts the plan the create call just answered with at the top of the saved list (newest first,
+   * as the server lists them), or replaces its row: no second request for the list.
+   */
+  private keepInList(made: PlanDetail | PlanSummary): void {
+    const { perPerson: _people, reach: _reach, proving: _proving, fasterPlanId: _faster, searchSoFar: _so, ...row } = made as PlanDetail;
+    this.plans.update((list) => (list.some((p) => p.id === row.id) ? list.map((p) => (p.id === row.id ? row : p)) : [row, ...list]));
+  }
+
   private showPlan(planId: number | null): void {
     if (planId === null) {
       this.shown.set(null);
@@ -160,11 +169,12 @@ export default class PlanPage {
         next: (r) => {
           if (isStarted(r)) {
             this.follow(r.job.id, r.plan.id, r.plan.k);
+            this.keepInList(r.plan);
           } else {
             this.present(r);
             this.open(r.id);
+            this.keepInList(r);
           }
-          this.refreshPlans();
         },
         error: (e: unknown) => {
           const err = toApiError(e);
@@ -298,7 +308,7 @@ export default class PlanPage {
         next: (r) => {
           if (isStarted(r)) this.follow(r.job.id, r.plan.id, p.k, done);
           else done(r.id);
-          this.refreshPlans();
+          this.keepInList(isStarted(r) ? r.plan : r);
         },
         error: (e: unknown) => this.serverError.set({ message: toApiError(e).message, field: null }),
       });

@@ -1,7 +1,8 @@
-import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, PendingTasks, signal } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import type { PlanDetail } from '../../../shared/api/plans';
 import type { RoomDto } from '../../../shared/api/rooms';
+import { inPaintedTurns } from '../core/painted-turns';
 import { ModelCaution } from './model-caution';
 import { PlanMap } from './plan-map';
 import { PlanPeopleTable } from './plan-people-table';
@@ -33,29 +34,39 @@ import { ReachChart } from './reach-chart';
     <app-plan-scores [plan]="p" />
     <app-model-caution />
     <div class="grid">
-      <section>
+      <section [class.stale]="!!mapOf() && mapOf() !== p">
         <h3>On the map</h3>
-        <app-plan-map [people]="room().people" [ties]="room().ties" [hops]="hops()" [starters]="starterIds()" />
+        @if (mapOf()) {
+          <app-plan-map [people]="room().people" [ties]="room().ties" [hops]="hops()" [starters]="starterIds()" />
+        } @else {
+          <div class="map-to-come" aria-busy="true"></div>
+        }
       </section>
-      <section>
-        @if (p.reach) {
-          <app-reach-chart
-            [series]="[{ label: p.name, share: p.reach.byHop }]"
-            [minutesPerHop]="p.reach.minutesPerHop"
-            title="How fast the word spreads"
-          />
-          <p class="rh-muted small">
-            @if (!p.reach.complete) {
-              The curve is cut where the slowest few have not yet heard.
-            }
-            One hop ≈ {{ p.reach.minutesPerHop }} min (room setting).
-          </p>
+      <section [class.stale]="!!curveOf() && curveOf() !== p">
+        @if (curveOf(); as c) {
+          @if (c.reach) {
+            <app-reach-chart
+              [series]="[{ label: c.name, share: c.reach.byHop }]"
+              [minutesPerHop]="c.reach.minutesPerHop"
+              title="How fast the word spreads"
+            />
+            <p class="rh-muted small">
+              @if (!c.reach.complete) {
+                The curve is cut where the slowest few have not yet heard.
+              }
+              One hop ≈ {{ c.reach.minutesPerHop }} min (room setting).
+            </p>
+          }
+        } @else if (p.reach) {
+          <div class="curve-to-come" aria-busy="true"></div>
         }
       </section>
     </div>
-    <section>
+    <section [class.stale]="!!tableOf() && tableOf() !== p">
       <h3>Person by person</h3>
-      <app-plan-people-table [people]="p.perPerson" />
+      @if (tableOf(); as t) {
+        <app-plan-people-table [people]="t.perPerson" />
+      }
     </section>
   `,
   styleUrl: './plan-result.scss',
@@ -64,6 +75,22 @@ import { ReachChart } from './reach-chart';
 export class PlanResult {
   readonly plan = input.required<PlanDetail>();
   readonly room = input.required<RoomDto>();
-  protected readonly hops = computed(() => new Map(this.plan().perPerson.map((p) => [p.personId, p.expectedHops])));
-  protected readonly starterIds = computed(() => this.plan().starters.map((s) => s.personId));
+  /**
+   * The plans the map, the reach curve and the table show. They follow `plan` one painted frame
+   * apart, in that order: the starters and scores reach the screen first, then each drawing (the
+   * costly part) in a task of its own. Until a drawing is redone it shows the previous plan, dimmed.
+   */
+  protected readonly mapOf = signal<PlanDetail | null>(null);
+  protected readonly curveOf = signal<PlanDetail | null>(null);
+  protected readonly tableOf = signal<PlanDetail | null>(null);
+  protected readonly hops = computed(() => new Map((this.mapOf()?.perPerson ?? []).map((p) => [p.personId, p.expectedHops])));
+  protected readonly starterIds = computed(() => (this.mapOf()?.starters ?? []).map((s) => s.personId));
+
+  constructor() {
+    const tasks = inject(PendingTasks);
+    effect((onCleanup) => {
+      const p = this.plan();
+      onCleanup(inPaintedTurns(tasks, [() => this.mapOf.set(p), () => this.curveOf.set(p), () => this.tableOf.set(p)]));
+    });
+  }
 }
