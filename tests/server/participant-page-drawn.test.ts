@@ -83,6 +83,12 @@ describe('a participant page drawn on the server', () => {
     assert.ok(html.includes(`<style nonce="${nonce}">`), 'the drawn styles carry the nonce');
     assert.ok(html.includes('<link rel="modulepreload" href="chunk-ROUTE111.js"></head>'), 'the page code is linked in head');
     assert.ok(
+      html.includes(
+        '<link rel="modulepreload" href="main-MAIN1111.js"><script src="paint-first.js?main=main-MAIN1111.js" type="module"></script>',
+      ),
+      'the app is fetched at once and started after the first paint',
+    );
+    assert.ok(
       page.headers.getSetCookie().some((c) => c.startsWith('XSRF-TOKEN=')),
       'the form token is set',
     );
