@@ -48,23 +48,15 @@ const stateBlock = (html: string) => /<script type="application\/json" id="rh-fi
 
 describe('a participant page drawn on the server', () => {
   let server: TestServer;
-  let support: typeof import('./workshops-support');
-  let signedInClient: typeof import('../support/test-server').signedInClient;
+  let linkFor: (title: string) => Promise<string>;
   before(async () => {
     // Imported only now: the server reads CLIENT_DIR when it loads.
     const ts = await import('../support/test-server');
-    support = await import('./workshops-support');
-    signedInClient = ts.signedInClient;
+    const { collectingLinkFor } = await import('./workshops-support');
     server = await ts.startTestServer();
+    linkFor = (title) => collectingLinkFor(server, title);
   });
   after(async () => server.stop());
-
-  async function linkFor(title: string) {
-    const { client: c } = await signedInClient(server);
-    const { id } = await support.newWorkshop(c, [{ name: 'Mira Tollan' }, { name: 'Oskar Bruhn' }], title);
-    await c.post(`/api/workshops/${id}/status`, { to: 'collecting' });
-    return (await support.sheetTokens(c, id)).get('Mira Tollan')!;
-  }
 
   it('sends what the renderer drew from the link state, stamped with the nonce, with the state block and the route code', async () => {
     const token = await linkFor('Harbour tour briefing');

@@ -45,23 +45,15 @@ const firstState = (html: string) => {
 
 describe('a participant page served cold', () => {
   let server: TestServer;
-  let support: typeof import('./workshops-support');
-  let signedInClient: typeof import('../support/test-server').signedInClient;
+  let linkFor: (title: string) => Promise<string>;
   before(async () => {
     // Imported only now: the server reads CLIENT_DIR when it loads.
     const ts = await import('../support/test-server');
-    support = await import('./workshops-support');
-    signedInClient = ts.signedInClient;
+    const { collectingLinkFor } = await import('./workshops-support');
     server = await ts.startTestServer();
+    linkFor = (title) => collectingLinkFor(server, title);
   });
   after(async () => server.stop());
-
-  async function linkFor(title: string) {
-    const { client: c } = await signedInClient(server);
-    const { id } = await support.newWorkshop(c, [{ name: 'Mira Tollan' }, { name: 'Oskar Bruhn' }], title);
-    await c.post(`/api/workshops/${id}/status`, { to: 'collecting' });
-    return (await support.sheetTokens(c, id)).get('Mira Tollan')!;
-  }
 
   it('carries the survey state the API would answer, and the form token to answer with at once', async () => {
     const token = await linkFor('Harbour tour briefing');

@@ -2,6 +2,7 @@ import { desc, like } from 'drizzle-orm';
 import { mailMessages } from '../../db/schema/mail';
 import { db } from '../../server/db';
 import type { TestClient } from '../support/http-client';
+import { signedInClient, type TestServer } from '../support/test-server';
 
 /** Helpers shared by the workshops server tests. */
 export async function newWorkshop(c: TestClient, names: { name: string; email?: string }[], title = 'Spring onboarding day') {
@@ -33,3 +34,11 @@ export async function latestMailTo(address: string) {
 }
 
 export const tokenOf = (text: string) => /\/p\/([A-Za-z0-9_-]{43})/.exec(text)?.[1];
+
+/** A workshop collecting answers from Mira Tollan and Oskar Bruhn, titled `title`: Mira's link token. */
+export async function collectingLinkFor(server: TestServer, title: string): Promise<string> {
+  const { client: c } = await signedInClient(server);
+  const { id } = await newWorkshop(c, [{ name: 'Mira Tollan' }, { name: 'Oskar Bruhn' }], title);
+  await c.post(`/api/workshops/${id}/status`, { to: 'collecting' });
+  return (await sheetTokens(c, id)).get('Mira Tollan')!;
+}
