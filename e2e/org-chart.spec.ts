@@ -25,6 +25,9 @@ test('an org chart becomes a room: choose columns, read row errors, fix, import,
   const dialog = page.getByRole('dialog');
   await dialog.getByLabel('Room name').fill('Studio org chart');
   await dialog.getByRole('radio', { name: 'From an org chart' }).check();
+  // The org chart has its own file picker: files go to it only once it has replaced the ties picker.
+  await expect(dialog.getByText('Org chart CSV', { exact: true })).toBeVisible();
+  await expect(dialog.getByText('Ties CSV', { exact: true })).toHaveCount(0);
   await dialog.getByTestId('import-main').setInputFiles(`${dir}/chart-bad.csv`);
 
   // The header is read at once: a preview, and pickers for the columns ("Worker" is not a name the server knows).
