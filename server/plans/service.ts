@@ -22,7 +22,7 @@ import { prepared, type ComputeOutcome, type PlanComputation, type RoomSnapshot 
 import { hardLimitMs, plannerTask } from './planner-task';
 import { parseResults, parseSnapshot, planDetail, planSummary } from './dto';
 import { resultColumns } from './result-columns';
-import { autoRunsNow, runsInBackground } from './where-it-runs';
+import { placement } from './where-it-runs';
 import type { NewPlan, PlanRow } from './store';
 import * as store from './store';
 
@@ -88,8 +88,9 @@ export async function createPlan(
   const base = newPlanRow(user.id, roomId, snapshot, body, starters);
   const mustCount = base.mustBrief?.length ?? 0;
   const excludeCount = base.cannotBrief?.length ?? 0;
-  if (runsInBackground(body, room.n, mustCount, excludeCount)) return startInBackground(user.id, base, body, room.n);
-  if (autoRunsNow(body, room.n, mustCount, excludeCount)) return searchNow(user.id, base, snapshot);
+  const where = placement(body, room.n, mustCount, excludeCount);
+  if (where === 'background') return startInBackground(user.id, base, body, room.n);
+  if (where === 'search-now') return searchNow(user.id, base, snapshot);
   const task =
     starters !== null
       ? { kind: 'hand-made' as const, snapshot, starters }

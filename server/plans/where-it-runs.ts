@@ -3,15 +3,21 @@ import type { CreatePlanRequest } from '../../shared/api/plans';
 import { PLAN_LIMITS } from '../../shared/api/plans';
 
 /**
- * Where a plan runs: awaited in the request (small rooms with a fast method, or an automatic plan
- * whose search is small, see autoRunsNow) or as a background job.
+ * Where a plan runs, decided once: an automatic plan whose search is small is searched in the
+ * request (autoRunsNow); a hand-made plan, or a fast method on a small room, is computed in the
+ * request; everything else is a background job.
  */
-export function runsInBackground(body: CreatePlanRequest, n: number, mustCount = 0, excludeCount = 0): boolean {
-  if (body.starters) return false;
-  if (body.background) return true;
-  if (autoRunsNow(body, n, mustCount, excludeCount)) return false;
+export function placement(
+  body: CreatePlanRequest,
+  n: number,
+  mustCount = 0,
+  excludeCount = 0,
+): 'search-now' | 'compute-now' | 'background' {
+  if (body.starters) return 'compute-now';
+  if (body.background) return 'background';
+  if (autoRunsNow(body, n, mustCount, excludeCount)) return 'search-now';
   const fast = body.method === 'greedy' || body.method === 'swap' || body.method === 'widened';
-  return !fast || n > PLAN_LIMITS.inlineMaxPeople;
+  return fast && n <= PLAN_LIMITS.inlineMaxPeople ? 'compute-now' : 'background';
 }
 
 /**
