@@ -18,22 +18,22 @@ function staticImports(file: string): string[] {
 }
 
 /**
- * modulepreload links for everything a page that is opened cold runs before it shows (a
- * participant's page, the projector replay): the route's lazy chunk (its `import("./chunk-….js")`
- * in main-*.js, found by the route's path) and every chunk it or main-*.js imports, however deep,
- * less those index.html already links. The browser then asks for all of them at once instead of
+ * Every chunk a page that is opened cold runs before it shows (a participant's page, the
+ * projector replay): the route's lazy chunk (its `import("./chunk-….js")` in main-*.js, found by
+ * the route's path) and every chunk it or main-*.js imports, however deep, less those index.html
+ * already links. Linked as modulepreload, the browser asks for all of them at once instead of
  * discovering one level after another (and, for the replay, before the sign-in check answers).
- * If the build's shape ever differs, no link is added and the page loads as before.
+ * If the build's shape ever differs, the list is empty and the page loads as before.
  */
-function routePreloads(indexHtml: string, routePath: string): string {
+function routeChunks(indexHtml: string, routePath: string): string[] {
   try {
     const main = readdirSync(browserDir).find((f) => /^main-[\w-]+\.js$/.test(f));
-    if (!main) return '';
+    if (!main) return [];
     const escaped = routePath.replace(/[.*+?^${}()|[\]\\/]/g, '\\$&');
     const route = new RegExp(`path:["'\`]${escaped}["'\`].{0,300}?import\\(["'\`]\\./(chunk-[\\w-]+\\.js)["'\`]\\)`).exec(
       readFileSync(`${browserDir}/${main}`, 'utf8'),
     );
-    if (!route?.[1]) return '';
+    if (!route?.[1]) return [];
     const seen = new Set<string>();
     const queue = [main, route[1]];
     while (queue.length) {
@@ -43,14 +43,13 @@ function routePreloads(indexHtml: string, routePath: string): string {
       queue.push(...staticImports(file));
     }
     seen.delete(main);
-    return [...seen]
-      .filter((f) => !indexHtml.includes(`"${f}"`))
-      .map((f) => `<link rel="modulepreload" href="${f}">`)
-      .join('');
+    return [...seen].filter((f) => !indexHtml.includes(`"${f}"`));
   } catch {
-    return '';
+    return [];
   }
 }
+
+const modulePreloads = (chunks: string[]) => chunks.map((f) => `<link rel="modulepreload" href="${f}">`).join('');
 
 /**
  * preload links for the text fonts the page's stylesheet names (woff2): a phone then fetches them
@@ -82,6 +81,19 @@ function indexFile(): { path: string; mtimeMs: number } | undefined {
   return undefined;
 }
 
+/** How long a look at the build on disk (is there a new one?) is trusted: pages do not stat files each. */
+const BUILD_CHECK_MS = 1000;
+
+/** `look()`'s answer, asked again at most once every BUILD_CHECK_MS. */
+function lookedAtMostEverySecond<T>(look: () => T): () => T {
+  let last: { at: number; value: T } | undefined;
+  return () => {
+    const now = Date.now();
+    if (!last || now - last.at >= BUILD_CHECK_MS) last = { at: now, value: look() };
+    return last.value;
+  };
+}
+
 type RenderPage = (url: string, context: unknown) => Promise<string | null>;
 
 /** Renders taking longer than this, or beyond this many at once, give way to the page drawn in the browser. */
@@ -94,8 +106,9 @@ export const SERVER_RENDER = { timeoutMs: 1500, maxInFlight: 4 } as const;
 function serverRenderer() {
   let loaded: { mtimeMs: number; render: Promise<RenderPage | null> } | undefined;
   let inFlight = 0;
+  const rendererMtime = lookedAtMostEverySecond(() => statSync(rendererFile, { throwIfNoEntry: false })?.mtimeMs);
   const load = (): Promise<RenderPage | null> | null => {
-    const mtimeMs = statSync(rendererFile, { throwIfNoEntry: false })?.mtimeMs;
+    const mtimeMs = rendererMtime();
     if (mtimeMs === undefined) return null;
     if (loaded?.mtimeMs !== mtimeMs) {
       const url = `${pathToFileURL(rendererFile).href}?v=${mtimeMs}`;
@@ -130,24 +143,47 @@ function serverRenderer() {
   return Object.assign(draw, { warm: async () => void (await load()) });
 }
 
-type Templates = { text: string; participant: string; participantPreloads: string; replay: string; mtimeMs: number };
+/** The stylesheet index.html links (its file name and text), if it is in the expected form. */
+function stylesheet(indexHtml: string): { href: string; text: string } | undefined {
+  try {
+    const href = /<link rel="stylesheet" href="(styles-[\w-]+\.css)">/.exec(indexHtml)?.[1];
+    if (!href) return undefined;
+    const text = readFileSync(`${browserDir}/${href}`, 'utf8');
+    // Written into a <style> element, which would end at "</style".
+    return /<\/style/i.test(text) ? undefined : { href, text };
+  } catch {
+    return undefined;
+  }
+}
+
+type Templates = {
+  text: string;
+  /** A participant's page drawn in the browser, its code and fonts linked in <head>. */
+  participant: string;
+  /** What a participant's page drawn on the server needs beside it. */
+  drawn: { fonts: string; chunks: string[]; stylesheet: { href: string; text: string } | undefined };
+  replay: string;
+  mtimeMs: number;
+};
 
 /** The page templates of the build in place, read again when a rebuild changes them (so chunk names that are gone are never served). */
 function templates() {
   let cached: Templates | undefined;
+  const file = lookedAtMostEverySecond(indexFile);
   return (): Templates | undefined => {
-    const file = indexFile();
-    if (!file) return undefined;
-    if (cached?.mtimeMs !== file.mtimeMs) {
-      const text = readFileSync(file.path, 'utf8');
-      const participantPreloads = fontPreloads(text) + routePreloads(text, 'p/:token');
+    const index = file();
+    if (!index) return undefined;
+    if (cached?.mtimeMs !== index.mtimeMs) {
+      const text = readFileSync(index.path, 'utf8');
+      const fonts = fontPreloads(text);
+      const chunks = routeChunks(text, 'p/:token');
       const withPreloads = (html: string, preloads: string) => html.replace('</head>', () => `${preloads}</head>`);
       cached = {
         text,
-        participant: withPreloads(text, participantPreloads),
-        participantPreloads,
-        replay: withPreloads(text, routePreloads(text, 'replay/:rehearsalId')),
-        mtimeMs: file.mtimeMs,
+        participant: withPreloads(text, fonts + modulePreloads(chunks)),
+        drawn: { fonts, chunks, stylesheet: stylesheet(text) },
+        replay: withPreloads(text, modulePreloads(routeChunks(text, 'replay/:rehearsalId'))),
+        mtimeMs: index.mtimeMs,
       };
     }
     return cached;
@@ -155,16 +191,32 @@ function templates() {
 }
 
 /**
- * A page drawn on the server runs the app only after its first frame (public/paint-first.js):
- * the browser would otherwise run the app's code, already fetched, before it first paints, and
- * the drawn page would show no sooner than one drawn in the browser. The code is still fetched
- * at once (modulepreload). Unchanged if the page has no app script in the expected form.
+ * A participant's page as the server drew it, made to show on the phone's first frame:
+ * - nothing in it waits for code: the drawn page's modulepreload links are taken out, since
+ *   Chrome compiles modules it has been told to preload before it paints (about 100 to 190 ms
+ *   here on a phone-sized page), and its stylesheet (10 kB) is written in, so no request stands
+ *   between the page and its first paint;
+ * - the app starts one frame after the page is shown (at most 250 ms later), through
+ *   public/paint-first.js, which then links every chunk the page runs (those the page linked and
+ *   the route's, `drawn.chunks`) so they are asked for at once, and imports main-*.js;
+ * - the text fonts are preloaded, so the page changes to them soon after it shows.
+ * Anything not in the expected form is left as it is (the page still works, only later).
  */
-export function startAfterFirstPaint(html: string): string {
-  return html.replace(
-    /<script src="(main-[\w-]+\.js)" type="module"><\/script>/,
-    (_, main: string) => `<link rel="modulepreload" href="${main}"><script src="paint-first.js?main=${main}" type="module"></script>`,
-  );
+export function drawnPage(html: string, drawn: Templates['drawn']): string {
+  // The links the page came with (index.html's own, the renderer's) join the route's list.
+  const chunks = new Set<string>();
+  let page = html.replace(/<link rel="modulepreload" href="([^"]*)">/g, (_, href: string) => {
+    if (/^chunk-[\w-]+\.js$/.test(href)) chunks.add(href);
+    return '';
+  });
+  for (const chunk of drawn.chunks) chunks.add(chunk);
+  const { stylesheet } = drawn;
+  if (stylesheet) page = page.replace(`<link rel="stylesheet" href="${stylesheet.href}">`, () => `<style>${stylesheet.text}</style>`);
+  page = page.replace('</head>', () => `${drawn.fonts}</head>`);
+  return page.replace(/<script src="(main-[\w-]+\.js)" type="module"><\/script>/, (_, main: string) => {
+    const code = chunks.size ? `&amp;code=${[...chunks].join(',')}` : '';
+    return `<script src="paint-first.js?main=${main}${code}" type="module"></script>`;
+  });
 }
 
 /** The built Angular app, with the CSP nonce written into each page on every request. */
@@ -197,9 +249,7 @@ export function serveClient(app: Express) {
     // the page is in, and the app takes that page over once its code has run.
     const html = state ? await drawn(req.path, { path: req.path, firstState: state }) : null;
     // Either way its first state is written in before </body>, so the app starts from it.
-    const page = stamp(
-      html ? startAfterFirstPaint(html.replace('</head>', () => `${template.participantPreloads}</head>`)) : template.participant,
-    );
+    const page = stamp(html ? drawnPage(html, template.drawn) : template.participant);
     const end = page.lastIndexOf('</body>');
     res.send(page.slice(0, end) + firstStateBlock(state) + page.slice(end));
   };

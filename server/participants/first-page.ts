@@ -1,12 +1,9 @@
 import type { Request } from 'express';
 import { countFailedLink } from '../auth/link-guard';
-import type { SurveyState } from '../../shared/api/workshops';
+import { FIRST_STATE_ID, type SurveyState } from '../../shared/api/workshops';
 import { logger } from '../core/logging';
 import { findLinkHolder } from './links';
 import { surveyState } from './survey';
-
-/** The id of the data block a participant's page reads instead of asking /api/p/<token> first. */
-export const FIRST_STATE_ID = 'rh-first-state';
 
 /**
  * A participant's page, cold: the survey state (what GET /api/p/<token> answers), which the server

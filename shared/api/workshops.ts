@@ -141,6 +141,12 @@ export interface Nomination {
   level: SurveyLevel;
 }
 
+/**
+ * The id of the JSON data block in which the server writes a participant page's first survey
+ * state (server/participants/first-page.ts); the app reads it once (participant/first-state.ts).
+ */
+export const FIRST_STATE_ID = 'rh-first-state';
+
 export interface SurveyState {
   workshopTitle: string;
   sessionDate: string;

@@ -24,6 +24,7 @@ writeFileSync(
   '<!doctype html><html><head><link rel="stylesheet" href="styles-AAAA1111.css"></head><body><app-root></app-root>' +
     '<script src="main-MAIN1111.js" type="module"></script></body></html>',
 );
+writeFileSync(join(client, 'styles-AAAA1111.css'), 'body{margin:0}');
 writeFileSync(join(client, 'main-MAIN1111.js'), 'const r=[{path:"p/:token",loadComponent:()=>import("./chunk-ROUTE111.js")}];');
 writeFileSync(join(client, 'chunk-ROUTE111.js'), 'export const b=2;');
 writeFileSync(
@@ -35,8 +36,9 @@ export async function renderPage(url, context) {
   if (title === 'Renderer fails') throw new Error('broken render');
   if (title === 'Renderer declines') return null;
   if (title === 'Renderer is slow') await new Promise((r) => setTimeout(r, 4000));
-  return '<!doctype html><html><head><style>h1{}</style></head><body><app-root ng-server-context="ssr"><h1>Hello, ' +
-    context.firstState.me.name + '</h1></app-root><script src="main-MAIN1111.js" type="module"></script></body></html>';
+  return '<!doctype html><html><head><link rel="stylesheet" href="styles-AAAA1111.css"><style>h1{}</style></head>' +
+    '<body><app-root ng-server-context="ssr"><h1>Hello, ' + context.firstState.me.name + '</h1></app-root>' +
+    '<script src="main-MAIN1111.js" type="module"></script><link rel="modulepreload" href="chunk-DRAWN111.js"></body></html>';
 }
 `,
 );
@@ -58,7 +60,7 @@ describe('a participant page drawn on the server', () => {
   });
   after(async () => server.stop());
 
-  it('sends what the renderer drew from the link state, stamped with the nonce, with the state block and the route code', async () => {
+  it('sends what the renderer drew from the link state, stamped with the nonce, with the state block, its stylesheet written in and the route code started after the first frame', async () => {
     const token = await linkFor('Harbour tour briefing');
     const page = await fetch(`${server.url}/p/${token}`);
     assert.equal(page.status, 200);
@@ -73,12 +75,14 @@ describe('a participant page drawn on the server', () => {
     assert.ok(nonce);
     assert.ok(html.includes(`<app-root ngCspNonce="${nonce}" ng-server-context="ssr">`), 'the app root carries the nonce');
     assert.ok(html.includes(`<style nonce="${nonce}">`), 'the drawn styles carry the nonce');
-    assert.ok(html.includes('<link rel="modulepreload" href="chunk-ROUTE111.js"></head>'), 'the page code is linked in head');
+    assert.ok(html.includes(`<style nonce="${nonce}">body{margin:0}</style>`), 'the stylesheet is written in, with the nonce');
+    assert.ok(!html.includes('<link rel="stylesheet"'), 'no stylesheet request stands before the first paint');
+    assert.ok(!html.includes('modulepreload'), 'no code is compiled before the first paint');
     assert.ok(
       html.includes(
-        '<link rel="modulepreload" href="main-MAIN1111.js"><script src="paint-first.js?main=main-MAIN1111.js" type="module"></script>',
+        '<script src="paint-first.js?main=main-MAIN1111.js&amp;code=chunk-DRAWN111.js,chunk-ROUTE111.js" type="module"></script>',
       ),
-      'the app is fetched at once and started after the first paint',
+      'the app, the code the page linked and the route code are asked for after the first paint',
     );
     assert.ok(
       page.headers.getSetCookie().some((c) => c.startsWith('XSRF-TOKEN=')),

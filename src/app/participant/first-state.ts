@@ -1,7 +1,4 @@
-import type { SurveyState } from '../../../shared/api/workshops';
-
-/** The id the server gives the data block (server/participants/first-page.ts). */
-const FIRST_STATE_ID = 'rh-first-state';
+import { FIRST_STATE_ID, type SurveyState } from '../../../shared/api/workshops';
 
 /**
  * What the Express server hands the renderer when it draws a participant's page
