@@ -12,6 +12,7 @@ import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import type { JobDto, PlanDetail, PlanStarted, PlanSummary } from '../../../shared/api/plans';
 import type { RoomDto } from '../../../shared/api/rooms';
+import { planDetail } from './plan-fixtures.spec';
 import { FakeEventSource, lastSource, useFakeEventSource } from './fake-event-source.spec';
 import PlanPage from './plan-page';
 import { CUT_SHORT_SINCE_PROVEN } from './score-words';
@@ -39,51 +40,14 @@ const ROOM: RoomDto = {
 };
 
 function plan(id: number, over: Partial<PlanDetail> = {}): PlanDetail {
-  return {
+  return planDetail({
     id,
-    roomId: 5,
     name: `Plan ${id}`,
-    kind: 'computed',
-    status: 'ready',
-    k: 2,
-    methodRequested: 'auto',
-    methodUsed: 'greedy',
-    nu: null,
-    timeLimitSeconds: null,
-    mustBrief: [],
-    cannotBrief: [],
-    starters: [
-      { personId: 2, name: 'Marek', group: null, order: 1 },
-      { personId: 5, name: 'Wren', group: null, order: 2 },
-    ],
-    total: 6,
-    average: 1.5,
-    averageMinutes: 15,
-    qualityRank: null,
     lowerBound: 6,
     gap: 0,
     gapShare: 0,
     certified: true,
-    boundSource: null,
-    bestKnownTotal: 6,
     optimumKnown: true,
-    noShow: null,
-    absence: null,
-    extras: null,
-    coverSize: null,
-    elapsedMs: 4,
-    people: 6,
-    roomVersion: 3,
-    currentRoomVersion: 3,
-    stale: false,
-    settings: { directed: false, minutesPerHop: 10, laziness: 0, mixing: 0 },
-    chosen: false,
-    notes: [],
-    warnings: [],
-    jobId: null,
-    error: null,
-    createdBy: 'Owner',
-    createdAt: '2026-11-30T09:10:00Z',
     perPerson: ROOM.people.map((p) => ({
       personId: p.id,
       name: p.name,
@@ -93,9 +57,8 @@ function plan(id: number, over: Partial<PlanDetail> = {}): PlanDetail {
       expectedHops: p.id === 2 || p.id === 5 ? 0 : 1.5,
       expectedMinutes: p.id === 2 || p.id === 5 ? 0 : 15,
     })),
-    reach: null,
     ...over,
-  };
+  });
 }
 
 const summary = ({ perPerson: _p, reach: _r, ...s }: PlanDetail): PlanSummary => s;

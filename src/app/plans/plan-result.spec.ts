@@ -2,6 +2,7 @@ import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideCharts, withDefaultRegisterables } from 'ng2-charts';
 import type { PlanDetail } from '../../../shared/api/plans';
+import { planDetail } from './plan-fixtures.spec';
 import type { RoomDto } from '../../../shared/api/rooms';
 import { PlanResult } from './plan-result';
 
@@ -23,19 +24,11 @@ const ROOM: RoomDto = {
 /** A finished plan of the path room briefing one person (hops are made up: only what is shown matters here). */
 function plan(id: number, starter: number): PlanDetail {
   const hops = (p: number) => (p === starter ? 0 : Math.abs(p - starter) * 2);
-  return {
+  return planDetail({
     id,
-    roomId: 5,
     name: `Plan ${id}`,
-    kind: 'computed',
-    status: 'ready',
     k: 1,
-    methodRequested: 'auto',
     methodUsed: 'swap',
-    nu: null,
-    timeLimitSeconds: null,
-    mustBrief: [],
-    cannotBrief: [],
     starters: [{ personId: starter, name: names[starter - 1]!, group: null, order: 1 }],
     total: 8,
     average: 8 / 3,
@@ -48,23 +41,11 @@ function plan(id: number, starter: number): PlanDetail {
     boundSource: 'search',
     bestKnownTotal: 8,
     optimumKnown: true,
-    noShow: null,
-    absence: null,
-    extras: null,
-    coverSize: null,
     elapsedMs: 3,
     people: 4,
     roomVersion: 1,
     currentRoomVersion: 1,
-    stale: false,
     settings: ROOM.settings,
-    chosen: false,
-    notes: [],
-    warnings: [],
-    jobId: null,
-    error: null,
-    createdBy: 'Owner',
-    createdAt: '2026-11-30T09:10:00Z',
     perPerson: ROOM.people.map((p) => ({
       personId: p.id,
       name: p.name,
@@ -82,7 +63,7 @@ function plan(id: number, starter: number): PlanDetail {
       complete: true,
       quantiles: [{ share: 0.9, hop: 2, minutes: 20 }],
     },
-  };
+  });
 }
 
 describe('PlanResult', () => {

@@ -12,60 +12,17 @@ import { MatSelectHarness } from '@angular/material/select/testing';
 import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import type { JobDto, PlanSummary, RehearsalStarted, RehearsalSummary, ServerLimits } from '../../../shared/api/plans';
+import { planSummary } from './plan-fixtures.spec';
 import { FakeEventSource, lastSource, useFakeEventSource } from './fake-event-source.spec';
 import RehearsalPage from './rehearsal-page';
 
-function planSummary(id: number, name: string, over: Partial<PlanSummary> = {}): PlanSummary {
-  return {
-    id,
-    roomId: 5,
-    name,
-    kind: 'computed',
-    status: 'ready',
-    k: 2,
-    methodRequested: 'auto',
-    methodUsed: 'greedy',
-    nu: null,
-    timeLimitSeconds: null,
-    mustBrief: [],
-    cannotBrief: [],
-    starters: [{ personId: 2, name: 'Marek', group: null, order: 1 }],
-    total: 6,
-    average: 1.5,
-    averageMinutes: 15,
-    qualityRank: null,
-    lowerBound: null,
-    gap: null,
-    gapShare: null,
-    certified: false,
-    boundSource: null,
-    bestKnownTotal: 6,
-    optimumKnown: false,
-    noShow: null,
-    absence: null,
-    extras: null,
-    coverSize: null,
-    elapsedMs: 4,
-    people: 6,
-    roomVersion: 3,
-    currentRoomVersion: 3,
-    stale: false,
-    settings: { directed: false, minutesPerHop: 10, laziness: 0, mixing: 0 },
-    chosen: false,
-    notes: [],
-    warnings: [],
-    jobId: null,
-    error: null,
-    createdBy: 'Owner',
-    createdAt: '2026-11-30T09:10:00Z',
-    ...over,
-  };
-}
+const plan = (id: number, name: string, over: Partial<PlanSummary> = {}): PlanSummary =>
+  planSummary({ id, name, starters: [{ personId: 2, name: 'Marek', group: null, order: 1 }], ...over });
 
 const PLANS = [
-  planSummary(1, 'Early draft'),
-  planSummary(2, 'Monday plan', { chosen: true }),
-  planSummary(3, 'Still computing', { status: 'computing', jobId: 4 }),
+  plan(1, 'Early draft'),
+  plan(2, 'Monday plan', { chosen: true }),
+  plan(3, 'Still computing', { status: 'computing', jobId: 4 }),
 ];
 const LIMITS: ServerLimits = { maxCascades: 10000, maxJobsPerUser: 2, workers: 1 };
 
