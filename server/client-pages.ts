@@ -127,17 +127,21 @@ function serverRenderer() {
   const draw = async (path: string, context: unknown): Promise<string | null> => {
     const render = await load();
     if (!render || inFlight >= SERVER_RENDER.maxInFlight) return null;
+    // A render cannot be stopped: one that was given up on still counts until it really ends, so
+    // slow renders never pile up past maxInFlight.
     inFlight++;
+    const rendering = Promise.resolve()
+      .then(() => render(`http://localhost${path}`, context))
+      .finally(() => inFlight--);
     let timer: NodeJS.Timeout | undefined;
     try {
       const late = new Promise<null>((resolve) => (timer = setTimeout(() => resolve(null), SERVER_RENDER.timeoutMs)));
-      return await Promise.race([render(`http://localhost${path}`, context), late]);
+      return await Promise.race([rendering, late]);
     } catch (err) {
       logger.warn({ err }, 'a participant page could not be drawn on the server: it is drawn in the browser');
       return null;
     } finally {
       clearTimeout(timer);
-      inFlight--;
     }
   };
   return Object.assign(draw, { warm: async () => void (await load()) });

@@ -90,6 +90,28 @@ describe('a participant page drawn on the server', () => {
     );
   });
 
+  it('a render given up on still counts until it ends: four slow ones leave the next page to the browser until they are done', async () => {
+    const good = await linkFor('Harbour tour briefing');
+    const slow = await linkFor('Renderer is slow');
+    const drawn = async () => (await (await fetch(`${server.url}/p/${good}`)).text()).includes('Hello, Mira Tollan');
+    assert.ok(await drawn(), 'drawn while nothing else is');
+    // Each of these is answered with the browser's page after 1.5 s; its render goes on to 4 s.
+    const pages = await Promise.all([1, 2, 3, 4].map(async () => (await fetch(`${server.url}/p/${slow}`)).text()));
+    assert.ok(
+      pages.every((html) => !html.includes('Hello,')),
+      'the slow ones were answered without their drawing',
+    );
+    const asked = calls().length;
+    assert.equal(await drawn(), false, 'four renders still run: the next page is drawn in the browser');
+    assert.equal(calls().length, asked, 'and the renderer was not asked');
+    let again = false;
+    for (let i = 0; i < 40 && !again; i++) {
+      await new Promise((r) => setTimeout(r, 250));
+      again = await drawn();
+    }
+    assert.ok(again, 'drawn on the server again once they have ended');
+  });
+
   for (const title of ['Renderer fails', 'Renderer declines', 'Renderer is slow']) {
     it(`falls back to the page drawn in the browser when the renderer ${title.split(' ').slice(1).join(' ')}`, async () => {
       const token = await linkFor(title);
