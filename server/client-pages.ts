@@ -100,19 +100,27 @@ type RenderPage = (url: string, context: unknown) => Promise<string | null>;
 export const SERVER_RENDER = { timeoutMs: 1500, maxInFlight: 4 } as const;
 
 /**
- * The server renderer (src/server.ts as built), loaded on first use and again when a build
- * replaces it; null when the build has none (a test's stand-in client) or it does not load.
+ * The server renderer (src/server.ts as built), loaded once, on first use; null when the build
+ * has none (a test's stand-in client) or it does not load. A build that replaces it while the
+ * server runs is not loaded: the renderer's own modules (its chunks) stay cached under their
+ * names and would be mixed with the new ones, and the old build's files are gone. Pages are then
+ * drawn in the browser, from the new build, until the server restarts.
  */
 function serverRenderer() {
   let loaded: { mtimeMs: number; render: Promise<RenderPage | null> } | undefined;
+  let replaced = false;
   let inFlight = 0;
   const rendererMtime = lookedAtMostEverySecond(() => statSync(rendererFile, { throwIfNoEntry: false })?.mtimeMs);
   const load = (): Promise<RenderPage | null> | null => {
     const mtimeMs = rendererMtime();
-    if (mtimeMs === undefined) return null;
-    if (loaded?.mtimeMs !== mtimeMs) {
-      const url = `${pathToFileURL(rendererFile).href}?v=${mtimeMs}`;
-      const render = import(url).then(
+    if (mtimeMs === undefined || replaced) return null;
+    if (loaded && loaded.mtimeMs !== mtimeMs) {
+      replaced = true;
+      logger.warn('a new build is in place: participant pages are drawn in the browser until the server restarts');
+      return null;
+    }
+    if (!loaded) {
+      const render = import(pathToFileURL(rendererFile).href).then(
         (m: { renderPage?: RenderPage }) => m.renderPage ?? null,
         (err: unknown) => {
           logger.warn({ err }, 'the server renderer did not load: participant pages are drawn in the browser');

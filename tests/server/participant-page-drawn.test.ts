@@ -1,5 +1,5 @@
 import assert from 'node:assert/strict';
-import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, utimesSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { after, before, describe, it } from 'node:test';
@@ -132,5 +132,20 @@ describe('a participant page drawn on the server', () => {
     assert.equal(calls().length, before, 'the renderer was not asked');
     assert.equal(stateBlock(html), undefined);
     assert.ok(html.includes('<app-root'), 'the plain page');
+  });
+  it('a build that replaces the renderer while the server runs is not loaded: pages are then drawn in the browser, never broken', async () => {
+    const token = await linkFor('Harbour tour briefing');
+    const page = async () => (await fetch(`${server.url}/p/${token}`)).text();
+    assert.match(await page(), /Hello, Mira Tollan/, 'drawn before');
+    const later = new Date(Date.now() + 60_000);
+    utimesSync(join(build, 'server', 'server.mjs'), later, later);
+    // The build on disk is looked at once a second.
+    await new Promise((r) => setTimeout(r, 1100));
+    const before = calls().length;
+    const html = await page();
+    assert.equal(calls().length, before, 'the old renderer is not asked');
+    assert.ok(!html.includes('Hello,'), 'not drawn on the server');
+    assert.ok(html.includes('<script src="main-MAIN1111.js" type="module">'), 'the app, drawn in the browser');
+    assert.equal(JSON.parse(stateBlock(html)!).me.name, 'Mira Tollan', 'with its first state');
   });
 });
